@@ -1,0 +1,84 @@
+/** Builds the Express app (no listening here: tests drive it with supertest). */
+import fs from 'node:fs'
+import path from 'node:path'
+import express, { Router, type Express } from 'express'
+import helmet from 'helmet'
+import passport from 'passport'
+import { config } from './config'
+import { csrfProtection } from './middleware/csrf'
+import { errorHandler, notFoundApi } from './middleware/error-handler'
+import { requestLog } from './middleware/request-log'
+import { authorize, type RouteSpec } from './policy/access'
+import { configurePassport } from './modules/auth/passport'
+import { buildRouteTable } from './routes'
+import { createSessionMiddleware } from './lib/session'
+
+export interface AppOptions {
+  /** Window of the failed sign-in limit (15 minutes by default; tests shorten it). */
+  signInWindowMs?: number
+  /** Folder of the built client; served with a fallback to index.html for client routes. */
+  clientDir?: string | null
+}
+
+export interface BuiltApp {
+  app: Express
+  routeTable: RouteSpec[]
+  close: () => Promise<void>
+}
+
+export function createApp(opts: AppOptions = {}): BuiltApp {
+  const cfg = config()
+  const app = express()
+  app.disable('x-powered-by')
+  app.set('trust proxy', cfg.trustProxy)
+  app.set('query parser', 'simple')
+
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        useDefaults: true,
+        directives: {
+          'default-src': ["'self'"],
+          'script-src': ["'self'"],
+          // naive-ui injects its component styles at run time.
+          'style-src': ["'self'", "'unsafe-inline'"],
+          'img-src': ["'self'", 'data:', 'blob:'],
+          'font-src': ["'self'", 'data:'],
+          'connect-src': ["'self'"],
+          'object-src': ["'none'"],
+          'frame-ancestors': ["'none'"],
+          'upgrade-insecure-requests': cfg.https ? [] : null,
+        },
+      },
+      // HSTS only makes sense when the app is really served over HTTPS.
+      strictTransportSecurity: cfg.https ? { maxAge: 15552000, includeSubDomains: true } : false,
+      crossOriginEmbedderPolicy: false,
+    }),
+  )
+  if (cfg.logLevel !== 'silent') app.use('/api', requestLog)
+  app.use('/api', express.json({ limit: '1mb', strict: true }))
+  const session = createSessionMiddleware(cfg)
+  app.use('/api', session.middleware)
+  configurePassport()
+  app.use('/api', passport.initialize(), passport.session())
+  app.use('/api', csrfProtection(cfg.session.cookieName, cfg.origin))
+
+  const routeTable = buildRouteTable({ signInWindowMs: opts.signInWindowMs ?? 15 * 60 * 1000 })
+  const api = Router()
+  for (const route of routeTable) {
+    const handlers = Array.isArray(route.handler) ? route.handler : [route.handler]
+    api[route.method](route.path, authorize(route.access), ...handlers)
+  }
+  app.use(api)
+  app.use('/api', notFoundApi)
+
+  const clientDir = opts.clientDir === undefined ? path.resolve('dist') : opts.clientDir
+  if (clientDir && fs.existsSync(path.join(clientDir, 'index.html'))) {
+    app.use(express.static(clientDir, { index: false, maxAge: '1h', setHeaders: (res, file) => {
+      if (file.includes(`${path.sep}assets${path.sep}`)) res.setHeader('Cache-Control', 'public, max-age=31536000, immutable')
+    } }))
+    app.get('/{*splat}', (_req, res) => res.sendFile(path.join(clientDir, 'index.html')))
+  }
+  app.use(errorHandler)
+  return { app, routeTable, close: session.close }
+}

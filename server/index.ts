@@ -1,0 +1,68 @@
+/** Starts Lampwright: database, mail catcher, HTTP server; stops cleanly on SIGINT/SIGTERM. */
+import { createApp } from './app'
+import { config } from './config'
+import { dataSource } from './data-source'
+import { logger } from './lib/logger'
+import { startMailCatcher, type MailCatcher } from './modules/mail/mail-catcher'
+import { useCatcherPort } from './modules/mail/mail.service'
+import { DEMO_PASSWORD, DEMO_USERS } from './scripts/demo-users'
+
+const cfg = config()
+
+process.on('unhandledRejection', (reason) => logger.error({ err: reason }, 'unhandled rejection'))
+process.on('uncaughtException', (err) => {
+  logger.fatal({ err }, 'uncaught exception')
+  process.exit(1)
+})
+
+async function initializeDatabase() {
+  // Keep trying: the database may still be starting, or briefly away.
+  for (let attempt = 1; ; attempt++) {
+    try {
+      await dataSource.initialize()
+      return
+    } catch (err) {
+      if (attempt >= 30) throw err
+      logger.warn({ attempt }, 'database not reachable yet; retrying')
+      await new Promise((r) => setTimeout(r, 1000))
+    }
+  }
+}
+
+await initializeDatabase()
+let catcher: MailCatcher | null = null
+if (!cfg.mail.smtpUrl) {
+  catcher = await startMailCatcher(cfg.mail.catcherDir, cfg.mail.catcherPort)
+  useCatcherPort(catcher.port)
+}
+const { app, close } = createApp()
+const server = app.listen(cfg.port, cfg.host, () => {
+  const lines = [
+    '',
+    `  Lampwright ${cfg.version} is running at ${cfg.origin}`,
+    `  API health: ${cfg.origin}/api/health`,
+    catcher ? `  Mail is caught locally (SMTP 127.0.0.1:${catcher.port}); owners read it at ${cfg.origin}/outbox` : '  Mail goes to SMTP_URL',
+    '',
+    '  Demo sign-in (password for all: ' + DEMO_PASSWORD + ')',
+    ...DEMO_USERS.map((u) => `    ${u.role.padEnd(10)} ${u.email}`),
+    '',
+    '  Press Ctrl-C to stop.',
+    '',
+  ]
+  process.stdout.write(lines.join('\n') + '\n')
+})
+
+let shuttingDown = false
+async function shutdown(signal: string) {
+  if (shuttingDown) return
+  shuttingDown = true
+  logger.info({ signal }, 'shutting down')
+  server.close()
+  server.closeAllConnections?.()
+  await catcher?.close().catch(() => undefined)
+  await close().catch(() => undefined)
+  await dataSource.destroy().catch(() => undefined)
+  process.exit(0)
+}
+process.on('SIGINT', () => void shutdown('SIGINT'))
+process.on('SIGTERM', () => void shutdown('SIGTERM'))

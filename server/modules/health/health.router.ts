@@ -1,0 +1,22 @@
+import type { Request, Response } from 'express'
+import { APP_VERSION } from '../../config'
+import { dataSource } from '../../data-source'
+import { ENGINE_VERSION } from '../../../shared/engine/version'
+import type { RouteSpec } from '../../policy/access'
+
+async function health(_req: Request, res: Response) {
+  let database: 'reachable' | 'unreachable' = 'unreachable'
+  try {
+    if (dataSource.isInitialized) {
+      await dataSource.query('SELECT 1')
+      database = 'reachable'
+    }
+  } catch {
+    database = 'unreachable'
+  }
+  res.status(database === 'reachable' ? 200 : 503).json({ status: database === 'reachable' ? 'ok' : 'degraded', version: APP_VERSION, engineVersion: ENGINE_VERSION, database })
+}
+
+export const healthRoutes: RouteSpec[] = [
+  { method: 'get', path: '/api/health', access: 'public', summary: 'Version and whether the database answers', handler: health },
+]

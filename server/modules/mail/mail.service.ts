@@ -1,0 +1,45 @@
+/** The one way Lampwright sends mail: nodemailer to SMTP_URL, or to the local catcher. */
+import nodemailer, { type Transporter } from 'nodemailer'
+import { config } from '../../config'
+
+let transport: Transporter | null = null
+let catcherPort: number | null = null
+
+/** Tells the mail layer where the local catcher listens (set at start-up and in tests). */
+export function useCatcherPort(port: number) {
+  catcherPort = port
+  transport = null
+}
+
+function getTransport(): Transporter {
+  if (transport) return transport
+  const smtpUrl = config().mail.smtpUrl
+  transport = smtpUrl
+    ? nodemailer.createTransport(smtpUrl)
+    : nodemailer.createTransport({ host: '127.0.0.1', port: catcherPort ?? config().mail.catcherPort, secure: false, ignoreTLS: true })
+  return transport
+}
+
+export interface OutgoingMail {
+  to: string | string[]
+  subject: string
+  /** Plain-text part; every mail has one. */
+  text: string
+  /** HTML part; every mail has one. */
+  html: string
+}
+
+export async function sendMail(mail: OutgoingMail): Promise<void> {
+  await getTransport().sendMail({ from: config().mail.from, ...mail })
+}
+
+const esc = (s: string) => s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!)
+
+/** Builds both parts of a simple mail: paragraphs and an optional action link. */
+export function composeMail(paragraphs: string[], action?: { label: string; url: string }): { text: string; html: string } {
+  const text = [...paragraphs, ...(action ? [`${action.label}: ${action.url}`] : []), '', '— Lampwright'].join('\n\n')
+  const html = `<div style="font-family:sans-serif;font-size:15px;line-height:1.5">${paragraphs.map((p) => `<p>${esc(p)}</p>`).join('')}${
+    action ? `<p><a href="${esc(action.url)}">${esc(action.label)}</a></p><p style="color:#666;font-size:13px">${esc(action.url)}</p>` : ''
+  }<p style="color:#666">— Lampwright</p></div>`
+  return { text, html }
+}

@@ -1,0 +1,24 @@
+import { Column, CreateDateColumn, Entity, PrimaryGeneratedColumn } from 'typeorm'
+
+@Entity('users')
+export class User {
+  @PrimaryGeneratedColumn('uuid')
+  id!: string
+
+  /** Stored lower-cased; unique. */
+  @Column({ type: 'varchar', length: 254, unique: true })
+  email!: string
+
+  @Column({ type: 'varchar', length: 120 })
+  name!: string
+
+  @Column({ type: 'varchar', length: 100, name: 'password_hash' })
+  passwordHash!: string
+
+  /** 'si' or 'us': how quantities are shown to this user; stored values stay SI. */
+  @Column({ type: 'varchar', length: 8, default: 'si' })
+  units!: string
+
+  @CreateDateColumn({ type: 'timestamptz', name: 'created_at' })
+  createdAt!: Date
+}

@@ -1,0 +1,83 @@
+/**
+ * Who may call what. Every /api route is declared with the least access it needs; this module is the
+ * only place that turns a declaration into checks, and the route table in ../routes.ts is what the
+ * access-control tests walk.
+ */
+import type { NextFunction, Request, RequestHandler, Response } from 'express'
+import { roleAtLeast, type Role } from '../../shared/schemas/roles'
+import { ForbiddenError, UnauthorizedError } from '../errors/app-error'
+import { findMembership, firstMembership } from '../modules/workspaces/workspaces.repository'
+
+/** public: anyone; signed-in: any signed-in user; a role: that role or higher in the current workspace. */
+export type Access = 'public' | 'signed-in' | Role
+
+export type Method = 'get' | 'post' | 'put' | 'patch' | 'delete'
+
+export interface RouteSpec {
+  method: Method
+  /** Express path under /api, e.g. "/api/sheets/:id". */
+  path: string
+  access: Access
+  summary: string
+  handler: RequestHandler | RequestHandler[]
+  /** Middleware that must run before the access check (e.g. multipart parsing is after, so not here). */
+  tags?: string[]
+}
+
+export interface RequestContext {
+  userId: string
+  workspaceId: string | null
+  role: Role | null
+  /** Set when the request was authenticated with an API token rather than a session. */
+  viaToken?: boolean
+}
+
+declare module 'express-serve-static-core' {
+  interface Request {
+    ctx?: RequestContext
+  }
+}
+
+declare module 'express-session' {
+  interface SessionData {
+    workspaceId?: string
+    csrfToken?: string
+  }
+}
+
+/** The signed-in user's id, from the session (passport) or an API token. */
+function currentUserId(req: Request): string | null {
+  if (req.ctx?.userId) return req.ctx.userId
+  const u = req.user as { id?: string } | undefined
+  return u?.id ?? null
+}
+
+export function authorize(access: Access): RequestHandler {
+  return async (req: Request, _res: Response, next: NextFunction) => {
+    if (access === 'public') return next()
+    const userId = currentUserId(req)
+    if (!userId) return next(new UnauthorizedError())
+    if (req.ctx?.viaToken) {
+      // API tokens carry their own workspace and role, fixed when the token was made.
+      if (access !== 'signed-in' && (!req.ctx.role || !roleAtLeast(req.ctx.role, access))) return next(new ForbiddenError())
+      return next()
+    }
+    let membership = req.session?.workspaceId ? await findMembership(req.session.workspaceId, userId) : null
+    if (!membership) {
+      membership = await firstMembership(userId)
+      if (req.session) req.session.workspaceId = membership?.workspaceId
+    }
+    req.ctx = { userId, workspaceId: membership?.workspaceId ?? null, role: membership?.role ?? null }
+    if (access === 'signed-in') return next()
+    if (!membership) return next(new ForbiddenError('You are not a member of any workspace yet.'))
+    if (!roleAtLeast(membership.role, access)) return next(new ForbiddenError())
+    next()
+  }
+}
+
+/** The context of a request that passed `authorize` with a role: workspace and role are set. */
+export function scope(req: Request): { userId: string; workspaceId: string; role: Role } {
+  const ctx = req.ctx
+  if (!ctx?.workspaceId || !ctx.role) throw new ForbiddenError('You are not a member of any workspace yet.')
+  return { userId: ctx.userId, workspaceId: ctx.workspaceId, role: ctx.role }
+}

@@ -1,0 +1,66 @@
+/** zod building blocks for engine inputs: quantities with units, ranges, fractions. */
+import { z } from 'zod'
+import { DIMENSIONS, parseQuantity, type Dimension } from './quantity'
+
+export interface QuantityBounds {
+  /** Smallest allowed value, in the base unit. */
+  min?: number
+  /** Largest allowed value, in the base unit. */
+  max?: number
+  /** Strictly greater than zero. */
+  positive?: boolean
+  /** Human-readable unit for the bound messages, with a factor from the base unit. */
+  display?: { unit: string; factor: number }
+}
+
+/**
+ * A quantity field: accepts a number (base unit) or a string with units and yields the
+ * number in the base unit, or a field error naming the reason.
+ */
+export function quantity(dimension: Dimension, bounds: QuantityBounds = {}) {
+  const show = (v: number) => {
+    const d = bounds.display ?? { unit: DIMENSIONS[dimension].base, factor: 1 }
+    return `${Number((v * d.factor).toPrecision(6))} ${d.unit === 'degC' ? '°C' : d.unit}`
+  }
+  return z.union([z.number(), z.string()], {
+    errorMap: () => ({ message: `must be ${DIMENSIONS[dimension].noun}: a number in ${DIMENSIONS[dimension].base} or a string such as "${DIMENSIONS[dimension].example}"` }),
+  }).transform((raw, ctx): number => {
+    const parsed = parseQuantity(raw, dimension)
+    if (!parsed.ok) {
+      ctx.addIssue({ code: z.ZodIssueCode.custom, message: parsed.reason })
+      return z.NEVER
+    }
+    const v = parsed.value
+    if (bounds.positive && !(v > 0)) {
+      ctx.addIssue({ code: z.ZodIssueCode.custom, message: 'must be greater than zero' })
+      return z.NEVER
+    }
+    if (bounds.min !== undefined && v < bounds.min) {
+      ctx.addIssue({ code: z.ZodIssueCode.custom, message: `must be at least ${show(bounds.min)}` })
+      return z.NEVER
+    }
+    if (bounds.max !== undefined && v > bounds.max) {
+      ctx.addIssue({ code: z.ZodIssueCode.custom, message: `must be at most ${show(bounds.max)}` })
+      return z.NEVER
+    }
+    return v
+  })
+}
+
+/** A plain finite number (counts, ratios), optionally bounded. */
+export function finiteNumber(opts: { min?: number; max?: number; positive?: boolean; int?: boolean } = {}) {
+  let s = z.number({ invalid_type_error: 'must be a number' }).finite('must be a finite number')
+  if (opts.int) s = s.int('must be a whole number')
+  if (opts.positive) s = s.positive('must be greater than zero')
+  if (opts.min !== undefined) s = s.min(opts.min, `must be at least ${opts.min}`)
+  if (opts.max !== undefined) s = s.max(opts.max, `must be at most ${opts.max}`)
+  return z.preprocess((v) => (typeof v === 'string' && v.trim() !== '' && !Number.isNaN(Number(v)) ? Number(v) : v), s)
+}
+
+/** A fraction in (0, 1] (or [0, 1] with allowZero). */
+export function fraction(opts: { allowZero?: boolean } = {}) {
+  return finiteNumber({ min: 0, max: 1 }).refine((v) => opts.allowZero || v > 0, 'must be greater than zero')
+}
+
+/** Ambient temperature in °C, limited to the range the engine's models are valid for. */
+export const ambientTemperature = () => quantity('temperature', { min: -40, max: 85 })

@@ -1,0 +1,106 @@
+/**
+ * Quantities at the engine's edge: a bare number is taken in the field's base unit
+ * (SI: A, A·s, s, V, W, J, Ω, Hz, m, lx, cd; temperature in °C), a string is parsed by
+ * mathjs (`"120 mA"`, `"1.6 Ah"`, `"90 min"`, `"25 degC"`). Inside the engine every
+ * value is a plain number in that base unit, so the hot paths never touch mathjs.
+ */
+import { create, unitDependencies, type Unit } from 'mathjs'
+
+const math = create({ unitDependencies })
+
+// Units the trade uses that mathjs does not ship. Created once, at module load.
+try {
+  math.createUnit('lx', { definition: '1 cd / m^2' } as never)
+  math.createUnit('fc', { definition: '10.763910416709722 lx' } as never)
+} catch {
+  // already defined (module evaluated twice under some test runners)
+}
+
+export type Dimension =
+  | 'current'
+  | 'charge'
+  | 'time'
+  | 'temperature'
+  | 'voltage'
+  | 'power'
+  | 'apparentPower'
+  | 'energy'
+  | 'resistance'
+  | 'frequency'
+  | 'length'
+  | 'illuminance'
+  | 'luminousIntensity'
+
+interface DimensionSpec {
+  /** Unit a bare number is read in, and the unit the engine works in. */
+  base: string
+  /** A reference quantity with the right dimension, for the dimension check. */
+  probe: string
+  /** Words for error messages. */
+  noun: string
+  example: string
+}
+
+export const DIMENSIONS: Record<Dimension, DimensionSpec> = {
+  current: { base: 'A', probe: '1 A', noun: 'a current', example: '120 mA' },
+  charge: { base: 'C', probe: '1 C', noun: 'a charge (capacity)', example: '1.6 Ah' },
+  time: { base: 's', probe: '1 s', noun: 'a time', example: '90 min' },
+  temperature: { base: 'degC', probe: '1 K', noun: 'a temperature', example: '25 degC' },
+  voltage: { base: 'V', probe: '1 V', noun: 'a voltage', example: '3.6 V' },
+  power: { base: 'W', probe: '1 W', noun: 'a power', example: '4 W' },
+  apparentPower: { base: 'VA', probe: '1 VA', noun: 'an apparent power', example: '6 VA' },
+  energy: { base: 'J', probe: '1 J', noun: 'an energy', example: '5 Wh' },
+  resistance: { base: 'ohm', probe: '1 ohm', noun: 'a resistance', example: '47 ohm' },
+  frequency: { base: 'Hz', probe: '1 Hz', noun: 'a frequency', example: '50 Hz' },
+  length: { base: 'm', probe: '1 m', noun: 'a length', example: '2.5 m' },
+  illuminance: { base: 'lx', probe: '1 lx', noun: 'an illuminance', example: '1 lx' },
+  luminousIntensity: { base: 'cd', probe: '1 cd', noun: 'a luminous intensity', example: '100 cd' },
+}
+
+export type ParseResult = { ok: true; value: number } | { ok: false; reason: string }
+
+/** Parse a number or a string with units into the dimension's base unit. */
+export function parseQuantity(input: unknown, dimension: Dimension): ParseResult {
+  const spec = DIMENSIONS[dimension]
+  if (typeof input === 'number') {
+    if (!Number.isFinite(input)) return { ok: false, reason: 'must be a finite number' }
+    return { ok: true, value: input }
+  }
+  if (typeof input !== 'string') {
+    return { ok: false, reason: `must be a number in ${spec.base} or a string with units, e.g. "${spec.example}"` }
+  }
+  const text = input.trim().replace(/°\s*C\b/g, 'degC').replace(/°\s*F\b/g, 'degF').replace(/Ω/g, 'ohm')
+  if (text === '') return { ok: false, reason: 'is required' }
+  // A bare numeric string is read like a bare number.
+  if (/^[+-]?(\d+\.?\d*|\.\d+)(e[+-]?\d+)?$/i.test(text)) {
+    const n = Number(text)
+    return Number.isFinite(n) ? { ok: true, value: n } : { ok: false, reason: 'must be a finite number' }
+  }
+  if (/^[+-]?(nan|infinity|inf)$/i.test(text)) return { ok: false, reason: 'must be a finite number' }
+  let unit: Unit
+  try {
+    unit = math.unit(text) as Unit
+  } catch {
+    return { ok: false, reason: `"${input}" is not a quantity we can read; write it like "${spec.example}"` }
+  }
+  if ((unit as unknown as { value: unknown }).value === null || (unit as unknown as { value: unknown }).value === undefined) {
+    return { ok: false, reason: `needs a number before the unit, e.g. "${spec.example}"` }
+  }
+  if (!unit.equalBase(math.unit(spec.probe))) {
+    return { ok: false, reason: `"${input}" is not ${spec.noun}; write it like "${spec.example}"` }
+  }
+  const value = unit.toNumber(spec.base)
+  if (!Number.isFinite(value)) return { ok: false, reason: 'must be a finite number' }
+  return { ok: true, value }
+}
+
+/** Convert a number between two units with mathjs (used at the edges and as a test reference). */
+export function convert(value: number, from: string, to: string): number {
+  return (math.unit(value, from) as Unit).toNumber(to)
+}
+
+/** Format a base-unit number for display, e.g. formatQuantity(0.12, 'A', 'mA') → "120 mA". */
+export function formatQuantity(value: number, unit: string, digits = 3): string {
+  const rounded = Number(value.toPrecision(digits))
+  return `${rounded} ${unit}`
+}

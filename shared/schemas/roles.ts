@@ -1,0 +1,22 @@
+import { z } from 'zod'
+
+/** Workspace roles in rising order: each can do everything the one before can. */
+export const ROLES = ['viewer', 'technician', 'designer', 'owner'] as const
+export const RoleSchema = z.enum(ROLES)
+export type Role = z.infer<typeof RoleSchema>
+
+export function roleRank(role: Role): number {
+  return ROLES.indexOf(role)
+}
+
+/** True when `role` is at least `least`. */
+export function roleAtLeast(role: Role, least: Role): boolean {
+  return roleRank(role) >= roleRank(least)
+}
+
+export const ROLE_LABELS: Record<Role, string> = {
+  viewer: 'Viewer: reads everything in the workspace',
+  technician: 'Technician: also records tests and uploads logs',
+  designer: 'Designer: also edits specifications, sites and luminaire data',
+  owner: 'Owner: also manages members and the workspace',
+}
