@@ -18,10 +18,37 @@ export default defineConfig({
   },
   build: { outDir: 'dist', sourcemap: false, chunkSizeWarningLimit: 900 },
   test: {
+    coverage: {
+      provider: 'v8',
+      include: ['shared/engine/**/*.ts'],
+      reporter: ['text-summary', 'text'],
+      reportsDirectory: 'coverage',
+      thresholds: { lines: 95 },
+    },
     projects: [
       {
         extends: true,
         test: { name: 'shared', include: ['tests/shared/**/*.test.ts'], environment: 'node' },
+      },
+      {
+        extends: true,
+        test: {
+          name: 'server',
+          include: ['tests/server/**/*.test.ts'],
+          environment: 'node',
+          // One database: API test files run one after another.
+          fileParallelism: false,
+          testTimeout: 30000,
+          hookTimeout: 60000,
+        },
+      },
+      {
+        extends: true,
+        test: { name: 'client', include: ['tests/client/**/*.test.ts'], environment: 'happy-dom' },
+      },
+      {
+        extends: true,
+        test: { name: 'e2e', include: ['tests/e2e/**/*.test.ts'], environment: 'node', fileParallelism: false, testTimeout: 120000, hookTimeout: 120000 },
       },
     ],
   },

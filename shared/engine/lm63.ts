@@ -380,3 +380,38 @@ export function intensityAt(table: IntensityTable, cDeg: number, gammaDeg: numbe
   const lo = rowAt(table, k, gamma)
   return lo + f * (rowAt(table, k + 1, gamma) - lo)
 }
+
+/**
+ * Checks a hand-entered intensity table against the same rules as a type C file: ascending
+ * angles, the allowed ranges, one row per horizontal angle with one value per vertical angle.
+ * Returns the first problem with its path inside the table, or null.
+ */
+export function checkIntensityTable(table: IntensityTable): { path: Array<string | number>; message: string } | null {
+  const { verticalAngles: va, horizontalAngles: ha, candela } = table
+  for (const [name, angles] of [['verticalAngles', va], ['horizontalAngles', ha]] as const) {
+    for (let k = 1; k < angles.length; k++) {
+      if (!(angles[k] > angles[k - 1])) return { path: [name, k], message: `angles must be in ascending order: ${angles[k]} follows ${angles[k - 1]}` }
+    }
+  }
+  const vFirst = va[0]
+  const vLast = va[va.length - 1]
+  if (!(vFirst === 0 || vFirst === 90) || !(vLast === 90 || vLast === 180)) {
+    return { path: ['verticalAngles'], message: `must run 0–90, 90–180 or 0–180 degrees from straight down; these run ${vFirst}–${vLast}` }
+  }
+  const hFirst = ha[0]
+  const hLast = ha[ha.length - 1]
+  const validRange =
+    (hFirst === 0 && (hLast === 0 || hLast === 90 || hLast === 180 || (hLast > 180 && hLast <= 360))) || (hFirst === 90 && hLast === 270)
+  if (!validRange) {
+    return { path: ['horizontalAngles'], message: `must start at 0 and end at 0, 90, 180 or above 180 up to 360 (or run 90–270); these run ${hFirst}–${hLast}` }
+  }
+  if (candela.length !== ha.length) {
+    return { path: ['candela'], message: `needs one row per horizontal angle: ${ha.length} angles but ${candela.length} rows` }
+  }
+  for (let r = 0; r < candela.length; r++) {
+    if (candela[r].length !== va.length) {
+      return { path: ['candela', r], message: `needs one value per vertical angle: ${va.length} angles but ${candela[r].length} values` }
+    }
+  }
+  return null
+}

@@ -14,6 +14,7 @@ import {
   type AuditResult,
 } from '../../../shared/engine/audit'
 import { runTool } from '../../../shared/engine/tool'
+import { tools } from '../../../shared/engine/registry'
 
 /** A plausible bench record for an invented 4 W maintained bulkhead. */
 const base = {
@@ -369,5 +370,12 @@ describe('robustness', () => {
   it('computeAudit works on parsed input directly', () => {
     const parsed = auditInput.parse(base)
     expect(computeAudit(parsed).measuredPowerW).toBeCloseTo(4.1, 12)
+  })
+})
+
+describe('registry', () => {
+  it('exposes the tool by name', () => {
+    expect(tools.audit).toBe(auditTool)
+    expect(tools.audit.name).toBe('audit')
   })
 })

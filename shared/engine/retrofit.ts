@@ -1,0 +1,628 @@
+/**
+ * Trickle retrofit: plan a gentler trickle current for an installed self-contained luminaire by
+ * adding a resistor in the battery lead, with a diode across it that carries the discharge current.
+ *
+ * Model, stated once:
+ * - The charger, seen from the battery lead, is a Thévenin source: open-circuit voltage V_oc behind
+ *   an internal resistance R_int. Charge current I = (V_oc − V_pack) / (R_int + R_series).
+ * - The two readings (the present current at the full-charge battery voltage, plus either the current
+ *   with a known test resistor added or the open-circuit voltage) fix V_oc and R_int. The battery
+ *   voltage is taken as unchanged during the test-resistor reading.
+ * - Pack voltage rises linearly with state of charge, from the chemistry's cut-off voltage (× cells)
+ *   when empty to the measured full-charge voltage when full. Recharge time is integrated over it.
+ */
+import { z } from 'zod'
+import { finiteNumber, quantity } from './fields'
+import { defineTool } from './tool'
+import { sortWarnings, type EngineWarning, type Reference, type WorkingStep, type WorkingValue } from './types'
+import { CHEMISTRY_IDS, getChemistry, type Chemistry } from './chemistries'
+import { nearestPreferred, resistorRatingFor, type ESeriesName } from './resistor-series'
+
+// ---------------------------------------------------------------------------------------------
+// Sources and constants
+// ---------------------------------------------------------------------------------------------
+
+const OHM: Reference = { source: "Ohm's law, I = V / R", basis: 'published' }
+const THEVENIN: Reference = { source: "Thévenin's theorem: a linear source seen from two terminals is V_oc in series with R_int", basis: 'published' }
+const JOULE: Reference = { source: "Joule's law, P = I²·R", basis: 'published' }
+const IEC_60063: Reference = { source: 'IEC 60063:2015, preferred number series E12 and E24', basis: 'published' }
+const RATING_MARGIN: Reference = {
+  source: 'Resistor power rating at least twice the worst-case dissipation, next stocked rating',
+  basis: 'common practice',
+}
+const RECHARGE_24H: Reference = {
+  source: 'IEC 60598-2-22: rated duration must be reached after a 24 h recharge',
+  basis: 'from memory',
+  note: 'the 24 h charge before the duration test is found in IEC 61347-2-7, clause 20; the luminaire clause is recalled',
+}
+const LINEAR_MODEL: Reference = {
+  source: 'Pack voltage taken as linear in state of charge between cut-off and full charge (simplification)',
+  basis: 'derived',
+}
+const DIODE_DROP: Reference = {
+  source: 'Forward voltage at the discharge current: silicon ≈ 0.7 V, Schottky ≈ 0.35 V',
+  basis: 'common practice',
+}
+
+/** Typical forward voltages at emergency discharge currents (common practice). */
+export const DIODE_FORWARD_VOLTAGE: Record<'silicon' | 'schottky', number> = { silicon: 0.7, schottky: 0.35 }
+
+/** Margin applied to the worst-case dissipation before choosing a rating (common practice). */
+export const RESISTOR_RATING_MARGIN = 2
+
+/** Integration steps in state of charge for the recharge time. */
+export const RECHARGE_STEPS = 2000
+
+/** Chemistries charged to a voltage limit rather than by a constant trickle. */
+const VOLTAGE_LIMITED: ReadonlyArray<string> = ['lead-acid', 'lifepo4', 'li-ion']
+
+// ---------------------------------------------------------------------------------------------
+// Pure formulas
+// ---------------------------------------------------------------------------------------------
+
+export type SecondReading =
+  | { kind: 'test-resistor'; resistance: number; current: number }
+  | { kind: 'open-circuit'; voltage: number }
+
+export type TheveninFit =
+  | { ok: true; openCircuitV: number; internalResistanceOhm: number }
+  | { ok: false; path: Array<string>; message: string }
+
+/**
+ * Fit the charger's Thévenin source from the present current at the battery voltage and a second
+ * reading. With a test resistor R_t: V_oc − V_b = I₁·R_int = I₂·(R_int + R_t) → R_int = I₂·R_t/(I₁ − I₂).
+ * With the open-circuit voltage: R_int = (V_oc − V_b)/I₁.
+ */
+export function fitChargerThevenin(presentCurrentA: number, batteryVoltageV: number, second: SecondReading): TheveninFit {
+  if (second.kind === 'test-resistor') {
+    const I1 = presentCurrentA
+    const I2 = second.current
+    if (I2 === I1) {
+      return {
+        ok: false,
+        path: ['secondReading', 'current'],
+        message:
+          'the current did not fall with the test resistor: the charger behaves as a constant-current source (infinite internal resistance), so a series resistor will not lower its trickle current',
+      }
+    }
+    if (I2 > I1) {
+      return {
+        ok: false,
+        path: ['secondReading', 'current'],
+        message: 'is higher than trickleCurrent: adding resistance cannot raise the current (it would mean a negative internal resistance); check both readings',
+      }
+    }
+    const internalResistanceOhm = (I2 * second.resistance) / (I1 - I2)
+    return { ok: true, internalResistanceOhm, openCircuitV: batteryVoltageV + I1 * internalResistanceOhm }
+  }
+  if (second.voltage <= batteryVoltageV) {
+    return {
+      ok: false,
+      path: ['secondReading', 'voltage'],
+      message:
+        second.voltage === batteryVoltageV
+          ? 'equals batteryVoltage: no current could flow (zero driving voltage); check the readings'
+          : 'is below batteryVoltage: the charger could not push current into the battery (negative internal resistance); check the readings',
+    }
+  }
+  return { ok: true, openCircuitV: second.voltage, internalResistanceOhm: (second.voltage - batteryVoltageV) / presentCurrentA }
+}
+
+/** Charge current from a Thévenin source into a pack at `packV` through `totalOhm` (never negative). */
+export function chargeCurrent(openCircuitV: number, packV: number, totalOhm: number): number {
+  return Math.max(0, (openCircuitV - packV) / totalOhm)
+}
+
+export interface RechargeModel {
+  openCircuitV: number
+  /** R_int + added series resistance, Ω. */
+  totalResistanceOhm: number
+  /** Pack voltage at full charge (top of the linear model), V; must be below openCircuitV. */
+  packFullV: number
+  /** Pack voltage when empty (cut-off × cells), V. */
+  packEmptyV: number
+  capacityAh: number
+  /** Charge taken out by the discharge, Ah (at most capacityAh). */
+  dischargedAh: number
+  /** Ah to put in per Ah taken out. */
+  chargeFactor: number
+  steps?: number
+}
+
+/**
+ * Hours to restore the charge taken out, integrating in fixed state-of-charge steps (midpoint rule):
+ * dt = k·C·dq / I(V(q)), V(q) linear between empty and full, I from the Thévenin source. The
+ * current falls as the pack voltage rises, so this is longer than k·Q / I_start.
+ */
+export function rechargeTimeHours(m: RechargeModel): number {
+  const steps = m.steps ?? RECHARGE_STEPS
+  const q0 = Math.max(0, 1 - m.dischargedAh / m.capacityAh)
+  const dq = (1 - q0) / steps
+  let hours = 0
+  for (let i = 0; i < steps; i += 1) {
+    const q = q0 + (i + 0.5) * dq
+    const v = m.packEmptyV + (m.packFullV - m.packEmptyV) * q
+    hours += (m.chargeFactor * m.capacityAh * dq) / chargeCurrent(m.openCircuitV, v, m.totalResistanceOhm)
+  }
+  return hours
+}
+
+/**
+ * The largest added resistance whose recharge time stays within `limitH`, by bisection (recharge time
+ * rises with resistance). Assumes `rechargeFor(0)` is within the limit.
+ */
+export function largestResistanceWithin(limitH: number, rechargeFor: (addedOhm: number) => number): number {
+  let low = 0
+  let high = 1
+  while (rechargeFor(high) <= limitH && high < 1e9) high *= 2
+  for (let i = 0; i < 50 && high - low > 1e-6 * high; i += 1) {
+    const mid = (low + high) / 2
+    if (rechargeFor(mid) <= limitH) low = mid
+    else high = mid
+  }
+  return low
+}
+
+/**
+ * Runtime change when the load's cut-off, seen at the battery, rises by the diode drop. With pack
+ * voltage linear in charge, the charge left unused is V_f / (V_full − V_empty) of the total.
+ */
+export function runtimeChangePctFor(diodeDropV: number, packFullV: number, packEmptyV: number): number {
+  return -100 * Math.min(1, diodeDropV / (packFullV - packEmptyV))
+}
+
+// ---------------------------------------------------------------------------------------------
+// Input
+// ---------------------------------------------------------------------------------------------
+
+const secondReadingInput = z.discriminatedUnion(
+  'kind',
+  [
+    z.object({
+      kind: z.literal('test-resistor'),
+      /** Known resistance added in series for the reading, Ω. */
+      resistance: quantity('resistance', { positive: true }),
+      /** Charge current measured with it in place, A. */
+      current: quantity('current', { positive: true }),
+    }),
+    z.object({
+      kind: z.literal('open-circuit'),
+      /** Charger output voltage with the battery disconnected, V. */
+      voltage: quantity('voltage', { positive: true }),
+    }),
+  ],
+  { errorMap: () => ({ message: 'must be { kind: "test-resistor", resistance, current } or { kind: "open-circuit", voltage }' }) },
+)
+
+export const retrofitInput = z
+  .object({
+    chemistry: z.enum(CHEMISTRY_IDS, { errorMap: () => ({ message: `must be one of ${CHEMISTRY_IDS.join(', ')}` }) }),
+    cellsInSeries: finiteNumber({ int: true, min: 1, max: 60 }),
+    /** Rated capacity (e.g. "4 Ah"); a bare number is read in coulombs (A·s). */
+    capacity: quantity('charge', { positive: true }),
+    /** Present trickle current, measured with the pack at full charge. */
+    trickleCurrent: quantity('current', { positive: true }),
+    /** Pack voltage at full charge with the present trickle current flowing. */
+    batteryVoltage: quantity('voltage', { positive: true }),
+    secondReading: secondReadingInput,
+    targetTrickleRateC: finiteNumber({ positive: true, max: 1 }).optional(),
+    targetTrickleCurrent: quantity('current', { positive: true }).optional(),
+    /** When true (default) the plan must lower the current. */
+    reduce: z.boolean({ invalid_type_error: 'must be true or false' }).default(true),
+    diodeForwardVoltage: quantity('voltage', { positive: true, max: 2 }).optional(),
+    diodeType: z.enum(['silicon', 'schottky'], { errorMap: () => ({ message: 'must be "silicon" or "schottky"' }) }).optional(),
+    /** Battery current in emergency operation. */
+    dischargeCurrent: quantity('current', { positive: true }),
+    /** Rated duration (e.g. "3 h"); a bare number is read in seconds. */
+    duration: quantity('time', { positive: true }),
+    /** Current below which the charge indicator goes out, if known. */
+    chargeIndicatorThreshold: quantity('current', { positive: true }).optional(),
+  })
+  .superRefine((input, ctx) => {
+    // Fields that failed their own checks already carry an error; cross-checks need them all sound.
+    const numbers = [input.cellsInSeries, input.capacity, input.trickleCurrent, input.batteryVoltage, ...Object.values(input.secondReading)]
+    if (numbers.some((v) => typeof v !== 'string' && !(typeof v === 'number' && Number.isFinite(v)))) return
+    const chemistry = getChemistry(input.chemistry)
+    const emptyV = chemistry.cutoffCellVoltage.value * input.cellsInSeries
+    if (input.batteryVoltage <= emptyV) {
+      ctx.addIssue({
+        code: z.ZodIssueCode.custom,
+        path: ['batteryVoltage'],
+        message: `is at or below the cut-off voltage of ${input.cellsInSeries} ${chemistry.name} cells (${Number(emptyV.toPrecision(4))} V), so it cannot be a full-charge reading; check cellsInSeries and chemistry`,
+      })
+    }
+    const fit = fitChargerThevenin(input.trickleCurrent, input.batteryVoltage, input.secondReading)
+    if (!fit.ok) ctx.addIssue({ code: z.ZodIssueCode.custom, path: fit.path, message: fit.message })
+
+    const hasRate = input.targetTrickleRateC !== undefined
+    const hasCurrent = input.targetTrickleCurrent !== undefined
+    if (hasRate === hasCurrent) {
+      ctx.addIssue({
+        code: z.ZodIssueCode.custom,
+        path: [hasRate ? 'targetTrickleRateC' : 'targetTrickleCurrent'],
+        message: hasRate ? 'give either targetTrickleRateC or targetTrickleCurrent, not both' : 'give the target as targetTrickleCurrent or targetTrickleRateC',
+      })
+      return
+    }
+    const target = input.targetTrickleCurrent ?? (input.targetTrickleRateC as number) * (input.capacity / 3600)
+    if (input.reduce && target > input.trickleCurrent) {
+      ctx.addIssue({
+        code: z.ZodIssueCode.custom,
+        path: [hasRate ? 'targetTrickleRateC' : 'targetTrickleCurrent'],
+        message: `asks for ${Number((target * 1000).toPrecision(4))} mA, above the present ${Number((input.trickleCurrent * 1000).toPrecision(4))} mA; a series resistor can only lower the current (set reduce to false to check a plan anyway)`,
+      })
+    }
+  })
+
+export type RetrofitInput = z.output<typeof retrofitInput>
+
+// ---------------------------------------------------------------------------------------------
+// Result
+// ---------------------------------------------------------------------------------------------
+
+export interface SeriesPick {
+  series: ESeriesName
+  ohm: number
+  /** Trickle current at full charge with this resistor, A. */
+  currentA: number
+  trickleCRate: number
+  /** Dissipation at the start of a recharge (pack at cut-off, highest current), W. */
+  dissipationW: number
+  /** Dissipation at the steady trickle, W. */
+  dissipationAtTrickleW: number
+  /** Stocked rating ≥ 2 × worst-case dissipation, W; null when above the largest listed (5 W). */
+  ratingW: number | null
+  rechargeTimeH: number
+}
+
+export interface RetrofitResult {
+  chargerOpenCircuitV: number
+  chargerInternalResistanceOhm: number
+  presentTrickleCRate: number
+  targetCurrentA: number
+  /** Exact series resistance for the target current, Ω (null when no resistor can reach it). */
+  seriesResistanceOhm: number | null
+  e12: SeriesPick | null
+  e24: SeriesPick | null
+  /** Worst-case dissipation of the E24 resistor (start of a recharge), W. */
+  resistorDissipationW: number | null
+  resistorRatingW: number | null
+  /** Trickle C-rate with the E24 resistor (the present rate when no resistor is fitted). */
+  newTrickleCRate: number
+  trickleWithinLimit: boolean
+  permittedTrickleRangeC: { min: number; max: number }
+  rechargeTimeBeforeH: number
+  rechargeTimeAfterH: number
+  rechargeWithin24h: boolean
+  /** Largest added resistance that still recharges within 24 h, Ω (null when it already takes longer). */
+  maxSeriesResistanceFor24hOhm: number | null
+  diodeForwardV: number
+  diodeDissipationW: number
+  /** Voltage at the load on battery, at the nominal pack voltage, V. */
+  loadVoltageOnBatteryV: number
+  effectiveCutoffCellV: number
+  runtimeChangePct: number
+  indicatorMayGoOut: boolean | null
+  cautions: string[]
+  warnings: EngineWarning[]
+  working: WorkingStep[]
+}
+
+// ---------------------------------------------------------------------------------------------
+// The plan
+// ---------------------------------------------------------------------------------------------
+
+function fmt(value: number, digits = 3): string {
+  return String(Number(value.toPrecision(digits)))
+}
+
+function val(symbol: string, label: string, value: number, unit: string): WorkingValue {
+  return { symbol, label, value, unit }
+}
+
+export const RETROFIT_CAUTIONS: readonly string[] = [
+  'Modifying a certified emergency luminaire can void its certification and warranty and may breach the product standard it was approved to; the person who modifies it takes on that responsibility.',
+  'Only a competent, licensed person should do this work, with the mains isolated and locked off and the battery disconnected first: a pack can deliver a high current into a short.',
+  'After any change, recharge fully and repeat the full rated-duration test, and record it in the log book.',
+  'These figures are engineering estimates; the standards in force, local codes and a competent person decide whether the change is acceptable.',
+]
+
+export function planRetrofit(input: RetrofitInput): RetrofitResult {
+  const warnings: EngineWarning[] = []
+  const working: WorkingStep[] = []
+  const chem: Chemistry = getChemistry(input.chemistry)
+  const cells = input.cellsInSeries
+  const capacityAh = input.capacity / 3600
+  const I1 = input.trickleCurrent
+  const Vb = input.batteryVoltage
+
+  // --- Charger as a Thévenin source (validated by the schema).
+  const fit = fitChargerThevenin(I1, Vb, input.secondReading)
+  if (!fit.ok) throw new Error(`planRetrofit needs validated input: ${fit.message}`)
+  const Voc = fit.openCircuitV
+  const Rint = fit.internalResistanceOhm
+  const second = input.secondReading
+  working.push({
+    id: 'chargerThevenin',
+    label: 'Charger as a Thévenin source',
+    formula: second.kind === 'test-resistor' ? 'R_int = I₂·R_t / (I₁ − I₂);  V_oc = V_b + I₁·R_int' : 'R_int = (V_oc − V_b) / I₁',
+    explanation:
+      'Seen from the battery lead, the charger is modelled as an open-circuit voltage behind an internal resistance. ' +
+      (second.kind === 'test-resistor'
+        ? 'The present current and the current with a known resistor added fix both, taking the battery voltage as unchanged between the two readings.'
+        : 'The open-circuit voltage is read directly; the internal resistance follows from the present current at the full-charge battery voltage.'),
+    inputs: [
+      val('I₁', 'present trickle current', I1, 'A'),
+      val('V_b', 'battery voltage at full charge', Vb, 'V'),
+      ...(second.kind === 'test-resistor'
+        ? [val('R_t', 'test resistance', second.resistance, 'Ω'), val('I₂', 'current with test resistor', second.current, 'A')]
+        : [val('V_oc', 'open-circuit voltage', second.voltage, 'V')]),
+    ],
+    result: val('R_int', 'charger internal resistance', Rint, 'Ω'),
+    references: [THEVENIN, OHM],
+  })
+
+  // --- Sanity of the pack reading against the chemistry.
+  const expectedFullV = chem.fullChargeCellVoltage.value * cells
+  if (Math.abs(Vb / expectedFullV - 1) > 0.1) {
+    warnings.push({
+      code: 'battery-voltage-unexpected',
+      severity: 'warning',
+      field: 'batteryVoltage',
+      message: `batteryVoltage (${fmt(Vb)} V) is more than 10 % from the ${fmt(expectedFullV)} V expected for ${cells} ${chem.name} cells at full charge; check cellsInSeries and chemistry.`,
+    })
+  }
+  if (VOLTAGE_LIMITED.includes(chem.id)) {
+    warnings.push({
+      code: chem.continuousChargeRangeC.value.max === 0 ? 'no-trickle-chemistry' : 'voltage-limited-chemistry',
+      severity: chem.continuousChargeRangeC.value.max === 0 ? 'critical' : 'warning',
+      field: 'chemistry',
+      message:
+        chem.continuousChargeRangeC.value.max === 0
+          ? `${chem.name} tolerates no continuous charge at full voltage; a resistor does not make a trickle charger safe for it. Use the charger designed for the cells.`
+          : `${chem.name} is charged to a voltage limit (float), not by a constant trickle; a series resistor lowers the float voltage it reaches, and the current-source model here describes it poorly.`,
+    })
+  }
+
+  // --- Target and series resistance.
+  const targetA = input.targetTrickleCurrent ?? (input.targetTrickleRateC as number) * capacityAh
+  const drive = Voc - Vb
+  const exactR = drive / targetA - Rint
+  const presentRate = I1 / capacityAh
+  const range = chem.continuousChargeRangeC.value
+  const resistorPossible = exactR > 1e-9 * Math.max(1, Rint)
+  working.push({
+    id: 'seriesResistance',
+    label: 'Series resistance for the target current',
+    formula: 'R_s = (V_oc − V_b) / I_target − R_int',
+    explanation: 'The added resistance that brings the full-charge trickle current down to the target.',
+    inputs: [val('V_oc', 'open-circuit voltage', Voc, 'V'), val('V_b', 'battery voltage at full charge', Vb, 'V'), val('I_target', 'target trickle current', targetA, 'A'), val('R_int', 'internal resistance', Rint, 'Ω')],
+    result: val('R_s', 'series resistance', exactR, 'Ω'),
+    references: [OHM],
+  })
+
+  // --- Recharge after a full rated-duration discharge.
+  const durationH = input.duration / 3600
+  let dischargedAh = input.dischargeCurrent * durationH
+  if (dischargedAh > capacityAh) {
+    warnings.push({
+      code: 'discharge-exceeds-capacity',
+      severity: 'critical',
+      field: 'dischargeCurrent',
+      message: `dischargeCurrent × duration (${fmt(dischargedAh)} Ah) is more than the rated capacity (${fmt(capacityAh)} Ah): the rated duration cannot be met; recharge is worked from empty.`,
+    })
+    dischargedAh = capacityAh
+  }
+  const emptyV = chem.cutoffCellVoltage.value * cells
+  const rechargeFor = (addedOhm: number) =>
+    rechargeTimeHours({
+      openCircuitV: Voc,
+      totalResistanceOhm: Rint + addedOhm,
+      packFullV: Vb,
+      packEmptyV: emptyV,
+      capacityAh,
+      dischargedAh,
+      chargeFactor: chem.chargeFactor.value,
+    })
+  const rechargeTimeBeforeH = rechargeFor(0)
+  const maxSeriesResistanceFor24hOhm = rechargeTimeBeforeH > 24 ? null : largestResistanceWithin(24, rechargeFor)
+
+  const pick = (series: ESeriesName): SeriesPick => {
+    const ohm = nearestPreferred(exactR, series)
+    const currentA = chargeCurrent(Voc, Vb, Rint + ohm)
+    const startCurrentA = chargeCurrent(Voc, emptyV, Rint + ohm)
+    const dissipationW = startCurrentA ** 2 * ohm
+    return {
+      series,
+      ohm,
+      currentA,
+      trickleCRate: currentA / capacityAh,
+      dissipationW,
+      dissipationAtTrickleW: currentA ** 2 * ohm,
+      ratingW: resistorRatingFor(dissipationW, RESISTOR_RATING_MARGIN),
+      rechargeTimeH: rechargeFor(ohm),
+    }
+  }
+
+  let e12: SeriesPick | null = null
+  let e24: SeriesPick | null = null
+  if (resistorPossible) {
+    e12 = pick('E12')
+    e24 = pick('E24')
+    working.push({
+      id: 'standardResistor',
+      label: 'Nearest preferred value (E24)',
+      formula: 'R = nearest E24 value to R_s;  I = (V_oc − V_b) / (R_int + R)',
+      explanation: 'The preferred value nearest by ratio to the exact resistance, and the trickle current it gives. The E12 choice is listed beside it.',
+      inputs: [val('R_s', 'exact series resistance', exactR, 'Ω')],
+      result: val('I_new', 'new trickle current', e24.currentA, 'A'),
+      references: [IEC_60063, OHM],
+    })
+    working.push({
+      id: 'resistorDissipation',
+      label: 'Resistor dissipation and rating',
+      formula: 'P = I_start² · R,  I_start = (V_oc − V_empty) / (R_int + R);  rating ≥ 2 · P',
+      explanation:
+        'The resistor runs hottest at the start of a recharge, when the pack is at its cut-off voltage and the current is highest; the rating is the next stocked value at least twice that.',
+      inputs: [val('R', 'E24 resistance', e24.ohm, 'Ω'), val('V_empty', 'pack voltage at cut-off', emptyV, 'V')],
+      result: val('P', 'worst-case dissipation', e24.dissipationW, 'W'),
+      references: [JOULE, RATING_MARGIN],
+    })
+    if (e24.ratingW === null) {
+      warnings.push({
+        code: 'resistor-too-hot',
+        severity: 'critical',
+        message: `The resistor would dissipate up to ${fmt(e24.dissipationW)} W; with margin that is above the largest rating listed (5 W). A resistor is the wrong tool here: the heat inside the luminaire would be a hazard.`,
+      })
+    }
+  } else if (exactR < 0) {
+    warnings.push({
+      code: 'cannot-raise-current',
+      severity: 'critical',
+      field: input.targetTrickleCurrent !== undefined ? 'targetTrickleCurrent' : 'targetTrickleRateC',
+      message: 'The target is above the present trickle current; a series resistor can only lower it. The figures below are for the luminaire as it is.',
+    })
+  } else {
+    warnings.push({
+      code: 'no-resistor-needed',
+      severity: 'info',
+      message: 'The target equals the present trickle current, so no resistor is needed.',
+    })
+  }
+
+  const newCurrentA = e24?.currentA ?? I1
+  const newTrickleCRate = newCurrentA / capacityAh
+  const trickleWithinLimit = newTrickleCRate >= range.min && newTrickleCRate <= range.max
+  working.push({
+    id: 'trickleRate',
+    label: 'New trickle rate against the permitted continuous range',
+    formula: 'rate = I_new / C',
+    explanation: `The continuous (trickle) charge the cells tolerate, from the chemistry data: ${fmt(range.min)} C to ${fmt(range.max)} C.`,
+    inputs: [val('I_new', 'new trickle current', newCurrentA, 'A'), val('C', 'rated capacity', capacityAh, 'Ah')],
+    result: val('rate', 'new trickle rate', newTrickleCRate, 'C'),
+    references: [chem.continuousChargeRangeC.ref],
+  })
+  if (newTrickleCRate > range.max) {
+    warnings.push({
+      code: 'trickle-above-limit',
+      severity: 'warning',
+      message: `The new trickle rate (${fmt(newTrickleCRate)} C) is above the ${fmt(range.max)} C the cells tolerate continuously; they will age faster.`,
+    })
+  } else if (newTrickleCRate < range.min) {
+    warnings.push({
+      code: 'trickle-below-range',
+      severity: 'warning',
+      message: `The new trickle rate (${fmt(newTrickleCRate)} C) is below ${fmt(range.min)} C: it may not make up self-discharge, so the pack may not stay full.`,
+    })
+  }
+
+  const rechargeTimeAfterH = e24?.rechargeTimeH ?? rechargeTimeBeforeH
+  const rechargeWithin24h = rechargeTimeAfterH <= 24
+  working.push({
+    id: 'rechargeTime',
+    label: 'Recharge time after a full rated-duration discharge',
+    formula: 't = Σ k·C·Δq / I(V(q)),  V(q) = V_empty + (V_b − V_empty)·q,  I = (V_oc − V) / (R_int + R)',
+    explanation: `Integrated numerically in ${RECHARGE_STEPS} fixed steps of state of charge. The charge current falls as the pack voltage rises, so the recharge takes longer than the charge divided by the starting current. The pack voltage is taken as linear in state of charge; the charge factor k is the Ah put in per Ah taken out.`,
+    inputs: [
+      val('Q', 'charge taken out (discharge current × rated duration)', dischargedAh, 'Ah'),
+      val('k', 'charge factor', chem.chargeFactor.value, ''),
+      val('t_before', 'recharge time before', rechargeTimeBeforeH, 'h'),
+    ],
+    result: val('t_after', 'recharge time after', rechargeTimeAfterH, 'h'),
+    references: [RECHARGE_24H, LINEAR_MODEL, chem.chargeFactor.ref],
+  })
+  if (!rechargeWithin24h) {
+    warnings.push({
+      code: 'recharge-over-24h',
+      severity: 'critical',
+      message: `Recharge after a full rated-duration discharge would take about ${fmt(rechargeTimeAfterH)} h, more than the 24 h the luminaire standard allows${maxSeriesResistanceFor24hOhm === null ? ' (it already did before the change)' : `; keep the added resistance below about ${fmt(maxSeriesResistanceFor24hOhm)} Ω`}.`,
+    })
+  }
+
+  // --- The bypass diode.
+  let Vf: number
+  if (input.diodeForwardVoltage !== undefined) Vf = input.diodeForwardVoltage
+  else {
+    Vf = DIODE_FORWARD_VOLTAGE[input.diodeType ?? 'silicon']
+    if (input.diodeType === undefined) {
+      warnings.push({
+        code: 'diode-assumed-silicon',
+        severity: 'info',
+        field: 'diodeType',
+        message: 'No diode given: a silicon diode (≈ 0.7 V) is assumed. A Schottky diode (≈ 0.35 V) costs less runtime.',
+      })
+    }
+  }
+  const nominalV = chem.nominalCellVoltage.value * cells
+  const loadVoltageOnBatteryV = nominalV - Vf
+  const effectiveCutoffCellV = (emptyV + Vf) / cells
+  const runtimeChangePct = runtimeChangePctFor(Vf, Vb, emptyV)
+  const diodeDissipationW = Vf * input.dischargeCurrent
+  working.push({
+    id: 'bypassDiode',
+    label: 'Bypass diode: load voltage, cut-off and runtime',
+    formula: 'V_load = V_nom − V_f;  V_cut,eff = (V_cut,load + V_f) / n;  Δt/t = −V_f / (V_b − V_empty)',
+    explanation:
+      'On battery the discharge current flows through the diode, so the load sees the pack voltage less the diode drop. The luminaire still cuts out at its own threshold (taken as the chemistry cut-off × cells at the load), so the pack now stops higher by V_f. With pack voltage linear in charge, the fraction of charge left unused is V_f over the voltage span.',
+    inputs: [val('V_f', 'diode forward voltage', Vf, 'V'), val('n', 'cells in series', cells, ''), val('V_nom', 'nominal pack voltage', nominalV, 'V')],
+    result: val('Δt/t', 'runtime change', runtimeChangePct, '%'),
+    references: [DIODE_DROP, LINEAR_MODEL],
+  })
+  if (runtimeChangePct < 0) {
+    warnings.push({
+      code: 'runtime-loss',
+      severity: runtimeChangePct <= -10 ? 'critical' : 'warning',
+      field: 'diodeForwardVoltage',
+      message: `The diode drop raises the effective cut-off to ${fmt(effectiveCutoffCellV)} V per cell and may shorten the runtime by about ${fmt(-runtimeChangePct, 2)} % (linear model); the rated duration may no longer be met.`,
+    })
+  }
+
+  // --- Charge indicator.
+  let indicatorMayGoOut: boolean | null = null
+  if (input.chargeIndicatorThreshold !== undefined) {
+    indicatorMayGoOut = newCurrentA < input.chargeIndicatorThreshold
+    if (indicatorMayGoOut) {
+      warnings.push({
+        code: 'indicator-may-go-out',
+        severity: 'warning',
+        field: 'chargeIndicatorThreshold',
+        message: `The new trickle current (${fmt(newCurrentA * 1000)} mA) is below the charge indicator's threshold (${fmt(input.chargeIndicatorThreshold * 1000)} mA): the indicator may go out and the luminaire would look faulty in routine checks.`,
+      })
+    }
+  }
+
+  return {
+    chargerOpenCircuitV: Voc,
+    chargerInternalResistanceOhm: Rint,
+    presentTrickleCRate: presentRate,
+    targetCurrentA: targetA,
+    seriesResistanceOhm: resistorPossible ? exactR : null,
+    e12,
+    e24,
+    resistorDissipationW: e24?.dissipationW ?? null,
+    resistorRatingW: e24?.ratingW ?? null,
+    newTrickleCRate,
+    trickleWithinLimit,
+    permittedTrickleRangeC: { min: range.min, max: range.max },
+    rechargeTimeBeforeH,
+    rechargeTimeAfterH,
+    rechargeWithin24h,
+    maxSeriesResistanceFor24hOhm,
+    diodeForwardV: Vf,
+    diodeDissipationW,
+    loadVoltageOnBatteryV,
+    effectiveCutoffCellV,
+    runtimeChangePct,
+    indicatorMayGoOut,
+    cautions: [...RETROFIT_CAUTIONS, ...chem.hazards],
+    warnings: sortWarnings(warnings),
+    working,
+  }
+}
+
+export const retrofitTool = defineTool({
+  name: 'retrofit',
+  summary: 'Plan a gentler trickle current with a series resistor and bypass diode: resistor value and rating, recharge time, runtime effect.',
+  input: retrofitInput,
+  run: planRetrofit,
+})
