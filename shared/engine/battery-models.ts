@@ -47,14 +47,11 @@ export function interpolate(points: ReadonlyArray<readonly [number, number]>, x:
   const last = points[points.length - 1]
   if (x <= first[0]) return first[1]
   if (x >= last[0]) return last[1]
-  for (let i = 1; i < points.length; i++) {
-    const [x1, y1] = points[i]
-    if (x <= x1) {
-      const [x0, y0] = points[i - 1]
-      return y0 + ((y1 - y0) * (x - x0)) / (x1 - x0)
-    }
-  }
-  return last[1]
+  let i = 1
+  while (x > points[i][0]) i++
+  const [x0, y0] = points[i - 1]
+  const [x1, y1] = points[i]
+  return y0 + ((y1 - y0) * (x - x0)) / (x1 - x0)
 }
 
 /** Fraction of rated capacity available at an ambient temperature, from the chemistry's curve. */

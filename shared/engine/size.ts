@@ -29,7 +29,7 @@ import { REF } from './chemistries/references'
 import type { Chemistry, ChemistryId, Range } from './chemistries/types'
 import { ambientTemperature, finiteNumber, quantity } from './fields'
 import { defineTool } from './tool'
-import { sortWarnings, type EngineWarning, type Reference, type WorkingStep, type WorkingValue } from './types'
+import { SEVERITY_ORDER, sortWarnings, type EngineWarning, type Reference, type WorkingStep, type WorkingValue } from './types'
 
 const SECONDS_PER_HOUR = 3600
 
@@ -141,7 +141,8 @@ const round = (x: number, digits = 3) => Number(x.toPrecision(digits))
 
 interface CellChoice {
   cells: number
-  explanation: string
+  /** Built only when the working is shown (kept out of the hot path). */
+  explain: () => string
   reference: Reference
 }
 
@@ -154,7 +155,7 @@ export function chooseCellsInSeries(
   window: ConverterInput | undefined,
   given?: number,
 ): CellChoice {
-  if (given !== undefined) return { cells: given, explanation: 'Cells in series as given.', reference: REF.commonPractice('Cells in series as given by the user') }
+  if (given !== undefined) return { cells: given, explain: () => 'Cells in series as given.', reference: REF.commonPractice('Cells in series as given by the user') }
   const full = chemistry.fullChargeCellVoltage.value
   if (driver === 'direct') {
     const ledV = load.ledVoltage as number
@@ -162,30 +163,32 @@ export function chooseCellsInSeries(
     const cells = Math.max(1, Math.ceil(ledV / cutoffCellVoltage - 1e-9))
     return {
       cells,
-      explanation: `Fewest cells whose end-of-discharge voltage (n × ${cutoffCellVoltage} V) still reaches the LED string voltage ${round(ledV)} V, so the string stays lit to the cut-off.`,
+      explain: () => `Fewest cells whose end-of-discharge voltage (n × ${cutoffCellVoltage} V) still reaches the LED string voltage ${round(ledV)} V, so the string stays lit to the cut-off.`,
       reference: REF.commonPractice('Direct drive: pack voltage at cut-off must exceed the LED forward voltage'),
     }
   }
   if (window?.min !== undefined) {
+    const windowMin = window.min
     const cells = Math.max(1, Math.ceil(window.min / cutoffCellVoltage - 1e-9))
     return {
       cells,
-      explanation: `Fewest cells whose end-of-discharge voltage (n × ${cutoffCellVoltage} V) stays at or above the converter's minimum input ${round(window.min)} V.`,
+      explain: () => `Fewest cells whose end-of-discharge voltage (n × ${cutoffCellVoltage} V) stays at or above the converter's minimum input ${round(windowMin)} V.`,
       reference: REF.commonPractice('Converter drive: the pack must stay inside the converter input window'),
     }
   }
   const preferred = chemistry.defaultCellsInSeries.value
   if (window?.max !== undefined) {
+    const windowMax = window.max
     const cells = Math.max(1, Math.min(preferred, Math.floor(window.max / full + 1e-9)))
     return {
       cells,
-      explanation: `The usual ${preferred}-cell pack for ${chemistry.name}, reduced if needed so the full-charge voltage (n × ${full} V) stays at or below the converter's maximum input ${round(window.max)} V.`,
+      explain: () => `The usual ${preferred}-cell pack for ${chemistry.name}, reduced if needed so the full-charge voltage (n × ${full} V) stays at or below the converter's maximum input ${round(windowMax)} V.`,
       reference: chemistry.defaultCellsInSeries.ref,
     }
   }
   return {
     cells: preferred,
-    explanation: `No converter input window given: the usual ${preferred}-cell pack for ${chemistry.name}.`,
+    explain: () => `No converter input window given: the usual ${preferred}-cell pack for ${chemistry.name}.`,
     reference: chemistry.defaultCellsInSeries.ref,
   }
 }
@@ -418,7 +421,7 @@ export function sizePack(input: SizeInput, options: SizeOptions = {}): SizeResul
   if (explain) {
     const refs = (...r: Reference[]) => r
     working.push(
-      step('cellsInSeries', 'Cells in series', 'n', choice.explanation, [v('V_cut', 'End-of-discharge voltage per cell', designCutoffCell, 'V')], v('n', 'Cells in series', n, ''), refs(choice.reference)),
+      step('cellsInSeries', 'Cells in series', 'n', choice.explain(), [v('V_cut', 'End-of-discharge voltage per cell', designCutoffCell, 'V')], v('n', 'Cells in series', n, ''), refs(choice.reference)),
       step(
         'averagePowerW',
         'Average power from the pack',
@@ -573,9 +576,15 @@ export function sizePack(input: SizeInput, options: SizeOptions = {}): SizeResul
     volumeL,
     serviceLifeYears: lifeYears,
     annexAMaxCurrentA: annexMaxA,
-    warnings: sortWarnings(warnings),
+    warnings: inSeverityOrder(warnings) ? warnings : sortWarnings(warnings),
     working,
   }
+}
+
+/** True when the warnings are already critical → warning → info (the usual case; saves a sort). */
+export function inSeverityOrder(warnings: EngineWarning[]): boolean {
+  for (let i = 1; i < warnings.length; i++) if (SEVERITY_ORDER[warnings[i - 1].severity] > SEVERITY_ORDER[warnings[i].severity]) return false
+  return true
 }
 
 /** Restrictions, disposal and the competent-person note every pack result carries. */

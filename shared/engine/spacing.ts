@@ -225,13 +225,13 @@ export interface RowStatistics {
 
 type PointFn = (line: number, dx: number) => number
 
-const SAMPLES = 48
+const SAMPLES = 32
 const GOLDEN = (Math.sqrt(5) - 1) / 2
 /** Contributions below this share of the smallest required level are left out. */
 const NEGLIGIBLE = 1e-4
 const BISECTION_TOLERANCE_M = 0.001
 
-function goldenExtreme(f: (x: number) => number, a: number, b: number, sign: 1 | -1, iterations = 24): number {
+function goldenExtreme(f: (x: number) => number, a: number, b: number, sign: 1 | -1, iterations = 18): number {
   // Minimises sign·f on [a, b]; returns f at the best point found.
   let x1 = b - GOLDEN * (b - a)
   let x2 = a + GOLDEN * (b - a)
@@ -302,6 +302,39 @@ export class RowSolver {
   readonly lines: EvaluationLine[]
   /** ∫ E dx of one luminaire along each line: an endless row at spacing S averages area / S. */
   private readonly areas: number[]
+
+  /**
+   * A spacing above which the darkest line cannot meet its minimum: half-way between two
+   * luminaires each one adds at most the largest value it reaches at that distance or further,
+   * which only falls as the spacing grows, so bisection finds where that bound drops below need.
+   */
+  minimumBound(): number {
+    let bound = 2 * this.reach
+    for (let j = 0; j < this.lines.length; j++) {
+      const g = this.grids[j]
+      const env = new Float64Array(this.cells + 2)
+      for (let m = this.cells; m >= 0; m--) env[m] = Math.max(env[m + 1], g[this.cells + m], g[this.cells - m])
+      const need = Math.max(...this.o.criteria.scenarios.map((s) => (s.minLx * this.lines[j].minFraction) / Math.max(s.scale, 1e-9)))
+      const upper = (spacing: number) => {
+        let total = 0
+        for (let i = 0; (i + 0.5) * spacing <= this.reach; i++) {
+          total += 2 * env[Math.floor(((i + 0.5) * spacing) / this.step)]
+          if (this.mode === 'pair') break
+        }
+        return total
+      }
+      if (upper(bound) >= need) continue
+      let lo = 0
+      let hi = bound
+      while (hi - lo > 1e-4 * hi) {
+        const mid = (lo + hi) / 2
+        if (upper(mid) >= need) lo = mid
+        else hi = mid
+      }
+      bound = hi
+    }
+    return bound
+  }
 
   /**
    * Largest spacing the average requirement allows (endless row: average = Σ w·area / S),
@@ -419,7 +452,7 @@ export class RowSolver {
     if (this.reach <= 0) return null
     const floor = 0.01
     const ratio = 0.995
-    let s = Math.min(2 * this.reach, this.mode === 'row' ? this.averageBound() : Infinity)
+    let s = Math.min(this.minimumBound(), this.mode === 'row' ? this.averageBound() : Infinity)
     let above = s
     while (s > floor && !this.feasible(s, this.tabled)) {
       above = s

@@ -11,15 +11,10 @@ export const REF = {
   iec61056_1: (basis: Basis = 'published', note?: string) =>
     ref('IEC 61056-1 (general-purpose VRLA batteries, cyclic and float use incl. static emergency supplies)', basis, note),
   iec62133: (basis: Basis = 'published', note?: string) => ref('IEC 62133-2 (safety of portable sealed lithium cells)', basis, note),
-  iec62619: (basis: Basis = 'published', note?: string) =>
-    ref('IEC 62619 (safety of industrial lithium cells; lists emergency power among stationary uses)', basis, note),
   iec61960: (basis: Basis = 'from memory', note?: string) => ref('IEC 61960-3 (lithium cell performance, rated at 0.2 It)', basis, note),
   annexA: (basis: Basis = 'published', note?: string) => ref('IEC 60598-2-22, Annex A (batteries for emergency luminaires)', basis, note),
-  iec61347: (basis: Basis = 'published', note?: string) => ref('IEC 61347-2-7 (battery-supplied emergency control gear)', basis, note),
-  eu2023_1542: (basis: Basis = 'published', note?: string) => ref('Regulation (EU) 2023/1542 on batteries, Annex I', basis, note),
-  un383: (basis: Basis = 'published', note?: string) => ref('UN Manual of Tests and Criteria, 38.3 (lithium transport)', basis, note),
-  handbook: (basis: Basis = 'from memory', note?: string) => ref('Handbook of Batteries (Linden & Reddy), chemistry chapters', basis, note),
-  referenceBook: (basis: Basis = 'published', note?: string) => ref('Battery Reference Book (Crompton), NiCd chapter', basis, note),
+  handbook: (basis: Basis = 'from memory', note?: string) => ref('Handbook of Batteries, chemistry chapters', basis, note),
+  referenceBook: (basis: Basis = 'published', note?: string) => ref('Battery Reference Book, NiCd chapter', basis, note),
   nickelMakerManual: (basis: Basis = 'published', note?: string) =>
     ref("Emergency-lighting NiCd cell maker's application manual (general practice)", basis, note),
   nimhMakerManual: (basis: Basis = 'published', note?: string) => ref("NiMH cell maker's handbook (general practice)", basis, note),

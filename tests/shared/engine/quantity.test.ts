@@ -66,7 +66,7 @@ describe('hours field (capacity rating basis)', () => {
     expect(hours().parse(raw)).toBeCloseTo(expected, 9)
   })
 
-  test.each<[unknown]>([[0], [-5], ['20 V'], ['abc'], [Number.NaN], [5000], [true]])('%s is rejected', (raw) => {
+  test.each<[unknown]>([[0], [-5], ['20 V'], ['abc'], [Number.NaN], [Number.POSITIVE_INFINITY], [5000], [true]])('%s is rejected', (raw) => {
     expect(hours().safeParse(raw).success).toBe(false)
   })
 })

@@ -198,6 +198,10 @@ describe('cell count', () => {
     expect(codes(r)).toContain('converter-window-high')
     expect(r.warnings[0].severity).toBe('critical')
   })
+  test('given cells below the converter minimum input are critical', () => {
+    const r = size({ chemistry: 'nicd', cellsInSeries: 3, duration: '1 h', load: { power: '2 W' }, converterInput: { min: '5 V' } })
+    expect(r.warnings.find((w) => w.code === 'converter-window-low')?.severity).toBe('critical')
+  })
   test('only a maximum input: the usual pack trimmed to fit; none: the usual pack', () => {
     expect(size({ chemistry: 'nicd', duration: '1 h', load: { power: '2 W' }, converterInput: { max: '3 V' } }).cellsInSeries).toBe(2)
     expect(size({ chemistry: 'lead-acid', duration: '1 h', load: { power: '2 W' } }).cellsInSeries).toBe(3)
@@ -282,6 +286,7 @@ describe('field errors name the field', () => {
     ['power given as a current', { load: { power: '3 A' } }, 'load.power'],
     ['LED current in kg', { load: { ledVoltage: '3 V', ledCurrent: '3 kg' } }, 'load.ledCurrent'],
     ['no load at all', { load: {} }, 'load.power'],
+    ['load not an object', { load: 5 }, 'load'],
     ['LED voltage without current', { load: { ledVoltage: '3 V' } }, 'load.ledCurrent'],
     ['LED current without voltage', { load: { ledCurrent: '0.3 A' } }, 'load.ledVoltage'],
     ['direct without LED current', { driver: 'direct', load: { power: '3 W' } }, 'load.ledCurrent'],

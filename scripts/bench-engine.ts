@@ -1,0 +1,99 @@
+/**
+ * Battery-engine benchmark: sizes and compares 10 000 generated luminaires on pre-parsed inputs
+ * (numbers in base units, no unit parsing in the loop). Run: npx tsx scripts/bench-engine.ts
+ * The luminaires are invented: a seeded generator spreads loads, durations and temperatures.
+ */
+import { performance } from 'node:perf_hooks'
+import { CHEMISTRY_IDS } from '../shared/engine/chemistries'
+import { compareChemistries, DEFAULT_WEIGHTS, type CompareInput } from '../shared/engine/compare'
+import { sizePack, type SizeInput } from '../shared/engine/size'
+
+const COUNT = 10_000
+const ROUNDS = 7
+
+/** Small deterministic generator (mulberry32) so every run sizes the same luminaires. */
+function random(seed: number) {
+  let a = seed >>> 0
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0
+    let t = a
+    t = Math.imul(t ^ (t >>> 15), t | 1)
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61)
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296
+  }
+}
+
+const next = random(20240601)
+const pick = <T>(items: readonly T[]) => items[Math.floor(next() * items.length)]
+const DURATIONS_S = [3600, 5400, 10_800]
+
+const luminaires: CompareInput[] = Array.from({ length: COUNT }, () => {
+  const direct = next() < 0.3
+  const ambientMin = Math.round(-20 + next() * 30)
+  return {
+    duration: pick(DURATIONS_S),
+    load: direct ? { ledVoltage: 2.8 + next() * 6, ledCurrent: 0.05 + next() * 0.5 } : { power: 0.5 + next() * 10 },
+    driver: direct ? ('direct' as const) : ('converter' as const),
+    driverEfficiency: 0.75 + next() * 0.2,
+    converterInput: undefined,
+    endOfLifeCapacity: 0.8,
+    depthOfDischarge: undefined,
+    designMargin: 0.1,
+    designLifeYears: 4,
+    ambientMin,
+    ambientMax: ambientMin + Math.round(10 + next() * 30),
+    chemistries: [...CHEMISTRY_IDS],
+    weights: { ...DEFAULT_WEIGHTS },
+  }
+})
+
+const sizeInputs: SizeInput[] = luminaires.flatMap((l) =>
+  CHEMISTRY_IDS.map((chemistry) => ({
+    chemistry,
+    duration: l.duration,
+    load: l.load,
+    driver: l.driver,
+    driverEfficiency: l.driverEfficiency,
+    endOfLifeCapacity: l.endOfLifeCapacity,
+    designMargin: l.designMargin,
+    designLifeYears: l.designLifeYears,
+    ambientMin: l.ambientMin,
+    ambientMax: l.ambientMax,
+  })),
+)
+
+function time(label: string, run: () => number): void {
+  const samples: number[] = []
+  let checksum = 0
+  run() // warm-up
+  for (let i = 0; i < ROUNDS; i++) {
+    const start = performance.now()
+    checksum += run()
+    samples.push(performance.now() - start)
+  }
+  samples.sort((a, b) => a - b)
+  const median = samples[Math.floor(samples.length / 2)]
+  console.log(`${label.padEnd(58)} median ${median.toFixed(1).padStart(7)} ms   best ${samples[0].toFixed(1).padStart(7)} ms   (checksum ${checksum.toFixed(3)})`)
+}
+
+console.log(`Battery engine benchmark: ${COUNT} luminaires × ${CHEMISTRY_IDS.length} chemistries, ${ROUNDS} rounds, Node ${process.version}`)
+time(`size, numbers only (${sizeInputs.length} sizings)`, () => {
+  let sum = 0
+  for (const input of sizeInputs) sum += sizePack(input, { explain: false }).selectedCapacityAh
+  return sum
+})
+time(`size, with working steps (${sizeInputs.length} sizings)`, () => {
+  let sum = 0
+  for (const input of sizeInputs) sum += sizePack(input).selectedCapacityAh
+  return sum
+})
+time(`size, one chemistry each (${COUNT} sizings, numbers only)`, () => {
+  let sum = 0
+  for (let i = 0; i < sizeInputs.length; i += CHEMISTRY_IDS.length) sum += sizePack(sizeInputs[i], { explain: false }).selectedCapacityAh
+  return sum
+})
+time(`compare, all chemistries (${COUNT} comparisons)`, () => {
+  let sum = 0
+  for (const input of luminaires) sum += compareChemistries(input).rows[0].score
+  return sum
+})
