@@ -10,7 +10,7 @@ import { CHEMISTRIES } from './chemistries'
 import { REF } from './chemistries/references'
 import type { ChemistryId, Range } from './chemistries/types'
 import { ambientTemperature, finiteNumber, quantity } from './fields'
-import { addChemistryNotes, chooseCellsInSeries, packIssues } from './size'
+import { addChemistryNotes, chooseCellsInSeries, describeCellChoice, packIssues } from './size'
 import { defineTool } from './tool'
 import { sortWarnings, type EngineWarning, type Reference, type WorkingStep, type WorkingValue } from './types'
 
@@ -255,7 +255,8 @@ export function checkCharge(input: ChargeInput, options: { explain?: boolean } =
         id: 'averageCurrentA', label: 'Average discharge current', formula: input.driver === 'direct' ? 'I = I_LED' : 'I = P_LED / (η · n · V_avg)',
         explanation: 'Current the pack supplies during the rated duration.',
         inputs: [v('P_LED', 'LED power', draw.loadPowerW, 'W'), v('n', 'Cells in series', n, ''), v('V_avg', 'Average cell voltage', averageCell, 'V')],
-        result: v('I', 'Average current', draw.currentA, 'A'), references: [choice.reference],
+        result: v('I', 'Average current', draw.currentA, 'A'),
+        references: [describeCellChoice(choice, chemistry, input.load, chemistry.cutoffCellVoltage.value, input.converterInput).reference],
       },
       {
         id: 'dischargeAh', label: 'Charge taken by one rated-duration discharge', formula: 'Q = I · t',

@@ -139,12 +139,15 @@ function step(
 
 const round = (x: number, digits = 3) => Number(x.toPrecision(digits))
 
-interface CellChoice {
+export interface CellChoice {
   cells: number
-  /** Built only when the working is shown (kept out of the hot path). */
-  explain: () => string
-  reference: Reference
+  /** Which rule set the count: given, direct drive, converter minimum input, converter maximum input, or the usual pack. */
+  rule: 'given' | 'direct' | 'window-min' | 'window-max' | 'usual'
 }
+
+const GIVEN_CELLS_REF = REF.commonPractice('Cells in series as given by the user')
+const DIRECT_CELLS_REF = REF.commonPractice('Direct drive: pack voltage at cut-off must reach the LED forward voltage')
+const WINDOW_CELLS_REF = REF.commonPractice('Converter drive: the pack must stay inside the converter input window')
 
 /** Fewest cells that keep the load working to the end-of-discharge voltage, or the given count. */
 export function chooseCellsInSeries(
@@ -155,42 +158,58 @@ export function chooseCellsInSeries(
   window: ConverterInput | undefined,
   given?: number,
 ): CellChoice {
-  if (given !== undefined) return { cells: given, explain: () => 'Cells in series as given.', reference: REF.commonPractice('Cells in series as given by the user') }
-  const full = chemistry.fullChargeCellVoltage.value
+  if (given !== undefined) return { cells: given, rule: 'given' }
   if (driver === 'direct') {
-    const ledV = load.ledVoltage as number
     // Tiny tolerance so 3 × 1.0 V exactly reaching 3.0 V does not ask for a 4th cell.
-    const cells = Math.max(1, Math.ceil(ledV / cutoffCellVoltage - 1e-9))
-    return {
-      cells,
-      explain: () => `Fewest cells whose end-of-discharge voltage (n × ${cutoffCellVoltage} V) still reaches the LED string voltage ${round(ledV)} V, so the string stays lit to the cut-off.`,
-      reference: REF.commonPractice('Direct drive: pack voltage at cut-off must exceed the LED forward voltage'),
-    }
+    return { cells: Math.max(1, Math.ceil((load.ledVoltage as number) / cutoffCellVoltage - 1e-9)), rule: 'direct' }
   }
   if (window?.min !== undefined) {
-    const windowMin = window.min
-    const cells = Math.max(1, Math.ceil(window.min / cutoffCellVoltage - 1e-9))
-    return {
-      cells,
-      explain: () => `Fewest cells whose end-of-discharge voltage (n × ${cutoffCellVoltage} V) stays at or above the converter's minimum input ${round(windowMin)} V.`,
-      reference: REF.commonPractice('Converter drive: the pack must stay inside the converter input window'),
-    }
+    return { cells: Math.max(1, Math.ceil(window.min / cutoffCellVoltage - 1e-9)), rule: 'window-min' }
   }
   const preferred = chemistry.defaultCellsInSeries.value
   if (window?.max !== undefined) {
-    const windowMax = window.max
-    const cells = Math.max(1, Math.min(preferred, Math.floor(window.max / full + 1e-9)))
-    return {
-      cells,
-      explain: () => `The usual ${preferred}-cell pack for ${chemistry.name}, reduced if needed so the full-charge voltage (n × ${full} V) stays at or below the converter's maximum input ${round(windowMax)} V.`,
-      reference: chemistry.defaultCellsInSeries.ref,
-    }
+    return { cells: Math.max(1, Math.min(preferred, Math.floor(window.max / chemistry.fullChargeCellVoltage.value + 1e-9))), rule: 'window-max' }
   }
-  return {
-    cells: preferred,
-    explain: () => `No converter input window given: the usual ${preferred}-cell pack for ${chemistry.name}.`,
-    reference: chemistry.defaultCellsInSeries.ref,
+  return { cells: preferred, rule: 'usual' }
+}
+
+/** Words and source for the working step of a cell choice (built only when the working is shown). */
+export function describeCellChoice(
+  choice: CellChoice,
+  chemistry: Chemistry,
+  load: Load,
+  cutoffCellVoltage: number,
+  window: ConverterInput | undefined,
+): { explanation: string; reference: Reference } {
+  const preferred = chemistry.defaultCellsInSeries.value
+  switch (choice.rule) {
+    case 'given':
+      return { explanation: 'Cells in series as given.', reference: GIVEN_CELLS_REF }
+    case 'direct':
+      return {
+        explanation: `Fewest cells whose end-of-discharge voltage (n × ${cutoffCellVoltage} V) still reaches the LED string voltage ${round(load.ledVoltage as number)} V, so the string stays lit to the cut-off.`,
+        reference: DIRECT_CELLS_REF,
+      }
+    case 'window-min':
+      return {
+        explanation: `Fewest cells whose end-of-discharge voltage (n × ${cutoffCellVoltage} V) stays at or above the converter's minimum input ${round(window?.min as number)} V.`,
+        reference: WINDOW_CELLS_REF,
+      }
+    case 'window-max':
+      return {
+        explanation: `The usual ${preferred}-cell pack for ${chemistry.name}, reduced if needed so the full-charge voltage (n × ${chemistry.fullChargeCellVoltage.value} V) stays at or below the converter's maximum input ${round(window?.max as number)} V.`,
+        reference: chemistry.defaultCellsInSeries.ref,
+      }
+    default:
+      return { explanation: `No converter input window given: the usual ${preferred}-cell pack for ${chemistry.name}.`, reference: chemistry.defaultCellsInSeries.ref }
   }
+}
+
+const byValue = (a: number, b: number) => a - b
+function ladderInAh(coulombs: number[]): number[] {
+  const ah: number[] = []
+  for (const c of coulombs) ah.push(c / SECONDS_PER_HOUR)
+  return ah.sort(byValue)
 }
 
 /** Size or check a pack on already-parsed input (numbers in base units). Pure and fast. */
@@ -231,9 +250,15 @@ export function sizePack(input: SizeInput, options: SizeOptions = {}): SizeResul
   if (capacityGiven) {
     selectedAh = (input.capacity as number) / SECONDS_PER_HOUR
   } else {
-    ladder = input.capacityLadder ? input.capacityLadder.map((c) => c / SECONDS_PER_HOUR).sort((a, b) => a - b) : chemistry.capacityLadderAh.value
+    ladder = input.capacityLadder ? ladderInAh(input.capacityLadder) : chemistry.capacityLadderAh.value
     const need = Math.max(requiredAh, annexMinAh)
-    const rung = ladder.find((c) => c >= need * (1 - 1e-9))
+    let rung: number | undefined
+    for (const c of ladder) {
+      if (c >= need * (1 - 1e-9)) {
+        rung = c
+        break
+      }
+    }
     if (rung !== undefined) {
       selectedAh = rung
       if (annexMinAh > requiredAh) {
@@ -371,7 +396,7 @@ export function sizePack(input: SizeInput, options: SizeOptions = {}): SizeResul
     if (packCutoffV < input.load.ledVoltage * (1 - 1e-9)) {
       warnings.push({
         code: 'led-string-drops-out',
-        severity: choice.cells === input.cellsInSeries ? 'critical' : 'warning',
+        severity: choice.rule === 'given' ? 'critical' : 'warning',
         field: 'cellsInSeries',
         message: `At the end-of-discharge voltage the pack gives ${round(packCutoffV)} V, below the LED string's ${round(input.load.ledVoltage)} V: the light fades out before the pack is used up.`,
       })
@@ -420,8 +445,9 @@ export function sizePack(input: SizeInput, options: SizeOptions = {}): SizeResul
   // 7. Working.
   if (explain) {
     const refs = (...r: Reference[]) => r
+    const cellWords = describeCellChoice(choice, chemistry, input.load, designCutoffCell, input.converterInput)
     working.push(
-      step('cellsInSeries', 'Cells in series', 'n', choice.explain(), [v('V_cut', 'End-of-discharge voltage per cell', designCutoffCell, 'V')], v('n', 'Cells in series', n, ''), refs(choice.reference)),
+      step('cellsInSeries', 'Cells in series', 'n', cellWords.explanation, [v('V_cut', 'End-of-discharge voltage per cell', designCutoffCell, 'V')], v('n', 'Cells in series', n, ''), refs(cellWords.reference)),
       step(
         'averagePowerW',
         'Average power from the pack',
