@@ -5,6 +5,7 @@ import { dataSource } from './data-source'
 import { logger } from './lib/logger'
 import { startMailCatcher, type MailCatcher } from './modules/mail/mail-catcher'
 import { useCatcherPort } from './modules/mail/mail.service'
+import { startReminderJobs, type JobRunner } from './modules/register/reminder-jobs'
 import { DEMO_PASSWORD, DEMO_USERS } from './scripts/demo-users'
 
 const cfg = config()
@@ -35,6 +36,8 @@ if (!cfg.mail.smtpUrl) {
   catcher = await startMailCatcher(cfg.mail.catcherDir, cfg.mail.catcherPort)
   useCatcherPort(catcher.port)
 }
+// Background jobs (daily test reminders) only where JOBS=1; any number of processes may run them.
+const jobs: JobRunner | null = cfg.jobs ? await startReminderJobs() : null
 const { app, close } = createApp()
 const server = app.listen(cfg.port, cfg.host, () => {
   const lines = [
@@ -59,6 +62,7 @@ async function shutdown(signal: string) {
   logger.info({ signal }, 'shutting down')
   server.close()
   server.closeAllConnections?.()
+  await jobs?.stop().catch(() => undefined)
   await catcher?.close().catch(() => undefined)
   await close().catch(() => undefined)
   await dataSource.destroy().catch(() => undefined)

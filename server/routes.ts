@@ -7,6 +7,8 @@ import { authRoutes } from './modules/auth/auth.router'
 import { calcRoutes } from './modules/calc/calc.router'
 import { healthRoutes } from './modules/health/health.router'
 import { outboxRoutes } from './modules/mail/outbox.router'
+import { registerRoutes } from './modules/register/register.router'
+import { sheetRoutes } from './modules/sheets/sheets.router'
 import { workspaceRoutes } from './modules/workspaces/workspaces.router'
 
 export interface RouteTableOptions {
@@ -20,5 +22,7 @@ export function buildRouteTable(opts: RouteTableOptions): RouteSpec[] {
     ...workspaceRoutes,
     ...outboxRoutes,
     ...calcRoutes,
+    ...sheetRoutes,
+    ...registerRoutes,
   ]
 }

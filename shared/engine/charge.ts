@@ -284,7 +284,7 @@ export function checkCharge(input: ChargeInput, options: { explain?: boolean } =
     )
     if (floatVoltageCheck && chemistry.float) {
       working.push({
-        id: 'floatVoltage', label: 'Temperature-compensated float voltage', formula: 'V_f = V_25 + α · (T − 25 °C)',
+        id: 'floatVoltageCheck', label: 'Temperature-compensated float voltage', formula: 'V_f = V_25 + α · (T − 25 °C)',
         explanation: `Float set point per cell at the ambient; compensation stops outside ${chemistry.float.compensationLimitsC?.min ?? -40}–${chemistry.float.compensationLimitsC?.max ?? 85} °C.`,
         inputs: [v('V_25', 'Float at 25 °C', chemistry.float.cellVoltageAt25C.value, 'V'), v('α', 'Coefficient', chemistry.float.coefficientVPerC.value, 'V/°C'), v('T', 'Ambient', input.ambient, '°C')],
         result: v('V_f', 'Float per cell', floatVoltageCheck.expectedCellVoltageV, 'V'),

@@ -22,9 +22,12 @@ export function quantity(dimension: Dimension, bounds: QuantityBounds = {}) {
     const d = bounds.display ?? { unit: DIMENSIONS[dimension].base, factor: 1 }
     return `${Number((v * d.factor).toPrecision(6))} ${d.unit === 'degC' ? '°C' : d.unit}`
   }
-  return z.union([z.number(), z.string()], {
-    errorMap: () => ({ message: `must be ${DIMENSIONS[dimension].noun}: a number in ${DIMENSIONS[dimension].base} or a string such as "${DIMENSIONS[dimension].example}"` }),
-  }).transform((raw, ctx): number => {
+  // z.unknown rather than a number/string union, so NaN and Infinity get their own plain message.
+  return z.unknown().transform((raw, ctx): number => {
+    if (raw === undefined || raw === null) {
+      ctx.addIssue({ code: z.ZodIssueCode.custom, message: `is required: ${DIMENSIONS[dimension].noun}, e.g. "${DIMENSIONS[dimension].example}"` })
+      return z.NEVER
+    }
     const parsed = parseQuantity(raw, dimension)
     if (!parsed.ok) {
       ctx.addIssue({ code: z.ZodIssueCode.custom, message: parsed.reason })

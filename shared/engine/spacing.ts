@@ -227,8 +227,8 @@ type PointFn = (line: number, dx: number) => number
 
 const SAMPLES = 32
 const GOLDEN = (Math.sqrt(5) - 1) / 2
-/** Contributions below this share of the smallest required level are left out. */
-const NEGLIGIBLE = 1e-4
+/** Luminaires adding less than this share of the smallest required level are left out (conservative: the row only loses light). */
+const NEGLIGIBLE = 1e-5
 const BISECTION_TOLERANCE_M = 0.001
 
 function goldenExtreme(f: (x: number) => number, a: number, b: number, sign: 1 | -1, iterations = 18): number {
@@ -270,7 +270,7 @@ export class RowSolver {
   constructor(private readonly o: RowSolverOptions) {
     const h = o.mountingHeight
     this.mode = o.neighbours ?? 'row'
-    this.near = 2 * h
+    this.near = 4 * h
     this.lines = symmetricAboutRow(o.table, o.cPlane) ? mergeMirroredLines(o.criteria.lines) : o.criteria.lines
     const smallest = Math.min(...o.criteria.scenarios.flatMap((s) => this.lines.map((l) => (s.minLx * l.minFraction) / Math.max(s.scale, 1e-9))))
     const threshold = NEGLIGIBLE * smallest
@@ -283,6 +283,14 @@ export class RowSolver {
       }
     }
     this.reach = reach > 0 ? reach * 1.1 + h / 8 : 0
+    this.kinks = this.lines.map((line) =>
+      o.table.verticalAngles
+        .filter((g) => g > 0 && g < 90)
+        .map((g) => (h * Math.tan(g / DEG)) ** 2 - line.y * line.y)
+        .filter((d2) => d2 > 0)
+        .map(Math.sqrt)
+        .sort((a, b) => a - b),
+    )
     this.step = Math.max(h / 32, this.reach / 8192)
     this.cells = Math.ceil(this.reach / this.step)
     this.areas = []
@@ -300,6 +308,8 @@ export class RowSolver {
 
   /** Lines actually evaluated (a mirrored pair is evaluated once when the light is symmetric about the row). */
   readonly lines: EvaluationLine[]
+  /** Distances along the row at which line j sees a luminaire at one of the table's vertical angles. */
+  private readonly kinks: number[][]
   /** ∫ E dx of one luminaire along each line: an endless row at spacing S averages area / S. */
   private readonly areas: number[]
 
@@ -382,42 +392,66 @@ export class RowSolver {
   statistics(spacing: number, fn: PointFn = this.exact): RowStatistics {
     const lines = this.lines
     const pair = this.mode === 'pair'
-    const n = pair ? SAMPLES + 1 : SAMPLES
-    const dxSample = spacing / SAMPLES
     const lineMins: number[] = []
     let max = 0
     let ratioMin = Infinity
     let average = 0
     for (let j = 0; j < lines.length; j++) {
       const f = (x: number) => this.rowAt(j, x, spacing, fn)
-      let minK = 0
-      let maxK = 0
-      let minV = Infinity
-      let maxV = -Infinity
-      let sum = 0
+      const xs = this.sampleXs(j, spacing)
+      const n = xs.length
+      const vs = xs.map(f)
+      let lineMin = Infinity
+      let lineMax = -Infinity
+      let integral = 0
       for (let k = 0; k < n; k++) {
-        const v = f(k * dxSample)
-        sum += pair && (k === 0 || k === n - 1) ? v / 2 : v
-        if (v < minV) {
-          minV = v
-          minK = k
-        }
-        if (v > maxV) {
-          maxV = v
-          maxK = k
-        }
+        lineMin = Math.min(lineMin, vs[k])
+        lineMax = Math.max(lineMax, vs[k])
+        if (k + 1 < n) integral += ((xs[k + 1] - xs[k]) * (vs[k] + vs[k + 1])) / 2
       }
-      const lo = (k: number) => (pair ? Math.max(0, k - 1) : k - 1) * dxSample
-      const hi = (k: number) => (pair ? Math.min(n - 1, k + 1) : k + 1) * dxSample
-      const lineMin = Math.min(minV, goldenExtreme(f, lo(minK), hi(minK), 1))
+      // Refine every local extreme of the samples: a narrow dip need not hold the lowest sample.
+      for (let k = 0; k < n; k++) {
+        const prevK = k > 0 ? k - 1 : pair ? -1 : n - 1
+        const nextK = k + 1 < n ? k + 1 : pair ? -1 : 0
+        const prevV = prevK < 0 ? Infinity : vs[prevK]
+        const nextV = nextK < 0 ? Infinity : vs[nextK]
+        const a = prevK < 0 ? xs[k] : k > 0 ? xs[prevK] : xs[prevK] - spacing
+        const b = nextK < 0 ? xs[k] : k + 1 < n ? xs[nextK] : xs[nextK] + spacing
+        if (vs[k] <= prevV && vs[k] <= nextV && b > a) lineMin = Math.min(lineMin, goldenExtreme(f, a, b, 1))
+        const prevM = prevK < 0 ? -Infinity : vs[prevK]
+        const nextM = nextK < 0 ? -Infinity : vs[nextK]
+        if (lines[j].ratio && vs[k] >= prevM && vs[k] >= nextM && b > a) lineMax = Math.max(lineMax, goldenExtreme(f, a, b, -1))
+      }
       lineMins.push(lineMin)
-      average += lines[j].weight * (pair ? sum / SAMPLES : this.areas[j] / spacing)
+      average += lines[j].weight * (pair ? integral / spacing : this.areas[j] / spacing)
       if (lines[j].ratio) {
         ratioMin = Math.min(ratioMin, lineMin)
-        max = Math.max(max, maxV, goldenExtreme(f, lo(maxK), hi(maxK), -1))
+        max = Math.max(max, lineMax)
       }
     }
     return { lineMins, max, ratioMin, average }
+  }
+
+  /**
+   * Points along one spacing where line j is sampled: an even set, plus the points where a
+   * neighbour is seen at one of the table's vertical angles (the interpolated intensity has a
+   * corner there, which is where narrow dips sit).
+   */
+  private sampleXs(j: number, spacing: number): number[] {
+    const pair = this.mode === 'pair'
+    const xs: number[] = []
+    for (let k = 0; k < SAMPLES; k++) xs.push((k * spacing) / SAMPLES)
+    if (pair) xs.push(spacing)
+    for (const d of this.kinks[j]) {
+      if (d >= spacing) break
+      xs.push(d, spacing - d)
+    }
+    xs.sort((a, b) => a - b)
+    const gap = spacing / 256
+    const kept: number[] = []
+    for (const x of xs) if (kept.length === 0 || x - kept[kept.length - 1] > gap) kept.push(x)
+    if (pair && kept[kept.length - 1] !== spacing) kept.push(spacing)
+    return kept
   }
 
   /** Whether every scenario's levels and the max/min limit are met at this spacing. */

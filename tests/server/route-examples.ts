@@ -11,6 +11,8 @@ import { Membership } from '../../server/modules/workspaces/membership.entity'
 import { Workspace } from '../../server/modules/workspaces/workspace.entity'
 import type { Role } from '../../shared/schemas/roles'
 import { makeTeam, uniqueEmail, type TestTeam } from '../helpers/test-app'
+import { sheetRouteExamples } from './sheet-examples'
+import { registerRouteExamples } from './register-examples'
 
 export interface ExampleContext {
   /** The workspace the caller belongs to (the caller's role is `role`). */
@@ -107,4 +109,6 @@ export const routeExamples: Record<string, ExampleFn> = {
   'get /api/outbox': async () => ({ path: '/api/outbox' }),
   'get /api/calc': async () => ({ path: '/api/calc' }),
   'post /api/calc/:tool': async () => ({ path: '/api/calc/size', body: SIZE_EXAMPLE }),
+  ...sheetRouteExamples,
+  ...registerRouteExamples,
 }

@@ -85,7 +85,7 @@ describe('uniform 10 cd luminaire at 2.5 m (closed form E = I·h/(h² + x²)^{3/
     expect(solver.rowAt(0, 5.41 / 2, 5.41, solver.exact)).toBeCloseTo(1.118, 3)
     expect(solver.rowAt(0, 0, 5.41, solver.exact)).toBeCloseTo(1.896, 3)
   })
-  it('the tool counts every luminaire of the row, so its spacing is where the closed-form endless sum gives 1 lx half-way', () => {
+  it('the tool counts every luminaire of the row (contributions under 0.001 % left out), so its spacing is where the closed-form endless sum gives 1 lx half-way', () => {
     // Independent reference: sum the closed form over ±20 000 luminaires.
     const endless = (s: number, mf: number) => {
       let e = 0
@@ -96,8 +96,9 @@ describe('uniform 10 cd luminaire at 2.5 m (closed form E = I·h/(h² + x²)^{3/
       const solver = new RowSolver({ table, mountingHeight: h, factor: mf, cPlane: 0, criteria: centreLineOnly(1) })
       const s = solver.maxSpacing()!
       expect(s).toBeGreaterThan(pairSpacing(mf))
-      expect(endless(s, mf)).toBeGreaterThanOrEqual(0.998) // contributions below 0.01 % each are left out
-      expect(endless(s + 0.002, mf)).toBeLessThan(1)
+      // Luminaires adding under 0.001 % each are left out, so the engine errs short, by a few mm at most.
+      expect(endless(s, mf)).toBeGreaterThanOrEqual(1)
+      expect(endless(s + 0.005, mf)).toBeLessThan(1)
     }
   })
 })
@@ -186,7 +187,7 @@ describe('spacing tool', () => {
   it('open areas and high-risk areas', () => {
     const open = run({ ...base, criteria: 'en1838-open-area', routeWidth: 4 })
     expect(open.minIlluminanceLx!).toBeGreaterThanOrEqual(0.5 - 1e-9)
-    const risky = run({ ...base, criteria: 'en1838-high-risk', normalIlluminance: '300 lx', mountingHeight: 1.5, routeWidth: 1 })
+    const risky = run({ ...base, criteria: 'en1838-high-risk', normalIlluminance: 300, mountingHeight: 1.5, routeWidth: 1 })
     expect(risky.requirement.minLx).toBe(30)
     expect(risky.maxSpacingM === null || risky.minIlluminanceLx! >= 30 - 1e-9).toBe(true)
     expect(risky.warnings.map((w) => w.code)).toContain('mounting-below-2m')
@@ -215,23 +216,24 @@ describe('spacing tool', () => {
 })
 
 describe('property: at the spacing found the minimum is met, at 2 % more it is not (fast-check)', () => {
+  // Downlight-like tables: any intensities from 0° to 75°, none at the horizontal (90°).
   it('holds for generated axially symmetric intensity tables', () => {
     const gammas = [0, 15, 30, 45, 60, 75, 90]
     fc.assert(
       fc.property(
-        fc.array(fc.double({ min: 1, max: 400, noNaN: true }), { minLength: 7, maxLength: 7 }),
+        fc.array(fc.double({ min: 1, max: 400, noNaN: true }), { minLength: 6, maxLength: 6 }),
         fc.double({ min: 2, max: 6, noNaN: true }),
         fc.double({ min: 0.2, max: 1, noNaN: true }),
-        (candela, h, factor) => {
-          const table: IntensityTable = { verticalAngles: gammas, horizontalAngles: [0], candela: [candela] }
+        (lowerAngles, h, factor) => {
+          const table: IntensityTable = { verticalAngles: gammas, horizontalAngles: [0], candela: [[...lowerAngles, 0]] }
           const solver = new RowSolver({ table, mountingHeight: h, factor, cPlane: 0, criteria: centreLineOnly(1) })
           const s = solver.maxSpacing()
-          // Independent brute force: point method over every luminaire within 300 m, 2 000 points per spacing.
+          // Independent brute force: point method over every luminaire within 300 m, 1 000 points per spacing.
           const darkest = (spacing: number) => {
             let min = Infinity
             let max = 0
-            for (let p = 0; p <= 2000; p++) {
-              const x = (p / 2000) * spacing
+            for (let p = 0; p <= 1000; p++) {
+              const x = (p / 1000) * spacing
               let e = 0
               for (let k = -Math.ceil(300 / spacing); k <= Math.ceil(300 / spacing); k++) {
                 const r = Math.abs(x - k * spacing)
@@ -254,7 +256,7 @@ describe('property: at the spacing found the minimum is met, at 2 % more it is n
           return true
         },
       ),
-      { numRuns: 25, seed: 1838 },
+      { numRuns: 20, seed: 1838, endOnFailure: true },
     )
   })
 })

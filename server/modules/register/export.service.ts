@@ -1,0 +1,181 @@
+/**
+ * Exports of a site's register and log book: CSV for spreadsheets, PDF for the building's file.
+ * CSV cells that begin with = + - @ (or a tab / carriage return) are prefixed with a single quote so
+ * a spreadsheet shows them as text instead of running them as a formula.
+ */
+import { createRequire } from 'node:module'
+import path from 'node:path'
+import Papa from 'papaparse'
+import PDFDocument from 'pdfkit'
+import { PURPOSE_LABELS } from '../../../shared/schemas/luminaire.schema'
+import { REGIME_LABELS } from '../../../shared/schemas/site.schema'
+import { siteStatus, todayIso } from './register.service'
+import { siteLogBook } from './tests.service'
+
+/** Any text cell starting like a formula; unlike a `.*$` pattern this also catches multi-line cells. */
+export const FORMULA_START = /^[=+\-@\t\r]/
+
+export function toCsv(header: string[], rows: Array<Array<string | number | boolean | null>>): string {
+  // Numbers stay numbers (a negative number is not a formula); every text cell is checked.
+  return Papa.unparse({ fields: header, data: rows.map((r) => r.map((c) => (c === null ? '' : c))) }, { escapeFormulae: FORMULA_START, newline: '\r\n' })
+}
+
+const round = (v: number, digits = 2) => Number(v.toFixed(digits))
+
+export async function registerRows(workspaceId: string, siteId: string) {
+  const status = await siteStatus(workspaceId, siteId, todayIso())
+  const header = [
+    'tag', 'area', 'location', 'type', 'purpose', 'mode', 'rated_duration_h', 'chemistry', 'cells', 'capacity_ah', 'pack_fitted_on',
+    'last_functional', 'next_functional', 'last_duration', 'next_duration', 'state', 'replace_pack_by',
+  ]
+  const rows = status.luminaires.map((l) => [
+    l.tag, l.areaName ?? '', l.location, l.typeLabel, l.purpose, l.mode, l.ratedDurationH, l.chemistry, l.cellsInSeries, l.capacityAh, l.packFittedOn,
+    l.due.functional.lastTestedOn, l.due.functional.nextDueOn, l.due.duration.lastTestedOn, l.due.duration.nextDueOn, l.due.state, l.forecast.replaceBy,
+  ])
+  return { status, header, rows }
+}
+
+export async function logBookRows(workspaceId: string, siteId: string) {
+  const entries = await siteLogBook(workspaceId, siteId, 100_000)
+  const header = ['tested_on', 'tag', 'test', 'result', 'achieved_duration_h', 'faults', 'remedial_action', 'recorded_by', 'recorded_at']
+  const rows = entries.map((e) => [
+    e.testedOn, e.tag, e.kind, e.passed ? 'pass' : 'fail', e.achievedDurationH === null ? null : round(e.achievedDurationH), e.faults, e.remedialAction, e.recordedByName ?? '', new Date(e.recordedAt).toISOString(),
+  ])
+  return { header, rows }
+}
+
+export const EXPORT_FILES = ['register.csv', 'logbook.csv', 'register.pdf', 'logbook.pdf'] as const
+export type ExportFile = (typeof EXPORT_FILES)[number]
+
+export interface ExportResult {
+  filename: string
+  mediaType: string
+  body: Buffer
+}
+
+const slug = (s: string) => s.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '').slice(0, 60) || 'site'
+
+export async function exportFile(workspaceId: string, siteId: string, file: ExportFile): Promise<ExportResult> {
+  const reg = await registerRows(workspaceId, siteId)
+  const base = `${slug(reg.status.site.name)}-${file.startsWith('register') ? 'register' : 'log-book'}-${reg.status.today}`
+  if (file === 'register.csv') return { filename: `${base}.csv`, mediaType: 'text/csv; charset=utf-8', body: Buffer.from(toCsv(reg.header, reg.rows), 'utf8') }
+  const log = await logBookRows(workspaceId, siteId)
+  if (file === 'logbook.csv') return { filename: `${base}.csv`, mediaType: 'text/csv; charset=utf-8', body: Buffer.from(toCsv(log.header, log.rows), 'utf8') }
+  const body = file === 'register.pdf' ? await registerPdf(reg) : await logBookPdf(reg.status, log.rows)
+  return { filename: `${base}.pdf`, mediaType: 'application/pdf', body }
+}
+
+// ---------------------------------------------------------------- PDF
+
+const require = createRequire(import.meta.url)
+const FONT_DIR = path.join(path.dirname(require.resolve('@fontsource/source-sans-3/package.json')), 'files')
+const FONT_REGULAR = path.join(FONT_DIR, 'source-sans-3-latin-400-normal.woff')
+const FONT_BOLD = path.join(FONT_DIR, 'source-sans-3-latin-700-normal.woff')
+
+type SiteStatus = Awaited<ReturnType<typeof siteStatus>>
+
+function newDoc(title: string) {
+  const doc = new PDFDocument({ size: 'A4', layout: 'landscape', margin: 36, info: { Title: title, Creator: 'Lampwright' } })
+  // The same Source Sans 3 the app ships (pdfkit reads the WOFF files directly).
+  doc.registerFont('body', FONT_REGULAR)
+  doc.registerFont('bold', FONT_BOLD)
+  doc.font('body')
+  return doc
+}
+
+function finish(doc: PDFKit.PDFDocument): Promise<Buffer> {
+  return new Promise((resolve, reject) => {
+    const chunks: Buffer[] = []
+    doc.on('data', (c: Buffer) => chunks.push(c))
+    doc.on('end', () => resolve(Buffer.concat(chunks)))
+    doc.on('error', reject)
+    doc.end()
+  })
+}
+
+function heading(doc: PDFKit.PDFDocument, title: string, status: SiteStatus) {
+  doc.font('bold').fontSize(16).text(title)
+  doc.font('body').fontSize(10)
+  doc.text(`${status.site.name}${status.site.address ? ` — ${status.site.address.replace(/\s*\n\s*/g, ', ')}` : ''}`)
+  doc.text(`Responsible person: ${status.site.responsibleName || '—'} ${status.site.responsibleEmail ? `<${status.site.responsibleEmail}>` : ''}`)
+  doc.text(`Testing regime: ${REGIME_LABELS[status.site.regime]}. Printed ${status.today}.`)
+  doc.moveDown(0.6)
+}
+
+interface Column {
+  title: string
+  width: number
+}
+
+/** A plain table that starts a new page (with its header again) when the page is full. */
+function table(doc: PDFKit.PDFDocument, columns: Column[], rows: string[][]) {
+  const left = doc.page.margins.left
+  const drawHeader = () => {
+    doc.font('bold').fontSize(8.5)
+    let x = left
+    const y = doc.y
+    for (const c of columns) {
+      doc.text(c.title, x, y, { width: c.width - 4 })
+      x += c.width
+    }
+    doc.moveTo(left, doc.y + 2).lineTo(left + columns.reduce((s, c) => s + c.width, 0), doc.y + 2).lineWidth(0.5).stroke()
+    doc.y += 5
+    doc.font('body').fontSize(8.5)
+  }
+  drawHeader()
+  for (const row of rows) {
+    const height = Math.max(...row.map((cell, i) => doc.heightOfString(cell || ' ', { width: columns[i].width - 4 })))
+    if (doc.y + height > doc.page.height - doc.page.margins.bottom - 14) {
+      doc.addPage()
+      drawHeader()
+    }
+    const y = doc.y
+    let x = left
+    row.forEach((cell, i) => {
+      doc.text(cell, x, y, { width: columns[i].width - 4 })
+      x += columns[i].width
+    })
+    doc.x = left
+    doc.y = y + height + 3
+  }
+}
+
+async function registerPdf(reg: Awaited<ReturnType<typeof registerRows>>): Promise<Buffer> {
+  const s = reg.status
+  const doc = newDoc(`Emergency lighting register — ${s.site.name}`)
+  heading(doc, 'Emergency lighting register', s)
+  doc.text(`${s.counts.luminaires} luminaires: ${s.counts.failed} failed at the last test, ${s.counts.overdue} overdue, ${s.counts.dueSoon} due within 14 days.`)
+  doc.moveDown(0.6)
+  const columns: Column[] = [
+    { title: 'Tag', width: 52 }, { title: 'Area / location', width: 130 }, { title: 'Purpose', width: 70 }, { title: 'Mode', width: 62 },
+    { title: 'Rated', width: 36 }, { title: 'Pack', width: 92 }, { title: 'Fitted', width: 56 }, { title: 'Next functional', width: 62 },
+    { title: 'Next full duration', width: 62 }, { title: 'State', width: 52 }, { title: 'Replace pack by', width: 62 },
+  ]
+  table(
+    doc,
+    columns,
+    s.luminaires.map((l) => [
+      l.tag, [l.areaName, l.location].filter(Boolean).join(' — '), PURPOSE_LABELS[l.purpose], l.mode, `${l.ratedDurationH} h`,
+      `${l.chemistry}, ${l.cellsInSeries} cells, ${l.capacityAh} Ah`, l.packFittedOn, l.due.functional.nextDueOn, l.due.duration.nextDueOn, l.due.state, l.forecast.replaceBy,
+    ]),
+  )
+  doc.moveDown(1)
+  doc.fontSize(8).text('Isolate the mains before opening a luminaire. Spent nickel-cadmium and lithium packs go to a battery collection point, never into general waste. Local codes and a competent, licensed person decide what the installation needs.', doc.page.margins.left)
+  return finish(doc)
+}
+
+async function logBookPdf(status: SiteStatus, rows: Array<Array<string | number | boolean | null>>): Promise<Buffer> {
+  const doc = newDoc(`Emergency lighting log book — ${status.site.name}`)
+  heading(doc, 'Emergency lighting log book', status)
+  const columns: Column[] = [
+    { title: 'Date', width: 58 }, { title: 'Tag', width: 52 }, { title: 'Test', width: 56 }, { title: 'Result', width: 36 }, { title: 'Lit for', width: 40 },
+    { title: 'Faults found', width: 170 }, { title: 'Remedial action', width: 170 }, { title: 'By', width: 90 },
+  ]
+  table(
+    doc,
+    columns,
+    rows.map((r) => [String(r[0]), String(r[1]), r[2] === 'duration' ? 'Full duration' : 'Functional', String(r[3]), r[4] === null || r[4] === '' ? '' : `${r[4]} h`, String(r[5] ?? ''), String(r[6] ?? ''), String(r[7] ?? '')]),
+  )
+  if (!rows.length) doc.text('No tests recorded yet.')
+  return finish(doc)
+}

@@ -1,0 +1,365 @@
+/**
+ * Sites, areas and luminaires of the register, and what is due on them. Every query is scoped by
+ * workspace; another workspace's id answers "not found". The due rules and the battery forecast
+ * come from the engine (shared/engine/due.ts); nothing is computed here.
+ */
+import type { EntityManager } from 'typeorm'
+import { z } from 'zod'
+import { countDue, dueWithin, forecastPack, luminaireDue, REGIMES, type DueItem, type LuminaireDue, type PackForecast, type TestEvent } from '../../../shared/engine/due'
+import type { AreaPatchSchema, AreaSchema, SitePatchSchema, SiteSchema } from '../../../shared/schemas/site.schema'
+import type { LuminairePatchSchema, LuminaireSchema, PackReplacementSchema } from '../../../shared/schemas/luminaire.schema'
+import { dataSource } from '../../data-source'
+import { AppError, BadRequestError, NotFoundError } from '../../errors/app-error'
+import { recordAudit } from '../audit/audit.service'
+import { AreaEntity } from './area.entity'
+import { LuminaireEntity } from './luminaire.entity'
+import { SiteEntity } from './site.entity'
+
+/** Today's calendar day in UTC, the day the due rules are evaluated on. */
+export const todayIso = (): string => new Date().toISOString().slice(0, 10)
+
+const isUniqueViolation = (err: unknown) => (err as { driverError?: { code?: string }; code?: string })?.driverError?.code === '23505' || (err as { code?: string })?.code === '23505'
+
+// ---------------------------------------------------------------- sites
+
+export function siteDto(s: SiteEntity) {
+  return {
+    id: s.id,
+    name: s.name,
+    address: s.address,
+    responsibleName: s.responsibleName,
+    responsibleEmail: s.responsibleEmail,
+    regime: s.regime,
+    ceilingTemperatureC: s.ceilingTemperatureC,
+    createdAt: s.createdAt,
+    updatedAt: s.updatedAt,
+  }
+}
+export type SiteDto = ReturnType<typeof siteDto>
+
+export async function findSite(workspaceId: string, id: string, m: EntityManager = dataSource.manager): Promise<SiteEntity> {
+  const site = await m.getRepository(SiteEntity).findOne({ where: { id, workspaceId } })
+  if (!site) throw new NotFoundError('That site')
+  return site
+}
+
+export async function createSite(workspaceId: string, actorId: string, input: z.output<typeof SiteSchema>) {
+  return dataSource.transaction(async (m) => {
+    const site = await m.getRepository(SiteEntity).save(m.getRepository(SiteEntity).create({ ...input, workspaceId }))
+    await recordAudit({ workspaceId, actorId, action: 'site.created', entityType: 'site', entityId: site.id, data: { name: site.name, regime: site.regime } }, m)
+    return siteDto(site)
+  })
+}
+
+export async function updateSite(workspaceId: string, actorId: string, id: string, patch: z.output<typeof SitePatchSchema>) {
+  return dataSource.transaction(async (m) => {
+    const site = await findSite(workspaceId, id, m)
+    const changes = changedFields(site as unknown as Record<string, unknown>, patch)
+    Object.assign(site, patch)
+    await m.getRepository(SiteEntity).save(site)
+    await recordAudit({ workspaceId, actorId, action: 'site.updated', entityType: 'site', entityId: id, data: { changes } }, m)
+    return siteDto(site)
+  })
+}
+
+export async function deleteSite(workspaceId: string, actorId: string, id: string) {
+  await dataSource.transaction(async (m) => {
+    const site = await findSite(workspaceId, id, m)
+    const count = await m.getRepository(LuminaireEntity).count({ where: { siteId: id, workspaceId } })
+    await m.getRepository(SiteEntity).delete({ id, workspaceId })
+    await recordAudit({ workspaceId, actorId, action: 'site.deleted', entityType: 'site', entityId: id, data: { name: site.name, luminaires: count } }, m)
+  })
+}
+
+/** { field: { from, to } } for the fields a patch really changes. */
+function changedFields(before: Record<string, unknown>, patch: Record<string, unknown>) {
+  const out: Record<string, { from: unknown; to: unknown }> = {}
+  for (const [k, v] of Object.entries(patch)) if (v !== undefined && before[k] !== v) out[k] = { from: before[k] ?? null, to: v }
+  return out
+}
+
+// ---------------------------------------------------------------- areas
+
+export function areaDto(a: AreaEntity) {
+  return { id: a.id, siteId: a.siteId, name: a.name, notes: a.notes }
+}
+
+async function findArea(workspaceId: string, id: string, m: EntityManager = dataSource.manager) {
+  const area = await m.getRepository(AreaEntity).findOne({ where: { id, workspaceId } })
+  if (!area) throw new NotFoundError('That area')
+  return area
+}
+
+const areaNameTaken = (name: string) => new AppError(409, 'conflict', `An area called "${name}" already exists on this site.`, [{ path: 'name', message: 'is already used on this site' }])
+
+export async function createArea(workspaceId: string, actorId: string, siteId: string, input: z.output<typeof AreaSchema>) {
+  return dataSource
+    .transaction(async (m) => {
+      await findSite(workspaceId, siteId, m)
+      const area = await m.getRepository(AreaEntity).save(m.getRepository(AreaEntity).create({ ...input, siteId, workspaceId }))
+      await recordAudit({ workspaceId, actorId, action: 'area.created', entityType: 'area', entityId: area.id, data: { siteId, name: area.name } }, m)
+      return areaDto(area)
+    })
+    .catch((err) => {
+      throw isUniqueViolation(err) ? areaNameTaken(input.name) : err
+    })
+}
+
+export async function updateArea(workspaceId: string, actorId: string, id: string, patch: z.output<typeof AreaPatchSchema>) {
+  return dataSource
+    .transaction(async (m) => {
+      const area = await findArea(workspaceId, id, m)
+      const changes = changedFields(area as unknown as Record<string, unknown>, patch)
+      Object.assign(area, patch)
+      await m.getRepository(AreaEntity).save(area)
+      await recordAudit({ workspaceId, actorId, action: 'area.updated', entityType: 'area', entityId: id, data: { changes } }, m)
+      return areaDto(area)
+    })
+    .catch((err) => {
+      throw isUniqueViolation(err) ? areaNameTaken(patch.name ?? '') : err
+    })
+}
+
+export async function deleteArea(workspaceId: string, actorId: string, id: string) {
+  await dataSource.transaction(async (m) => {
+    const area = await findArea(workspaceId, id, m)
+    await m.getRepository(AreaEntity).delete({ id, workspaceId })
+    await recordAudit({ workspaceId, actorId, action: 'area.deleted', entityType: 'area', entityId: id, data: { siteId: area.siteId, name: area.name } }, m)
+  })
+}
+
+export async function listAreas(workspaceId: string, siteId: string) {
+  const rows = await dataSource.getRepository(AreaEntity).find({ where: { workspaceId, siteId }, order: { name: 'ASC' } })
+  return rows.map(areaDto)
+}
+
+// ---------------------------------------------------------------- luminaires
+
+export function luminaireDto(l: LuminaireEntity, areaName: string | null = null) {
+  return {
+    id: l.id,
+    siteId: l.siteId,
+    areaId: l.areaId,
+    areaName,
+    tag: l.tag,
+    location: l.location,
+    typeLabel: l.typeLabel,
+    purpose: l.purpose,
+    mode: l.mode,
+    ratedDurationH: l.ratedDurationH,
+    chemistry: l.chemistry,
+    cellsInSeries: l.cellsInSeries,
+    capacityAh: l.capacityAh,
+    packFittedOn: l.packFittedOn,
+    specSheetId: l.specSheetId,
+    luminaireTypeId: l.luminaireTypeId,
+    createdAt: l.createdAt,
+    updatedAt: l.updatedAt,
+  }
+}
+export type LuminaireDto = ReturnType<typeof luminaireDto>
+
+export async function findLuminaire(workspaceId: string, id: string, m: EntityManager = dataSource.manager) {
+  const l = await m.getRepository(LuminaireEntity).findOne({ where: { id, workspaceId } })
+  if (!l) throw new NotFoundError('That luminaire')
+  return l
+}
+
+const tagTaken = (tag: string) => new AppError(409, 'conflict', `A luminaire tagged "${tag}" is already in this site's register.`, [{ path: 'tag', message: 'is already used on this site' }])
+
+/** Links must point inside the workspace (and the area inside the site). */
+async function checkLinks(m: EntityManager, workspaceId: string, siteId: string, v: { areaId?: string | null; specSheetId?: string | null }) {
+  if (v.areaId) {
+    const area = await m.getRepository(AreaEntity).findOne({ where: { id: v.areaId, workspaceId, siteId } })
+    if (!area) throw new BadRequestError('The area is not part of this site.', [{ path: 'areaId', message: 'is not an area of this site' }])
+  }
+  if (v.specSheetId) {
+    const rows: unknown[] = await m.query('SELECT 1 FROM spec_sheets WHERE id = $1 AND workspace_id = $2', [v.specSheetId, workspaceId])
+    if (!rows.length) throw new BadRequestError('The specification sheet was not found in this workspace.', [{ path: 'specSheetId', message: 'is not a sheet of this workspace' }])
+  }
+}
+
+async function areaNameOf(m: EntityManager, areaId: string | null) {
+  if (!areaId) return null
+  return (await m.getRepository(AreaEntity).findOne({ where: { id: areaId } }))?.name ?? null
+}
+
+export async function createLuminaire(workspaceId: string, actorId: string, siteId: string, input: z.output<typeof LuminaireSchema>) {
+  return dataSource
+    .transaction(async (m) => {
+      await findSite(workspaceId, siteId, m)
+      await checkLinks(m, workspaceId, siteId, input)
+      const l = await m.getRepository(LuminaireEntity).save(m.getRepository(LuminaireEntity).create({ ...input, siteId, workspaceId }))
+      await recordAudit({ workspaceId, actorId, action: 'luminaire.created', entityType: 'luminaire', entityId: l.id, data: { siteId, tag: l.tag } }, m)
+      return luminaireDto(l, await areaNameOf(m, l.areaId))
+    })
+    .catch((err) => {
+      throw isUniqueViolation(err) ? tagTaken(input.tag) : err
+    })
+}
+
+const PACK_FIELDS = ['chemistry', 'cellsInSeries', 'capacityAh', 'packFittedOn'] as const
+
+export async function updateLuminaire(workspaceId: string, actorId: string, id: string, patch: z.output<typeof LuminairePatchSchema>) {
+  return dataSource
+    .transaction(async (m) => {
+      const l = await findLuminaire(workspaceId, id, m)
+      await checkLinks(m, workspaceId, l.siteId, patch)
+      const changes = changedFields(l as unknown as Record<string, unknown>, patch)
+      Object.assign(l, patch)
+      await m.getRepository(LuminaireEntity).save(l)
+      await recordAudit({ workspaceId, actorId, action: 'luminaire.updated', entityType: 'luminaire', entityId: id, data: { tag: l.tag, changes } }, m)
+      if (PACK_FIELDS.some((f) => f in changes)) {
+        await recordAudit({ workspaceId, actorId, action: 'pack.changed', entityType: 'luminaire', entityId: id, data: { tag: l.tag, changes: Object.fromEntries(PACK_FIELDS.filter((f) => f in changes).map((f) => [f, changes[f]])) } }, m)
+      }
+      return luminaireDto(l, await areaNameOf(m, l.areaId))
+    })
+    .catch((err) => {
+      throw isUniqueViolation(err) ? tagTaken(patch.tag ?? '') : err
+    })
+}
+
+/** A new pack fitted in the field: the forecast and the duration trend start again from its date. */
+export async function replacePack(workspaceId: string, actorId: string, id: string, input: z.output<typeof PackReplacementSchema>) {
+  return dataSource.transaction(async (m) => {
+    const l = await findLuminaire(workspaceId, id, m)
+    const before = { chemistry: l.chemistry, cellsInSeries: l.cellsInSeries, capacityAh: l.capacityAh, packFittedOn: l.packFittedOn }
+    l.chemistry = input.chemistry ?? l.chemistry
+    l.cellsInSeries = input.cellsInSeries ?? l.cellsInSeries
+    l.capacityAh = input.capacityAh ?? l.capacityAh
+    l.packFittedOn = input.packFittedOn
+    await m.getRepository(LuminaireEntity).save(l)
+    const after = { chemistry: l.chemistry, cellsInSeries: l.cellsInSeries, capacityAh: l.capacityAh, packFittedOn: l.packFittedOn }
+    await recordAudit({ workspaceId, actorId, action: 'pack.replaced', entityType: 'luminaire', entityId: id, data: { tag: l.tag, before, after, note: input.note } }, m)
+    return luminaireDto(l, await areaNameOf(m, l.areaId))
+  })
+}
+
+export async function deleteLuminaire(workspaceId: string, actorId: string, id: string) {
+  await dataSource.transaction(async (m) => {
+    const l = await findLuminaire(workspaceId, id, m)
+    await m.getRepository(LuminaireEntity).delete({ id, workspaceId })
+    await recordAudit({ workspaceId, actorId, action: 'luminaire.deleted', entityType: 'luminaire', entityId: id, data: { siteId: l.siteId, tag: l.tag } }, m)
+  })
+}
+
+// ---------------------------------------------------------------- what is due
+
+interface TestRow {
+  luminaire_id: string
+  kind: 'functional' | 'duration'
+  tested_on: string
+  passed: boolean
+  achieved_duration_h: number | null
+}
+
+/** Every test of the given luminaires, oldest first (dates as text: no time zone can shift them). */
+async function testsOf(workspaceId: string, luminaireIds: string[], m: EntityManager = dataSource.manager): Promise<Map<string, TestRow[]>> {
+  const byLuminaire = new Map<string, TestRow[]>()
+  if (!luminaireIds.length) return byLuminaire
+  const rows: TestRow[] = await m.query(
+    `SELECT luminaire_id, kind, tested_on::text AS tested_on, passed, achieved_duration_h
+       FROM test_records WHERE workspace_id = $1 AND luminaire_id = ANY($2::uuid[]) ORDER BY tested_on, recorded_at`,
+    [workspaceId, luminaireIds],
+  )
+  for (const r of rows) {
+    const list = byLuminaire.get(r.luminaire_id) ?? []
+    list.push(r)
+    byLuminaire.set(r.luminaire_id, list)
+  }
+  return byLuminaire
+}
+
+export interface LuminaireStatus extends LuminaireDto {
+  due: LuminaireDue
+  forecast: PackForecast
+}
+
+/** Due dates and pack forecast of each luminaire, from the engine. */
+export function statusOf(site: Pick<SiteEntity, 'regime' | 'ceilingTemperatureC'>, l: LuminaireEntity, areaName: string | null, tests: TestRow[], today: string): LuminaireStatus {
+  const events: TestEvent[] = tests.map((t) => ({ kind: t.kind, testedOn: t.tested_on, passed: t.passed }))
+  const since = l.packFittedOn < l.createdAt.toISOString().slice(0, 10) ? l.packFittedOn : l.createdAt.toISOString().slice(0, 10)
+  const due = luminaireDue({ regime: site.regime, since, tests: events }, today)
+  const forecast = forecastPack(
+    {
+      chemistry: l.chemistry,
+      fittedOn: l.packFittedOn,
+      ambientC: site.ceilingTemperatureC,
+      ratedDurationH: l.ratedDurationH,
+      durations: tests.filter((t) => t.kind === 'duration' && t.achieved_duration_h !== null).map((t) => ({ testedOn: t.tested_on, achievedH: t.achieved_duration_h! })),
+    },
+    today,
+  )
+  return { ...luminaireDto(l, areaName), due, forecast }
+}
+
+async function luminairesOf(workspaceId: string, where: { siteId?: string }, m: EntityManager = dataSource.manager) {
+  const rows = await m.getRepository(LuminaireEntity).find({ where: { workspaceId, ...where }, order: { tag: 'ASC' } })
+  const areas = await m.getRepository(AreaEntity).find({ where: { workspaceId, ...where } })
+  const areaNames = new Map(areas.map((a) => [a.id, a.name]))
+  return { rows, areaNames }
+}
+
+/** One site with its areas and every luminaire's due dates and forecast. */
+export async function siteStatus(workspaceId: string, siteId: string, today = todayIso(), m: EntityManager = dataSource.manager) {
+  const site = await findSite(workspaceId, siteId, m)
+  const { rows, areaNames } = await luminairesOf(workspaceId, { siteId }, m)
+  const tests = await testsOf(workspaceId, rows.map((l) => l.id), m)
+  const luminaires = rows
+    .map((l) => statusOf(site, l, l.areaId ? (areaNames.get(l.areaId) ?? null) : null, tests.get(l.id) ?? [], today))
+    .sort((a, b) => (a.areaName ?? '').localeCompare(b.areaName ?? '') || a.tag.localeCompare(b.tag, undefined, { numeric: true }))
+  return {
+    today,
+    site: siteDto(site),
+    regime: { label: REGIMES[site.regime].label, references: REGIMES[site.regime].references },
+    areas: [...areaNames.entries()].map(([id, name]) => ({ id, name })).sort((a, b) => a.name.localeCompare(b.name)),
+    counts: countDue(luminaires.map((l) => l.due)),
+    luminaires,
+  }
+}
+
+export interface UpcomingTest {
+  siteId: string
+  siteName: string
+  luminaireId: string
+  tag: string
+  kind: DueItem['kind']
+  dueOn: string
+  daysUntilDue: number
+}
+
+/** Every site with its counts, and the tests falling due in the next `days` days across the workspace. */
+export async function overview(workspaceId: string, days = 60, today = todayIso()) {
+  const sites = await dataSource.getRepository(SiteEntity).find({ where: { workspaceId }, order: { name: 'ASC' } })
+  const { rows } = await luminairesOf(workspaceId, {})
+  const tests = await testsOf(workspaceId, rows.map((l) => l.id))
+  const siteById = new Map(sites.map((s) => [s.id, s]))
+  const statuses = rows.map((l) => ({ siteId: l.siteId, status: statusOf(siteById.get(l.siteId)!, l, null, tests.get(l.id) ?? [], today) }))
+  const perSite = sites.map((s) => {
+    const mine = statuses.filter((x) => x.siteId === s.id).map((x) => x.status)
+    return {
+      ...siteDto(s),
+      counts: countDue(mine.map((x) => x.due)),
+      packsToReplace: mine.filter((x) => x.forecast.state !== 'ok').length,
+    }
+  })
+  const upcoming: UpcomingTest[] = dueWithin(statuses.map((x) => ({ ...x, due: x.status.due })), today, days).map(({ item, test }) => ({
+    siteId: item.siteId,
+    siteName: siteById.get(item.siteId)!.name,
+    luminaireId: item.status.id,
+    tag: item.status.tag,
+    kind: test.kind,
+    dueOn: test.nextDueOn,
+    daysUntilDue: test.daysUntilDue,
+  }))
+  return { today, days, sites: perSite, upcoming }
+}
+
+/** One luminaire with its site, full test history, due dates and pack forecast. */
+export async function luminaireDetail(workspaceId: string, id: string, today = todayIso()) {
+  const l = await findLuminaire(workspaceId, id)
+  const site = await findSite(workspaceId, l.siteId)
+  const tests = await testsOf(workspaceId, [l.id])
+  const status = statusOf(site, l, await areaNameOf(dataSource.manager, l.areaId), tests.get(l.id) ?? [], today)
+  return { today, site: siteDto(site), luminaire: status }
+}

@@ -1,0 +1,47 @@
+import { Column, Entity, PrimaryGeneratedColumn } from 'typeorm'
+
+/** One routine test in the log book. `clientId` makes a retried send land on the same row. */
+@Entity('test_records')
+export class TestRecordEntity {
+  @PrimaryGeneratedColumn('uuid')
+  id!: string
+
+  @Column({ type: 'uuid', name: 'workspace_id' })
+  workspaceId!: string
+
+  @Column({ type: 'uuid', name: 'luminaire_id' })
+  luminaireId!: string
+
+  @Column({ type: 'uuid', name: 'client_id' })
+  clientId!: string
+
+  @Column({ type: 'varchar', length: 16 })
+  kind!: 'functional' | 'duration'
+
+  @Column({ type: 'date', name: 'tested_on' })
+  testedOn!: string
+
+  @Column({ type: 'boolean' })
+  passed!: boolean
+
+  @Column({ type: 'double precision', name: 'achieved_duration_h', nullable: true })
+  achievedDurationH!: number | null
+
+  @Column({ type: 'text', default: '' })
+  faults!: string
+
+  @Column({ type: 'text', name: 'remedial_action', default: '' })
+  remedialAction!: string
+
+  @Column({ type: 'uuid', name: 'discharge_log_id', nullable: true })
+  dischargeLogId!: string | null
+
+  @Column({ type: 'uuid', name: 'recorded_by', nullable: true })
+  recordedBy!: string | null
+
+  @Column({ type: 'timestamptz', name: 'recorded_at' })
+  recordedAt!: Date
+
+  @Column({ type: 'timestamptz', name: 'updated_at' })
+  updatedAt!: Date
+}

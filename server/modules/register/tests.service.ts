@@ -1,0 +1,97 @@
+/**
+ * The log book: routine tests recorded one at a time or a round at a time. Each record carries a
+ * client-made UUID; the server upserts on (workspace, clientId), so a retried send never adds a row.
+ */
+import type { EntityManager } from 'typeorm'
+import type { TestRecordData } from '../../../shared/schemas/test-record.schema'
+import { dataSource } from '../../data-source'
+import { ConflictError, NotFoundError } from '../../errors/app-error'
+import { recordAudit } from '../audit/audit.service'
+import { findLuminaire, findSite } from './register.service'
+
+export type SaveOutcome = 'created' | 'updated' | 'unchanged'
+
+export interface LogBookEntry {
+  id: string
+  clientId: string
+  luminaireId: string
+  tag: string
+  siteId: string
+  kind: 'functional' | 'duration'
+  testedOn: string
+  passed: boolean
+  achievedDurationH: number | null
+  faults: string
+  remedialAction: string
+  dischargeLogId: string | null
+  recordedBy: string | null
+  recordedByName: string | null
+  recordedAt: string
+}
+
+async function upsertOne(m: EntityManager, workspaceId: string, actorId: string, r: TestRecordData): Promise<{ id: string; outcome: SaveOutcome }> {
+  // Insert, or update the same client record when something in it changed; an identical retry touches nothing.
+  const rows: Array<{ id: string; inserted: boolean }> = await m.query(
+    `INSERT INTO test_records (workspace_id, luminaire_id, client_id, kind, tested_on, passed, achieved_duration_h, faults, remedial_action, discharge_log_id, recorded_by)
+     VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11)
+     ON CONFLICT (workspace_id, client_id) DO UPDATE SET
+       kind = EXCLUDED.kind, tested_on = EXCLUDED.tested_on, passed = EXCLUDED.passed,
+       achieved_duration_h = EXCLUDED.achieved_duration_h, faults = EXCLUDED.faults,
+       remedial_action = EXCLUDED.remedial_action, discharge_log_id = EXCLUDED.discharge_log_id, updated_at = now()
+     WHERE test_records.luminaire_id = EXCLUDED.luminaire_id
+       AND (test_records.kind, test_records.tested_on, test_records.passed, test_records.achieved_duration_h, test_records.faults, test_records.remedial_action, test_records.discharge_log_id)
+           IS DISTINCT FROM (EXCLUDED.kind, EXCLUDED.tested_on, EXCLUDED.passed, EXCLUDED.achieved_duration_h, EXCLUDED.faults, EXCLUDED.remedial_action, EXCLUDED.discharge_log_id)
+     RETURNING id, (xmax = 0) AS inserted`,
+    [workspaceId, r.luminaireId, r.clientId, r.kind, r.testedOn, r.passed, r.achievedDurationH, r.faults, r.remedialAction, r.dischargeLogId, actorId],
+  )
+  const data = { luminaireId: r.luminaireId, kind: r.kind, testedOn: r.testedOn, passed: r.passed, achievedDurationH: r.achievedDurationH, faults: r.faults, remedialAction: r.remedialAction }
+  if (rows.length) {
+    const outcome: SaveOutcome = rows[0].inserted ? 'created' : 'updated'
+    await recordAudit({ workspaceId, actorId, action: outcome === 'created' ? 'test.recorded' : 'test.updated', entityType: 'test', entityId: rows[0].id, data }, m)
+    return { id: rows[0].id, outcome }
+  }
+  const existing: Array<{ id: string; luminaire_id: string }> = await m.query('SELECT id, luminaire_id FROM test_records WHERE workspace_id = $1 AND client_id = $2', [workspaceId, r.clientId])
+  if (existing[0] && existing[0].luminaire_id !== r.luminaireId) {
+    throw new ConflictError(`The record ${r.clientId} was already saved for another luminaire; make a new record instead.`)
+  }
+  return { id: existing[0].id, outcome: 'unchanged' }
+}
+
+/** Saves a batch in one transaction: all records or none. */
+export async function recordTests(workspaceId: string, actorId: string, records: TestRecordData[]) {
+  return dataSource.transaction(async (m) => {
+    const ids = [...new Set(records.map((r) => r.luminaireId))]
+    const found: Array<{ id: string }> = await m.query('SELECT id FROM luminaires WHERE workspace_id = $1 AND id = ANY($2::uuid[])', [workspaceId, ids])
+    if (found.length !== ids.length) throw new NotFoundError('A luminaire in these records')
+    const saved: Array<{ clientId: string; id: string; outcome: SaveOutcome }> = []
+    for (const r of records) saved.push({ clientId: r.clientId, ...(await upsertOne(m, workspaceId, actorId, r)) })
+    return saved
+  })
+}
+
+const LOG_SELECT = `SELECT t.id, t.client_id AS "clientId", t.luminaire_id AS "luminaireId", l.tag, l.site_id AS "siteId", t.kind,
+    t.tested_on::text AS "testedOn", t.passed, t.achieved_duration_h AS "achievedDurationH", t.faults, t.remedial_action AS "remedialAction",
+    t.discharge_log_id AS "dischargeLogId", t.recorded_by AS "recordedBy", u.name AS "recordedByName", t.recorded_at AS "recordedAt"
+  FROM test_records t JOIN luminaires l ON l.id = t.luminaire_id LEFT JOIN users u ON u.id = t.recorded_by`
+
+/** A site's log book, newest first. */
+export async function siteLogBook(workspaceId: string, siteId: string, limit = 2000): Promise<LogBookEntry[]> {
+  await findSite(workspaceId, siteId)
+  return dataSource.query(`${LOG_SELECT} WHERE t.workspace_id = $1 AND l.site_id = $2 ORDER BY t.tested_on DESC, t.recorded_at DESC LIMIT $3`, [workspaceId, siteId, limit])
+}
+
+/** One luminaire's tests, newest first. */
+export async function luminaireLogBook(workspaceId: string, luminaireId: string): Promise<LogBookEntry[]> {
+  await findLuminaire(workspaceId, luminaireId)
+  return dataSource.query(`${LOG_SELECT} WHERE t.workspace_id = $1 AND t.luminaire_id = $2 ORDER BY t.tested_on DESC, t.recorded_at DESC`, [workspaceId, luminaireId])
+}
+
+/** Removes a record entered in error; the audit trail keeps what it said. */
+export async function deleteTest(workspaceId: string, actorId: string, id: string) {
+  await dataSource.transaction(async (m) => {
+    const rows: LogBookEntry[] = await m.query(`${LOG_SELECT} WHERE t.workspace_id = $1 AND t.id = $2`, [workspaceId, id])
+    if (!rows.length) throw new NotFoundError('That test record')
+    await m.query('DELETE FROM test_records WHERE workspace_id = $1 AND id = $2', [workspaceId, id])
+    await recordAudit({ workspaceId, actorId, action: 'test.deleted', entityType: 'test', entityId: id, data: { ...rows[0] } }, m)
+  })
+}

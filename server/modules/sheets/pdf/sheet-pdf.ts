@@ -1,0 +1,120 @@
+/**
+ * The specification sheet as a PDF. Each section is a function of (doc, data); a sheet is the list
+ * SHEET_SECTIONS, and later features (audits, discharge logs) append their own sections.
+ */
+import { CHEMISTRIES } from '../../../../shared/engine/chemistries'
+import type { ChemistryId } from '../../../../shared/engine/chemistries/types'
+import type { EngineWarning, Reference, WorkingStep } from '../../../../shared/engine/types'
+import { flattenInputs, formatFigure, PACK_INPUT_LABELS, PACK_RESULT_FIGURES, SHEET_CAUTIONS } from '../../../../shared/schemas/sheet.schema'
+import type { RevisionView } from '../sheets.service'
+import { ensureSpace, footers, heading, newDocument, pair, toBuffer, write, type Doc } from './pdf-kit'
+
+export interface SheetPdfData extends RevisionView {
+  /** Shown at the top right; the workspace that issued the sheet. */
+  issuer?: string
+}
+
+export type PdfSection<D = SheetPdfData> = (doc: Doc, data: D) => void
+
+const date = (d: Date | string | null | undefined) => (d ? new Date(d).toISOString().slice(0, 10) : '—')
+const chemistryName = (id: unknown) => CHEMISTRIES[id as ChemistryId]?.name ?? String(id)
+
+export const titleSection: PdfSection = (doc, d) => {
+  write(doc, `Emergency battery specification${d.issuer ? ` · ${d.issuer}` : ''}`, { size: 9, color: '#5b6b75' })
+  write(doc, d.title, { weight: 'semibold', size: 20, color: '#1f3b4d' })
+  const state = d.status === 'issued' ? `issued ${date(d.issuedAt)}` : d.status === 'superseded' ? `superseded (issued ${date(d.issuedAt)})` : 'draft, not issued'
+  write(doc, `Revision ${d.number} · ${state} · engine ${d.engineVersion}`, { size: 10, color: d.status === 'issued' ? '#1b2a33' : '#a4460f' })
+  if (d.status !== 'issued') write(doc, 'This revision is not issued: do not build or buy from it.', { weight: 'semibold', size: 10, color: '#a4460f' })
+}
+
+export const projectSection: PdfSection = (doc, d) => {
+  heading(doc, 'Project')
+  if (d.reference) pair(doc, 'Reference', d.reference)
+  if (d.client) pair(doc, 'Client', d.client)
+  if (d.site) pair(doc, 'Site', d.site)
+  pair(doc, 'Prepared by', `${d.author?.name ?? '—'} on ${date(d.createdAt)}`)
+  if (d.issuedBy) pair(doc, 'Issued by', `${d.issuedBy.name} on ${date(d.issuedAt)}`)
+  if (d.luminaire) {
+    ensureSpace(doc, 30)
+    write(doc, 'Luminaire', { weight: 'semibold' })
+    write(doc, d.luminaire)
+  }
+}
+
+export const inputsSection: PdfSection = (doc, d) => {
+  heading(doc, 'Inputs (as entered)')
+  for (const { path, value } of flattenInputs(d.inputs)) {
+    pair(doc, PACK_INPUT_LABELS[path] ?? path, path === 'chemistry' ? chemistryName(value) : value)
+  }
+}
+
+export const resultsSection: PdfSection = (doc, d) => {
+  heading(doc, 'Results')
+  const r = d.results
+  pair(doc, 'Chemistry', chemistryName(r.chemistry))
+  for (const f of PACK_RESULT_FIGURES) {
+    if (r[f.key] === undefined) continue
+    pair(doc, f.label, formatFigure(r[f.key], f.unit))
+  }
+}
+
+const SEVERITY_WORD = { critical: 'Critical', warning: 'Warning', info: 'Note' } as const
+
+export const warningsSection: PdfSection = (doc, d) => {
+  const warnings = (d.results.warnings ?? []) as EngineWarning[]
+  heading(doc, 'Warnings and notes')
+  if (!warnings.length) write(doc, 'None.')
+  for (const w of warnings) {
+    ensureSpace(doc, 28)
+    write(doc, `${SEVERITY_WORD[w.severity] ?? w.severity}: `, { weight: 'semibold', continued: true, color: w.severity === 'critical' ? '#a3161a' : w.severity === 'warning' ? '#a4460f' : '#1b2a33' })
+    write(doc, w.message)
+    doc.moveDown(0.2)
+  }
+}
+
+const refText = (r: Reference) => `${r.source} (${r.basis})${r.note ? ` — ${r.note}` : ''}`
+
+export const workingSection: PdfSection = (doc, d) => {
+  const steps = (d.results.working ?? []) as WorkingStep[]
+  heading(doc, 'Working')
+  for (const s of steps) {
+    ensureSpace(doc, 70)
+    write(doc, s.label, { weight: 'semibold', size: 10.5 })
+    write(doc, s.formula, { size: 10, color: '#1f3b4d' })
+    write(doc, s.explanation, { size: 9, color: '#3c4a52' })
+    const values = s.inputs.map((v) => `${v.symbol} = ${formatFigure(v.value, v.unit, 4)}`).join(';  ')
+    if (values) write(doc, `With ${values}`, { size: 9 })
+    write(doc, `Gives ${s.result.symbol} = ${formatFigure(s.result.value, s.result.unit, 4)}`, { size: 9, weight: 'semibold' })
+    for (const r of s.references) write(doc, `Ref.: ${refText(r)}`, { size: 8, color: '#5b6b75' })
+    doc.moveDown(0.4)
+  }
+}
+
+export const cautionsSection: PdfSection = (doc) => {
+  heading(doc, 'Cautions')
+  for (const c of SHEET_CAUTIONS) {
+    ensureSpace(doc, 30)
+    write(doc, `${c.title}. `, { weight: 'semibold', continued: true })
+    write(doc, c.text)
+    doc.moveDown(0.2)
+  }
+}
+
+export const referencesSection: PdfSection = (doc, d) => {
+  const steps = (d.results.working ?? []) as WorkingStep[]
+  const seen = new Map<string, Reference>()
+  for (const s of steps) for (const r of s.references) seen.set(r.source, seen.get(r.source) ?? r)
+  heading(doc, 'References')
+  if (!seen.size) write(doc, 'None recorded.')
+  for (const r of seen.values()) write(doc, `• ${r.source} — ${r.basis}`, { size: 9 })
+}
+
+/** The sheet as issued today; later features push their sections onto a copy of this list. */
+export const SHEET_SECTIONS: PdfSection[] = [titleSection, projectSection, inputsSection, resultsSection, warningsSection, workingSection, cautionsSection, referencesSection]
+
+export async function buildSheetPdf(data: SheetPdfData, sections: PdfSection[] = SHEET_SECTIONS): Promise<Buffer> {
+  const doc = newDocument({ title: data.title, subject: `Revision ${data.number}` })
+  for (const section of sections) section(doc, data)
+  footers(doc, `${data.title} · revision ${data.number} · Lampwright engine ${data.engineVersion}`)
+  return toBuffer(doc)
+}

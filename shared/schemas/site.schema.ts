@@ -1,0 +1,38 @@
+/** Sites (buildings under test) and their areas: the one zod schema per concept, shared by server and forms. */
+import { z } from 'zod'
+import { EmailSchema } from './auth.schema'
+
+export const TEST_REGIMES = ['en50172', 'nfpa101'] as const
+export const TestRegimeSchema = z.enum(TEST_REGIMES, { errorMap: () => ({ message: 'must be en50172 or nfpa101' }) })
+export type TestRegimeId = z.infer<typeof TestRegimeSchema>
+
+export const REGIME_LABELS: Record<TestRegimeId, string> = {
+  en50172: 'EN 50172 / BS 5266-1: monthly functional test, annual full-duration test',
+  nfpa101: 'NFPA 101: 30-second test every 30 days, 90-minute test every year',
+}
+
+const text = (max: number) => z.string({ required_error: 'is required', invalid_type_error: 'must be text' }).trim().max(max, `must be at most ${max} characters`)
+
+export const SiteSchema = z.object({
+  name: text(120).min(1, 'is required'),
+  address: text(400).default(''),
+  responsibleName: text(120).default(''),
+  responsibleEmail: z.union([EmailSchema, z.literal('')]).default(''),
+  regime: TestRegimeSchema.default('en50172'),
+  /** Typical temperature at ceiling height where the luminaires hang, °C (drives battery life). */
+  ceilingTemperatureC: z
+    .number({ invalid_type_error: 'must be a number of °C' })
+    .finite('must be a finite number')
+    .min(-40, 'must be at least −40 °C')
+    .max(85, 'must be at most 85 °C')
+    .default(25),
+})
+export type SiteInput = z.input<typeof SiteSchema>
+export type Site = z.output<typeof SiteSchema>
+export const SitePatchSchema = SiteSchema.partial().refine((v) => Object.keys(v).length > 0, 'give at least one field to change')
+
+export const AreaSchema = z.object({
+  name: text(120).min(1, 'is required'),
+  notes: text(400).default(''),
+})
+export const AreaPatchSchema = AreaSchema.partial()

@@ -1,0 +1,61 @@
+/** Route examples for the site register and log book (merged into route-examples.ts). */
+import crypto from 'node:crypto'
+import { areaIn, CSV_OK, luminaireIn, siteIn, siteWithLuminaire, testIn } from '../helpers/register-fixtures'
+import type { Example, ExampleContext } from './route-examples'
+
+type ExampleFn = (ctx: ExampleContext) => Promise<Example>
+
+const siteBody = () => ({ name: `Example building ${crypto.randomBytes(3).toString('hex')}`, regime: 'en50172', ceilingTemperatureC: 22 })
+const luminaireBody = () => ({
+  tag: `EX-${crypto.randomBytes(3).toString('hex')}`,
+  purpose: 'escape-route',
+  mode: 'non-maintained',
+  ratedDurationH: 3,
+  chemistry: 'nicd',
+  cellsInSeries: 3,
+  capacityAh: 1.6,
+  packFittedOn: '2024-05-01',
+})
+const siteId = async (workspaceId: string) => (await siteIn(workspaceId)).id
+const luminaireId = async (workspaceId: string) => (await siteWithLuminaire(workspaceId)).luminaire.id
+const areaId = async (workspaceId: string) => (await areaIn(workspaceId, await siteId(workspaceId))).id
+
+export const registerRouteExamples: Record<string, ExampleFn> = {
+  'get /api/sites': async () => ({ path: '/api/sites?days=30' }),
+  'post /api/sites': async () => ({ path: '/api/sites', body: siteBody() }),
+  'get /api/sites/:id': async ({ team, other }) => ({ path: `/api/sites/${await siteId(team.workspaceId)}`, foreignPath: `/api/sites/${await siteId(other.workspaceId)}` }),
+  'patch /api/sites/:id': async ({ team, other }) => ({ path: `/api/sites/${await siteId(team.workspaceId)}`, body: { ceilingTemperatureC: 30 }, foreignPath: `/api/sites/${await siteId(other.workspaceId)}` }),
+  'delete /api/sites/:id': async ({ team, other }) => ({ path: `/api/sites/${await siteId(team.workspaceId)}`, foreignPath: `/api/sites/${await siteId(other.workspaceId)}` }),
+  'post /api/sites/:id/areas': async ({ team, other }) => ({ path: `/api/sites/${await siteId(team.workspaceId)}/areas`, body: { name: 'Plant room' }, foreignPath: `/api/sites/${await siteId(other.workspaceId)}/areas` }),
+  'patch /api/areas/:id': async ({ team, other }) => ({ path: `/api/areas/${await areaId(team.workspaceId)}`, body: { name: 'Renamed area' }, foreignPath: `/api/areas/${await areaId(other.workspaceId)}` }),
+  'delete /api/areas/:id': async ({ team, other }) => ({ path: `/api/areas/${await areaId(team.workspaceId)}`, foreignPath: `/api/areas/${await areaId(other.workspaceId)}` }),
+  'post /api/sites/:id/luminaires': async ({ team, other }) => ({ path: `/api/sites/${await siteId(team.workspaceId)}/luminaires`, body: luminaireBody(), foreignPath: `/api/sites/${await siteId(other.workspaceId)}/luminaires` }),
+  'get /api/luminaires/:id': async ({ team, other }) => ({ path: `/api/luminaires/${await luminaireId(team.workspaceId)}`, foreignPath: `/api/luminaires/${await luminaireId(other.workspaceId)}` }),
+  'patch /api/luminaires/:id': async ({ team, other }) => ({ path: `/api/luminaires/${await luminaireId(team.workspaceId)}`, body: { location: 'Stair 2 landing' }, foreignPath: `/api/luminaires/${await luminaireId(other.workspaceId)}` }),
+  'delete /api/luminaires/:id': async ({ team, other }) => ({ path: `/api/luminaires/${await luminaireId(team.workspaceId)}`, foreignPath: `/api/luminaires/${await luminaireId(other.workspaceId)}` }),
+  'post /api/luminaires/:id/pack': async ({ team, other }) => ({ path: `/api/luminaires/${await luminaireId(team.workspaceId)}/pack`, body: { packFittedOn: '2025-03-01', note: 'New pack' }, foreignPath: `/api/luminaires/${await luminaireId(other.workspaceId)}/pack` }),
+  'get /api/luminaires/:id/tests': async ({ team, other }) => ({ path: `/api/luminaires/${await luminaireId(team.workspaceId)}/tests`, foreignPath: `/api/luminaires/${await luminaireId(other.workspaceId)}/tests` }),
+  'post /api/tests': async ({ team }) => ({
+    path: '/api/tests',
+    body: { records: [{ clientId: crypto.randomUUID(), luminaireId: await luminaireId(team.workspaceId), kind: 'functional', testedOn: '2025-03-01', passed: true }] },
+    // An outsider sending the same body names a luminaire it cannot see: 404.
+    foreignPath: '/api/tests',
+  }),
+  'delete /api/tests/:id': async ({ team, other }) => {
+    const mine = await siteWithLuminaire(team.workspaceId)
+    const theirs = await siteWithLuminaire(other.workspaceId)
+    return {
+      path: `/api/tests/${await testIn(team.workspaceId, mine.luminaire.id, { kind: 'functional', testedOn: '2025-01-01' })}`,
+      foreignPath: `/api/tests/${await testIn(other.workspaceId, theirs.luminaire.id, { kind: 'functional', testedOn: '2025-01-01' })}`,
+    }
+  },
+  'get /api/sites/:id/tests': async ({ team, other }) => ({ path: `/api/sites/${await siteId(team.workspaceId)}/tests`, foreignPath: `/api/sites/${await siteId(other.workspaceId)}/tests` }),
+  'post /api/sites/:id/import/preview': async ({ team, other }) => ({ path: `/api/sites/${await siteId(team.workspaceId)}/import/preview`, body: { csv: CSV_OK }, foreignPath: `/api/sites/${await siteId(other.workspaceId)}/import/preview` }),
+  'post /api/sites/:id/import': async ({ team, other }) => ({ path: `/api/sites/${await siteId(team.workspaceId)}/import`, body: { csv: CSV_OK }, foreignPath: `/api/sites/${await siteId(other.workspaceId)}/import` }),
+  'get /api/sites/:id/export/:file': async ({ team, other }) => {
+    const site = await siteIn(team.workspaceId)
+    await luminaireIn(team.workspaceId, site.id)
+    // ?as=json: the same file wrapped in JSON (the plain download is checked in register.test.ts).
+    return { path: `/api/sites/${site.id}/export/register.csv?as=json`, foreignPath: `/api/sites/${await siteId(other.workspaceId)}/export/register.csv` }
+  },
+}
