@@ -1,0 +1,48 @@
+/** API tokens: made and revoked by their owner, checked on every request that presents one. */
+import crypto from 'node:crypto'
+import { IsNull } from 'typeorm'
+import { roleAtLeast, roleRank, type Role } from '../../../shared/schemas/roles'
+import { dataSource } from '../../data-source'
+import { ForbiddenError, NotFoundError } from '../../errors/app-error'
+import { hashToken } from '../../lib/tokens'
+import { recordAudit } from '../audit/audit.service'
+import { findUserById } from '../users/users.repository'
+import { findMembership } from '../workspaces/workspaces.repository'
+import { ApiToken } from './api-token.entity'
+
+const tokens = () => dataSource.getRepository(ApiToken)
+
+export async function createToken(userId: string, workspaceId: string, myRole: Role, name: string, role: Role) {
+  if (!roleAtLeast(myRole, role)) throw new ForbiddenError(`A token cannot have a higher role than yours (${myRole}).`)
+  const secret = `lw_${crypto.randomBytes(32).toString('base64url')}`
+  const row = await tokens().save(tokens().create({ userId, workspaceId, role, name, tokenHash: hashToken(secret), prefix: secret.slice(0, 10), lastUsedAt: null, revokedAt: null }))
+  await recordAudit({ workspaceId, actorId: userId, action: 'token.created', entityType: 'api_token', entityId: row.id, data: { name, role } })
+  return { id: row.id, name, role, prefix: row.prefix, createdAt: row.createdAt, token: secret }
+}
+
+export async function listTokens(userId: string, workspaceId: string) {
+  const rows = await tokens().find({ where: { userId, workspaceId }, order: { createdAt: 'DESC' } })
+  return rows.map((t) => ({ id: t.id, name: t.name, role: t.role, prefix: t.prefix, createdAt: t.createdAt, lastUsedAt: t.lastUsedAt, revokedAt: t.revokedAt }))
+}
+
+export async function revokeToken(userId: string, workspaceId: string, id: string) {
+  const res = await tokens().update({ id, userId, workspaceId, revokedAt: IsNull() }, { revokedAt: new Date() })
+  if (!res.affected) throw new NotFoundError('That token')
+  await recordAudit({ workspaceId, actorId: userId, action: 'token.revoked', entityType: 'api_token', entityId: id })
+}
+
+/**
+ * The user and context a bearer token stands for, or null when it is unknown or revoked. The role
+ * is the lower of the token's and the user's current role, so a demotion also limits old tokens.
+ */
+export async function authenticateToken(secret: string) {
+  const row = await tokens().findOne({ where: { tokenHash: hashToken(secret) } })
+  if (!row || row.revokedAt) return null
+  const membership = await findMembership(row.workspaceId, row.userId)
+  const user = await findUserById(row.userId)
+  if (!membership || !user) return null
+  const role = roleRank(membership.role) < roleRank(row.role) ? membership.role : row.role
+  // Last use is informative only; do not fail the request over it.
+  void tokens().update({ id: row.id }, { lastUsedAt: new Date() }).catch(() => undefined)
+  return { user, ctx: { userId: user.id, workspaceId: row.workspaceId, role, viaToken: true } }
+}
