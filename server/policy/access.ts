@@ -4,6 +4,7 @@
  * access-control tests walk.
  */
 import type { NextFunction, Request, RequestHandler, Response } from 'express'
+import type { ZodTypeAny } from 'zod'
 import { roleAtLeast, type Role } from '../../shared/schemas/roles'
 import { ForbiddenError, UnauthorizedError } from '../errors/app-error'
 import { findMembership, firstMembership } from '../modules/workspaces/workspaces.repository'
@@ -20,8 +21,14 @@ export interface RouteSpec {
   access: Access
   summary: string
   handler: RequestHandler | RequestHandler[]
-  /** Middleware that must run before the access check (e.g. multipart parsing is after, so not here). */
+  /** The zod schema of the JSON body, for the OpenAPI document and the fuzzer. */
+  body?: ZodTypeAny
+  /** The zod schema of the query string. */
+  query?: ZodTypeAny
+  /** Grouping in the API docs. */
   tags?: string[]
+  /** The body is multipart/form-data (an upload) rather than JSON. */
+  upload?: boolean
 }
 
 export interface RequestContext {

@@ -130,13 +130,13 @@ async function reset(req: Request, res: Response) {
 
 export function authRoutes(opts: { signInWindowMs: number }): RouteSpec[] {
   return [
-    { method: 'post', path: '/api/auth/sign-up', access: 'public', summary: 'Create an account (and a workspace, or accept an invitation)', handler: signUpHandler },
-    { method: 'post', path: '/api/auth/sign-in', access: 'public', summary: 'Sign in with e-mail and password', handler: [signInLimiter(opts.signInWindowMs), signIn] },
+    { method: 'post', path: '/api/auth/sign-up', access: 'public', summary: 'Create an account (and a workspace, or accept an invitation)', body: SignUpSchema, handler: signUpHandler },
+    { method: 'post', path: '/api/auth/sign-in', access: 'public', summary: 'Sign in with e-mail and password', body: SignInSchema, handler: [signInLimiter(opts.signInWindowMs), signIn] },
     { method: 'post', path: '/api/auth/sign-out', access: 'public', summary: 'Sign out', handler: signOut },
     { method: 'get', path: '/api/auth/me', access: 'signed-in', summary: 'The user, the current workspace and role', handler: me },
-    { method: 'patch', path: '/api/auth/me', access: 'signed-in', summary: 'Change name or unit preference', handler: updateMe },
+    { method: 'patch', path: '/api/auth/me', access: 'signed-in', summary: 'Change name or unit preference', body: UpdateProfileSchema, handler: updateMe },
     { method: 'get', path: '/api/auth/csrf', access: 'public', summary: 'A CSRF token for the X-CSRF-Token header', handler: csrf },
-    { method: 'post', path: '/api/auth/forgot-password', access: 'public', summary: 'E-mail a single-use password reset link', handler: forgot },
-    { method: 'post', path: '/api/auth/reset-password', access: 'public', summary: 'Set a new password with a reset token', handler: reset },
+    { method: 'post', path: '/api/auth/forgot-password', access: 'public', summary: 'E-mail a single-use password reset link', body: ForgotPasswordSchema, handler: forgot },
+    { method: 'post', path: '/api/auth/reset-password', access: 'public', summary: 'Set a new password with a reset token', body: ResetPasswordSchema, handler: reset },
   ]
 }

@@ -34,6 +34,6 @@ async function revoke(req: Request, res: Response) {
 
 export const tokenRoutes: RouteSpec[] = [
   { method: 'get', path: '/api/tokens', access: 'viewer', summary: 'My API tokens in this workspace', handler: list },
-  { method: 'post', path: '/api/tokens', access: 'viewer', summary: 'Make an API token (role at most mine); the secret is shown once', handler: create },
+  { method: 'post', path: '/api/tokens', access: 'viewer', summary: 'Make an API token (role at most mine); the secret is shown once', body: CreateApiTokenSchema, handler: create },
   { method: 'delete', path: '/api/tokens/:id', access: 'viewer', summary: 'Revoke an API token', handler: revoke },
 ]
