@@ -242,8 +242,11 @@ export function analyseDischarge(samples: DischargeArrays, options: DischargeOpt
   const runtimeEnd: RuntimeEnd = cutoffTime !== null ? 'cutoff' : dropoutTime !== null ? 'dropout' : 'end-of-log'
 
   // Pass 3: integrate to the end point (trapezoids, the last one cut at the end time).
+  // Compensated (Kahan) sums: a million small trapezoids would otherwise lose digits.
   let ampSeconds = 0
+  let ampCarry = 0
   let jouleSum = 0
+  let jouleCarry = 0
   const power = options.assumedPower
   const resistance = options.assumedResistance
   // An assumed constant power draws P/v; a collapsed (≤ 0 V) sample contributes nothing rather than infinity.
@@ -262,8 +265,14 @@ export function analyseDischarge(samples: DischargeArrays, options: DischargeOpt
         vB = lerpAt(t, v, k, tEnd)
         iB = useCurrent && cur ? lerpAt(t, cur, k, tEnd) : power !== undefined ? fromPower(vB) : vB / (resistance ?? 1)
       }
-      ampSeconds += ((iA + iB) * dt) / 2
-      jouleSum += ((vA * iA + vB * iB) * dt) / 2
+      const dq = ((iA + iB) * dt) / 2 - ampCarry
+      const q = ampSeconds + dq
+      ampCarry = q - ampSeconds - dq
+      ampSeconds = q
+      const de = ((vA * iA + vB * iB) * dt) / 2 - jouleCarry
+      const e = jouleSum + de
+      jouleCarry = e - jouleSum - de
+      jouleSum = e
     }
   }
 

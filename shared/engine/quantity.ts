@@ -4,17 +4,14 @@
  * mathjs (`"120 mA"`, `"1.6 Ah"`, `"90 min"`, `"25 degC"`). Inside the engine every
  * value is a plain number in that base unit, so the hot paths never touch mathjs.
  */
-import { create, unitDependencies, type Unit } from 'mathjs'
+import { create, createUnitDependencies, unitDependencies, type Unit } from 'mathjs'
 
-const math = create({ unitDependencies })
+const math = create({ unitDependencies, createUnitDependencies })
 
 // Units the trade uses that mathjs does not ship. Created once, at module load.
-try {
-  math.createUnit('lx', { definition: '1 cd / m^2' } as never)
-  math.createUnit('fc', { definition: '10.763910416709722 lx' } as never)
-} catch {
-  // already defined (module evaluated twice under some test runners)
-}
+// lx is lm/m² = cd·sr/m²; mathjs treats the steradian as dimensionless, so cd/m² has the same base.
+if (!math.Unit.isValuelessUnit('lx')) math.createUnit('lx', { definition: '1 cd / m^2' })
+if (!math.Unit.isValuelessUnit('fc')) math.createUnit('fc', { definition: '10.763910416709722 lx' })
 
 export type Dimension =
   | 'current'

@@ -9,6 +9,8 @@ import { chargeTool } from './charge'
 import { compareTool } from './compare'
 import { auditTool } from './audit'
 import { retrofitTool } from './retrofit'
+import { dischargeTool } from './discharge'
+import { spacingTool } from './spacing'
 
 /** A tool with its own schema and result types, widened for the by-name table (run's input type makes EngineTool invariant in S). */
 const asTool = <S extends z.ZodTypeAny, R extends ToolResultBase>(tool: EngineTool<S, R>): EngineTool => tool as unknown as EngineTool
@@ -20,6 +22,8 @@ export const tools: Record<string, EngineTool> = {
   compare: asTool(compareTool),
   audit: asTool(auditTool),
   retrofit: asTool(retrofitTool),
+  discharge: asTool(dischargeTool),
+  spacing: asTool(spacingTool),
 }
 
 export type ToolName = keyof typeof tools

@@ -228,7 +228,7 @@ type PointFn = (line: number, dx: number) => number
 const SAMPLES = 32
 const GOLDEN = (Math.sqrt(5) - 1) / 2
 /** Luminaires adding less than this share of the smallest required level are left out (conservative: the row only loses light). */
-const NEGLIGIBLE = 1e-5
+const NEGLIGIBLE = 1e-4
 const BISECTION_TOLERANCE_M = 0.001
 
 function goldenExtreme(f: (x: number) => number, a: number, b: number, sign: 1 | -1, iterations = 18): number {
@@ -270,7 +270,7 @@ export class RowSolver {
   constructor(private readonly o: RowSolverOptions) {
     const h = o.mountingHeight
     this.mode = o.neighbours ?? 'row'
-    this.near = 4 * h
+    this.near = 2 * h
     this.lines = symmetricAboutRow(o.table, o.cPlane) ? mergeMirroredLines(o.criteria.lines) : o.criteria.lines
     const smallest = Math.min(...o.criteria.scenarios.flatMap((s) => this.lines.map((l) => (s.minLx * l.minFraction) / Math.max(s.scale, 1e-9))))
     const threshold = NEGLIGIBLE * smallest
@@ -291,7 +291,7 @@ export class RowSolver {
         .map(Math.sqrt)
         .sort((a, b) => a - b),
     )
-    this.step = Math.max(h / 32, this.reach / 8192)
+    this.step = Math.max(h / 64, this.reach / 8192)
     this.cells = Math.ceil(this.reach / this.step)
     this.areas = []
     this.grids = this.lines.map((_, j) => {

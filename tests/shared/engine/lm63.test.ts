@@ -144,6 +144,9 @@ describe('parseLm63: other editions and layouts', () => {
     expect(intensityAt(p, 45, 0)).toBeCloseTo(15, 12) // C45 mirrors to C135
     expect(intensityAt(p, 315, 0)).toBeCloseTo(25, 12) // C315 mirrors to C225
   })
+  it('a single vertical angle gives that value wherever it applies', () => {
+    expect(intensityAt({ verticalAngles: [0], horizontalAngles: [0], candela: [[7]] }, 0, 0)).toBe(7)
+  })
   it('treats an up-only table (γ 90–180) as dark below the horizontal', () => {
     const p = parsed(['IESNA91', 'TILT=NONE', '1 -1 1 2 1 1 2 0 0 0', '1 1 0', '90 180', '0', '0 50'].join('\n'))
     expect(intensityAt(p, 0, 45)).toBe(0)
