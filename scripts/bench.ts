@@ -10,6 +10,7 @@ const BENCHES = [
   { file: 'scripts/bench-engine.ts', what: 'engine: size and compare all chemistries for 10,000 luminaires' },
   { file: 'scripts/bench-recalc.ts', what: 'pack bench: recalculation per keystroke' },
   { file: 'scripts/bench-bundle.ts', what: 'client: JavaScript and CSS loaded by the first page after sign-in (needs a build)' },
+  { file: 'scripts/bench-discharge-engine.ts', what: 'engine: discharge analysis of 1,000,000 samples and spacing tables' },
   { file: 'scripts/bench-discharge.ts', what: 'discharge logs: a 1,000,000-row log parsed and analysed' },
 ]
 

@@ -82,7 +82,9 @@ const CRITERION_WORDS = {
   restrictions: 'restrictions and disposal',
 } as const
 
-export function compareChemistries(input: CompareInput): CompareResult {
+/** `explain: false` skips verdict sentences and working (bulk runs such as the benchmark). */
+export function compareChemistries(input: CompareInput, options: { explain?: boolean } = {}): CompareResult {
+  const explain = options.explain !== false
   const ids = [...new Set(input.chemistries)]
   const sized = ids.map((id) => {
     const sizeInput: SizeInput = {
@@ -140,6 +142,7 @@ export function compareChemistries(input: CompareInput): CompareResult {
   order.forEach(({ row }, position) => {
     row.rank = position + 1
   })
+  if (!explain) return { rows, weights: w, warnings: [], working: [] }
   for (const row of rows) row.verdict = verdictFor(row, input, w)
 
   const warnings: EngineWarning[] = []
