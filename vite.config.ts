@@ -16,7 +16,7 @@ export default defineConfig({
     host: '127.0.0.1',
     proxy: { '/api': { target: `http://127.0.0.1:${process.env.PORT ?? 8420}`, changeOrigin: false } },
   },
-  build: { outDir: 'dist', sourcemap: false, chunkSizeWarningLimit: 900 },
+  build: { outDir: 'dist', sourcemap: false, chunkSizeWarningLimit: 900, manifest: true },
   test: {
     coverage: {
       provider: 'v8',

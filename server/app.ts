@@ -5,6 +5,7 @@ import express, { Router, type Express } from 'express'
 import helmet from 'helmet'
 import passport from 'passport'
 import { config } from './config'
+import { apiTokenAuth } from './middleware/api-token'
 import { csrfProtection } from './middleware/csrf'
 import { errorHandler, notFoundApi } from './middleware/error-handler'
 import { requestLog } from './middleware/request-log'
@@ -60,7 +61,7 @@ export function createApp(opts: AppOptions = {}): BuiltApp {
   const session = createSessionMiddleware(cfg)
   app.use('/api', session.middleware)
   configurePassport()
-  app.use('/api', passport.initialize(), passport.session())
+  app.use('/api', passport.initialize(), passport.session(), apiTokenAuth)
   app.use('/api', csrfProtection(cfg.session.cookieName, cfg.origin))
 
   const routeTable = buildRouteTable({ signInWindowMs: opts.signInWindowMs ?? 15 * 60 * 1000 })

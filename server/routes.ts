@@ -3,12 +3,17 @@
  * and the access-control tests walk this same list, so a route cannot escape the checks.
  */
 import type { RouteSpec } from './policy/access'
+import { auditRoutes } from './modules/audits/audits.router'
 import { authRoutes } from './modules/auth/auth.router'
 import { calcRoutes } from './modules/calc/calc.router'
+import { dischargeRoutes } from './modules/discharge/discharge.router'
+import { docsRoutes } from './modules/docs/docs.router'
 import { healthRoutes } from './modules/health/health.router'
 import { outboxRoutes } from './modules/mail/outbox.router'
+import { photometryRoutes } from './modules/photometry/photometry.router'
 import { registerRoutes } from './modules/register/register.router'
 import { sheetRoutes } from './modules/sheets/sheets.router'
+import { tokenRoutes } from './modules/tokens/tokens.router'
 import { workspaceRoutes } from './modules/workspaces/workspaces.router'
 
 export interface RouteTableOptions {
@@ -16,13 +21,19 @@ export interface RouteTableOptions {
 }
 
 export function buildRouteTable(opts: RouteTableOptions): RouteSpec[] {
-  return [
+  const table: RouteSpec[] = [
+    ...docsRoutes(() => table),
     ...healthRoutes,
     ...authRoutes(opts),
     ...workspaceRoutes,
     ...outboxRoutes,
     ...calcRoutes,
+    ...tokenRoutes,
     ...sheetRoutes,
     ...registerRoutes,
+    ...auditRoutes,
+    ...dischargeRoutes,
+    ...photometryRoutes,
   ]
+  return table
 }

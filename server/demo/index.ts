@@ -4,12 +4,20 @@
  */
 import type { DataSource } from 'typeorm'
 import { seedAccounts } from './accounts.demo'
+import { seedAudits } from './audits.demo'
+import { seedPhotometry } from './photometry.demo'
+import { seedRegister } from './register.demo'
+import { seedSheets } from './sheets.demo'
 
 export async function seedDemo(ds: DataSource): Promise<void> {
   await ds.transaction(async (m) => {
     // One seeding at a time, even with two processes starting together.
     await m.query('SELECT pg_advisory_xact_lock(7410001)')
     const ctx = await seedAccounts(m)
+    await seedRegister(m, ctx)
+    await seedAudits(m, ctx)
+    await seedSheets(m, ctx)
+    await seedPhotometry(m, ctx)
     void ctx
   })
 }

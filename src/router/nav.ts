@@ -16,10 +16,38 @@ export interface NavGroup {
 export const NAV: NavGroup[] = [
   { label: 'Start', items: [{ route: 'home', label: 'Home', role: 'viewer' }] },
   {
+    label: 'Design',
+    items: [
+      { route: 'pack-bench', label: 'Pack bench', role: 'viewer' },
+      { route: 'charger-check', label: 'Charger check', role: 'viewer' },
+      { route: 'retrofit-planner', label: 'Retrofit planner', role: 'viewer' },
+      { route: 'sheets', label: 'Spec sheets', role: 'viewer' },
+    ],
+  },
+  {
+    label: 'Checks',
+    items: [{ route: 'claim-check', label: 'Claim check', role: 'viewer' }],
+  },
+  {
+    label: 'Upkeep',
+    items: [
+      { route: 'sites', label: 'Sites', role: 'viewer' },
+      { route: 'rounds', label: 'Test rounds', role: 'technician' },
+    ],
+  },
+  {
     label: 'Workspace',
     items: [
       { route: 'team', label: 'Team', role: 'viewer' },
       { route: 'outbox', label: 'Outbox', role: 'owner' },
+    ],
+  },
+  {
+    label: 'Help',
+    items: [
+      { route: 'glossary', label: 'Glossary', role: 'viewer' },
+      { route: 'cautions', label: 'Cautions', role: 'viewer' },
+      { route: 'api-docs', label: 'API', role: 'viewer' },
     ],
   },
 ]

@@ -5,6 +5,7 @@
  */
 import { dataSource } from '../../server/data-source'
 import { newToken } from '../../server/lib/tokens'
+import { ApiToken } from '../../server/modules/tokens/api-token.entity'
 import { PasswordReset } from '../../server/modules/auth/password-reset.entity'
 import { Invitation } from '../../server/modules/workspaces/invitation.entity'
 import { Membership } from '../../server/modules/workspaces/membership.entity'
@@ -13,6 +14,8 @@ import type { Role } from '../../shared/schemas/roles'
 import { makeTeam, uniqueEmail, type TestTeam } from '../helpers/test-app'
 import { sheetRouteExamples } from './sheet-examples'
 import { registerRouteExamples } from './register-examples'
+import { auditRouteExamples } from './audit-examples'
+import { photometryRouteExamples } from './photometry-examples'
 
 export interface ExampleContext {
   /** The workspace the caller belongs to (the caller's role is `role`). */
@@ -48,6 +51,15 @@ async function invitationIn(workspaceId: string, invitedBy: string, email = uniq
   return { id: inv.id, token }
 }
 
+/** A token row belonging to a team member; revoking it must work for any role (it is the caller's own). */
+async function tokenFor(team: TestTeam, role: Role) {
+  const { hash } = newToken()
+  const row = await dataSource.getRepository(ApiToken).save(
+    dataSource.getRepository(ApiToken).create({ userId: team.users[role].id, workspaceId: team.workspaceId, role: 'viewer', name: 't', tokenHash: hash, prefix: 'lw_x', lastUsedAt: null, revokedAt: null }),
+  )
+  return row.id
+}
+
 export const SIZE_EXAMPLE = {
   chemistry: 'nicd',
   cellsInSeries: 4,
@@ -61,6 +73,7 @@ export const SIZE_EXAMPLE = {
 
 export const routeExamples: Record<string, ExampleFn> = {
   'get /api/health': async () => ({ path: '/api/health' }),
+  'get /api/openapi.json': async () => ({ path: '/api/openapi.json' }),
   'post /api/auth/sign-up': async () => ({ path: '/api/auth/sign-up', body: { email: uniqueEmail('new'), password: 'a long enough passphrase', name: 'New Person', workspaceName: 'New team' } }),
   'post /api/auth/sign-in': async ({ team }) => ({ path: '/api/auth/sign-in', body: { email: team.users.viewer.email, password: 'correct-horse-lamp-42' } }),
   'post /api/auth/sign-out': async () => ({ path: '/api/auth/sign-out' }),
@@ -108,7 +121,15 @@ export const routeExamples: Record<string, ExampleFn> = {
   },
   'get /api/outbox': async () => ({ path: '/api/outbox' }),
   'get /api/calc': async () => ({ path: '/api/calc' }),
+  'get /api/tokens': async () => ({ path: '/api/tokens' }),
+  'post /api/tokens': async () => ({ path: '/api/tokens', body: { name: 'script', role: 'viewer' } }),
+  'delete /api/tokens/:id': async ({ team, other, role }) => ({
+    path: `/api/tokens/${await tokenFor(team, role ?? 'viewer')}`,
+    foreignPath: `/api/tokens/${await tokenFor(other, 'viewer')}`,
+  }),
   'post /api/calc/:tool': async () => ({ path: '/api/calc/size', body: SIZE_EXAMPLE }),
   ...sheetRouteExamples,
   ...registerRouteExamples,
+  ...auditRouteExamples,
+  ...photometryRouteExamples,
 }

@@ -1,8 +1,11 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { BuiltApp } from '../../server/app'
 import { dataSource } from '../../server/data-source'
+import { seedSheets } from '../../server/demo/sheets.demo'
 import { AuditEvent } from '../../server/modules/audit/audit-event.entity'
 import { ShareLink } from '../../server/modules/sheets/share-link.entity'
+import { SpecRevision } from '../../server/modules/sheets/spec-revision.entity'
+import { SpecSheet } from '../../server/modules/sheets/spec-sheet.entity'
 import { sizePack, sizeInputSchema } from '../../shared/engine/size'
 import { hashToken } from '../../server/lib/tokens'
 import { pdfText } from '../helpers/pdf-text'
@@ -31,11 +34,12 @@ async function createSheet(client: Client, overrides: Record<string, unknown> = 
 }
 
 /** PDF bodies arrive as binary; supertest needs a parser that keeps the bytes. */
-function binary(res: NodeJS.ReadableStream, done: (err: Error | null, body: Buffer) => void) {
+type BodyParser = Parameters<ReturnType<Client['get']>['parse']>[0]
+const binary = ((res: NodeJS.ReadableStream, done: (err: Error | null, body: Buffer) => void) => {
   const chunks: Buffer[] = []
   res.on('data', (c: Buffer) => chunks.push(c))
   res.on('end', () => done(null, Buffer.concat(chunks)))
-}
+}) as unknown as BodyParser
 
 describe('creating and reading a sheet', () => {
   it('stores the inputs as typed and the engine results computed on the server', async () => {
@@ -336,5 +340,26 @@ describe('roles', () => {
     const owner = await signIn(built.app, team.users.owner.email)
     expect((await owner.put(`/api/sheets/${sheet.id}`, { ...sheetBody(), version: 1 })).status).toBe(200)
     expect((await anonymous(built.app).get('/api/sheets')).status).toBe(401)
+  })
+})
+
+describe('demo sheets', () => {
+  it('seeds issued sheets with revisions once, however often it runs', async () => {
+    const demo = await makeTeam('Demo copy')
+    const ctx = { workspaceId: demo.workspaceId, users: { owner: demo.users.owner.id, designer: demo.users.designer.id, technician: demo.users.technician.id, viewer: demo.users.viewer.id } }
+    await dataSource.transaction((m) => seedSheets(m, ctx))
+    await dataSource.transaction((m) => seedSheets(m, ctx))
+    const rows = await dataSource.getRepository(SpecSheet).find({ where: { workspaceId: demo.workspaceId }, order: { reference: 'ASC' } })
+    expect(rows.map((r) => [r.reference, r.status, r.currentRevision, r.issuedRevision])).toEqual([
+      ['QTL-EM-03', 'issued', 2, 2],
+      ['SDS-EM-02', 'issued', 1, 1],
+      ['WCR-EM-11', 'draft', 2, 1],
+    ])
+    expect(rows.every((r) => r.createdBy === demo.users.designer.id)).toBe(true)
+    const library = await dataSource.getRepository(SpecRevision).find({ where: { sheetId: rows[0].id }, order: { number: 'ASC' } })
+    expect(library.map((r) => r.status)).toEqual(['superseded', 'issued'])
+    // The cold warehouse is sized with less than full capacity available at −15 °C.
+    const cold = (rows[1].results.working as Array<{ id: string; result: { value: number } }>).find((w) => w.id === 'coldCapacityFactor')
+    expect(cold?.result.value).toBeLessThan(1)
   })
 })

@@ -14,7 +14,9 @@ import { NotFoundError } from '../../errors/app-error'
 import { parse } from '../../lib/parse'
 import { scope, type RouteSpec } from '../../policy/access'
 import { Workspace } from '../workspaces/workspace.entity'
-import { buildSheetPdf } from './pdf/sheet-pdf'
+import { auditsForSheet } from '../audits/audits.service'
+import { withWattageAudits } from '../audits/audit-pdf-section'
+import { buildSheetPdf, cautionsSection, SHEET_SECTIONS } from './pdf/sheet-pdf'
 import * as service from './sheets.service'
 
 const Uuid = z.string().uuid()
@@ -97,7 +99,8 @@ async function pdf(req: Request, res: Response) {
   const q = z.object({ revision: RevisionNumber.optional() }).safeParse(req.query)
   const data = await service.pdfData(s.workspaceId, id, q.success ? q.data.revision : undefined)
   const ws = await dataSource.getRepository(Workspace).findOneBy({ id: s.workspaceId })
-  sendPdf(res, await buildSheetPdf({ ...data, issuer: ws?.name }), fileName(data.title, data.number))
+  const audits = await auditsForSheet(s.workspaceId, id)
+  sendPdf(res, await buildSheetPdf({ ...data, issuer: ws?.name }, withWattageAudits(SHEET_SECTIONS, audits, cautionsSection)), fileName(data.title, data.number))
 }
 
 async function createShare(req: Request, res: Response) {

@@ -1,0 +1,161 @@
+/**
+ * `npm run load`: drives a real Lampwright process on loopback with autocannon through a realistic
+ * mix (list sheets, open a sheet, compute a size, save a revision; sign-in separately since bcrypt is
+ * deliberately slow) at 50 and 200 connections, and the same tool against a bare Express handler on
+ * the same machine in the same run, so the ratio holds on a noisy machine. Bounded in time.
+ */
+import { spawn, spawnSync, type ChildProcess } from 'node:child_process'
+import fs from 'node:fs'
+import os from 'node:os'
+import path from 'node:path'
+import autocannon from 'autocannon'
+import { DEMO_PASSWORD } from '../server/scripts/demo-users'
+import { ensurePostgresBinaries, findFreePort, startCluster } from './lib/setup.mjs'
+
+const DURATION_S = Number(process.env.LOAD_SECONDS ?? 8)
+const work = fs.mkdtempSync(path.join(os.tmpdir(), 'lw-load-'))
+fs.chmodSync(work, 0o755)
+const children: ChildProcess[] = []
+let cluster: { url: string; stop(): void } | null = null
+
+async function waitFor(url: string) {
+  for (let i = 0; i < 300; i++) {
+    try {
+      if ((await fetch(url)).ok) return
+    } catch {
+      // not yet
+    }
+    await new Promise((r) => setTimeout(r, 100))
+  }
+  throw new Error(`${url} did not answer`)
+}
+
+type Result = autocannon.Result
+function run(opts: autocannon.Options): Promise<Result> {
+  return new Promise((resolve, reject) => {
+    autocannon({ duration: DURATION_S, timeout: 10, ...opts }, (err, res) => (err ? reject(err) : resolve(res)))
+  })
+}
+
+function row(label: string, r: Result) {
+  const lat = r.latency as unknown as Record<string, number>
+  const p95 = lat.p95 ?? lat.p97_5
+  return {
+    scenario: label,
+    'req/s': Math.round(r.requests.average),
+    'p50 ms': lat.p50,
+    'p95 ms': p95,
+    'p99 ms': lat.p99,
+    errors: r.errors + r.timeouts,
+    non2xx: r.non2xx,
+    requests: r.requests.total,
+  }
+}
+
+async function main() {
+  const bin = ensurePostgresBinaries()
+  const pgPort = await findFreePort(57000)
+  cluster = startCluster({ bin, dir: path.join(work, 'pg'), port: pgPort, database: 'lampwright_load' })
+  const env = { ...process.env, NODE_ENV: 'production', DATABASE_URL: cluster.url, DATA_DIR: path.join(work, 'data'), JOBS: '0', LOG_LEVEL: 'silent', SMTP_CATCHER_PORT: '0' }
+  for (const script of ['server/scripts/migrate.ts', 'server/scripts/seed.ts']) {
+    const r = spawnSync('node', ['--import', 'tsx', script], { env, encoding: 'utf8' })
+    if (r.status !== 0) throw new Error(r.stderr)
+  }
+  const appPort = await findFreePort(46000)
+  const barePort = await findFreePort(47000)
+  children.push(spawn('node', ['--import', 'tsx', 'server/index.ts'], { env: { ...env, PORT: String(appPort) }, stdio: 'ignore' }))
+  children.push(
+    spawn('node', ['-e', `const e=require('express');const a=e();a.get('/bare',(q,s)=>s.json({ok:true}));a.post('/bare',e.json(),(q,s)=>s.json({ok:true,n:q.body&&q.body.n}));a.listen(${barePort},'127.0.0.1')`], { stdio: 'ignore' }),
+  )
+  const base = `http://127.0.0.1:${appPort}`
+  await waitFor(`${base}/api/health`)
+  await waitFor(`http://127.0.0.1:${barePort}/bare`)
+
+  const signIn = await fetch(`${base}/api/auth/sign-in`, { method: 'POST', headers: { 'Content-Type': 'application/json' }, body: JSON.stringify({ email: 'designer@tallowmere.example', password: DEMO_PASSWORD }) })
+  if (!signIn.ok) throw new Error(`sign-in failed: ${signIn.status}`)
+  const cookie = signIn.headers.get('set-cookie')!.split(';')[0]
+  const csrf = (await signIn.json()).csrfToken as string
+  const headers = { cookie, 'x-csrf-token': csrf, 'content-type': 'application/json' }
+
+  // One sheet per connection for saves, so revisions do not collide.
+  const sizeBody = JSON.stringify({ chemistry: 'nicd', duration: '3 h', load: { ledVoltage: '3.2 V', ledCurrent: '250 mA' }, driver: 'converter', driverEfficiency: 0.85, ambientMax: '35 degC' })
+  const sheets: Array<{ id: string; version: number }> = []
+  for (let i = 0; i < 200; i++) {
+    const res = await fetch(`${base}/api/sheets`, { method: 'POST', headers, body: JSON.stringify({ title: `Load sheet ${i}`, inputs: JSON.parse(sizeBody) }) })
+    if (res.status !== 201) throw new Error(`create sheet: ${res.status} ${await res.text()}`)
+    const body = await res.json()
+    sheets.push({ id: body.id ?? body.sheet?.id, version: body.version ?? body.sheet?.version ?? 1 })
+  }
+
+  const results: ReturnType<typeof row>[] = []
+  for (const connections of [50, 200]) {
+    const bare = await run({ url: `http://127.0.0.1:${barePort}/bare`, connections })
+    results.push(row(`bare Express GET, ${connections} conn`, bare))
+    const bareRow = results[results.length - 1]
+
+    const reads = await run({
+      url: base,
+      connections,
+      headers,
+      requests: [
+        { method: 'GET', path: '/api/sheets?page=1&pageSize=20' },
+        { method: 'GET', setupRequest: (req) => ({ ...req, path: `/api/sheets/${sheets[Math.floor(Math.random() * sheets.length)].id}` }) },
+      ],
+    })
+    results.push(row(`reads (list + open sheet), ${connections} conn`, reads))
+
+    const compute = await run({ url: `${base}/api/calc/size`, method: 'POST', connections, headers, body: sizeBody })
+    results.push(row(`compute POST /api/calc/size, ${connections} conn`, compute))
+    console.log(`compute / bare throughput at ${connections} connections: ${(compute.requests.average / bare.requests.average).toFixed(2)} (bare ${bareRow['req/s']} req/s)`)
+
+    // The realistic mix: list, open, compute, open, save a revision (each connection its own sheet).
+    let next = 0
+    const mix = await run({
+      url: base,
+      connections,
+      headers,
+      requests: [
+        { method: 'GET', path: '/api/sheets?page=1&pageSize=20' },
+        {
+          method: 'GET',
+          setupRequest: (req, context: Record<string, unknown>) => {
+            context.sheet ??= sheets[next++ % sheets.length]
+            return { ...req, path: `/api/sheets/${(context.sheet as { id: string }).id}` }
+          },
+          onResponse: (status, body, context: Record<string, unknown>) => {
+            if (status === 200) {
+              const parsed = JSON.parse(body)
+              context.version = parsed.version ?? parsed.sheet?.version
+            }
+          },
+        },
+        { method: 'POST', path: '/api/calc/size', body: sizeBody },
+        {
+          method: 'PUT',
+          setupRequest: (req, context: Record<string, unknown>) => ({
+            ...req,
+            path: `/api/sheets/${(context.sheet as { id: string }).id}`,
+            body: JSON.stringify({ title: 'Load sheet (saved)', inputs: JSON.parse(sizeBody), version: context.version }),
+          }),
+        },
+      ],
+    })
+    results.push(row(`mix (list, open, compute, save), ${connections} conn`, mix))
+  }
+  const signIns = await run({ url: `${base}/api/auth/sign-in`, method: 'POST', connections: 4, headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: 'viewer@tallowmere.example', password: DEMO_PASSWORD }) })
+  results.push(row('sign-in (bcrypt cost 12), 4 conn', signIns))
+
+  console.log(`\nmachine: ${os.cpus()[0]?.model} × ${os.cpus().length}, Node ${process.version}; ${DURATION_S} s per scenario`)
+  console.table(results)
+}
+
+main()
+  .catch((err) => {
+    console.error(err)
+    process.exitCode = 1
+  })
+  .finally(() => {
+    for (const c of children) c.kill('SIGTERM')
+    cluster?.stop()
+    fs.rmSync(work, { recursive: true, force: true })
+  })

@@ -1,0 +1,394 @@
+/**
+ * Discharge-test logs. An upload is first staged on disk (never in the database) and answered with
+ * a preview and guesses; the analysis reads the staged (or an already stored) file with the chosen
+ * mapping, runs the engine, and only a successful save stores the raw file (once per SHA-256) and
+ * the log in one transaction. A refused or abandoned upload leaves no row behind; staged files
+ * expire after a day. Every query is scoped by workspace; another workspace's ids read as missing.
+ */
+import crypto from 'node:crypto'
+import fs from 'node:fs'
+import path from 'node:path'
+import { Readable } from 'node:stream'
+import { In, type EntityManager } from 'typeorm'
+import { analyseDischarge, type DischargeResult } from '../../../shared/engine/discharge'
+import { splitLine } from '../../../shared/engine/discharge-log'
+import { lttbIndices } from '../../../shared/engine/lttb'
+import { ENGINE_VERSION } from '../../../shared/engine/version'
+import { CURVE_POINTS, engineOptions, type ColumnMapping, type DischargeAnalyse, type DischargeListQuery } from '../../../shared/schemas/discharge-log.schema'
+import { config } from '../../config'
+import { dataSource } from '../../data-source'
+import { AppError, BadRequestError, NotFoundError } from '../../errors/app-error'
+import { recordAudit } from '../audit/audit.service'
+import { User } from '../users/user.entity'
+import { DischargeFile } from './discharge-file.entity'
+import { DischargeLog } from './discharge-log.entity'
+import { fingerprint, lookAtSample, parseLog, type BadRow } from './log-parser'
+
+const STAGED_FOR_MS = 24 * 3600 * 1000
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/
+
+const logs = (m: EntityManager = dataSource.manager) => m.getRepository(DischargeLog)
+const files = (m: EntityManager = dataSource.manager) => m.getRepository(DischargeFile)
+
+export function stagingDir(): string {
+  const dir = path.join(config().dataDir, 'discharge-uploads')
+  fs.mkdirSync(dir, { recursive: true })
+  return dir
+}
+
+interface StagedMeta {
+  workspaceId: string
+  userId: string
+  originalName: string
+  sha256: string
+  size: number
+  createdAt: string
+}
+
+const stagedFile = (uploadId: string) => path.join(stagingDir(), `${uploadId}.upload`)
+const stagedMeta = (uploadId: string) => path.join(stagingDir(), `${uploadId}.json`)
+
+function discardStaged(uploadId: string) {
+  fs.rmSync(stagedFile(uploadId), { force: true })
+  fs.rmSync(stagedMeta(uploadId), { force: true })
+}
+
+/** Removes staged uploads older than a day (called on each upload; cheap for a small folder). */
+function sweepStaging() {
+  const dir = stagingDir()
+  const now = Date.now()
+  for (const name of fs.readdirSync(dir)) {
+    const full = path.join(dir, name)
+    try {
+      if (now - fs.statSync(full).mtimeMs > STAGED_FOR_MS) fs.rmSync(full, { force: true })
+    } catch {
+      // Another process removed it first.
+    }
+  }
+}
+
+/** A new staging path for an upload written by the caller (multer or a JSON body). */
+export function newStagingPath(): { uploadId: string; file: string } {
+  const uploadId = crypto.randomUUID()
+  return { uploadId, file: stagedFile(uploadId) }
+}
+
+/** Checks a file just written to the staging folder and answers with a preview; refused files are removed. */
+export async function stageUpload(workspaceId: string, userId: string, file: string, originalName: string) {
+  const uploadId = path.basename(file).replace(/\.upload$/, '')
+  try {
+    sweepStaging()
+    const { sha256, size, sample } = await fingerprint(file)
+    const look = lookAtSample(sample, size <= sample.length)
+    const meta: StagedMeta = { workspaceId, userId, originalName: originalName.slice(0, 200), sha256, size, createdAt: new Date().toISOString() }
+    fs.writeFileSync(stagedMeta(uploadId), JSON.stringify(meta))
+    const stored = await files().findOne({ where: { workspaceId, sha256 }, select: { id: true } })
+    return {
+      uploadId,
+      sha256,
+      size,
+      name: meta.originalName,
+      /** The same file is already stored in this workspace (it will not be stored twice). */
+      storedFileId: stored?.id ?? null,
+      delimiter: look.delimiter,
+      decimal: look.decimal,
+      header: look.header,
+      firstLine: look.firstLine,
+      columns: look.columns,
+      preview: look.rows,
+      guess: look.guess,
+    }
+  } catch (err) {
+    discardStaged(uploadId)
+    throw err
+  }
+}
+
+function readStaged(workspaceId: string, uploadId: string): { meta: StagedMeta; file: string } {
+  if (!UUID.test(uploadId)) throw new NotFoundError('That upload')
+  let meta: StagedMeta
+  try {
+    meta = JSON.parse(fs.readFileSync(stagedMeta(uploadId), 'utf8')) as StagedMeta
+  } catch {
+    throw new NotFoundError('That upload (uploads are kept for a day; upload the file again)')
+  }
+  if (meta.workspaceId !== workspaceId) throw new NotFoundError('That upload (uploads are kept for a day; upload the file again)')
+  return { meta, file: stagedFile(uploadId) }
+}
+
+/** Column names for the mapping's header line, from the first bytes of the file. */
+function columnNames(sample: Buffer, mapping: ColumnMapping): string[] {
+  const lines = sample.toString('utf8').replace(/^\uFEFF/, '').split(/\r\n|\n|\r/)
+  const line = lines[mapping.firstLine - 1] ?? ''
+  const cells = splitLine(line, mapping.delimiter)
+  return cells.map((c, k) => (mapping.header ? c.trim() || `Column ${k + 1}` : `Column ${k + 1}`))
+}
+
+export interface Curve {
+  tH: number[]
+  v: number[]
+  i: number[] | null
+}
+
+const round = (x: number, digits: number) => Number(x.toFixed(digits))
+
+/** The curve for plotting: at most CURVE_POINTS points, chosen by LTTB on the voltage. */
+function downSample(t: Float64Array, v: Float64Array, i: Float64Array | undefined): Curve {
+  const keep = lttbIndices(t, v, Math.min(CURVE_POINTS, t.length))
+  const t0 = t[0]
+  const tH: number[] = []
+  const vs: number[] = []
+  const is: number[] | null = i ? [] : null
+  for (const k of keep) {
+    tH.push(round((t[k] - t0) / 3600, 6))
+    vs.push(round(v[k], 5))
+    if (is && i) is.push(round(i[k], 5))
+  }
+  return { tH, v: vs, i: is }
+}
+
+export interface ReadReport {
+  rows: number
+  badRows: { count: number; items: BadRow[] }
+  currentInverted: boolean
+}
+
+export interface Analysis {
+  result: DischargeResult
+  curve: Curve
+  read: ReadReport
+  columns: string[]
+}
+
+/** Parses a file stream with the mapping and runs the engine; bad rows stop it unless accepted. */
+export async function analyseStream(input: Readable, sample: Buffer, size: number, body: Pick<DischargeAnalyse, 'mapping' | 'options' | 'acceptBadRows'>): Promise<Analysis> {
+  const columns = columnNames(sample, body.mapping)
+  const parsed = await parseLog(input, body.mapping, columns, size)
+  const read: ReadReport = { rows: parsed.rows, badRows: parsed.badRows, currentInverted: parsed.currentInverted }
+  if (parsed.badRows.count > 0 && !body.acceptBadRows) {
+    const first = parsed.badRows.items[0]
+    throw new AppError(
+      422,
+      'bad_rows',
+      `${parsed.badRows.count} row(s) could not be read; the first is row ${first.row}, column "${first.column}": "${first.value}" ${first.reason}. Fix the file or the mapping, or go on without ${parsed.badRows.count === 1 ? 'it' : 'them'}.`,
+      parsed.badRows.items.map((b) => ({ path: `row ${b.row}, ${b.column}`, message: `"${b.value}" ${b.reason}` })),
+      { badRows: parsed.badRows, rows: parsed.rows + parsed.badRows.count },
+    )
+  }
+  const outcome = analyseDischarge({ t: parsed.t, v: parsed.v, i: parsed.i }, engineOptions(body.options))
+  if (!outcome.ok) throw new BadRequestError('The log could not be analysed.', outcome.fields.map((f) => ({ path: f.path, message: f.message })))
+  return { result: outcome.result, curve: downSample(parsed.t, parsed.v, parsed.i), read, columns }
+}
+
+async function sampleOf(file: string): Promise<Buffer> {
+  const handle = await fs.promises.open(file, 'r')
+  try {
+    const buf = Buffer.alloc(64 * 1024)
+    const { bytesRead } = await handle.read(buf, 0, buf.length, 0)
+    return buf.subarray(0, bytesRead)
+  } finally {
+    await handle.close()
+  }
+}
+
+// ---------------------------------------------------------------------------------------------
+// Links and views
+
+/** Sheet and test-record links must point inside the workspace; a foreign id reads like a missing one. */
+async function checkLinks(m: EntityManager, workspaceId: string, v: { specSheetId?: string | null; testRecordId?: string | null }) {
+  const fields: Array<{ path: string; message: string }> = []
+  if (v.specSheetId) {
+    const rows: unknown[] = await m.query('SELECT 1 FROM spec_sheets WHERE id = $1 AND workspace_id = $2', [v.specSheetId, workspaceId])
+    if (!rows.length) fields.push({ path: 'specSheetId', message: 'is not a specification sheet of this workspace' })
+  }
+  if (v.testRecordId) {
+    const rows: Array<{ kind: string }> = await m.query('SELECT kind FROM test_records WHERE id = $1 AND workspace_id = $2', [v.testRecordId, workspaceId])
+    if (!rows.length) fields.push({ path: 'testRecordId', message: 'is not a test record of this workspace' })
+    else if (rows[0].kind !== 'duration') fields.push({ path: 'testRecordId', message: 'is a functional test; attach a discharge log to a full-duration test' })
+  }
+  if (fields.length) throw new BadRequestError('A log can only be attached to a sheet or a full-duration test of this workspace.', fields)
+}
+
+interface Links {
+  specSheet: { id: string; title: string } | null
+  testRecord: { id: string; testedOn: string; luminaireId: string; luminaireTag: string } | null
+}
+
+async function linksOf(rows: DischargeLog[], m: EntityManager = dataSource.manager): Promise<Map<string, Links>> {
+  const sheetIds = [...new Set(rows.map((r) => r.specSheetId).filter((x): x is string => !!x))]
+  const testIds = [...new Set(rows.map((r) => r.testRecordId).filter((x): x is string => !!x))]
+  const sheets = new Map<string, { id: string; title: string }>()
+  const tests = new Map<string, Links['testRecord']>()
+  if (sheetIds.length) for (const s of (await m.query('SELECT id, title FROM spec_sheets WHERE id = ANY($1::uuid[])', [sheetIds])) as Array<{ id: string; title: string }>) sheets.set(s.id, s)
+  if (testIds.length) {
+    const found: Array<{ id: string; tested_on: string; luminaire_id: string; tag: string }> = await m.query(
+      `SELECT t.id, to_char(t.tested_on, 'YYYY-MM-DD') AS tested_on, t.luminaire_id, l.tag FROM test_records t JOIN luminaires l ON l.id = t.luminaire_id WHERE t.id = ANY($1::uuid[])`,
+      [testIds],
+    )
+    for (const t of found) tests.set(t.id, { id: t.id, testedOn: t.tested_on, luminaireId: t.luminaire_id, luminaireTag: t.tag })
+  }
+  return new Map(rows.map((r) => [r.id, { specSheet: r.specSheetId ? (sheets.get(r.specSheetId) ?? null) : null, testRecord: r.testRecordId ? (tests.get(r.testRecordId) ?? null) : null }]))
+}
+
+async function names(ids: Array<string | null>, m: EntityManager = dataSource.manager): Promise<Map<string, string>> {
+  const wanted = [...new Set(ids.filter((x): x is string => !!x))]
+  if (!wanted.length) return new Map()
+  const users = await m.getRepository(User).find({ where: { id: In(wanted) }, select: { id: true, name: true } })
+  return new Map(users.map((u) => [u.id, u.name]))
+}
+
+function dto(log: DischargeLog, people: Map<string, string>, links: Links | undefined, full: boolean) {
+  // Lists leave out the working and the curve; one log carries everything.
+  const { working, ...summary } = log.summary as Record<string, unknown>
+  return {
+    id: log.id,
+    title: log.title,
+    notes: log.notes,
+    fileId: log.fileId,
+    mapping: log.mapping,
+    options: log.options,
+    summary: full ? { ...summary, working } : summary,
+    curve: full ? log.curve : undefined,
+    engineVersion: log.engineVersion,
+    author: log.createdBy ? { id: log.createdBy, name: people.get(log.createdBy) ?? 'former member' } : null,
+    specSheetId: log.specSheetId,
+    testRecordId: log.testRecordId,
+    specSheet: links?.specSheet ?? null,
+    testRecord: links?.testRecord ?? null,
+    createdAt: log.createdAt,
+  }
+}
+export type DischargeLogDto = ReturnType<typeof dto>
+
+async function view(log: DischargeLog, full: boolean, m: EntityManager = dataSource.manager) {
+  return dto(log, await names([log.createdBy], m), (await linksOf([log], m)).get(log.id), full)
+}
+
+async function findLog(workspaceId: string, id: string, m: EntityManager = dataSource.manager): Promise<DischargeLog> {
+  const log = await logs(m).findOne({ where: { id, workspaceId } })
+  if (!log) throw new NotFoundError('That discharge log')
+  return log
+}
+
+// ---------------------------------------------------------------------------------------------
+// Analyse and save
+
+export async function analyseAndMaybeSave(workspaceId: string, userId: string, body: DischargeAnalyse) {
+  let input: Readable
+  let sample: Buffer
+  let size: number
+  let staged: { meta: StagedMeta; file: string } | null = null
+  let storedFileId: string | null = null
+  if (body.uploadId) {
+    staged = readStaged(workspaceId, body.uploadId)
+    size = staged.meta.size
+    sample = await sampleOf(staged.file)
+    input = fs.createReadStream(staged.file, { highWaterMark: 1 << 20 })
+  } else {
+    const row = await files().createQueryBuilder('f').addSelect('f.bytes').where('f.id = :id AND f.workspace_id = :workspaceId', { id: body.fileId, workspaceId }).getOne()
+    if (!row) throw new NotFoundError('That stored log file')
+    storedFileId = row.id
+    size = row.size
+    sample = row.bytes.subarray(0, 64 * 1024)
+    input = Readable.from([row.bytes])
+  }
+  const analysis = await analyseStream(input, sample, size, body)
+  const summary = { ...analysis.result, read: analysis.read } as unknown as Record<string, unknown>
+  if (body.dryRun) return { saved: false as const, columns: analysis.columns, summary, curve: analysis.curve }
+
+  const saved = await dataSource.transaction(async (m) => {
+    await checkLinks(m, workspaceId, body)
+    let fileId = storedFileId
+    if (staged) {
+      const bytes = await fs.promises.readFile(staged.file)
+      // The same bytes are kept once per workspace, however many logs read them.
+      const inserted: Array<{ id: string }> = await m.query(
+        `INSERT INTO discharge_files (workspace_id, sha256, original_name, bytes, size, uploaded_by) VALUES ($1, $2, $3, $4, $5, $6)
+         ON CONFLICT (workspace_id, sha256) DO UPDATE SET sha256 = EXCLUDED.sha256 RETURNING id`,
+        [workspaceId, staged.meta.sha256, staged.meta.originalName, bytes, staged.meta.size, userId],
+      )
+      fileId = inserted[0].id
+    }
+    const log = await logs(m).save(
+      logs(m).create({
+        workspaceId,
+        fileId: fileId as string,
+        title: body.title,
+        notes: body.notes,
+        mapping: body.mapping as unknown as Record<string, unknown>,
+        options: body.options as unknown as Record<string, unknown>,
+        summary,
+        curve: analysis.curve,
+        engineVersion: ENGINE_VERSION,
+        createdBy: userId,
+        specSheetId: body.specSheetId ?? null,
+        testRecordId: body.testRecordId ?? null,
+      }),
+    )
+    if (log.testRecordId) {
+      await m.query('UPDATE test_records SET discharge_log_id = $1, updated_at = now() WHERE id = $2 AND workspace_id = $3', [log.id, log.testRecordId, workspaceId])
+    }
+    const r = analysis.result
+    await recordAudit(
+      {
+        workspaceId,
+        actorId: userId,
+        action: 'discharge-log.saved',
+        entityType: 'discharge_log',
+        entityId: log.id,
+        data: { title: log.title, fileId, runtimeH: r.runtimeH, pass: r.pass, deliveredAh: r.deliveredAh, badRows: analysis.read.badRows.count, specSheetId: log.specSheetId, testRecordId: log.testRecordId },
+      },
+      m,
+    )
+    return view(log, true, m)
+  })
+  if (staged && body.uploadId) discardStaged(body.uploadId)
+  return { saved: true as const, columns: analysis.columns, ...saved }
+}
+
+export async function getLog(workspaceId: string, id: string) {
+  return view(await findLog(workspaceId, id), true)
+}
+
+export async function listLogs(workspaceId: string, q: DischargeListQuery) {
+  const qb = logs().createQueryBuilder('d').where('d.workspace_id = :workspaceId', { workspaceId })
+  if (q.sheetId) qb.andWhere('d.spec_sheet_id = :sheetId', { sheetId: q.sheetId })
+  if (q.testRecordId) qb.andWhere('d.test_record_id = :testRecordId', { testRecordId: q.testRecordId })
+  if (q.luminaireId) qb.andWhere('d.test_record_id IN (SELECT id FROM test_records WHERE luminaire_id = :luminaireId AND workspace_id = :workspaceId)', { luminaireId: q.luminaireId })
+  qb.orderBy('d.created_at', 'DESC').addOrderBy('d.id', 'ASC').take(q.limit)
+  const [rows, total] = await qb.getManyAndCount()
+  const people = await names(rows.map((r) => r.createdBy))
+  const links = await linksOf(rows)
+  return { items: rows.map((r) => dto(r, people, links.get(r.id), false)), total }
+}
+
+export async function deleteLog(workspaceId: string, userId: string, id: string) {
+  await dataSource.transaction(async (m) => {
+    const log = await findLog(workspaceId, id, m)
+    await logs(m).delete({ id: log.id, workspaceId })
+    // The raw file goes with its last log.
+    await m.query('DELETE FROM discharge_files f WHERE f.id = $1 AND f.workspace_id = $2 AND NOT EXISTS (SELECT 1 FROM discharge_logs d WHERE d.file_id = f.id)', [log.fileId, workspaceId])
+    await recordAudit(
+      { workspaceId, actorId: userId, action: 'discharge-log.deleted', entityType: 'discharge_log', entityId: log.id, data: { title: log.title, options: log.options, mapping: log.mapping, specSheetId: log.specSheetId, testRecordId: log.testRecordId } },
+      m,
+    )
+  })
+}
+
+const diff = (a: unknown, b: unknown) => (typeof a === 'number' && typeof b === 'number' ? b - a : null)
+
+/** Two logs side by side, with the change from the first to the second. */
+export async function compareLogs(workspaceId: string, aId: string, bId: string) {
+  const [a, b] = await Promise.all([getLog(workspaceId, aId), getLog(workspaceId, bId)])
+  const sa = a.summary as Record<string, unknown>
+  const sb = b.summary as Record<string, unknown>
+  const change = Object.fromEntries(['runtimeH', 'deliveredAh', 'deliveredWh', 'midpointVoltageV', 'marginH', 'stateOfHealth'].map((k) => [k, diff(sa[k], sb[k])]))
+  return { a, b, change }
+}
+
+/** The logs attached to one sheet, oldest first, for its PDF. */
+export async function logsForSheet(workspaceId: string, sheetId: string): Promise<DischargeLogDto[]> {
+  const rows = await logs().find({ where: { workspaceId, specSheetId: sheetId }, order: { createdAt: 'ASC', id: 'ASC' } })
+  const people = await names(rows.map((r) => r.createdBy))
+  return rows.map((r) => dto(r, people, undefined, true))
+}

@@ -1,0 +1,122 @@
+/** The site register and log book API. */
+import type { LuminaireDue, PackForecast, RegimeRules } from '@shared/engine/due'
+import type { LuminaireInput } from '@shared/schemas/luminaire.schema'
+import type { SiteInput, TestRegimeId } from '@shared/schemas/site.schema'
+import type { TestRecordInput } from '@shared/schemas/test-record.schema'
+import { http } from './http'
+
+export interface DueCounts {
+  luminaires: number
+  failed: number
+  overdue: number
+  dueSoon: number
+  ok: number
+}
+
+export interface Site {
+  id: string
+  name: string
+  address: string
+  responsibleName: string
+  responsibleEmail: string
+  regime: TestRegimeId
+  ceilingTemperatureC: number
+}
+
+export interface SiteSummary extends Site {
+  counts: DueCounts
+  packsToReplace: number
+}
+
+export interface UpcomingTest {
+  siteId: string
+  siteName: string
+  luminaireId: string
+  tag: string
+  kind: 'functional' | 'duration'
+  dueOn: string
+  daysUntilDue: number
+}
+
+export interface Luminaire {
+  id: string
+  siteId: string
+  areaId: string | null
+  areaName: string | null
+  tag: string
+  location: string
+  typeLabel: string
+  purpose: 'escape-route' | 'open-area' | 'high-risk' | 'exit-sign'
+  mode: 'maintained' | 'non-maintained'
+  ratedDurationH: number
+  chemistry: string
+  cellsInSeries: number
+  capacityAh: number
+  packFittedOn: string
+  specSheetId: string | null
+  luminaireTypeId: string | null
+}
+
+export interface LuminaireStatus extends Luminaire {
+  due: LuminaireDue
+  forecast: PackForecast
+}
+
+export interface SiteStatus {
+  today: string
+  site: Site
+  regime: { label: string; references: RegimeRules['references'] }
+  areas: Array<{ id: string; name: string }>
+  counts: DueCounts
+  luminaires: LuminaireStatus[]
+}
+
+export interface LogBookEntry {
+  id: string
+  clientId: string
+  luminaireId: string
+  tag: string
+  kind: 'functional' | 'duration'
+  testedOn: string
+  passed: boolean
+  achievedDurationH: number | null
+  faults: string
+  remedialAction: string
+  recordedByName: string | null
+  recordedAt: string
+}
+
+export interface ImportIssue {
+  row: number
+  column: string
+  reason: string
+}
+
+export interface ImportPreview {
+  columns: string[]
+  rows: Array<{ row: number; values: Record<string, unknown> | null }>
+  errors: ImportIssue[]
+  validRows: number
+  newAreas: string[]
+}
+
+export const fetchOverview = (days = 60) => http.get<{ today: string; days: number; sites: SiteSummary[]; upcoming: UpcomingTest[] }>('/sites', { days })
+export const createSite = (body: SiteInput) => http.post<Site>('/sites', body)
+export const updateSite = (id: string, body: Partial<SiteInput>) => http.patch<Site>(`/sites/${id}`, body)
+export const deleteSite = (id: string) => http.del<void>(`/sites/${id}`)
+export const fetchSite = (id: string) => http.get<SiteStatus>(`/sites/${id}`)
+export const createArea = (siteId: string, name: string) => http.post<{ id: string; name: string }>(`/sites/${siteId}/areas`, { name })
+export const createLuminaire = (siteId: string, body: LuminaireInput) => http.post<Luminaire>(`/sites/${siteId}/luminaires`, body)
+export const fetchLuminaire = (id: string) => http.get<{ today: string; site: Site; luminaire: LuminaireStatus }>(`/luminaires/${id}`)
+export const updateLuminaire = (id: string, body: Partial<LuminaireInput>) => http.patch<Luminaire>(`/luminaires/${id}`, body)
+export const deleteLuminaire = (id: string) => http.del<void>(`/luminaires/${id}`)
+export const replacePack = (id: string, body: { packFittedOn: string; chemistry?: string; cellsInSeries?: number; capacityAh?: number; note?: string }) =>
+  http.post<Luminaire>(`/luminaires/${id}/pack`, body)
+export const fetchLuminaireTests = (id: string) => http.get<{ tests: LogBookEntry[] }>(`/luminaires/${id}/tests`)
+export const fetchLogBook = (siteId: string) => http.get<{ tests: LogBookEntry[] }>(`/sites/${siteId}/tests`)
+export const recordTests = (records: TestRecordInput[]) =>
+  http.post<{ records: Array<{ clientId: string; id: string; outcome: 'created' | 'updated' | 'unchanged' }> }>('/tests', { records })
+export const previewImport = (siteId: string, csv: string) => http.post<ImportPreview>(`/sites/${siteId}/import/preview`, { csv })
+export const commitImport = (siteId: string, csv: string) => http.post<{ imported: number; areasCreated: number }>(`/sites/${siteId}/import`, { csv })
+/** A plain link: the browser downloads the file with the session cookie. */
+export const exportUrl = (siteId: string, file: 'register.csv' | 'logbook.csv' | 'register.pdf' | 'logbook.pdf') => `/api/sites/${siteId}/export/${file}`
