@@ -118,11 +118,13 @@ async function main() {
         { method: 'GET', path: '/api/sheets?page=1&pageSize=20' },
         {
           method: 'GET',
-          setupRequest: (req, context: Record<string, unknown>) => {
+          setupRequest: (req, ctx: object) => {
+            const context = ctx as Record<string, unknown>
             context.sheet ??= sheets[next++ % sheets.length]
             return { ...req, path: `/api/sheets/${(context.sheet as { id: string }).id}` }
           },
-          onResponse: (status, body, context: Record<string, unknown>) => {
+          onResponse: (status, body, ctx: object) => {
+            const context = ctx as Record<string, unknown>
             if (status === 200) {
               const parsed = JSON.parse(body)
               context.version = parsed.version ?? parsed.sheet?.version
@@ -132,11 +134,14 @@ async function main() {
         { method: 'POST', path: '/api/calc/size', body: sizeBody },
         {
           method: 'PUT',
-          setupRequest: (req, context: Record<string, unknown>) => ({
-            ...req,
-            path: `/api/sheets/${(context.sheet as { id: string }).id}`,
-            body: JSON.stringify({ title: 'Load sheet (saved)', inputs: JSON.parse(sizeBody), version: context.version }),
-          }),
+          setupRequest: (req, ctx: object) => {
+            const context = ctx as Record<string, unknown>
+            return {
+              ...req,
+              path: `/api/sheets/${(context.sheet as { id: string }).id}`,
+              body: JSON.stringify({ title: 'Load sheet (saved)', inputs: JSON.parse(sizeBody), version: context.version }),
+            }
+          },
         },
       ],
     })

@@ -69,6 +69,11 @@ export function authorize(access: Access): RequestHandler {
       if (access !== 'signed-in' && (!req.ctx.role || !roleAtLeast(req.ctx.role, access))) return next(new ForbiddenError())
       return next()
     }
+    // Routes open to any signed-in user need no workspace: skip the membership lookup.
+    if (access === 'signed-in') {
+      req.ctx = { userId, workspaceId: req.session?.workspaceId ?? null, role: null }
+      return next()
+    }
     let membership = req.session?.workspaceId ? await findMembership(req.session.workspaceId, userId) : null
     if (!membership) {
       membership = await firstMembership(userId)

@@ -15,7 +15,7 @@ import { AppError, UnauthorizedError } from '../../errors/app-error'
 import { parse } from '../../lib/parse'
 import type { RouteSpec } from '../../policy/access'
 import type { User } from '../users/user.entity'
-import { users } from '../users/users.repository'
+import { forgetUser, users } from '../users/users.repository'
 import { myWorkspaces } from '../workspaces/workspaces.service'
 import { requestPasswordReset, resetPassword, signUp } from './auth.service'
 
@@ -109,6 +109,7 @@ async function updateMe(req: Request, res: Response) {
   const user = req.user as User
   Object.assign(user, input)
   await users().save(user)
+  forgetUser(user.id)
   res.json(await meResponse(req))
 }
 

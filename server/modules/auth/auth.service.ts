@@ -10,7 +10,7 @@ import { hashToken, newToken } from '../../lib/tokens'
 import { recordAudit } from '../audit/audit.service'
 import { composeMail, sendMail } from '../mail/mail.service'
 import { User } from '../users/user.entity'
-import { findUserByEmail, findUserById, users } from '../users/users.repository'
+import { findUserByEmail, findUserById, forgetUser, users } from '../users/users.repository'
 import { Membership } from '../workspaces/membership.entity'
 import { Workspace } from '../workspaces/workspace.entity'
 import { acceptInvitation } from '../workspaces/workspaces.service'
@@ -78,6 +78,7 @@ export async function resetPassword(token: string, password: string): Promise<vo
   if (!user) throw new BadRequestError('This reset link is not valid.', [{ path: 'token', message: 'is not valid' }])
   user.passwordHash = await hashPassword(password)
   await users().save(user)
+  forgetUser(user.id)
   // Sign the user out everywhere: their sessions are no longer trusted after a reset.
   await dataSource.query(`DELETE FROM session WHERE (sess::jsonb -> 'passport' ->> 'user') = $1`, [user.id])
   await recordAudit({ workspaceId: null, actorId: user.id, action: 'user.password-reset', entityType: 'user', entityId: user.id })

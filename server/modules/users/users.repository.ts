@@ -1,4 +1,5 @@
 import { dataSource } from '../../data-source'
+import { hotCache } from '../../lib/hot-cache'
 import { User } from './user.entity'
 
 export const users = () => dataSource.getRepository(User)
@@ -7,6 +8,18 @@ export function findUserByEmail(email: string) {
   return users().findOne({ where: { email: email.toLowerCase() } })
 }
 
-export function findUserById(id: string) {
-  return users().findOne({ where: { id } })
+const userCache = hotCache<{ u: User | null }>()
+
+/** A user by id (cached for two seconds, as every request loads its user). */
+export async function findUserById(id: string) {
+  const hit = userCache.get(id)
+  if (hit) return hit.u ? users().create({ ...hit.u }) : null
+  const u = await users().findOne({ where: { id } })
+  userCache.set(id, { u })
+  return u ? users().create({ ...u }) : null
+}
+
+/** Forget a cached user after a change to it. */
+export function forgetUser(id: string) {
+  userCache.delete(id)
 }

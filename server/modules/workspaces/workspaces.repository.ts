@@ -1,10 +1,24 @@
 import { dataSource } from '../../data-source'
+import { hotCache } from '../../lib/hot-cache'
 import { Membership } from './membership.entity'
 
 const memberships = () => dataSource.getRepository(Membership)
 
-export function findMembership(workspaceId: string, userId: string) {
-  return memberships().findOne({ where: { workspaceId, userId } })
+const membershipCache = hotCache<{ m: Membership | null }>()
+
+/** A user's membership of a workspace (cached for two seconds; changes here clear it). */
+export async function findMembership(workspaceId: string, userId: string) {
+  const key = `${workspaceId}:${userId}`
+  const hit = membershipCache.get(key)
+  if (hit) return hit.m
+  const m = await memberships().findOne({ where: { workspaceId, userId } })
+  membershipCache.set(key, { m })
+  return m
+}
+
+/** Forget cached memberships after a role change, a removal or a join. */
+export function forgetMemberships() {
+  membershipCache.clear()
 }
 
 export function firstMembership(userId: string) {

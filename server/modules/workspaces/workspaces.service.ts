@@ -11,7 +11,7 @@ import { findUserById } from '../users/users.repository'
 import { Invitation } from './invitation.entity'
 import { Membership } from './membership.entity'
 import { Workspace } from './workspace.entity'
-import { countOwners, listUserMemberships, listWorkspaceMembers } from './workspaces.repository'
+import { countOwners, forgetMemberships, listUserMemberships, listWorkspaceMembers } from './workspaces.repository'
 
 const INVITE_TTL_MS = 7 * 24 * 60 * 60 * 1000
 
@@ -25,6 +25,7 @@ export async function createWorkspace(userId: string, name: string) {
     const ws = await m.getRepository(Workspace).save(m.getRepository(Workspace).create({ name }))
     await m.getRepository(Membership).insert({ workspaceId: ws.id, userId, role: 'owner' })
     await recordAudit({ workspaceId: ws.id, actorId: userId, action: 'workspace.created', entityType: 'workspace', entityId: ws.id }, m)
+    forgetMemberships()
     return { id: ws.id, name: ws.name, role: 'owner' as Role }
   })
 }
@@ -58,6 +59,7 @@ export async function changeRole(workspaceId: string, actorId: string, membershi
     const from = m.role
     m.role = role
     await tx.getRepository(Membership).save(m)
+    forgetMemberships()
     await recordAudit({ workspaceId, actorId, action: 'member.role-changed', entityType: 'membership', entityId: m.id, data: { from, to: role } }, tx)
     return m
   })
@@ -69,6 +71,7 @@ export async function removeMember(workspaceId: string, actorId: string, members
     throw new ConflictError('This is the last owner of the workspace and cannot be removed.')
   }
   await dataSource.getRepository(Membership).delete({ id: m.id })
+  forgetMemberships()
   await recordAudit({ workspaceId, actorId, action: 'member.removed', entityType: 'membership', entityId: m.id, data: { userId: m.userId } })
 }
 
@@ -79,6 +82,7 @@ export async function leaveWorkspace(workspaceId: string, userId: string) {
     throw new ConflictError('You are the last owner: make someone else an owner before you leave.')
   }
   await dataSource.getRepository(Membership).delete({ id: m.id })
+  forgetMemberships()
   await recordAudit({ workspaceId, actorId: userId, action: 'member.left', entityType: 'membership', entityId: m.id })
 }
 
@@ -144,6 +148,7 @@ export async function acceptInvitation(token: string, user: User) {
       `INSERT INTO memberships (workspace_id, user_id, role) VALUES ($1, $2, $3) ON CONFLICT (workspace_id, user_id) DO NOTHING`,
       [inv.workspaceId, user.id, inv.role],
     )
+    forgetMemberships()
     await recordAudit({ workspaceId: inv.workspaceId, actorId: user.id, action: 'member.joined', entityType: 'invitation', entityId: inv.id, data: { role: inv.role } }, tx)
     return { workspaceId: inv.workspaceId, role: inv.role }
   })
