@@ -39,17 +39,24 @@ for (let i = 0; i < 3; i++) for (const s of states) oneKeystroke(s)
 
 const ROUNDS = 20
 const times: number[] = []
+const perState: number[][] = states.map(() => [])
 for (let r = 0; r < ROUNDS; r++) {
-  for (const s of states) {
+  states.forEach((s, i) => {
     const t0 = performance.now()
     oneKeystroke(s)
-    times.push(performance.now() - t0)
-  }
+    const dt = performance.now() - t0
+    times.push(dt)
+    perState[i].push(dt)
+  })
 }
+// Each state's median over the rounds: what that keystroke costs, without one-off pauses of a busy machine.
+const stateMedians = perState.map((ts) => [...ts].sort((a, b) => a - b)[Math.floor(ts.length / 2)])
+const slowest = stateMedians.indexOf(Math.max(...stateMedians))
 times.sort((a, b) => a - b)
 const q = (p: number) => times[Math.min(times.length - 1, Math.floor(p * times.length))]
 const mean = times.reduce((a, b) => a + b, 0) / times.length
 const fmt = (x: number) => `${x.toFixed(3)} ms`
 console.log(`pack bench recalculation: ${states.length} keystroke states (${valid} complete enough to compute), ${ROUNDS} rounds = ${times.length} keystrokes`)
 console.log(`per keystroke: mean ${fmt(mean)}, median ${fmt(q(0.5))}, p95 ${fmt(q(0.95))}, p99 ${fmt(q(0.99))}, max ${fmt(times[times.length - 1])}`)
-console.log(`budget 16 ms (one frame at 60 Hz): p99 ${q(0.99) <= 16 ? 'within' : 'OVER'} budget`)
+console.log(`slowest keystroke state (its median over ${ROUNDS} rounds): ${fmt(stateMedians[slowest])} — ${JSON.stringify(states[slowest])}`)
+console.log(`budget 16 ms (one frame at 60 Hz): slowest state ${stateMedians[slowest] <= 16 ? 'within' : 'OVER'}; p99 of all keystrokes ${q(0.99) <= 16 ? 'within' : 'OVER'}`)

@@ -54,12 +54,12 @@ const AUDIT_FIELD_WORDS: Record<string, string> = {
 }
 
 /** The headline figures of an audit result; `key` is also the id of its working step where one exists. */
-export const AUDIT_RESULT_FIGURES: Array<{ key: string; label: string; unit: string; step?: string; percent?: boolean }> = [
+export const AUDIT_RESULT_FIGURES: Array<{ key: string; label: string; unit: string; step?: string; percent?: boolean; milli?: boolean }> = [
   { key: 'measuredPowerW', label: 'Real input power', unit: 'W', step: 'powerFactor' },
   { key: 'claimDeviationPct', label: 'Deviation from the claim', unit: '%', step: 'claimDeviation' },
   { key: 'apparentPowerVA', label: 'Apparent power', unit: 'VA', step: 'apparentPower' },
   { key: 'powerFactor', label: 'Power factor', unit: '', step: 'powerFactor' },
-  { key: 'measuredCurrentA', label: 'Mains current', unit: 'A', step: 'apparentPower' },
+  { key: 'measuredCurrentA', label: 'Mains current', unit: 'mA', step: 'apparentPower', milli: true },
   { key: 'ledPowerMainsW', label: 'LED power on mains', unit: 'W', step: 'ledPowerMains' },
   { key: 'ledPowerBatteryW', label: 'LED power on battery', unit: 'W', step: 'ledPowerBattery' },
   { key: 'emergencyOutputRatio', label: 'Emergency output ratio (approx.)', unit: '%', step: 'emergencyOutputRatio', percent: true },
@@ -105,5 +105,6 @@ export function auditFigureText(results: Record<string, unknown>, f: (typeof AUD
   if (typeof v !== 'number') return null
   if (f.key === 'annualCost') return formatFigure(v, String(results.currency ?? '')).trim()
   if (f.key === 'claimDeviationPct') return `${v > 0 ? '+' : ''}${formatFigure(v, '%')}`
-  return formatFigure(f.percent ? v * 100 : v, f.unit)
+  // Shown in per cent or milli-units; the engine's values are fractions and base units.
+  return formatFigure(f.percent || f.milli ? v * (f.percent ? 100 : 1000) : v, f.unit)
 }

@@ -8,8 +8,12 @@ import { toTypedSchema } from '@vee-validate/zod'
 import type { z } from 'zod'
 import { ApiError } from '@/api/http'
 
-export function useZodForm<S extends z.ZodTypeAny>(schema: S, initialValues?: Partial<z.input<S>>) {
-  const form = useForm({ validationSchema: toTypedSchema(schema), initialValues: initialValues as never })
+export function useZodForm<S extends z.ZodTypeAny>(schema: S, initialValues?: Partial<z.input<S>>, opts: { keepAsTyped?: boolean } = {}) {
+  const typed = toTypedSchema(schema)
+  // vee-validate "casts" initial and reset values through the schema; with unit-parsing transforms
+  // that turns "5 Ah" into 18000 in the field. keepAsTyped leaves values exactly as given.
+  const validationSchema = opts.keepAsTyped ? { ...typed, cast: (values: unknown) => values } : typed
+  const form = useForm({ validationSchema: validationSchema as typeof typed, initialValues: initialValues as never })
 
   /** Binds one field: its value, and the status/feedback props NFormItem wants. */
   function field<T = string>(name: string) {

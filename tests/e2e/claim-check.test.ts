@@ -79,6 +79,10 @@ describe('claim check', () => {
       await page.keyboard.press('Escape')
       await page.locator('[data-test="working-claimDeviation"]').waitFor({ state: 'detached' })
       await page.locator('[data-test="power-chart"] canvas').waitFor()
+      await page.locator('#audit-results').scrollIntoViewIfNeeded()
+      await screenshot(page, 'claim-check-results')
+      await page.locator('[data-test="power-chart"]').scrollIntoViewIfNeeded()
+      await screenshot(page, 'claim-check-chart')
 
       // Save, attached to the sheet.
       const title = `Trial bulkhead ${Date.now()}`
@@ -90,10 +94,13 @@ describe('claim check', () => {
       await page.locator('[data-test="save-audit"]').click()
       await expect.poll(() => page.locator('[data-test="current-audit"]').textContent()).toContain(`on sheet ${sheet.title}`)
       await expect.poll(() => page.locator('[data-test="saved-audits"] tbody').textContent()).toContain(title)
+      await page.locator('[data-test="saved-audits"]').scrollIntoViewIfNeeded()
+      await screenshot(page, 'claim-check-saved')
 
       // The sheet lists it, and its PDF carries it.
       await page.goto(`${app.url}/sheets/${sheet.id}`)
       await expect.poll(() => page.locator('[data-test="attached-audits"]').textContent()).toContain(title)
+      await page.locator('[data-test="attached-audits"]').scrollIntoViewIfNeeded()
       await screenshot(page, 'sheet-with-audit')
       const [download] = await Promise.all([page.waitForEvent('download'), page.locator('[data-test="download-pdf"]').click()])
       const text = pdfText(fs.readFileSync((await download.path()) as string)).replace(/\s+/g, ' ')
@@ -138,9 +145,12 @@ describe('claim check', () => {
       await b.page.goto(`${app.url}/claim-check`)
       await figure(b.page, 'measuredPowerW').waitFor()
       await b.page.locator('[data-test="power-chart"] canvas').waitFor()
+      expect(await b.page.locator('#f-claimedPower').inputValue()).toBe('4 W')
       const overflow = await b.page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth)
       expect(overflow).toBeLessThanOrEqual(0)
       await screenshot(b.page, 'claim-check-375')
+      await b.page.locator('[data-test="power-chart"]').scrollIntoViewIfNeeded()
+      await screenshot(b.page, 'claim-check-375-chart')
     } finally {
       await b.close()
     }

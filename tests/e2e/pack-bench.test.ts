@@ -17,6 +17,8 @@ afterAll(async () => {
   await closeTestApp()
 })
 
+/** Waits for a value under a loaded machine (the default poll gives up after one second). */
+const poll = <T>(fn: () => Promise<T> | T) => expect.poll(fn, { timeout: 20_000, interval: 100 })
 const figure = (page: Page, key: string) => page.locator(`[data-test="value-${key}"]`)
 
 async function retype(page: Page, id: string, text: string) {
@@ -45,20 +47,20 @@ describe('pack bench to shared sheet', () => {
 
       // Units as typed, each shown beside its field as the value understood.
       await retype(page, 'f-load-power', '4.5 W')
-      await expect.poll(() => page.locator('[data-test="understood-load.power"]').textContent()).toBe('= 4.5 W')
-      await expect.poll(() => figure(page, 'requiredCapacityAh').textContent()).not.toBe(before)
+      await poll(() => page.locator('[data-test="understood-load.power"]').textContent()).toBe('= 4.5 W')
+      await poll(() => figure(page, 'requiredCapacityAh').textContent()).not.toBe(before)
       const afterPower = await figure(page, 'requiredCapacityAh').textContent()
       await retype(page, 'f-duration', '90 min')
-      await expect.poll(() => page.locator('[data-test="understood-duration"]').textContent()).toBe('= 1.5 h')
-      await expect.poll(() => figure(page, 'requiredCapacityAh').textContent()).not.toBe(afterPower)
+      await poll(() => page.locator('[data-test="understood-duration"]').textContent()).toBe('= 1.5 h')
+      await poll(() => figure(page, 'requiredCapacityAh').textContent()).not.toBe(afterPower)
       await retype(page, 'f-ambientMin', '-10 °C')
-      await expect.poll(() => page.locator('[data-test="understood-ambientMin"]').textContent()).toBe('= -10 °C')
+      await poll(() => page.locator('[data-test="understood-ambientMin"]').textContent()).toBe('= -10 °C')
       await retype(page, 'f-load-ledCurrent', '350 mA')
-      await expect.poll(() => page.locator('[data-test="understood-load.ledCurrent"]').textContent()).toBe('= 350 mA')
+      await poll(() => page.locator('[data-test="understood-load.ledCurrent"]').textContent()).toBe('= 350 mA')
 
       // A bad unit gets a message on its field and no results.
       await retype(page, 'f-load-power', '4.5 A')
-      await expect.poll(() => page.locator('[data-test="field-load.power"]').textContent()).toMatch(/not a power/)
+      await poll(() => page.locator('[data-test="field-load.power"]').textContent()).toMatch(/not a power/)
       await page.locator('[data-test="incomplete"]').waitFor()
       await retype(page, 'f-load-power', '4.5 W')
       await figure(page, 'requiredCapacityAh').waitFor()
@@ -86,7 +88,7 @@ describe('pack bench to shared sheet', () => {
       await screenshot(page, 'pack-bench')
       await page.locator('[data-test="save-sheet"]').click()
       await page.locator('[data-test="editing-sheet"]').waitFor()
-      await expect.poll(() => page.url()).toMatch(/sheet=/)
+      await poll(() => page.url()).toMatch(/sheet=/)
 
       // Charger check, with the pack carried across.
       await page.locator('[data-test="check-charger"]').click()
@@ -101,7 +103,7 @@ describe('pack bench to shared sheet', () => {
       expect(await page.locator('[data-test="sheet-title"]').textContent()).toBe(title)
       await page.locator('[data-test="issue-sheet"]').click()
       await page.getByRole('button', { name: 'Confirm' }).click()
-      await expect.poll(() => page.locator('[data-test="sheet-status"]').textContent()).toBe('issued')
+      await poll(() => page.locator('[data-test="sheet-status"]').textContent()).toBe('issued')
       await page.locator('[data-test="share-sheet"]').click()
       await page.locator('#share-url').waitFor()
       shareUrl = await page.locator('#share-url').inputValue()

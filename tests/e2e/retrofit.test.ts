@@ -44,11 +44,11 @@ describe('retrofit planner', () => {
       expect(await page.locator('#f-cellsInSeries').inputValue()).toBe(url.searchParams.get('cells'))
 
       // The two readings, target and diode, typed with units.
-      await retype(page, 'f-trickleCurrent', '160 mA')
+      await retype(page, 'f-trickleCurrent', '300 mA')
       await retype(page, 'f-batteryVoltage', '4.3 V')
       await retype(page, 'f-secondReading-resistance', '10 Ω')
       await expect.poll(() => page.locator('[data-test="understood-secondReading.resistance"]').textContent()).toBe('= 10 ohm')
-      await retype(page, 'f-secondReading-current', '100 mA')
+      await retype(page, 'f-secondReading-current', '180 mA')
       await retype(page, 'f-targetTrickleRateC', '0.04')
       await page.locator('[data-test="retrofit-summary"]').waitFor()
 
@@ -73,12 +73,17 @@ describe('retrofit planner', () => {
       await page.locator('[data-test="working-rechargeTime"]').waitFor({ state: 'detached' })
 
       // An impossible second reading is an error on its field.
-      await retype(page, 'f-secondReading-current', '200 mA')
+      await retype(page, 'f-secondReading-current', '320 mA')
       await expect.poll(() => page.locator('[data-test="field-secondReading.current"]').textContent()).toMatch(/adding resistance cannot raise the current/)
       await page.locator('[data-test="incomplete"]').waitFor()
-      await retype(page, 'f-secondReading-current', '100 mA')
+      await retype(page, 'f-secondReading-current', '180 mA')
       await page.locator('[data-test="retrofit-summary"]').waitFor()
+      await expect.poll(() => page.locator('[data-test="field-secondReading.current"]').textContent()).not.toMatch(/cannot|not a current/)
       await screenshot(page, 'retrofit-planner')
+      await page.locator('h1').scrollIntoViewIfNeeded()
+      await screenshot(page, 'retrofit-planner-top')
+      await page.locator('[data-test="retrofit-schematic"]').scrollIntoViewIfNeeded()
+      await screenshot(page, 'retrofit-planner-schematic')
     } finally {
       await b.close()
     }
@@ -94,6 +99,11 @@ describe('retrofit planner', () => {
       const overflow = await b.page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth)
       expect(overflow).toBeLessThanOrEqual(0)
       await screenshot(b.page, 'retrofit-planner-375')
+      expect(await b.page.locator('#f-capacity').inputValue()).toBe('4 Ah')
+      await b.page.locator('[data-test="retrofit-schematic"]').scrollIntoViewIfNeeded()
+      await screenshot(b.page, 'retrofit-planner-375-schematic')
+      await b.page.locator('[data-test="before-after"]').scrollIntoViewIfNeeded()
+      await screenshot(b.page, 'retrofit-planner-375-table')
     } finally {
       await b.close()
     }

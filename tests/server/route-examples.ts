@@ -15,6 +15,7 @@ import { makeTeam, uniqueEmail, type TestTeam } from '../helpers/test-app'
 import { sheetRouteExamples } from './sheet-examples'
 import { registerRouteExamples } from './register-examples'
 import { auditRouteExamples } from './audit-examples'
+import { dischargeRouteExamples } from './discharge-examples'
 import { photometryRouteExamples } from './photometry-examples'
 
 export interface ExampleContext {
@@ -132,4 +133,5 @@ export const routeExamples: Record<string, ExampleFn> = {
   ...registerRouteExamples,
   ...auditRouteExamples,
   ...photometryRouteExamples,
+  ...dischargeRouteExamples,
 }

@@ -16,6 +16,8 @@ import { scope, type RouteSpec } from '../../policy/access'
 import { Workspace } from '../workspaces/workspace.entity'
 import { auditsForSheet } from '../audits/audits.service'
 import { withWattageAudits } from '../audits/audit-pdf-section'
+import { logsForSheet } from '../discharge/discharge.service'
+import { withDischargeLogs } from '../discharge/discharge-pdf-section'
 import { buildSheetPdf, cautionsSection, SHEET_SECTIONS } from './pdf/sheet-pdf'
 import * as service from './sheets.service'
 
@@ -100,7 +102,9 @@ async function pdf(req: Request, res: Response) {
   const data = await service.pdfData(s.workspaceId, id, q.success ? q.data.revision : undefined)
   const ws = await dataSource.getRepository(Workspace).findOneBy({ id: s.workspaceId })
   const audits = await auditsForSheet(s.workspaceId, id)
-  sendPdf(res, await buildSheetPdf({ ...data, issuer: ws?.name }, withWattageAudits(SHEET_SECTIONS, audits, cautionsSection)), fileName(data.title, data.number))
+  const dischargeLogs = await logsForSheet(s.workspaceId, id)
+  const sections = withDischargeLogs(withWattageAudits(SHEET_SECTIONS, audits, cautionsSection), dischargeLogs, cautionsSection)
+  sendPdf(res, await buildSheetPdf({ ...data, issuer: ws?.name }, sections), fileName(data.title, data.number))
 }
 
 async function createShare(req: Request, res: Response) {

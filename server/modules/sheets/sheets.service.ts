@@ -337,6 +337,7 @@ export async function createShare(workspaceId: string, userId: string, id: strin
   const s = await findSheet(workspaceId, id)
   assertNotArchived(s)
   if (s.issuedRevision === null) throw new ConflictError('Issue the sheet before sharing it: a shared link shows the issued revision.')
+  if (expiresAt && expiresAt.getTime() <= Date.now()) throw new BadRequestError('The expiry must be in the future.', [{ path: 'expiresAt', message: 'must be in the future' }])
   const { token, hash } = newToken()
   const link = await shares().save(shares().create({ workspaceId, sheetId: s.id, tokenHash: hash, createdBy: userId, expiresAt, revokedAt: null, revokedBy: null }))
   await recordAudit({ workspaceId, actorId: userId, action: 'sheet.shared', entityType: 'spec_sheet', entityId: s.id, data: { shareId: link.id, expiresAt } })

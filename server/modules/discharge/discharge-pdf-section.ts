@@ -1,0 +1,88 @@
+/**
+ * The "Discharge logs" section of a specification sheet's PDF: each log attached to the sheet with
+ * its verdict, figures and a small plot of the pack voltage against the cut-off.
+ */
+import type { EngineWarning } from '../../../shared/engine/types'
+import { formatFigure } from '../../../shared/schemas/sheet-text'
+import { ensureSpace, heading, pair, write, type Doc } from '../sheets/pdf/pdf-kit'
+import type { PdfSection } from '../sheets/pdf/sheet-pdf'
+import type { DischargeLogDto } from './discharge.service'
+
+const date = (d: Date | string) => new Date(d).toISOString().slice(0, 10)
+const SEVERITY_WORD = { critical: 'Critical', warning: 'Warning', info: 'Note' } as const
+const END_WORDS: Record<string, string> = { cutoff: 'the pack fell through the cut-off', dropout: 'the load dropped out', 'end-of-log': 'the log ended' }
+
+function verdict(pass: unknown): string {
+  return pass === true ? 'Passed: lasted its rated duration' : pass === false ? 'Failed: did not last its rated duration' : 'Inconclusive: the log stops too early to tell'
+}
+
+/** Pack voltage against hours, with the cut-off dashed; at most a few hundred segments. */
+function plot(doc: Doc, curve: { tH: number[]; v: number[] }, cutoffV: number) {
+  const n = curve.tH.length
+  if (n < 2) return
+  ensureSpace(doc, 130)
+  const left = doc.page.margins.left + 30
+  const width = doc.page.width - doc.page.margins.right - left
+  const top = doc.y + 6
+  const height = 100
+  const tMax = curve.tH[n - 1] || 1
+  let vMin = Math.min(cutoffV, ...curve.v)
+  let vMax = Math.max(cutoffV, ...curve.v)
+  const pad = (vMax - vMin) * 0.08 || 0.1
+  vMin -= pad
+  vMax += pad
+  const x = (t: number) => left + (t / tMax) * width
+  const y = (v: number) => top + height - ((v - vMin) / (vMax - vMin)) * height
+  doc.save()
+  doc.rect(left, top, width, height).lineWidth(0.4).strokeColor('#9aa7ae').stroke()
+  const step = Math.max(1, Math.floor(n / 400))
+  doc.moveTo(x(curve.tH[0]), y(curve.v[0]))
+  for (let k = step; k < n; k += step) doc.lineTo(x(curve.tH[k]), y(curve.v[k]))
+  doc.lineTo(x(curve.tH[n - 1]), y(curve.v[n - 1]))
+  doc.lineWidth(1).strokeColor('#1f6f8b').stroke()
+  doc.moveTo(left, y(cutoffV)).lineTo(left + width, y(cutoffV)).dash(3, { space: 3 }).lineWidth(0.8).strokeColor('#a3161a').stroke().undash()
+  doc.restore()
+  write(doc, `${formatFigure(vMax, 'V')}`, { size: 7, color: '#5b6b75', x: doc.page.margins.left, y: top - 3, lineBreak: false } as never)
+  write(doc, `${formatFigure(vMin, 'V')}`, { size: 7, color: '#5b6b75', x: doc.page.margins.left, y: top + height - 6, lineBreak: false } as never)
+  write(doc, `0 h … ${formatFigure(tMax, 'h')}; dashed: cut-off ${formatFigure(cutoffV, 'V')}`, { size: 7.5, color: '#5b6b75', x: left, y: top + height + 3 } as never)
+  doc.x = doc.page.margins.left
+  doc.moveDown(0.3)
+}
+
+export function dischargeLogsSection(logs: DischargeLogDto[]): PdfSection {
+  return (doc) => {
+    heading(doc, 'Discharge logs')
+    write(doc, 'Logged full-duration tests attached to this sheet, read by the Lampwright engine. Attached logs are listed whatever the revision shown.', { size: 9, color: '#3c4a52' })
+    for (const log of logs) {
+      const s = log.summary as Record<string, unknown>
+      const read = (s.read ?? {}) as { rows?: number; badRows?: { count?: number } }
+      ensureSpace(doc, 160)
+      doc.moveDown(0.4)
+      write(doc, log.title, { weight: 'semibold', size: 11.5, color: '#1f3b4d' })
+      write(doc, `Saved by ${log.author?.name ?? '—'} on ${date(log.createdAt)} · engine ${log.engineVersion} · ${read.rows ?? 0} readings${read.badRows?.count ? `, ${read.badRows.count} unreadable rows left out` : ''}`, { size: 8.5, color: '#5b6b75' })
+      if (log.notes) write(doc, log.notes, { size: 9.5 })
+      pair(doc, 'Verdict', verdict(s.pass))
+      pair(doc, 'Runtime', `${formatFigure(s.runtimeH, 'h')} (ended because ${END_WORDS[String(s.runtimeEnd)] ?? String(s.runtimeEnd)}); margin ${formatFigure(s.marginH, 'h')}`)
+      pair(doc, 'Cut-off used', formatFigure(s.cutoffVoltageV, 'V'))
+      if (typeof s.deliveredAh === 'number') pair(doc, s.estimated ? 'Delivered (estimated)' : 'Delivered', `${formatFigure(s.deliveredAh, 'Ah')}, ${formatFigure(s.deliveredWh, 'Wh')}`)
+      pair(doc, 'Mid-point voltage', formatFigure(s.midpointVoltageV, 'V'))
+      if (typeof s.stateOfHealth === 'number') pair(doc, 'State of health', `${Math.round(s.stateOfHealth * 100)} % of the rated capacity`)
+      if (log.curve) plot(doc, log.curve, Number(s.cutoffVoltageV))
+      const warnings = ((s.warnings ?? []) as EngineWarning[]).filter((w) => w.severity !== 'info')
+      for (const w of warnings) {
+        ensureSpace(doc, 24)
+        write(doc, `${SEVERITY_WORD[w.severity]}: `, { weight: 'semibold', continued: true, size: 9.5, color: w.severity === 'critical' ? '#a3161a' : '#a4460f' })
+        write(doc, w.message, { size: 9.5 })
+      }
+    }
+  }
+}
+
+/** The sheet's sections with the discharge logs placed before the cautions; unchanged without logs. */
+export function withDischargeLogs(sections: PdfSection[], logs: DischargeLogDto[], cautions?: PdfSection): PdfSection[] {
+  if (!logs.length) return sections
+  const out = [...sections]
+  const at = cautions ? out.indexOf(cautions) : -1
+  out.splice(at < 0 ? out.length : at, 0, dischargeLogsSection(logs))
+  return out
+}
