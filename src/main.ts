@@ -5,6 +5,7 @@ import { router } from './router'
 import { setUnauthorizedHandler } from './api/http'
 import { useAuthStore } from './stores/auth'
 import './styles/base.css'
+import { installA11yFixups } from './lib/a11y-fixups'
 
 const app = createApp(App)
 // Pinia first: the router guard uses the auth store.
@@ -17,3 +18,4 @@ setUnauthorizedHandler(() => {
 })
 
 app.mount('#app')
+installA11yFixups()

@@ -40,6 +40,10 @@ export const lightOverrides: GlobalThemeOverrides = {
     bodyColor: palette.paper,
   },
   Layout: { siderColor: '#ffffff', headerColor: '#ffffff', color: palette.paper },
+  // Darker secondary text than the library default, for 4.5:1 contrast on white and on paper.
+  Menu: { groupTextColor: '#4d5b66' },
+  Form: { feedbackTextColor: '#4d5b66', labelTextColor: '#1b2a33' },
+  Tag: { textColor: '#1b2a33' },
 }
 
 export const darkOverrides: GlobalThemeOverrides = {
@@ -54,4 +58,6 @@ export const darkOverrides: GlobalThemeOverrides = {
     warningColor: '#e5a23a',
     errorColor: '#ef6b61',
   },
+  Menu: { groupTextColor: '#b9c4cc' },
+  Form: { feedbackTextColor: '#c3ccd3' },
 }

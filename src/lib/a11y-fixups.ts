@@ -1,0 +1,33 @@
+/**
+ * Accessibility repairs for markup that a library renders and we cannot reach through its props:
+ * card headers marked role="heading" without a level, and scroll containers that a keyboard user
+ * cannot focus. Runs once at start-up and on every DOM change.
+ */
+export function installA11yFixups(root: HTMLElement = document.body): MutationObserver {
+  const fix = () => {
+    root.querySelectorAll<HTMLElement>('[role="heading"]:not([aria-level])').forEach((el) => {
+      // The inner title of a card header repeats its parent heading: one heading is enough.
+      if (el.parentElement?.closest('[role="heading"]')) el.removeAttribute('role')
+      else el.setAttribute('aria-level', '2')
+    })
+    root.querySelectorAll<HTMLElement>('.n-data-table .n-scrollbar-container:not([tabindex]), .v-x-scroll:not([tabindex])').forEach((el) => {
+      if (el.scrollWidth > el.clientWidth || el.scrollHeight > el.clientHeight) {
+        el.setAttribute('tabindex', '0')
+        el.setAttribute('aria-label', 'Table (scrolls)')
+        el.setAttribute('role', 'region')
+      }
+    })
+  }
+  let scheduled = false
+  const observer = new MutationObserver(() => {
+    if (scheduled) return
+    scheduled = true
+    requestAnimationFrame(() => {
+      scheduled = false
+      fix()
+    })
+  })
+  observer.observe(root, { childList: true, subtree: true })
+  fix()
+  return observer
+}

@@ -1,0 +1,84 @@
+/**
+ * Every main screen, on the demo workspace, at desktop and 375 px widths, in the light and dark
+ * themes: a screenshot of each (kept in test-artifacts/screens/) and an axe-core check that fails on
+ * any serious or critical accessibility violation.
+ */
+import fs from 'node:fs'
+import { createRequire } from 'node:module'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import type { Page } from 'playwright-core'
+import { dataSource } from '../../server/data-source'
+import { seedDemo } from '../../server/demo/index'
+import { DEMO_PASSWORD } from '../../server/scripts/demo-users'
+import { newBrowser, screenshot, signInThroughForm, startE2eApp, type RunningApp } from '../helpers/browser'
+import { closeTestApp } from '../helpers/test-app'
+
+const require = createRequire(import.meta.url)
+// Evaluated through the debugging protocol, which the page's content security policy does not govern.
+const AXE_SOURCE = fs.readFileSync(require.resolve('axe-core/axe.min.js'), 'utf8')
+
+let app: RunningApp
+beforeAll(async () => {
+  app = await startE2eApp()
+  await seedDemo(dataSource)
+})
+afterAll(async () => {
+  await app.close()
+  await closeTestApp()
+})
+
+async function firstId(page: Page, api: string, pick: (body: Record<string, unknown>) => string | undefined): Promise<string | undefined> {
+  const body = await page.evaluate(async (url) => (await fetch(url)).json(), api)
+  return pick(body as Record<string, unknown>)
+}
+
+async function axeViolations(page: Page) {
+  await page.evaluate(AXE_SOURCE)
+  return page.evaluate(async () => {
+    const w = window as unknown as { axe: { run: (ctx: Document, opts: object) => Promise<{ violations: Array<{ id: string; impact: string; help: string; nodes: Array<{ target: string[] }> }> }> } }
+    const result = await w.axe.run(document, { resultTypes: ['violations'] })
+    return result.violations
+      .filter((v) => v.impact === 'serious' || v.impact === 'critical')
+      .map((v) => `${v.impact} ${v.id}: ${v.help} @ ${v.nodes.slice(0, 3).map((n) => n.target.join(' ')).join(' | ')}`)
+  })
+}
+
+describe('main screens', () => {
+  for (const theme of ['light', 'dark'] as const) {
+    for (const viewport of [{ width: 1280, height: 860 }, { width: 375, height: 760 }]) {
+      it(`render at ${viewport.width} px in the ${theme} theme with no serious or critical axe violation`, { timeout: 900_000 }, async () => {
+        const problems: string[] = []
+        const b = await newBrowser(viewport)
+        try {
+          await b.context.addInitScript((t) => localStorage.setItem('lw-theme', t), theme)
+          const publicScreens = ['/', '/sign-in']
+          for (const path of publicScreens) {
+            await b.page.goto(`${app.url}${path}`)
+            await b.page.locator('h1, .n-card-header').first().waitFor()
+            await screenshot(b.page, `screens/${theme}-${viewport.width}${path === '/' ? '-landing' : path.replace(/\//g, '-')}`)
+            for (const v of await axeViolations(b.page)) problems.push(`${theme} ${viewport.width} ${path}: ${v}`)
+          }
+          await signInThroughForm(b.page, app.url, 'owner@tallowmere.example', DEMO_PASSWORD)
+          const sheetId = await firstId(b.page, '/api/sheets', (body) => (body.items as Array<{ id: string }> | undefined)?.[0]?.id ?? (body.sheets as Array<{ id: string }> | undefined)?.[0]?.id)
+          const siteId = await firstId(b.page, '/api/sites', (body) => (body.sites as Array<{ id: string }> | undefined)?.[0]?.id ?? (body.items as Array<{ id: string }> | undefined)?.[0]?.id)
+          const screens = [
+            '/home', '/pack-bench', '/charger-check', '/charger-check/retrofit', '/claim-check', '/sheets', sheetId ? `/sheets/${sheetId}` : null,
+            '/sites', siteId ? `/sites/${siteId}` : null, siteId ? `/sites/${siteId}/round` : null, '/rounds', '/team', '/account', '/glossary', '/cautions', '/api-docs',
+          ].filter((p): p is string => !!p)
+          for (const path of screens) {
+            await b.page.goto(`${app.url}${path}`)
+            await b.page.locator('main h1, #main h1').first().waitFor()
+            await b.page.waitForLoadState('networkidle')
+            await screenshot(b.page, `screens/${theme}-${viewport.width}${path.replace(/\/[0-9a-f-]{36}/g, '-id').replace(/\//g, '-')}`)
+            for (const v of await axeViolations(b.page)) problems.push(`${theme} ${viewport.width} ${path}: ${v}`)
+            const overflow = await b.page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth)
+            if (viewport.width === 375 && overflow > 2) problems.push(`${theme} 375 ${path}: the page scrolls sideways by ${overflow} px`)
+          }
+        } finally {
+          await b.close()
+        }
+        expect(problems).toEqual([])
+      })
+    }
+  }
+})
