@@ -5,6 +5,7 @@
 import type { DataSource } from 'typeorm'
 import { seedAccounts } from './accounts.demo'
 import { seedAudits } from './audits.demo'
+import { seedDischarge } from './discharge.demo'
 import { seedPhotometry } from './photometry.demo'
 import { seedRegister } from './register.demo'
 import { seedSheets } from './sheets.demo'
@@ -18,6 +19,7 @@ export async function seedDemo(ds: DataSource): Promise<void> {
     await seedAudits(m, ctx)
     await seedSheets(m, ctx)
     await seedPhotometry(m, ctx)
+    await seedDischarge(m, ctx)
     void ctx
   })
 }

@@ -691,17 +691,18 @@ const photometryInput = z
 export const spacingInput = z
   .object({
     photometry: photometryInput,
-    mountingHeight: quantity('length', { positive: true, max: 30 }),
+    // Lower bounds keep the solver's grids finite (a vanishing height or width has no meaning here).
+    mountingHeight: quantity('length', { positive: true, min: 0.1, max: 30 }),
     emergencyOutputFactor: fraction(),
     maintenanceFactor: fraction().default(0.8),
     criteria: z.enum(['en1838-route', 'en1838-open-area', 'en1838-high-risk', 'nfpa101'], {
       errorMap: () => ({ message: "must be one of 'en1838-route', 'en1838-open-area', 'en1838-high-risk', 'nfpa101'" }),
     }),
-    routeWidth: quantity('length', { positive: true, max: 100 }),
+    routeWidth: quantity('length', { positive: true, min: 0.1, max: 100 }),
     normalIlluminance: quantity('illuminance', { positive: true, max: 100000 }).optional(),
-    routeLength: quantity('length', { positive: true, max: 2000 }).optional(),
+    routeLength: quantity('length', { positive: true, min: 0.1, max: 2000 }).optional(),
     cPlane: finiteNumber({ min: 0, max: 360 }).default(0),
-    heights: z.array(quantity('length', { positive: true, max: 30 })).max(20, 'at most 20 heights').optional(),
+    heights: z.array(quantity('length', { positive: true, min: 0.1, max: 30 })).max(20, 'at most 20 heights').optional(),
     /** NFPA 101 only: share of the initial emergency output left at the end of the rated duration. */
     endOfDurationFactor: fraction().default(1),
   })

@@ -63,9 +63,9 @@ export type LuminaireTypePatch = z.output<typeof LuminaireTypePatchSchema>
 /** A route to find luminaire types for. Lengths are metres (or strings with units). */
 export const RouteNeedSchema = z
   .object({
-    routeLength: quantity('length', { positive: true, max: 2000 }),
-    routeWidth: quantity('length', { positive: true, max: 100 }),
-    mountingHeight: quantity('length', { positive: true, max: 30 }),
+    routeLength: quantity('length', { positive: true, min: 0.1, max: 2000 }),
+    routeWidth: quantity('length', { positive: true, min: 0.1, max: 100 }),
+    mountingHeight: quantity('length', { positive: true, min: 0.1, max: 30 }),
     criteria: CriteriaSchema,
     ratedDuration: quantity('time', { min: 0.5 * HOUR, max: 24 * HOUR, display: { unit: 'h', factor: 1 / HOUR } }),
     maintenanceFactor: fraction().default(0.8),

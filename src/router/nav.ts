@@ -26,7 +26,10 @@ export const NAV: NavGroup[] = [
   },
   {
     label: 'Checks',
-    items: [{ route: 'claim-check', label: 'Claim check', role: 'viewer' }],
+    items: [
+      { route: 'claim-check', label: 'Claim check', role: 'viewer' },
+      { route: 'discharge-logs', label: 'Discharge logs', role: 'viewer' },
+    ],
   },
   {
     label: 'Upkeep',

@@ -3,7 +3,8 @@ import fs from 'node:fs'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
 import { closeTestApp, makeTeam, TEST_PASSWORD, type TestTeam } from '../helpers/test-app'
-import { newBrowser, screenshot, signInThroughForm, startE2eApp, type RunningApp } from '../helpers/browser'
+import path from 'node:path'
+import { ARTIFACTS, newBrowser, screenshot, signInThroughForm, startE2eApp, type RunningApp } from '../helpers/browser'
 import { AUDIT_READINGS, auditIn } from '../helpers/audits'
 import { pdfText } from '../helpers/pdf-text'
 import { sheetIn } from '../helpers/sheets'
@@ -79,10 +80,7 @@ describe('claim check', () => {
       await page.keyboard.press('Escape')
       await page.locator('[data-test="working-claimDeviation"]').waitFor({ state: 'detached' })
       await page.locator('[data-test="power-chart"] canvas').waitFor()
-      await page.locator('#audit-results').scrollIntoViewIfNeeded()
-      await screenshot(page, 'claim-check-results')
-      await page.locator('[data-test="power-chart"]').scrollIntoViewIfNeeded()
-      await screenshot(page, 'claim-check-chart')
+      await page.locator('.lw-results').screenshot({ path: path.join(ARTIFACTS, 'claim-check-results.png') })
 
       // Save, attached to the sheet.
       const title = `Trial bulkhead ${Date.now()}`
@@ -92,16 +90,14 @@ describe('claim check', () => {
       await page.locator('.n-base-select-option', { hasText: sheet.title }).click()
       await screenshot(page, 'claim-check')
       await page.locator('[data-test="save-audit"]').click()
-      await expect.poll(() => page.locator('[data-test="current-audit"]').textContent()).toContain(`on sheet ${sheet.title}`)
-      await expect.poll(() => page.locator('[data-test="saved-audits"] tbody').textContent()).toContain(title)
-      await page.locator('[data-test="saved-audits"]').scrollIntoViewIfNeeded()
-      await screenshot(page, 'claim-check-saved')
+      await page.locator('[data-test="current-audit"]', { hasText: `on sheet ${sheet.title}` }).waitFor()
+      await page.locator('[data-test="saved-audits"] tbody tr', { hasText: title }).waitFor()
+      await page.locator('.lw-saved').screenshot({ path: path.join(ARTIFACTS, 'claim-check-saved.png') })
 
       // The sheet lists it, and its PDF carries it.
       await page.goto(`${app.url}/sheets/${sheet.id}`)
-      await expect.poll(() => page.locator('[data-test="attached-audits"]').textContent()).toContain(title)
-      await page.locator('[data-test="attached-audits"]').scrollIntoViewIfNeeded()
-      await screenshot(page, 'sheet-with-audit')
+      await page.locator('[data-test="attached-audits"] li', { hasText: title }).waitFor()
+      await page.locator('[data-test="attached-audits"]').screenshot({ path: path.join(ARTIFACTS, 'sheet-with-audit.png') })
       const [download] = await Promise.all([page.waitForEvent('download'), page.locator('[data-test="download-pdf"]').click()])
       const text = pdfText(fs.readFileSync((await download.path()) as string)).replace(/\s+/g, ' ')
       expect(text).toContain('Wattage audits')
@@ -131,8 +127,7 @@ describe('claim check', () => {
       // A viewer computes but does not save.
       await page.locator('[data-test="read-only-note"]').waitFor()
       expect(await page.locator('[data-test="save-audit"]').count()).toBe(0)
-      await page.locator('[data-test="audit-comparison"]').scrollIntoViewIfNeeded()
-      await screenshot(page, 'claim-check-side-by-side')
+      await page.locator('[data-test="audit-comparison"]').screenshot({ path: path.join(ARTIFACTS, 'claim-check-side-by-side.png') })
     } finally {
       await b.close()
     }
@@ -149,8 +144,7 @@ describe('claim check', () => {
       const overflow = await b.page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth)
       expect(overflow).toBeLessThanOrEqual(0)
       await screenshot(b.page, 'claim-check-375')
-      await b.page.locator('[data-test="power-chart"]').scrollIntoViewIfNeeded()
-      await screenshot(b.page, 'claim-check-375-chart')
+      await b.page.locator('.lw-results').screenshot({ path: path.join(ARTIFACTS, 'claim-check-375-results.png') })
     } finally {
       await b.close()
     }

@@ -2,7 +2,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
 import { closeTestApp, makeTeam, TEST_PASSWORD, type TestTeam } from '../helpers/test-app'
-import { newBrowser, screenshot, signInThroughForm, startE2eApp, type RunningApp } from '../helpers/browser'
+import path from 'node:path'
+import { ARTIFACTS, newBrowser, screenshot, signInThroughForm, startE2eApp, type RunningApp } from '../helpers/browser'
 
 let app: RunningApp
 let team: TestTeam
@@ -74,7 +75,7 @@ describe('retrofit planner', () => {
 
       // An impossible second reading is an error on its field.
       await retype(page, 'f-secondReading-current', '320 mA')
-      await expect.poll(() => page.locator('[data-test="field-secondReading.current"]').textContent()).toMatch(/adding resistance cannot raise the current/)
+      await page.locator('[data-test="field-secondReading.current"]', { hasText: 'adding resistance cannot raise the current' }).waitFor()
       await page.locator('[data-test="incomplete"]').waitFor()
       await retype(page, 'f-secondReading-current', '180 mA')
       await page.locator('[data-test="retrofit-summary"]').waitFor()
@@ -82,8 +83,7 @@ describe('retrofit planner', () => {
       await screenshot(page, 'retrofit-planner')
       await page.locator('h1').scrollIntoViewIfNeeded()
       await screenshot(page, 'retrofit-planner-top')
-      await page.locator('[data-test="retrofit-schematic"]').scrollIntoViewIfNeeded()
-      await screenshot(page, 'retrofit-planner-schematic')
+      await page.locator('[data-test="retrofit-schematic"]').screenshot({ path: path.join(ARTIFACTS, 'retrofit-planner-schematic.png') })
     } finally {
       await b.close()
     }
@@ -100,10 +100,9 @@ describe('retrofit planner', () => {
       expect(overflow).toBeLessThanOrEqual(0)
       await screenshot(b.page, 'retrofit-planner-375')
       expect(await b.page.locator('#f-capacity').inputValue()).toBe('4 Ah')
-      await b.page.locator('[data-test="retrofit-schematic"]').scrollIntoViewIfNeeded()
-      await screenshot(b.page, 'retrofit-planner-375-schematic')
-      await b.page.locator('[data-test="before-after"]').scrollIntoViewIfNeeded()
-      await screenshot(b.page, 'retrofit-planner-375-table')
+      await b.page.locator('[data-test="retrofit-schematic"]').screenshot({ path: path.join(ARTIFACTS, 'retrofit-planner-375-schematic.png') })
+      await b.page.locator('[data-test="before-after"]').screenshot({ path: path.join(ARTIFACTS, 'retrofit-planner-375-table.png') })
+      await b.page.locator('[data-test="retrofit-cautions"]').screenshot({ path: path.join(ARTIFACTS, 'retrofit-planner-375-cautions.png') })
     } finally {
       await b.close()
     }

@@ -3,6 +3,9 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { BuiltApp } from '../../server/app'
 import { dataSource } from '../../server/data-source'
 import { AuditEvent } from '../../server/modules/audit/audit-event.entity'
+import { DEMO_AUDITS, seedAudits } from '../../server/demo/audits.demo'
+import { listAudits } from '../../server/modules/audits/audits.service'
+import { AuditListQuerySchema } from '../../shared/schemas/wattage-audit.schema'
 import { ENGINE_VERSION } from '../../shared/engine/version'
 import { AUDIT_READINGS, auditBody, auditIn } from '../helpers/audits'
 import { pdfText } from '../helpers/pdf-text'
@@ -237,5 +240,25 @@ describe('the sheet PDF', () => {
     const sheet = await sheetIn(team)
     const res = await pdfOf(viewer, `/api/sheets/${sheet.id}/pdf`)
     expect(pdfText(res.body as Buffer)).not.toContain('Wattage audits')
+  })
+})
+
+describe('demo audits', () => {
+  it('seed once, stay the same on a second run, and tell the "4 W" bulkhead story', async () => {
+    const t = await makeTeam('Demo audit team')
+    const ctx = { workspaceId: t.workspaceId, users: { technician: t.users.technician.id } }
+    await seedAudits(dataSource.manager, ctx)
+    await seedAudits(dataSource.manager, ctx)
+    const { items } = await listAudits(t.workspaceId, AuditListQuerySchema.parse({}))
+    expect(items).toHaveLength(DEMO_AUDITS.length)
+    const first = items.find((a) => a.title === DEMO_AUDITS[0].title)!
+    expect(first.claimedPowerW).toBe(4)
+    expect(first.luminaire).toMatch(/invented model/)
+    const r = first.results as Record<string, number>
+    expect(r.measuredPowerW).toBe(2.6)
+    expect(r.apparentPowerVA).toBeGreaterThan(5.8)
+    expect(r.apparentPowerVA).toBeLessThan(6)
+    // Much less reaches the LEDs on battery than on mains.
+    expect(r.ledPowerBatteryW / r.ledPowerMainsW).toBeLessThan(0.25)
   })
 })

@@ -8,6 +8,7 @@ import fs from 'node:fs'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { BuiltApp } from '../../server/app'
 import { dataSource } from '../../server/data-source'
+import { seedDischarge } from '../../server/demo/discharge.demo'
 import { stagingDir } from '../../server/modules/discharge/discharge.service'
 import { MAX_LOG_BYTES } from '../../shared/schemas/discharge-log.schema'
 import { COMMA_MAPPING, FAILING, logText, NICD_3H, PASSING, savedLogIn, type Style } from '../helpers/discharge-fixtures'
@@ -284,5 +285,30 @@ describe('saving, attaching, comparing', () => {
     expect(res.body.summary.read.rows).toBe(6301)
     expect(res.body.curve.tH).toHaveLength(2000)
     expect(JSON.stringify(res.body)).not.toMatch(/NaN|Infinity/)
+  })
+})
+
+describe('demo logs', () => {
+  it('seeds a passing and a failing modelled 3 h test, once however often it runs', async () => {
+    const demo = await makeTeam('Demo discharge')
+    await sheetIn(demo, { title: 'Demo sheet' })
+    const { luminaire } = await siteWithLuminaire(demo.workspaceId)
+    const failed = await testIn(demo.workspaceId, luminaire.id, { kind: 'duration', testedOn: '2026-02-01', passed: false, achievedDurationH: 2.5 })
+    const ctx = { workspaceId: demo.workspaceId, users: Object.fromEntries(Object.entries(demo.users).map(([role, u]) => [role, u.id])) }
+    await dataSource.transaction((m) => seedDischarge(m, ctx))
+    await dataSource.transaction((m) => seedDischarge(m, ctx))
+    const rows: Array<{ title: string; pass: boolean; runtime: number; spec_sheet_id: string | null; test_record_id: string | null }> = await dataSource.query(
+      `SELECT title, (summary->>'pass')::boolean AS pass, (summary->>'runtimeH')::float AS runtime, spec_sheet_id, test_record_id FROM discharge_logs WHERE workspace_id = $1 ORDER BY title`,
+      [demo.workspaceId],
+    )
+    expect(rows).toHaveLength(2)
+    const [fails, passes] = rows
+    expect(passes.title).toMatch(/passes \(modelled, not measured\)/)
+    expect(passes.pass).toBe(true)
+    expect(passes.spec_sheet_id).not.toBeNull()
+    expect(fails.pass).toBe(false)
+    expect(fails.runtime).toBeLessThan(3)
+    expect(fails.test_record_id).toBe(failed)
+    expect(await count('discharge_files', demo.workspaceId)).toBe(2)
   })
 })

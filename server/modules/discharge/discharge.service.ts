@@ -163,7 +163,8 @@ export interface Analysis {
 /** Parses a file stream with the mapping and runs the engine; bad rows stop it unless accepted. */
 export async function analyseStream(input: Readable, sample: Buffer, size: number, body: Pick<DischargeAnalyse, 'mapping' | 'options' | 'acceptBadRows'>): Promise<Analysis> {
   const columns = columnNames(sample, body.mapping)
-  const parsed = await parseLog(input, body.mapping, columns, size)
+  const sampleLines = sample.toString('latin1').split('\n').length - 1
+  const parsed = await parseLog(input, body.mapping, columns, size, sampleLines > 0 ? sample.length / sampleLines : 12)
   const read: ReadReport = { rows: parsed.rows, badRows: parsed.badRows, currentInverted: parsed.currentInverted }
   if (parsed.badRows.count > 0 && !body.acceptBadRows) {
     const first = parsed.badRows.items[0]

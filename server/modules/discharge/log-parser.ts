@@ -93,9 +93,9 @@ function grow(a: Float64Array<ArrayBuffer>): Float64Array<ArrayBuffer> {
 
 /**
  * Streams the file through csv-parse and fills typed arrays with seconds from the first reading,
- * volts and amps. `sizeHint` (bytes) sizes the arrays up front.
+ * volts and amps. `sizeHint` (bytes) and `bytesPerLine` size the arrays up front.
  */
-export async function parseLog(input: Readable, mapping: ColumnMapping, columnNames: string[], sizeHint = 0): Promise<ParsedLog> {
+export async function parseLog(input: Readable, mapping: ColumnMapping, columnNames: string[], sizeHint = 0, bytesPerLine = 12): Promise<ParsedLog> {
   const { time: tm, voltage: vm, current: im, decimal } = mapping
   const name = (col: number) => columnNames[col] ?? `Column ${col + 1}`
   const names = { t: name(tm.column), v: name(vm.column), i: im ? name(im.column) : '' }
@@ -104,7 +104,8 @@ export async function parseLog(input: Readable, mapping: ColumnMapping, columnNa
   const iScale = im ? CURRENT_UNITS[im.unit] : 1
   const need = Math.max(tm.column, vm.column, im?.column ?? 0) + 1
 
-  let capacity = Math.max(1024, Math.ceil(sizeHint / 12))
+  // Rows expected from the bytes per line of the file's start, with a little room; grown if short.
+  let capacity = Math.max(1024, Math.ceil((sizeHint / Math.max(8, bytesPerLine)) * 1.05))
   let t = new Float64Array(capacity)
   let v = new Float64Array(capacity)
   let cur = im ? new Float64Array(capacity) : null
