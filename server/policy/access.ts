@@ -80,7 +80,6 @@ export function authorize(access: Access): RequestHandler {
       if (req.session) req.session.workspaceId = membership?.workspaceId
     }
     req.ctx = { userId, workspaceId: membership?.workspaceId ?? null, role: membership?.role ?? null }
-    if (access === 'signed-in') return next()
     if (!membership) return next(new ForbiddenError('You are not a member of any workspace yet.'))
     if (!roleAtLeast(membership.role, access)) return next(new ForbiddenError())
     next()
