@@ -290,6 +290,10 @@ describe('choosing a type for a route', () => {
     const res = await viewer.post('/api/route-spacing/select', { ...ROUTE_EXAMPLE, routeLength: '-3 m', criteria: 'en1838-high-risk', ratedDuration: 'soon' })
     expect(res.status).toBe(400)
     expect(res.body.fields.map((f: { path: string }) => f.path)).toEqual(expect.arrayContaining(['routeLength', 'ratedDuration', 'normalIlluminance']))
+    // A vanishing mounting height is refused rather than handed to the solver.
+    const tiny = await viewer.post('/api/route-spacing/select', { ...ROUTE_EXAMPLE, mountingHeight: 6.4e-323 })
+    expect(tiny.status).toBe(400)
+    expect(tiny.body.fields).toEqual([{ path: 'mountingHeight', message: 'must be at least 0.1 m' }])
   })
 
   it('picks a type into a new draft sheet, then into a new revision of it', async () => {
