@@ -25,6 +25,15 @@ export const NAV: NavGroup[] = [
     ],
   },
   {
+    label: 'Route spacing',
+    items: [
+      { route: 'route-spacing', label: 'Spacing calculator', role: 'viewer' },
+      { route: 'type-selector', label: 'Type selector', role: 'viewer' },
+      { route: 'luminaire-types', label: 'Luminaire types', role: 'viewer' },
+      { route: 'photometry', label: 'Photometric files', role: 'viewer' },
+    ],
+  },
+  {
     label: 'Checks',
     items: [
       { route: 'claim-check', label: 'Claim check', role: 'viewer' },

@@ -1,0 +1,136 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import type { Page } from 'playwright-core'
+import { computeSpacing, spacingInput } from '../../shared/engine/spacing'
+import { formatDisplay } from '../../shared/engine/units'
+import { closeTestApp, makeTeam, TEST_PASSWORD, type TestTeam } from '../helpers/test-app'
+import { newBrowser, screenshot, signInThroughForm, startE2eApp, type RunningApp } from '../helpers/browser'
+import { corridorLm63 } from '../helpers/photometry'
+
+let app: RunningApp
+let team: TestTeam
+beforeAll(async () => {
+  app = await startE2eApp()
+  team = await makeTeam('Spacing team')
+})
+afterAll(async () => {
+  await app.close()
+  await closeTestApp()
+})
+
+const lm63 = corridorLm63('e2e')
+const typeName = `Corridor unit ${Date.now()}`
+
+async function chooseOption(page: Page, selectTest: string, text: string) {
+  await page.locator(`[data-test="${selectTest}"]`).click()
+  await page.locator('.n-base-select-option', { hasText: text }).first().click()
+}
+
+describe('route spacing: photometry to a specification sheet', () => {
+  it('uploads a file, refuses a broken one, adds a type, works out spacing and picks the type into a sheet', async () => {
+    const b = await newBrowser()
+    try {
+      const { page } = b
+      await signInThroughForm(page, app.url, team.users.designer.email, TEST_PASSWORD)
+
+      // A broken file is refused with its line, and nothing is listed.
+      await page.goto(`${app.url}/route-spacing/photometry`)
+      const broken = lm63.replace(/^1 1 4\.5$/m, '1 one 4.5')
+      await page.locator('[data-test="photometry-file"]').setInputFiles({ name: 'broken.ies', mimeType: 'text/plain', buffer: Buffer.from(broken) })
+      await page.locator('[data-test="photometry-upload"]').click()
+      await page.locator('[data-test="upload-error"]').waitFor()
+      expect(await page.locator('[data-test="upload-error"]').textContent()).toMatch(/line \d+: expected a number .*"one"/)
+      expect(await page.locator('[data-test="file-link"]').count()).toBe(0)
+
+      // The good file is stored and opened: header facts and the polar diagram of both planes.
+      await page.locator('[data-test="photometry-file"]').setInputFiles({ name: 'corridor.ies', mimeType: 'text/plain', buffer: Buffer.from(lm63) })
+      await page.locator('#photometry-name').fill('Corridor test file')
+      await page.locator('[data-test="photometry-upload"]').click()
+      await page.locator('[data-test="photometry-detail"]').waitFor()
+      await page.locator('[data-test="polar-c0"]').waitFor()
+      expect(await page.locator('[data-test="polar-c90"]').getAttribute('d')).toMatch(/^M[\d.]+,[\d.]+L/)
+      expect(await page.locator('[data-test="photometry-detail"] h2').textContent()).toBe('Corridor test file')
+      await screenshot(page, 'route-spacing-photometry')
+
+      // A luminaire type using it, through the catalogue form.
+      await page.goto(`${app.url}/route-spacing/types`)
+      await page.locator('[data-test="new-type"]').click()
+      await page.locator('#lt-name').fill(typeName)
+      await chooseOption(page, 'lt-file', 'Corridor test file')
+      await page.locator('[data-test="lt-save"]').click()
+      await expect.poll(() => page.locator('[data-test="type-name"]').allTextContents()).toContain(typeName)
+      await screenshot(page, 'route-spacing-types')
+
+      // The calculator with that type: figures as the engine gives them, the plan, the profile, the height table.
+      await page.locator('tr', { hasText: typeName }).getByRole('link', { name: 'Spacing' }).click()
+      await page.waitForURL(/\/route-spacing\?type=/)
+      await page.locator('[data-test="sp-calculate"]').click()
+      await page.locator('[data-test="sp-maxSpacing"]').waitFor()
+      const expected = computeSpacing(spacingInput.parse({ photometry: lm63, mountingHeight: 2.5, emergencyOutputFactor: 0.5, maintenanceFactor: 0.8, criteria: 'en1838-route', routeWidth: 2, routeLength: 30 }))
+      expect(await page.locator('[data-test="sp-maxSpacing"]').textContent()).toBe(formatDisplay('length', 'si', expected.maxSpacingM as number))
+      expect(await page.locator('[data-test="sp-endSpacing"]').textContent()).toBe(formatDisplay('length', 'si', expected.maxEndSpacingM as number))
+      expect(await page.locator('[data-test="sp-luminaires"]').textContent()).toBe(String(expected.luminairesNeeded))
+      expect(await page.locator('[data-test="diagram-luminaire"]').count()).toBe(expected.luminairesNeeded)
+      await page.locator('[data-test="profile-chart"] canvas').waitFor()
+      expect(await page.locator('[data-test="sp-height-table"] tbody tr').count()).toBe(9)
+      expect(await page.locator('[data-test="warning-info"]').count()).toBeGreaterThan(0)
+      await screenshot(page, 'route-spacing-calculator')
+
+      // The selector finds the type and puts it on a new draft sheet.
+      await page.goto(`${app.url}/route-spacing/selector`)
+      await page.locator('[data-test="ts-find"]').click()
+      const row = page.locator('[data-test="selector-table"] tr', { hasText: typeName })
+      await row.waitFor()
+      expect(await row.locator('[data-test="sel-count"]').textContent()).toBe(String(expected.luminairesNeeded))
+      await screenshot(page, 'route-spacing-selector')
+      await row.locator('[data-test="sel-pick"]').click()
+      await page.locator('[data-test="pick-dialog"]').waitFor()
+      await page.locator('#pick-title').fill(`Picked ${typeName}`)
+      await page.locator('[data-test="pick-confirm"]').click()
+      await page.waitForURL(/\/sheets\/[0-9a-f-]{36}$/)
+      // The sheet page shows the pick: the count in its luminaire description.
+      await expect.poll(() => page.locator('#main').textContent()).toContain(`${expected.luminairesNeeded} luminaires at up to`)
+      expect(await page.locator('#main').textContent()).toContain(`Picked ${typeName}`)
+      await screenshot(page, 'route-spacing-sheet')
+    } finally {
+      await b.close()
+    }
+  })
+
+  it('shows the calculator, the photometry and the selector at 375 px, in feet and foot-candles for a US-units user', async () => {
+    const b = await newBrowser({ width: 375, height: 812 })
+    try {
+      const { page } = b
+      await signInThroughForm(page, app.url, team.users.viewer.email, TEST_PASSWORD)
+      // The viewer prefers US units.
+      const set = await page.evaluate(async () => {
+        const csrf = ((await (await fetch('/api/auth/csrf')).json()) as { csrfToken: string }).csrfToken
+        return (await fetch('/api/auth/me', { method: 'PATCH', headers: { 'Content-Type': 'application/json', 'X-CSRF-Token': csrf }, body: JSON.stringify({ units: 'us' }) })).status
+      })
+      expect(set).toBe(200)
+      await page.goto(`${app.url}/route-spacing`)
+      await page.locator('[data-test="sp-calculate"]').click()
+      await page.locator('[data-test="sp-maxSpacing"], [data-test="sp-error"]').first().waitFor()
+      expect(await page.locator('[data-test="sp-error"]').count(), (await page.locator('[data-test="sp-error"]').allTextContents()).join()).toBe(0)
+      expect(await page.locator('[data-test="sp-maxSpacing"]').textContent()).toMatch(/ ft$/)
+      expect(await page.locator('[data-test="sp-minLux"]').textContent()).toMatch(/ fc$/)
+      // The default 2 m width shown in feet comes back as 2 m, not a hair over (which would warn about wide routes).
+      expect(await page.locator('[data-test="warning-warning"]').count()).toBe(0)
+      // Viewers see no upload, add or pick actions.
+      await screenshot(page, 'route-spacing-calculator-375')
+      const overflow = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth)
+      expect(overflow).toBeLessThanOrEqual(1)
+      await page.goto(`${app.url}/route-spacing/photometry`)
+      await page.locator('[data-test="file-link"]').first().click()
+      await page.locator('[data-test="polar-plot"]').waitFor()
+      expect(await page.locator('[data-test="photometry-upload"]').count()).toBe(0)
+      await screenshot(page, 'route-spacing-photometry-375')
+      await page.goto(`${app.url}/route-spacing/selector`)
+      await page.locator('[data-test="ts-find"]').click()
+      await page.locator('[data-test="selector-table"] tbody tr').first().waitFor()
+      expect(await page.locator('[data-test="sel-pick"]').count()).toBe(0)
+      await screenshot(page, 'route-spacing-selector-375')
+    } finally {
+      await b.close()
+    }
+  })
+})
