@@ -10,6 +10,11 @@ export function installA11yFixups(root: HTMLElement = document.body): MutationOb
       if (el.parentElement?.closest('[role="heading"]')) el.removeAttribute('role')
       else el.setAttribute('aria-level', '2')
     })
+    // Number inputs' step buttons carry only an icon.
+    root.querySelectorAll<HTMLElement>('.n-input-number').forEach((box) => {
+      const buttons = box.querySelectorAll<HTMLElement>('.n-input__suffix button:not([aria-label]), .n-input__prefix button:not([aria-label])')
+      buttons.forEach((b) => b.setAttribute('aria-label', b.classList.contains('n-input-number-button--minus') || b === buttons[0] ? 'Decrease' : 'Increase'))
+    })
     // Check boxes without visible text (table row selection) point at a label that is not there.
     root.querySelectorAll<HTMLElement>('[role="checkbox"][aria-labelledby], [role="switch"][aria-labelledby], [role="radio"][aria-labelledby]').forEach((el) => {
       const id = el.getAttribute('aria-labelledby')

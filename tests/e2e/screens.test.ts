@@ -61,9 +61,16 @@ describe('main screens', () => {
           await signInThroughForm(b.page, app.url, 'owner@tallowmere.example', DEMO_PASSWORD)
           const sheetId = await firstId(b.page, '/api/sheets', (body) => (body.items as Array<{ id: string }> | undefined)?.[0]?.id ?? (body.sheets as Array<{ id: string }> | undefined)?.[0]?.id)
           const siteId = await firstId(b.page, '/api/sites', (body) => (body.sites as Array<{ id: string }> | undefined)?.[0]?.id ?? (body.items as Array<{ id: string }> | undefined)?.[0]?.id)
+          const logId = await firstId(b.page, '/api/discharge/logs', (body) => (body.logs as Array<{ id: string }> | undefined)?.[0]?.id ?? (body.items as Array<{ id: string }> | undefined)?.[0]?.id)
+          const luminaireId = siteId
+            ? await firstId(b.page, `/api/sites/${siteId}`, (body) => (body.luminaires as Array<{ id: string }> | undefined)?.[0]?.id)
+            : undefined
           const screens = [
             '/home', '/pack-bench', '/charger-check', '/charger-check/retrofit', '/claim-check', '/sheets', sheetId ? `/sheets/${sheetId}` : null,
             '/sites', siteId ? `/sites/${siteId}` : null, siteId ? `/sites/${siteId}/round` : null, '/rounds', '/team', '/account', '/glossary', '/cautions', '/api-docs',
+            luminaireId ? `/luminaires/${luminaireId}` : null,
+            '/discharge', '/discharge/new', logId ? `/discharge/${logId}` : null,
+            '/route-spacing', '/route-spacing/selector', '/route-spacing/types', '/route-spacing/photometry',
           ].filter((p): p is string => !!p)
           for (const path of screens) {
             await b.page.goto(`${app.url}${path}`)
