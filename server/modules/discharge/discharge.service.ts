@@ -284,7 +284,7 @@ export async function analyseAndMaybeSave(workspaceId: string, userId: string, b
     staged = readStaged(workspaceId, body.uploadId)
     size = staged.meta.size
     sample = await sampleOf(staged.file)
-    input = fs.createReadStream(staged.file, { highWaterMark: 1 << 20 })
+    input = fs.createReadStream(staged.file, { highWaterMark: 64 * 1024 })
   } else {
     const row = await files().createQueryBuilder('f').addSelect('f.bytes').where('f.id = :id AND f.workspace_id = :workspaceId', { id: body.fileId, workspaceId }).getOne()
     if (!row) throw new NotFoundError('That stored log file')

@@ -1,14 +1,13 @@
 /**
  * Reading a discharge log file: a look at its first bytes (empty? binary? which delimiter, decimal
- * mark and header?) and the full read, streamed through csv-parse straight into Float64Arrays, so a
+ * mark and header?) and the full read, streamed through papaparse straight into Float64Arrays, so a
  * million rows never become a million objects. Rows that cannot be read are counted and the first
  * ones listed by line number and column; the caller decides whether to go on without them.
  */
 import crypto from 'node:crypto'
 import fs from 'node:fs'
 import type { Readable } from 'node:stream'
-import { pipeline } from 'node:stream/promises'
-import { parse as csvParse } from 'csv-parse'
+import Papa from 'papaparse'
 import { CURRENT_UNITS, detectDialect, guessMapping, parseNumberCell, timeCellParser, VOLTAGE_UNITS, type Dialect, type MappingGuess } from '../../../shared/engine/discharge-log'
 import { LISTED_BAD_ROWS, MAX_BAD_ROW_SHARE, type ColumnMapping } from '../../../shared/schemas/discharge-log.schema'
 import { AppError, BadRequestError } from '../../errors/app-error'
@@ -92,7 +91,7 @@ function grow(a: Float64Array<ArrayBuffer>): Float64Array<ArrayBuffer> {
 }
 
 /**
- * Streams the file through csv-parse and fills typed arrays with seconds from the first reading,
+ * Streams the file through papaparse and fills typed arrays with seconds from the first reading,
  * volts and amps. `sizeHint` (bytes) and `bytesPerLine` size the arrays up front.
  */
 export async function parseLog(input: Readable, mapping: ColumnMapping, columnNames: string[], sizeHint = 0, bytesPerLine = 12): Promise<ParsedLog> {
@@ -122,19 +121,17 @@ export async function parseLog(input: Readable, mapping: ColumnMapping, columnNa
     if (bad.length < LISTED_BAD_ROWS) bad.push({ row, column, value: value.length > 40 ? `${value.slice(0, 40)}…` : value, reason })
   }
 
-  const parser = csvParse({
-    delimiter: mapping.delimiter,
-    from_line: mapping.firstLine + (mapping.header ? 1 : 0),
-    bom: true,
-    relax_column_count: true,
-    relax_quotes: true,
-    skip_empty_lines: true,
-  })
-  // Records arrive through 'data' (on_record would build an info object per row, three times slower);
-  // while the parser is flowing, its line count is that of the record being handed over.
-  parser.on('data', (record: string[]) => {
+  // papaparse hands over rows a chunk at a time (no object per row), and switches to its fast
+  // splitter when the file holds no quotes; lines are counted here so messages can name them.
+  const firstDataLine = mapping.firstLine + (mapping.header ? 1 : 0)
+  let line = 0
+  const onRow = (record: string[]) => {
+    line++
+    if (line === 1 && record[0]?.charCodeAt(0) === 0xfeff) record[0] = record[0].slice(1)
+    if (line < firstDataLine) return
+    if (record.length === 1 && record[0].trim() === '') return
     seen++
-    const row = parser.info.lines
+    const row = line
     if (record.length < need) {
       const missing = record.length <= tm.column ? names.t : record.length <= vm.column ? names.v : names.i
       flag(row, missing, record.join(mapping.delimiter), `has ${record.length} cell(s), so no "${missing}"`)
@@ -181,13 +178,25 @@ export async function parseLog(input: Readable, mapping: ColumnMapping, columnNa
     n++
     lastT = secs
     lastRaw = rawT
+  }
+  await new Promise<void>((resolve, reject) => {
+    input.once('error', reject)
+    Papa.parse<string[]>(input as unknown as File, {
+      delimiter: mapping.delimiter,
+      skipEmptyLines: false,
+      chunk: (results) => {
+        for (const record of results.data) onRow(record)
+      },
+      complete: () => resolve(),
+      error: (err: Error) => refuseOrReject(err, reject),
+    })
   })
-  try {
-    await pipeline(input, parser)
-  } catch (err) {
-    const e = err as { code?: string; message?: string; lines?: number }
-    if (typeof e.code === 'string' && e.code.startsWith('CSV_')) refuse(`The file could not be read as ${mapping.delimiter === '\t' ? 'tab' : `"${mapping.delimiter}"`}-separated text near line ${e.lines ?? '?'}: ${e.message}`)
-    throw err
+  function refuseOrReject(err: Error, reject: (e: unknown) => void) {
+    try {
+      refuse(`The file could not be read as ${mapping.delimiter === '\t' ? 'tab' : `"${mapping.delimiter}"`}-separated text: ${err.message}`)
+    } catch (e) {
+      reject(e)
+    }
   }
 
   const badRows = { count: badCount, items: bad }
