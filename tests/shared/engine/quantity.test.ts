@@ -2,7 +2,7 @@
  * Unit handling at the engine's edge, checked against mathjs used directly as the reference
  * library (not through the engine's own wrapper).
  */
-import { describe, expect, test } from 'vitest'
+import { describe, expect, it, test } from 'vitest'
 import { unit } from 'mathjs'
 import { convert, parseQuantity, type Dimension } from '../../../shared/engine/quantity'
 import { hours } from '../../../shared/engine/battery-inputs'
@@ -79,5 +79,38 @@ describe('same answer whatever the unit', () => {
     const [a, b, c] = results.map((r) => (r.ok ? r.result.runtimeH : Number.NaN))
     expect(a).toBeCloseTo(b, 12)
     expect(b).toBeCloseTo(c, 12)
+  })
+})
+
+describe('fast path for common units agrees with mathjs (the reference library)', () => {
+  const cases: Array<[string, Dimension, string, string]> = [
+    ['120 mA', 'current', 'mA', 'A'],
+    ['0.12A', 'current', 'A', 'A'],
+    ['1600 mAh', 'charge', 'mAh', 'C'],
+    ['90 min', 'time', 'min', 's'],
+    ['3 h', 'time', 'h', 's'],
+    ['25 degC', 'temperature', 'degC', 'degC'],
+    ['77 degF', 'temperature', 'degF', 'degC'],
+    ['300 K', 'temperature', 'K', 'degC'],
+    ['3.6 V', 'voltage', 'V', 'V'],
+    ['4 W', 'power', 'W', 'W'],
+    ['1.5 kWh', 'energy', 'kWh', 'J'],
+    ['47 kohm', 'resistance', 'kohm', 'ohm'],
+    ['2.5 m', 'length', 'm', 'm'],
+    ['10 ft', 'length', 'ft', 'm'],
+    ['1 fc', 'illuminance', 'fc', 'lx'],
+    ['-1.5e2 mV', 'voltage', 'mV', 'V'],
+  ]
+  it.each(cases)('%s as %s', (text, dimension, _symbol, base) => {
+    const parsed = parseQuantity(text, dimension)
+    expect(parsed.ok).toBe(true)
+    const [, value, symbol] = /^(.*\d)\s*([A-Za-z]+)$/.exec(text)!
+    const reference = dimension === 'illuminance' ? Number(value) * 10.763910416709722 : unit(Number(value), symbol).toNumber(base)
+    if (parsed.ok) expect(parsed.value).toBeCloseTo(reference, 9)
+  })
+
+  it('still refuses a unit of the wrong dimension on the fast path', () => {
+    expect(parseQuantity('3 V', 'current').ok).toBe(false)
+    expect(parseQuantity('3 kg', 'current').ok).toBe(false)
   })
 })
