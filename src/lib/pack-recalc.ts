@@ -89,3 +89,17 @@ export function recalcCharge(raw: unknown): ChargeRecalc {
   assertFinite(result)
   return { ok: true, fields: [], result }
 }
+
+/** Form values without the empty fields (recursively), as they would be computed and saved. */
+export function withoutEmptyFields(values: unknown): Record<string, unknown> {
+  const out: Record<string, unknown> = {}
+  if (!values || typeof values !== 'object' || Array.isArray(values)) return out
+  for (const [k, v] of Object.entries(values)) {
+    if (v === undefined || v === null || v === '') continue
+    if (typeof v === 'object' && !Array.isArray(v)) {
+      const inner = withoutEmptyFields(v)
+      if (Object.keys(inner).length) out[k] = inner
+    } else out[k] = v
+  }
+  return out
+}
