@@ -5,12 +5,10 @@
 import { spawnSync } from 'node:child_process'
 import fs from 'node:fs'
 import os from 'node:os'
-import path from 'node:path'
-import { buildSync } from 'esbuild'
 
-const BENCHES: Array<{ file: string; what: string; bundle?: boolean }> = [
-  { file: 'scripts/bench-engine.ts', what: 'engine: size and compare all chemistries for 10,000 luminaires', bundle: true },
-  { file: 'scripts/bench-recalc.ts', what: 'pack bench: recalculation per keystroke', bundle: true },
+const BENCHES = [
+  { file: 'scripts/bench-engine.ts', what: 'engine: size and compare all chemistries for 10,000 luminaires' },
+  { file: 'scripts/bench-recalc.ts', what: 'pack bench: recalculation per keystroke' },
   { file: 'scripts/bench-bundle.ts', what: 'client: JavaScript and CSS loaded by the first page after sign-in (needs a build)' },
   { file: 'scripts/bench-discharge-engine.ts', what: 'engine: discharge analysis of 1,000,000 samples and spacing tables' },
   { file: 'scripts/bench-discharge.ts', what: 'discharge logs: a 1,000,000-row log parsed and analysed' },
@@ -21,16 +19,7 @@ let failed = 0
 for (const bench of BENCHES) {
   if (!fs.existsSync(bench.file)) continue
   console.log(`\n== ${bench.what} (${bench.file})`)
-  // Pure-engine benchmarks run as one plain bundle, like the code shipped to the browser: the tsx
-  // loader adds a name-keeping wrapper to every function that the production build does not have.
-  let r
-  if (bench.bundle) {
-    const out = path.join(os.tmpdir(), `lw-bench-${path.basename(bench.file, '.ts')}.mjs`)
-    buildSync({ entryPoints: [bench.file], bundle: true, platform: 'node', format: 'esm', outfile: out, keepNames: false, logLevel: 'error' })
-    r = spawnSync('node', [out], { stdio: 'inherit' })
-  } else {
-    r = spawnSync('node', ['--import', 'tsx', bench.file], { stdio: 'inherit' })
-  }
+  const r = spawnSync('node', ['--import', 'tsx', bench.file], { stdio: 'inherit' })
   if (r.status !== 0) failed++
 }
 process.exit(failed ? 1 : 0)
