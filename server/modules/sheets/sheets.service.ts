@@ -224,7 +224,14 @@ export async function listSheets(workspaceId: string, q: SheetListQuery) {
   const direction = q.order === 'asc' ? 'ASC' : 'DESC'
   qb.orderBy(column[q.sort], direction).addOrderBy('s.id', direction)
   qb.skip((q.page - 1) * q.pageSize).take(q.pageSize)
-  const [rows, total] = await qb.getManyAndCount()
+  // A list row needs two figures of the results, not the whole working: leave the big JSON in the database.
+  qb.select(['s.id', 's.title', 's.reference', 's.client', 's.site', 's.chemistry', 's.status', 's.currentRevision', 's.issuedRevision', 's.createdBy', 's.archivedAt', 's.createdAt', 's.updatedAt'])
+    .addSelect(`(s.results->>'selectedCapacityAh')::float8`, 'selected_ah')
+    .addSelect(`(s.results->>'requiredCapacityAh')::float8`, 'required_ah')
+  const [{ entities: rows, raw }, total] = await Promise.all([qb.getRawAndEntities(), qb.getCount()])
+  rows.forEach((row, i) => {
+    row.results = { selectedCapacityAh: raw[i]?.selected_ah, requiredCapacityAh: raw[i]?.required_ah }
+  })
   const names = await namesOf(rows.map((r) => r.createdBy))
   return {
     page: q.page,
