@@ -20,6 +20,9 @@ async function retype(page: Page, id: string, text: string) {
   const input = page.locator(`#${id}`)
   await input.fill('')
   await input.pressSequentially(text)
+  // On a busy machine a late form refresh can land between keystrokes: make sure the field holds the text.
+  if ((await input.inputValue()) !== text) await input.fill(text)
+  await expect.poll(() => input.inputValue()).toBe(text)
 }
 
 describe('retrofit planner', () => {
