@@ -4,7 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
 import { closeTestApp, makeTeam, TEST_PASSWORD, type TestTeam } from '../helpers/test-app'
 import path from 'node:path'
-import { ARTIFACTS, newBrowser, screenshot, signInThroughForm, startE2eApp, type RunningApp } from '../helpers/browser'
+import { ARTIFACTS, chooseOption, newBrowser, screenshot, signInThroughForm, startE2eApp, type RunningApp } from '../helpers/browser'
 import { AUDIT_READINGS, auditIn } from '../helpers/audits'
 import { pdfText } from '../helpers/pdf-text'
 import { sheetIn } from '../helpers/sheets'
@@ -86,8 +86,7 @@ describe('claim check', () => {
       const title = `Trial bulkhead ${Date.now()}`
       await page.locator('#f-audit-title').fill(title)
       await page.locator('#f-audit-luminaire').fill('Invented "4 W" bulkhead, stair B')
-      await page.locator('[data-test="attach-sheet"]').click()
-      await page.locator('.n-base-select-option', { hasText: sheet.title }).click()
+      await chooseOption(page, '[data-test="attach-sheet"]', sheet.title)
       await screenshot(page, 'claim-check')
       await page.locator('[data-test="save-audit"]').click()
       await page.locator('[data-test="current-audit"]', { hasText: `on sheet ${sheet.title}` }).waitFor()

@@ -6,7 +6,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { dataSource } from '../../server/data-source'
 import { FAILING, logText, PASSING } from '../helpers/discharge-fixtures'
-import { newBrowser, screenshot, signInThroughForm, startE2eApp, type RunningApp } from '../helpers/browser'
+import { chooseOption, fillField, newBrowser, screenshot, signInThroughForm, startE2eApp, type RunningApp } from '../helpers/browser'
 import { sheetIn } from '../helpers/sheets'
 import { closeTestApp, makeTeam, TEST_PASSWORD, type TestTeam } from '../helpers/test-app'
 
@@ -44,10 +44,9 @@ async function uploadAndSave(viewport: { width: number; height: number }, name: 
     await expect.poll(() => page.locator('[data-test="cutoff-key"]').textContent()).toBe('cut-off 1 V')
     await page.locator('[data-test="axis-pack"]').click()
     await screenshot(page, `${shot}-result`)
-    await page.locator('#save-title').fill(`Log for ${sheetTitle}`)
+    await fillField(page, '#save-title', `Log for ${sheetTitle}`)
     await page.locator('[data-test="attach-sheet"]').click()
-    await page.locator('#save-sheet').click()
-    await page.locator('.n-base-select-option', { hasText: sheetTitle }).first().click()
+    await chooseOption(page, '#save-sheet', sheetTitle)
     await page.locator('[data-test="save-log"]').click()
     await page.waitForURL(/\/discharge\/[0-9a-f-]{36}$/)
     await page.locator('[data-test="discharge-summary"]').waitFor()

@@ -1,9 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import type { Page } from 'playwright-core'
 import { computeSpacing, spacingInput } from '../../shared/engine/spacing'
 import { formatDisplay } from '../../shared/engine/units'
 import { closeTestApp, makeTeam, TEST_PASSWORD, type TestTeam } from '../helpers/test-app'
-import { newBrowser, screenshot, signInThroughForm, startE2eApp, type RunningApp } from '../helpers/browser'
+import { chooseOption, newBrowser, screenshot, signInThroughForm, startE2eApp, type RunningApp } from '../helpers/browser'
 import { corridorLm63 } from '../helpers/photometry'
 
 let app: RunningApp
@@ -20,10 +19,6 @@ afterAll(async () => {
 const lm63 = corridorLm63('e2e')
 const typeName = `Corridor unit ${Date.now()}`
 
-async function chooseOption(page: Page, selectTest: string, text: string) {
-  await page.locator(`[data-test="${selectTest}"]`).click()
-  await page.locator('.n-base-select-option', { hasText: text }).first().click()
-}
 
 describe('route spacing: photometry to a specification sheet', () => {
   it('uploads a file, refuses a broken one, adds a type, works out spacing and picks the type into a sheet', async () => {
@@ -55,7 +50,7 @@ describe('route spacing: photometry to a specification sheet', () => {
       await page.goto(`${app.url}/route-spacing/types`)
       await page.locator('[data-test="new-type"]').click()
       await page.locator('#lt-name').fill(typeName)
-      await chooseOption(page, 'lt-file', 'Corridor test file')
+      await chooseOption(page, '[data-test="lt-file"]', 'Corridor test file')
       await page.locator('[data-test="lt-save"]').click()
       await expect.poll(() => page.locator('[data-test="type-name"]').allTextContents()).toContain(typeName)
       await screenshot(page, 'route-spacing-types')

@@ -65,3 +65,44 @@ export async function signInThroughForm(page: Page, baseUrl: string, email: stri
   await page.locator('[data-test="sign-in-submit"]').click()
   await page.waitForURL(/\/home/)
 }
+
+/**
+ * Types into a field and makes sure it holds the text: on a busy machine a late re-render can land
+ * between the fill and the next step, which a person would notice and retype.
+ */
+export async function fillField(page: Page, selector: string, text: string) {
+  const input = page.locator(selector)
+  for (let attempt = 0; attempt < 3; attempt++) {
+    await input.fill(text)
+    if ((await input.inputValue()) === text) return
+  }
+  throw new Error(`${selector} would not hold ${JSON.stringify(text)}`)
+}
+
+/**
+ * Opens a naive-ui select by clicking `trigger`, picks the option showing `text`, and makes sure
+ * the select now shows it (a click that lands while the menu is still animating in can be lost;
+ * a person would see the empty select and pick again).
+ */
+export async function chooseOption(page: Page, trigger: string, text: string) {
+  for (let attempt = 0; attempt < 3; attempt++) {
+    await page.locator(trigger).click()
+    await page.locator('.n-base-select-option', { hasText: text }).first().click()
+    // A focused filterable select hides its label; leave it to read what it took.
+    await page.evaluate(() => (document.activeElement as HTMLElement | null)?.blur())
+    try {
+      await page.waitForFunction(
+        ([sel, want]) => {
+          const el = document.querySelector(sel)
+          return (el?.closest('.n-select') ?? el)?.textContent?.includes(want) ?? false
+        },
+        [trigger, text] as const,
+        { timeout: 5_000 },
+      )
+      return
+    } catch {
+      await page.keyboard.press('Escape')
+    }
+  }
+  throw new Error(`the select ${trigger} would not take ${JSON.stringify(text)}`)
+}

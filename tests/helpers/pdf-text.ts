@@ -14,22 +14,37 @@ interface PdfObject {
 function readObjects(pdf: Buffer): Map<string, PdfObject> {
   const src = pdf.toString('latin1')
   const objects = new Map<string, PdfObject>()
-  const re = /(\d+) 0 obj\s*([\s\S]*?)endobj/g
-  for (let m = re.exec(src); m; m = re.exec(src)) {
-    const body = m[2]
-    const at = body.indexOf('stream')
-    if (at < 0) {
-      objects.set(m[1], { dict: body, stream: null })
+  const header = /(\d+) 0 obj\b/g
+  // Direct /Length values first; an indirect one ("/Length 7 0 R") is resolved below.
+  const lengthOf = (dict: string): number | null => {
+    const direct = dict.match(/\/Length (\d+)(?! \d+ R)/)
+    if (direct) return Number(direct[1])
+    const ref = dict.match(/\/Length (\d+) 0 R/)
+    const target = ref && src.match(new RegExp(`\\b${ref[1]} 0 obj\\s*(\\d+)\\s*endobj`))
+    return target ? Number(target[1]) : null
+  }
+  for (let m = header.exec(src); m; m = header.exec(src)) {
+    const bodyStart = m.index + m[0].length
+    const streamAt = src.indexOf('stream', bodyStart)
+    const endObjAt = src.indexOf('endobj', bodyStart)
+    if (endObjAt < 0) break
+    if (streamAt < 0 || endObjAt < streamAt) {
+      objects.set(m[1], { dict: src.slice(bodyStart, endObjAt), stream: null })
+      header.lastIndex = endObjAt
       continue
     }
-    const dict = body.slice(0, at)
-    let start = at + 'stream'.length
-    if (body[start] === '\r') start++
-    if (body[start] === '\n') start++
-    const end = body.lastIndexOf('endstream')
-    let data = Buffer.from(body.slice(start, end).replace(/\r?\n$/, ''), 'latin1')
+    // The stream's bytes are counted by /Length (ISO 32000-1, 7.3.8): compressed data may hold
+    // any byte sequence, "endobj" included, so it is never searched for inside them.
+    const dict = src.slice(bodyStart, streamAt)
+    let start = streamAt + 'stream'.length
+    if (src[start] === '\r') start++
+    if (src[start] === '\n') start++
+    const length = lengthOf(dict)
+    if (length === null) throw new Error(`object ${m[1]}: stream without a readable /Length`)
+    let data: Buffer = pdf.subarray(start, start + length)
     if (/\/FlateDecode/.test(dict)) data = zlib.inflateSync(data)
     objects.set(m[1], { dict, stream: data })
+    header.lastIndex = src.indexOf('endobj', start + length)
   }
   return objects
 }
