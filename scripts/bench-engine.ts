@@ -5,25 +5,14 @@
  */
 import { performance } from 'node:perf_hooks'
 import { CHEMISTRY_IDS } from '../shared/engine/chemistries'
-import { compareChemistries, DEFAULT_WEIGHTS, type CompareInput } from '../shared/engine/compare'
+import { compareChemistries, DEFAULT_WEIGHTS, luminaireOf, type CompareInput } from '../shared/engine/compare'
 import { sizePack, type SizeInput } from '../shared/engine/size'
+import { seededRandom } from '../shared/lib/seeded-random'
 
 const COUNT = 10_000
 const ROUNDS = 7
 
-/** Small deterministic generator (mulberry32) so every run sizes the same luminaires. */
-function random(seed: number) {
-  let a = seed >>> 0
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0
-    let t = a
-    t = Math.imul(t ^ (t >>> 15), t | 1)
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61)
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296
-  }
-}
-
-const next = random(20240601)
+const next = seededRandom(20240601)
 const pick = <T>(items: readonly T[]) => items[Math.floor(next() * items.length)]
 const DURATIONS_S = [3600, 5400, 10_800]
 
@@ -47,20 +36,7 @@ const luminaires: CompareInput[] = Array.from({ length: COUNT }, () => {
   }
 })
 
-const sizeInputs: SizeInput[] = luminaires.flatMap((l) =>
-  CHEMISTRY_IDS.map((chemistry) => ({
-    chemistry,
-    duration: l.duration,
-    load: l.load,
-    driver: l.driver,
-    driverEfficiency: l.driverEfficiency,
-    endOfLifeCapacity: l.endOfLifeCapacity,
-    designMargin: l.designMargin,
-    designLifeYears: l.designLifeYears,
-    ambientMin: l.ambientMin,
-    ambientMax: l.ambientMax,
-  })),
-)
+const sizeInputs: SizeInput[] = luminaires.flatMap((l) => CHEMISTRY_IDS.map((chemistry) => ({ chemistry, ...luminaireOf(l) })))
 
 function time(label: string, run: () => number): void {
   const samples: number[] = []

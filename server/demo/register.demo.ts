@@ -11,18 +11,7 @@ import { AreaEntity } from '../modules/register/area.entity'
 import { LuminaireEntity } from '../modules/register/luminaire.entity'
 import { SiteEntity } from '../modules/register/site.entity'
 import type { DemoContext } from './accounts.demo'
-
-/** mulberry32: a small, well-known 32-bit generator; the same seed gives the same demo every time. */
-function prng(seed: number) {
-  let a = seed >>> 0
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0
-    let t = a
-    t = Math.imul(t ^ (t >>> 15), t | 1)
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61)
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296
-  }
-}
+import { seededRandom } from '../../shared/lib/seeded-random'
 
 type Purpose = LuminaireEntity['purpose']
 type Mode = LuminaireEntity['mode']
@@ -134,7 +123,7 @@ const FAULTS = [
 
 /** Adds the demo buildings to the demo workspace (skips any already there). */
 export async function seedRegister(m: EntityManager, ctx: DemoContext, today = new Date().toISOString().slice(0, 10)): Promise<void> {
-  const rand = prng(0x1a3b5c7d)
+  const rand = seededRandom(0x1a3b5c7d)
   const technician = ctx.users.technician ?? null
   for (const spec of buildSites(rand)) {
     const exists = await m.getRepository(SiteEntity).findOne({ where: { workspaceId: ctx.workspaceId, name: spec.name } })

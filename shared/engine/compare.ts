@@ -82,27 +82,45 @@ const CRITERION_WORDS = {
   restrictions: 'restrictions and disposal',
 } as const
 
+/** The luminaire and its setting, without any one chemistry's pack: what every chemistry is sized for. */
+export type Luminaire = Pick<
+  SizeInput,
+  | 'duration'
+  | 'load'
+  | 'driver'
+  | 'driverEfficiency'
+  | 'converterInput'
+  | 'endOfLifeCapacity'
+  | 'depthOfDischarge'
+  | 'designMargin'
+  | 'designLifeYears'
+  | 'ambientMin'
+  | 'ambientMax'
+>
+
+/** The luminaire part of a size or compare input (drops the pack and the comparison settings). */
+export function luminaireOf(input: Luminaire): Luminaire {
+  return {
+    duration: input.duration,
+    load: input.load,
+    driver: input.driver,
+    driverEfficiency: input.driverEfficiency,
+    converterInput: input.converterInput,
+    endOfLifeCapacity: input.endOfLifeCapacity,
+    depthOfDischarge: input.depthOfDischarge,
+    designMargin: input.designMargin,
+    designLifeYears: input.designLifeYears,
+    ambientMin: input.ambientMin,
+    ambientMax: input.ambientMax,
+  }
+}
+
 /** `explain: false` skips verdict sentences and working (bulk runs such as the benchmark). */
 export function compareChemistries(input: CompareInput, options: { explain?: boolean } = {}): CompareResult {
   const explain = options.explain !== false
   const ids = [...new Set(input.chemistries)]
-  const sized = ids.map((id) => {
-    const sizeInput: SizeInput = {
-      chemistry: id,
-      duration: input.duration,
-      load: input.load,
-      driver: input.driver,
-      driverEfficiency: input.driverEfficiency,
-      converterInput: input.converterInput,
-      endOfLifeCapacity: input.endOfLifeCapacity,
-      depthOfDischarge: input.depthOfDischarge,
-      designMargin: input.designMargin,
-      designLifeYears: input.designLifeYears,
-      ambientMin: input.ambientMin,
-      ambientMax: input.ambientMax,
-    }
-    return sizePack(sizeInput, { explain: false })
-  })
+  const luminaire = luminaireOf(input)
+  const sized = ids.map((id) => sizePack({ chemistry: id, ...luminaire }, { explain: false }))
 
   const maxLife = Math.max(...sized.map((r) => r.serviceLifeYears))
   const mid = (r: Range) => (r.min + r.max) / 2

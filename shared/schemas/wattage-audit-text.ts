@@ -31,7 +31,7 @@ export const AUDIT_INPUT_LABELS: Record<string, string> = {
 }
 
 /** How each field is named inside a sentence. */
-const AUDIT_FIELD_WORDS: Record<string, string> = {
+export const AUDIT_FIELD_WORDS: Record<string, string> = {
   claimedPower: 'the claimed power',
   claimedApparentPower: 'the claimed apparent power',
   supplyVoltage: 'the supply voltage',

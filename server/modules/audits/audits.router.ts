@@ -1,20 +1,10 @@
 /** /api/audits: saved wattage audits (claimed power against bench readings), and where they are attached. */
 import type { Request, Response } from 'express'
-import { z } from 'zod'
 import { AuditAttachSchema, AuditCreateSchema, AuditListQuerySchema } from '../../../shared/schemas/wattage-audit.schema'
-import { NotFoundError } from '../../errors/app-error'
-import { parse } from '../../lib/parse'
+import { idParam, parse } from '../../lib/parse'
 import { scope, type RouteSpec } from '../../policy/access'
 import * as service from './audits.service'
 
-const IdParams = z.object({ id: z.string().uuid() })
-
-/** A malformed id answers 404 like a missing one, so ids cannot be probed. */
-function idParam(req: Request): string {
-  const r = IdParams.safeParse(req.params)
-  if (!r.success) throw new NotFoundError('That wattage audit')
-  return r.data.id
-}
 
 async function list(req: Request, res: Response) {
   res.json(await service.listAudits(scope(req).workspaceId, parse(AuditListQuerySchema, req.query)))
@@ -26,18 +16,18 @@ async function create(req: Request, res: Response) {
 }
 
 async function read(req: Request, res: Response) {
-  res.json(await service.getAudit(scope(req).workspaceId, idParam(req)))
+  res.json(await service.getAudit(scope(req).workspaceId, idParam(req, 'That wattage audit')))
 }
 
 async function attach(req: Request, res: Response) {
   const s = scope(req)
-  const id = idParam(req)
+  const id = idParam(req, 'That wattage audit')
   res.json(await service.attachAudit(s.workspaceId, s.userId, id, parse(AuditAttachSchema, req.body)))
 }
 
 async function remove(req: Request, res: Response) {
   const s = scope(req)
-  await service.deleteAudit(s.workspaceId, s.userId, idParam(req))
+  await service.deleteAudit(s.workspaceId, s.userId, idParam(req, 'That wattage audit'))
   res.status(204).end()
 }
 

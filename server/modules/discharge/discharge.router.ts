@@ -2,21 +2,12 @@
 import fs from 'node:fs'
 import type { NextFunction, Request, Response } from 'express'
 import multer from 'multer'
-import { z } from 'zod'
 import { DischargeAnalyseSchema, DischargeCompareQuerySchema, DischargeListQuerySchema, DischargeTextUploadSchema, MAX_LOG_BYTES } from '../../../shared/schemas/discharge-log.schema'
 import { AppError, NotFoundError } from '../../errors/app-error'
-import { parse } from '../../lib/parse'
+import { idParam, parse } from '../../lib/parse'
 import { scope, type RouteSpec } from '../../policy/access'
 import * as service from './discharge.service'
 
-const IdParams = z.object({ id: z.string().uuid() })
-
-/** A malformed id answers 404 like a missing one, so ids cannot be probed. */
-function idParam(req: Request): string {
-  const r = IdParams.safeParse(req.params)
-  if (!r.success) throw new NotFoundError('That discharge log')
-  return r.data.id
-}
 
 // Straight to the staging folder on disk: a 50 MB log never sits in memory whole.
 const upload = multer({
@@ -64,12 +55,12 @@ async function list(req: Request, res: Response) {
 }
 
 async function read(req: Request, res: Response) {
-  res.json(await service.getLog(scope(req).workspaceId, idParam(req)))
+  res.json(await service.getLog(scope(req).workspaceId, idParam(req, 'That discharge log')))
 }
 
 async function remove(req: Request, res: Response) {
   const s = scope(req)
-  await service.deleteLog(s.workspaceId, s.userId, idParam(req))
+  await service.deleteLog(s.workspaceId, s.userId, idParam(req, 'That discharge log'))
   res.status(204).end()
 }
 

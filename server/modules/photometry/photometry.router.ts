@@ -1,7 +1,6 @@
 /** /api/photometry (LM-63 files), /api/luminaire-types (the catalogue) and /api/route-spacing (choosing a type for a route). */
 import type { Request, Response } from 'express'
 import multer from 'multer'
-import { z } from 'zod'
 import {
   LuminaireTypePatchSchema,
   LuminaireTypeSchema,
@@ -10,19 +9,11 @@ import {
   PickSchema,
   RouteNeedSchema,
 } from '../../../shared/schemas/photometry.schema'
-import { BadRequestError, NotFoundError } from '../../errors/app-error'
-import { parse } from '../../lib/parse'
+import { BadRequestError } from '../../errors/app-error'
+import { idParam, parse } from '../../lib/parse'
 import { scope, type RouteSpec } from '../../policy/access'
 import * as service from './photometry.service'
 
-const IdParams = z.object({ id: z.string().uuid() })
-
-/** A malformed id answers 404 like a missing one, so ids cannot be probed. */
-function idParam(req: Request): string {
-  const r = IdParams.safeParse(req.params)
-  if (!r.success) throw new NotFoundError()
-  return r.data.id
-}
 
 const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: MAX_LM63_BYTES, files: 1, fields: 2 } })
 

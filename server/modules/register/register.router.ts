@@ -6,21 +6,13 @@ import { ImportRequestSchema, LuminairePatchSchema, LuminaireSchema, PackReplace
 import { AreaPatchSchema, AreaSchema, SitePatchSchema, SiteSchema } from '../../../shared/schemas/site.schema'
 import { TestBatchSchema } from '../../../shared/schemas/test-record.schema'
 import { BadRequestError, NotFoundError } from '../../errors/app-error'
-import { parse } from '../../lib/parse'
+import { idParam, parse } from '../../lib/parse'
 import { scope, type RouteSpec } from '../../policy/access'
 import { EXPORT_FILES, exportFile, type ExportFile } from './export.service'
 import { commitImport, previewImport } from './import.service'
 import * as register from './register.service'
 import * as tests from './tests.service'
 
-const IdParams = z.object({ id: z.string().uuid() })
-
-/** A malformed id answers 404 like a missing one, so ids cannot be probed. */
-function idParam(req: Request): string {
-  const r = IdParams.safeParse(req.params)
-  if (!r.success) throw new NotFoundError()
-  return r.data.id
-}
 
 // Schedules are small text files; 2 MB is far more than any building's register.
 const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: 2 * 1024 * 1024, files: 1, fields: 4 } })

@@ -3,22 +3,14 @@ import type { Request, Response } from 'express'
 import { z } from 'zod'
 import { ChangeRoleSchema, CreateWorkspaceSchema, InviteSchema, SwitchWorkspaceSchema } from '../../../shared/schemas/auth.schema'
 import { NotFoundError } from '../../errors/app-error'
-import { parse } from '../../lib/parse'
+import { idParam, parse } from '../../lib/parse'
 import { scope, type RouteSpec } from '../../policy/access'
 import type { User } from '../users/user.entity'
 import { meResponse } from '../auth/auth.router'
 import * as service from './workspaces.service'
 import { findMembership } from './workspaces.repository'
 
-const IdParams = z.object({ id: z.string().uuid('is not a valid id') })
 const TokenParams = z.object({ token: z.string().min(10, 'is not a valid token').max(200) })
-
-/** A malformed id answers 404 like a missing one, so ids cannot be probed. */
-function idParam(req: Request): string {
-  const r = IdParams.safeParse(req.params)
-  if (!r.success) throw new NotFoundError()
-  return r.data.id
-}
 
 async function list(req: Request, res: Response) {
   res.json({ workspaces: await service.myWorkspaces(req.ctx!.userId) })
