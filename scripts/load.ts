@@ -13,6 +13,10 @@ import { DEMO_PASSWORD } from '../server/scripts/demo-users'
 import { ensurePostgresBinaries, findFreePort, startCluster } from './lib/setup.mjs'
 
 const DURATION_S = Number(process.env.LOAD_SECONDS ?? 8)
+/** LOAD_PROFILE_DIR=/some/dir writes a V8 CPU profile of the app process there (open it in Chrome's DevTools). */
+const PROFILE_DIR = process.env.LOAD_PROFILE_DIR
+/** LOAD_CONNECTIONS=50 runs one connection count instead of 50 and 200. */
+const CONNECTIONS = process.env.LOAD_CONNECTIONS ? process.env.LOAD_CONNECTIONS.split(',').map(Number) : [50, 200]
 const work = fs.mkdtempSync(path.join(os.tmpdir(), 'lw-load-'))
 fs.chmodSync(work, 0o755)
 const children: ChildProcess[] = []
@@ -63,7 +67,8 @@ async function main() {
   }
   const appPort = await findFreePort(46000)
   const barePort = await findFreePort(47000)
-  children.push(spawn('node', ['--import', 'tsx', 'server/index.ts'], { env: { ...env, PORT: String(appPort) }, stdio: 'ignore' }))
+  const profile = PROFILE_DIR ? ['--cpu-prof', `--cpu-prof-dir=${path.resolve(PROFILE_DIR)}`] : []
+  children.push(spawn('node', [...profile, '--import', 'tsx', 'server/index.ts'], { env: { ...env, PORT: String(appPort) }, stdio: 'ignore' }))
   children.push(
     spawn('node', ['-e', `const e=require('express');const a=e();a.get('/bare',(q,s)=>s.json({ok:true}));a.post('/bare',e.json(),(q,s)=>s.json({ok:true,n:q.body&&q.body.n}));a.listen(${barePort},'127.0.0.1')`], { stdio: 'ignore' }),
   )
@@ -87,8 +92,26 @@ async function main() {
     sheets.push({ id: body.id ?? body.sheet?.id, version: body.version ?? body.sheet?.version ?? 1 })
   }
 
+  // One request at a time first: what each route costs with no queueing, the floor under the loaded figures.
+  const single = async (label: string, path: string, init: RequestInit = {}) => {
+    const times: number[] = []
+    for (let i = 0; i < 60; i++) {
+      const start = performance.now()
+      const res = await fetch(`${base}${path}`, { headers, ...init })
+      await res.arrayBuffer()
+      if (i >= 10) times.push(performance.now() - start)
+    }
+    times.sort((a, b) => a - b)
+    console.log(`unloaded ${label.padEnd(34)} median ${times[times.length >> 1].toFixed(2)} ms`)
+  }
+  await single('GET /api/sheets', '/api/sheets?page=1&pageSize=20')
+  await single('GET /api/sheets/:id', `/api/sheets/${sheets[0].id}`)
+  await single('POST /api/calc/size', '/api/calc/size', { method: 'POST', body: sizeBody })
+  await single('POST /api/calc/size?working=false', '/api/calc/size?working=false', { method: 'POST', body: sizeBody })
+  await single('GET /api/health', '/api/health')
+
   const results: ReturnType<typeof row>[] = []
-  for (const connections of [50, 200]) {
+  for (const connections of CONNECTIONS) {
     const bare = await run({ url: `http://127.0.0.1:${barePort}/bare`, connections })
     results.push(row(`bare Express GET, ${connections} conn`, bare))
     const bareRow = results[results.length - 1]
@@ -106,7 +129,9 @@ async function main() {
 
     const compute = await run({ url: `${base}/api/calc/size`, method: 'POST', connections, headers, body: sizeBody })
     results.push(row(`compute POST /api/calc/size, ${connections} conn`, compute))
-    console.log(`compute / bare throughput at ${connections} connections: ${(compute.requests.average / bare.requests.average).toFixed(2)} (bare ${bareRow['req/s']} req/s)`)
+    const lean = await run({ url: `${base}/api/calc/size?working=false`, method: 'POST', connections, headers, body: sizeBody })
+    results.push(row(`compute, numbers only (?working=false), ${connections} conn`, lean))
+    console.log(`compute / bare throughput at ${connections} connections: ${(compute.requests.average / bare.requests.average).toFixed(2)} with working, ${(lean.requests.average / bare.requests.average).toFixed(2)} numbers only (bare ${bareRow['req/s']} req/s)`)
 
     // The realistic mix: list, open, compute, open, save a revision (each connection its own sheet).
     let next = 0
@@ -159,8 +184,9 @@ main()
     console.error(err)
     process.exitCode = 1
   })
-  .finally(() => {
-    for (const c of children) c.kill('SIGTERM')
+  .finally(async () => {
+    // Let the app shut down by itself (it writes its CPU profile on the way out) before the database goes.
+    await Promise.all(children.map((c) => new Promise((resolve) => (c.exitCode !== null ? resolve(null) : (c.once('exit', resolve), c.kill('SIGTERM'))))))
     cluster?.stop()
     fs.rmSync(work, { recursive: true, force: true })
   })

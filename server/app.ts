@@ -56,6 +56,12 @@ export function createApp(opts: AppOptions = {}): BuiltApp {
       crossOriginEmbedderPolicy: false,
     }),
   )
+  // API answers are private to the signed-in team: never cached (so no ETag to hash either).
+  app.set('etag', false)
+  app.use('/api', (_req, res, next) => {
+    res.setHeader('Cache-Control', 'private, no-store')
+    next()
+  })
   if (cfg.logLevel !== 'silent') app.use('/api', requestLog)
   app.use('/api', express.json({ limit: '1mb', strict: true }))
   const session = createSessionMiddleware(cfg)

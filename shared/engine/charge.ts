@@ -316,5 +316,5 @@ export const chargeTool = defineTool({
   name: 'charge',
   summary: 'Check charge and trickle currents, recharge time, float voltage and cut-off of an emergency luminaire pack.',
   input: chargeInputSchema,
-  run: (input: ChargeInput) => checkCharge(input),
+  run: (input: ChargeInput, options) => checkCharge(input, options),
 })

@@ -233,5 +233,5 @@ export const compareTool = defineTool({
   name: 'compare',
   summary: 'Size one luminaire in every battery chemistry and rank them by service life, permanent charge, size and restrictions.',
   input: compareInputSchema,
-  run: (input: CompareInput) => compareChemistries(input),
+  run: (input: CompareInput, options) => compareChemistries(input, options),
 })

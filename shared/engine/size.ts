@@ -648,5 +648,5 @@ export const sizeTool = defineTool({
   name: 'size',
   summary: 'Size a battery pack for an emergency luminaire, or check an existing pack, for its rated duration.',
   input: sizeInputSchema,
-  run: (input: SizeInput) => sizePack(input),
+  run: (input: SizeInput, options) => sizePack(input, options),
 })

@@ -165,6 +165,16 @@ describe('the list', () => {
     expect(page1.body.items.map((s: { title: string }) => s.title)).toEqual(['Corridor 1', 'Corridor 2'])
     const page3 = await d.get('/api/sheets?page=3&pageSize=2&sort=title&order=asc')
     expect(page3.body.items.map((s: { title: string }) => s.title)).toEqual(['Corridor 5', 'Plant room'])
+    // Each row carries its author and the two pack figures, read from the stored results.
+    const plant = page3.body.items[1]
+    expect(plant.author.name).toBe('owner person')
+    const full = await d.get(`/api/sheets/${lead.id}`)
+    expect(plant.selectedCapacityAh).toBe(full.body.results.selectedCapacityAh)
+    expect(plant.requiredCapacityAh).toBe(full.body.results.requiredCapacityAh)
+    // Past the last page: no rows, and still the total.
+    const beyond = await d.get('/api/sheets?page=9&pageSize=2')
+    expect(beyond.body.items).toEqual([])
+    expect(beyond.body.total).toBe(6)
     const desc = await d.get('/api/sheets?pageSize=1&sort=title&order=desc')
     expect(desc.body.items[0].title).toBe('Plant room')
 

@@ -1,0 +1,54 @@
+/**
+ * POST /api/calc/:tool answers what the engine answers (the same function the CLI and the screens
+ * run), with the working by default and without it on ?working=false.
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import type { BuiltApp } from '../../server/app'
+import { sizePack, sizeTool } from '../../shared/engine/size'
+import { closeTestApp, getTestApp, makeTeam, signIn, type Client } from '../helpers/test-app'
+
+let built: BuiltApp
+let viewer: Client
+beforeAll(async () => {
+  built = await getTestApp()
+  const team = await makeTeam('Calc team')
+  viewer = await signIn(built.app, team.users.viewer.email)
+})
+afterAll(closeTestApp)
+
+// An invented luminaire: 3 h, 1.6 W of LEDs behind an 85 % converter, warmest 35 °C.
+const INPUT = { chemistry: 'nicd', duration: '3 h', load: { power: '1.6 W' }, driver: 'converter', driverEfficiency: 0.85, ambientMax: '35 degC' }
+
+describe('POST /api/calc/:tool', () => {
+  it('answers the engine result with its working, figure for figure', async () => {
+    const res = await viewer.post('/api/calc/size', INPUT)
+    expect(res.status).toBe(200)
+    const expected = sizePack(sizeTool.input.parse(INPUT))
+    expect(res.body.tool).toBe('size')
+    expect(res.body.selectedCapacityAh).toBe(expected.selectedCapacityAh)
+    expect(res.body.working.map((s: { id: string }) => s.id)).toEqual(expected.working.map((s) => s.id))
+    expect(res.body.working.length).toBeGreaterThan(5)
+  })
+
+  it('leaves the working out on ?working=false and keeps every figure and warning', async () => {
+    const full = await viewer.post('/api/calc/size', INPUT)
+    const lean = await viewer.post('/api/calc/size?working=false', INPUT)
+    expect(lean.status).toBe(200)
+    expect(lean.body.working).toEqual([])
+    const { working: _w, ...fullFigures } = full.body
+    const { working: _l, ...leanFigures } = lean.body
+    expect(leanFigures).toEqual(fullFigures)
+    expect(JSON.stringify(lean.body).length).toBeLessThan(JSON.stringify(full.body).length / 3)
+  })
+
+  it('refuses a working flag that is not true or false, naming the field', async () => {
+    const res = await viewer.post('/api/calc/size?working=maybe', INPUT)
+    expect(res.status).toBe(400)
+    expect(res.body.fields).toEqual([expect.objectContaining({ path: 'working' })])
+  })
+
+  it('answers an unknown tool with 404', async () => {
+    const res = await viewer.post('/api/calc/nothing-here', INPUT)
+    expect(res.status).toBe(404)
+  })
+})
