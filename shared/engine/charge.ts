@@ -13,6 +13,7 @@ import { ambientTemperature, finiteNumber, quantity } from './fields'
 import { addChemistryNotes, chooseCellsInSeries, describeCellChoice, packIssues } from './size'
 import { defineTool } from './tool'
 import { sortWarnings, type EngineWarning, type Reference, type WorkingStep, type WorkingValue } from './types'
+import { roundToSignificant } from './round'
 
 const SECONDS_PER_HOUR = 3600
 /** IEC 60598-2-22: the rated duration must be available after a 24 h charge. */
@@ -81,7 +82,7 @@ export interface ChargeResult {
 }
 
 const v = (symbol: string, label: string, value: number, unit: string): WorkingValue => ({ symbol, label, value, unit })
-const round = (x: number, digits = 3) => Number(x.toPrecision(digits))
+const round = roundToSignificant
 
 export function checkCharge(input: ChargeInput, options: { explain?: boolean } = {}): ChargeResult {
   const explain = options.explain !== false

@@ -8,9 +8,10 @@ import { CHEMISTRIES, CHEMISTRY_IDS } from './chemistries'
 import { REF } from './chemistries/references'
 import type { ChemistryId, Range } from './chemistries/types'
 import { ambientTemperature, finiteNumber } from './fields'
-import { packIssues, sizePack, type SizeInput } from './size'
+import { packIssues, sizePack, type SizeInput, type SizeResult } from './size'
 import { defineTool } from './tool'
 import { sortWarnings, type EngineWarning, type WorkingStep } from './types'
+import { roundToSignificant } from './round'
 
 const weight = (fallback: number) => finiteNumber({ min: 0, max: 100 }).default(fallback)
 
@@ -74,7 +75,7 @@ export interface CompareResult {
 }
 
 const CRITICAL_PENALTY = 0.5
-const round = (x: number, digits = 3) => Number(x.toPrecision(digits))
+const round = roundToSignificant
 const CRITERION_WORDS = {
   life: 'service life',
   trickle: 'living on permanent charge',
@@ -98,9 +99,10 @@ export type Luminaire = Pick<
   | 'ambientMax'
 >
 
-/** The luminaire part of a size or compare input (drops the pack and the comparison settings). */
-export function luminaireOf(input: Luminaire): Luminaire {
+/** The size input for one chemistry and a luminaire; written out (not spread) so every call has one shape. */
+export function sizeInputFor(chemistry: ChemistryId, input: Luminaire): SizeInput {
   return {
+    chemistry,
     duration: input.duration,
     load: input.load,
     driver: input.driver,
@@ -115,31 +117,41 @@ export function luminaireOf(input: Luminaire): Luminaire {
   }
 }
 
+const hasCritical = (warnings: EngineWarning[]) => {
+  for (const w of warnings) if (w.severity === 'critical') return true
+  return false
+}
+
 /** `explain: false` skips verdict sentences and working (bulk runs such as the benchmark). */
 export function compareChemistries(input: CompareInput, options: { explain?: boolean } = {}): CompareResult {
   const explain = options.explain !== false
-  const ids = [...new Set(input.chemistries)]
-  const luminaire = luminaireOf(input)
-  const sized = ids.map((id) => sizePack({ chemistry: id, ...luminaire }, { explain: false }))
-
-  const maxLife = Math.max(...sized.map((r) => r.serviceLifeYears))
-  const mid = (r: Range) => (r.min + r.max) / 2
-  const minVolume = Math.min(...sized.map((r) => mid(r.volumeL)))
+  // Plain loops below: this runs once per luminaire in bulk comparisons.
+  const ids: ChemistryId[] = []
+  for (const id of input.chemistries) if (!ids.includes(id)) ids.push(id)
+  const sized: SizeResult[] = []
+  let maxLife = 0
+  let minVolume = Infinity
+  for (const id of ids) {
+    const r = sizePack(sizeInputFor(id, input), { explain: false })
+    sized.push(r)
+    if (r.serviceLifeYears > maxLife) maxLife = r.serviceLifeYears
+    const volume = (r.volumeL.min + r.volumeL.max) / 2
+    if (volume < minVolume) minVolume = volume
+  }
   const w = input.weights
   const weightSum = w.life + w.trickle + w.size + w.restrictions
 
-  const rows: CompareRow[] = sized.map((r) => {
+  const rows: CompareRow[] = []
+  for (const r of sized) {
     const chemistry = CHEMISTRIES[r.chemistry]
     const scores = {
       life: r.serviceLifeYears / maxLife,
       trickle: chemistry.trickleTolerance,
-      size: minVolume / mid(r.volumeL),
+      size: minVolume / ((r.volumeL.min + r.volumeL.max) / 2),
       restrictions: 1 - chemistry.regulatoryBurden,
     }
     const weighted = (w.life * scores.life + w.trickle * scores.trickle + w.size * scores.size + w.restrictions * scores.restrictions) / weightSum
-    const critical = r.warnings.filter((x) => x.severity === 'critical')
-    const score = critical.length > 0 ? weighted * CRITICAL_PENALTY : weighted
-    return {
+    rows.push({
       chemistry: r.chemistry,
       name: chemistry.name,
       cellsInSeries: r.cellsInSeries,
@@ -149,17 +161,21 @@ export function compareChemistries(input: CompareInput, options: { explain?: boo
       volumeL: r.volumeL,
       serviceLifeYears: r.serviceLifeYears,
       scores,
-      score,
+      score: hasCritical(r.warnings) ? weighted * CRITICAL_PENALTY : weighted,
       rank: 0,
       verdict: '',
       warnings: r.warnings,
-    }
-  })
+    })
+  }
 
-  const order = rows.map((row, i) => ({ row, i })).sort((a, b) => b.row.score - a.row.score || a.i - b.i)
-  order.forEach(({ row }, position) => {
-    row.rank = position + 1
-  })
+  // Rank: higher score first; equal scores keep the order asked for. A row's rank is 1 + the rows ahead of it.
+  for (let i = 0; i < rows.length; i++) {
+    let ahead = 0
+    for (let j = 0; j < rows.length; j++) {
+      if (rows[j].score > rows[i].score || (rows[j].score === rows[i].score && j < i)) ahead++
+    }
+    rows[i].rank = ahead + 1
+  }
   if (!explain) return { rows, weights: w, warnings: [], working: [] }
   for (const row of rows) row.verdict = verdictFor(row, input, w)
 

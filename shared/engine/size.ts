@@ -30,6 +30,7 @@ import type { Chemistry, ChemistryId, Range } from './chemistries/types'
 import { ambientTemperature, finiteNumber, quantity } from './fields'
 import { defineTool } from './tool'
 import { SEVERITY_ORDER, sortWarnings, type EngineWarning, type Reference, type WorkingStep, type WorkingValue } from './types'
+import { roundToSignificant } from './round'
 
 const SECONDS_PER_HOUR = 3600
 
@@ -137,7 +138,7 @@ function step(
   return { id, label, formula, explanation, inputs, result, references }
 }
 
-const round = (x: number, digits = 3) => Number(x.toPrecision(digits))
+const round = roundToSignificant
 
 export interface CellChoice {
   cells: number

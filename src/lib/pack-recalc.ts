@@ -5,7 +5,7 @@
  * Plain TypeScript (no Vue) so scripts/bench-recalc.ts can time exactly these calls.
  */
 import { CHEMISTRY_IDS } from '../../shared/engine/chemistries'
-import { compareChemistries, DEFAULT_WEIGHTS, luminaireOf, type CompareResult } from '../../shared/engine/compare'
+import { compareChemistries, DEFAULT_WEIGHTS, type CompareResult } from '../../shared/engine/compare'
 import { sizeInputSchema, sizePack, type SizeInput, type SizeResult } from '../../shared/engine/size'
 import { assertFinite, toFieldErrors } from '../../shared/engine/tool'
 import { chargeInputSchema, checkCharge, type ChargeResult } from '../../shared/engine/charge'
@@ -41,7 +41,8 @@ export function runtimeCurve(input: SizeInput, capacityAh: number, temperatures 
 
 /** Every chemistry sized for the same luminaire and ranked with the default weights. */
 export function compareAll(input: SizeInput): CompareResult {
-  return compareChemistries({ ...luminaireOf(input), chemistries: [...CHEMISTRY_IDS], weights: { ...DEFAULT_WEIGHTS } })
+  // Only the luminaire fields are read: each chemistry gets its own cells and capacity.
+  return compareChemistries({ ...input, chemistries: [...CHEMISTRY_IDS], weights: { ...DEFAULT_WEIGHTS } })
 }
 
 /** One keystroke's worth of work. Raw values are the form's, units as typed. */
