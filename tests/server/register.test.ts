@@ -6,6 +6,7 @@ import { dataSource } from '../../server/data-source'
 import { addDays, addMonthsClamped } from '../../shared/engine/due'
 import { closeTestApp, getTestApp, makeTeam, signIn, type Client, type TestTeam } from '../helpers/test-app'
 import { luminaireIn, siteIn, testIn } from '../helpers/register-fixtures'
+import { pdfText } from '../helpers/pdf-text'
 
 let built: BuiltApp
 let team: TestTeam
@@ -216,10 +217,11 @@ describe('exports', () => {
     expect(log.body.content.split('\r\n')[0]).toBe('tested_on,tag,test,result,achieved_duration_h,faults,remedial_action,recorded_by,recorded_at')
   })
 
-  it('PDF exports are real PDFs with the Source Sans 3 font embedded', async () => {
-    const site = await siteIn(team.workspaceId, { name: 'PDF building' })
-    const l = await luminaireIn(team.workspaceId, site.id)
-    await testIn(team.workspaceId, l.id, { kind: 'duration', testedOn: today, achievedDurationH: 3.2 })
+  it('PDF exports are real PDFs in Source Sans 3 that print names beyond Latin-1', async () => {
+    // Invented names with letters from the latin-ext and greek subsets of the font.
+    const site = await siteIn(team.workspaceId, { name: 'Zakład Łąkowa PDF building' })
+    const l = await luminaireIn(team.workspaceId, site.id, { location: 'Stair Ω, landing' })
+    await testIn(team.workspaceId, l.id, { kind: 'duration', testedOn: today, achievedDurationH: 3.2, faults: 'Lens cracked — replaced' })
     for (const file of ['register.pdf', 'logbook.pdf']) {
       const res = await viewer.get(`/api/sites/${site.id}/export/${file}?as=json`)
       expect(res.status).toBe(200)
@@ -227,6 +229,11 @@ describe('exports', () => {
       const pdf = Buffer.from(res.body.content, 'base64')
       expect(pdf.subarray(0, 5).toString()).toBe('%PDF-')
       expect(pdf.toString('latin1')).toMatch(/SourceSans3/)
+      // Each run of one font subset is its own text object (one line in pdfText): join them.
+      const text = pdfText(pdf).replace(/\n/g, '')
+      expect(text).toContain('Zakład Łąkowa PDF building')
+      if (file === 'register.pdf') expect(text).toContain('Stair Ω, landing')
+      else expect(text).toContain('Lens cracked — replaced')
     }
     expect((await viewer.get(`/api/sites/${site.id}/export/secrets.txt`)).status).toBe(404)
     expect((await outsider.get(`/api/sites/${site.id}/export/register.csv`)).status).toBe(404)

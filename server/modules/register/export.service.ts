@@ -3,10 +3,8 @@
  * CSV cells that begin with = + - @ (or a tab / carriage return) are prefixed with a single quote so
  * a spreadsheet shows them as text instead of running them as a formula.
  */
-import { createRequire } from 'node:module'
-import path from 'node:path'
 import Papa from 'papaparse'
-import PDFDocument from 'pdfkit'
+import { heightOf, newDocument, toBuffer, write, writeAt, type Doc, type WriteOptions } from '../sheets/pdf/pdf-kit'
 import { PURPOSE_LABELS } from '../../../shared/schemas/luminaire.schema'
 import { REGIME_LABELS } from '../../../shared/schemas/site.schema'
 import { siteStatus, todayIso } from './register.service'
@@ -67,38 +65,16 @@ export async function exportFile(workspaceId: string, siteId: string, file: Expo
 
 // ---------------------------------------------------------------- PDF
 
-const require = createRequire(import.meta.url)
-const FONT_DIR = path.join(path.dirname(require.resolve('@fontsource/source-sans-3/package.json')), 'files')
-const FONT_REGULAR = path.join(FONT_DIR, 'source-sans-3-latin-400-normal.woff')
-const FONT_BOLD = path.join(FONT_DIR, 'source-sans-3-latin-700-normal.woff')
-
 type SiteStatus = Awaited<ReturnType<typeof siteStatus>>
 
-function newDoc(title: string) {
-  const doc = new PDFDocument({ size: 'A4', layout: 'landscape', margin: 36, info: { Title: title, Creator: 'Lampwright' } })
-  // The same Source Sans 3 the app ships (pdfkit reads the WOFF files directly).
-  doc.registerFont('body', FONT_REGULAR)
-  doc.registerFont('bold', FONT_BOLD)
-  doc.font('body')
-  return doc
-}
+// Landscape with narrow margins: the register is a wide table.
+const newDoc = (title: string) => newDocument({ title }, { layout: 'landscape', margin: 36 })
 
-function finish(doc: PDFKit.PDFDocument): Promise<Buffer> {
-  return new Promise((resolve, reject) => {
-    const chunks: Buffer[] = []
-    doc.on('data', (c: Buffer) => chunks.push(c))
-    doc.on('end', () => resolve(Buffer.concat(chunks)))
-    doc.on('error', reject)
-    doc.end()
-  })
-}
-
-function heading(doc: PDFKit.PDFDocument, title: string, status: SiteStatus) {
-  doc.font('bold').fontSize(16).text(title)
-  doc.font('body').fontSize(10)
-  doc.text(`${status.site.name}${status.site.address ? ` — ${status.site.address.replace(/\s*\n\s*/g, ', ')}` : ''}`)
-  doc.text(`Responsible person: ${status.site.responsibleName || '—'} ${status.site.responsibleEmail ? `<${status.site.responsibleEmail}>` : ''}`)
-  doc.text(`Testing regime: ${REGIME_LABELS[status.site.regime]}. Printed ${status.today}.`)
+function heading(doc: Doc, title: string, status: SiteStatus) {
+  write(doc, title, { weight: 'semibold', size: 16 })
+  write(doc, `${status.site.name}${status.site.address ? ` — ${status.site.address.replace(/\s*\n\s*/g, ', ')}` : ''}`)
+  write(doc, `Responsible person: ${status.site.responsibleName || '—'} ${status.site.responsibleEmail ? `<${status.site.responsibleEmail}>` : ''}`)
+  write(doc, `Testing regime: ${REGIME_LABELS[status.site.regime]}. Printed ${status.today}.`)
   doc.moveDown(0.6)
 }
 
@@ -108,23 +84,24 @@ interface Column {
 }
 
 /** A plain table that starts a new page (with its header again) when the page is full. */
-function table(doc: PDFKit.PDFDocument, columns: Column[], rows: string[][]) {
+function table(doc: Doc, columns: Column[], rows: string[][]) {
   const left = doc.page.margins.left
+  const size = 8.5
   const drawHeader = () => {
-    doc.font('bold').fontSize(8.5)
-    let x = left
     const y = doc.y
+    const height = Math.max(...columns.map((c) => heightOf(doc, c.title, c.width - 4, { weight: 'semibold', size })))
+    let x = left
     for (const c of columns) {
-      doc.text(c.title, x, y, { width: c.width - 4 })
+      writeAt(doc, c.title, x, y, { weight: 'semibold', size, width: c.width - 4 })
       x += c.width
     }
-    doc.moveTo(left, doc.y + 2).lineTo(left + columns.reduce((s, c) => s + c.width, 0), doc.y + 2).lineWidth(0.5).stroke()
-    doc.y += 5
-    doc.font('body').fontSize(8.5)
+    doc.moveTo(left, y + height + 2).lineTo(left + columns.reduce((s, c) => s + c.width, 0), y + height + 2).lineWidth(0.5).stroke()
+    doc.x = left
+    doc.y = y + height + 5
   }
   drawHeader()
   for (const row of rows) {
-    const height = Math.max(...row.map((cell, i) => doc.heightOfString(cell || ' ', { width: columns[i].width - 4 })))
+    const height = Math.max(...row.map((cell, i) => heightOf(doc, cell, columns[i].width - 4, { size })))
     if (doc.y + height > doc.page.height - doc.page.margins.bottom - 14) {
       doc.addPage()
       drawHeader()
@@ -132,7 +109,7 @@ function table(doc: PDFKit.PDFDocument, columns: Column[], rows: string[][]) {
     const y = doc.y
     let x = left
     row.forEach((cell, i) => {
-      doc.text(cell, x, y, { width: columns[i].width - 4 })
+      writeAt(doc, cell, x, y, { size, width: columns[i].width - 4 })
       x += columns[i].width
     })
     doc.x = left
@@ -144,7 +121,7 @@ async function registerPdf(reg: Awaited<ReturnType<typeof registerRows>>): Promi
   const s = reg.status
   const doc = newDoc(`Emergency lighting register — ${s.site.name}`)
   heading(doc, 'Emergency lighting register', s)
-  doc.text(`${s.counts.luminaires} luminaires: ${s.counts.failed} failed at the last test, ${s.counts.overdue} overdue, ${s.counts.dueSoon} due within 14 days.`)
+  write(doc, `${s.counts.luminaires} luminaires: ${s.counts.failed} failed at the last test, ${s.counts.overdue} overdue, ${s.counts.dueSoon} due within 14 days.`)
   doc.moveDown(0.6)
   const columns: Column[] = [
     { title: 'Tag', width: 52 }, { title: 'Area / location', width: 130 }, { title: 'Purpose', width: 70 }, { title: 'Mode', width: 62 },
@@ -160,8 +137,8 @@ async function registerPdf(reg: Awaited<ReturnType<typeof registerRows>>): Promi
     ]),
   )
   doc.moveDown(1)
-  doc.fontSize(8).text('Isolate the mains before opening a luminaire. Spent nickel-cadmium and lithium packs go to a battery collection point, never into general waste. Local codes and a competent, licensed person decide what the installation needs.', doc.page.margins.left)
-  return finish(doc)
+  write(doc, 'Isolate the mains before opening a luminaire. Spent nickel-cadmium and lithium packs go to a battery collection point, never into general waste. Local codes and a competent, licensed person decide what the installation needs.', { size: 8, x: doc.page.margins.left } as WriteOptions)
+  return toBuffer(doc)
 }
 
 async function logBookPdf(status: SiteStatus, rows: Array<Array<string | number | boolean | null>>): Promise<Buffer> {
@@ -176,6 +153,6 @@ async function logBookPdf(status: SiteStatus, rows: Array<Array<string | number 
     columns,
     rows.map((r) => [String(r[0]), String(r[1]), r[2] === 'duration' ? 'Full duration' : 'Functional', String(r[3]), r[4] === null || r[4] === '' ? '' : `${r[4]} h`, String(r[5] ?? ''), String(r[6] ?? ''), String(r[7] ?? '')]),
   )
-  if (!rows.length) doc.text('No tests recorded yet.')
-  return finish(doc)
+  if (!rows.length) write(doc, 'No tests recorded yet.')
+  return toBuffer(doc)
 }

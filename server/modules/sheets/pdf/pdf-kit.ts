@@ -52,9 +52,10 @@ const fontName = (weight: Weight, subset: string) => `SourceSans3-${weight}-${su
 
 export type Doc = PDFKit.PDFDocument
 
-/** A new A4 document with the font subsets registered. */
-export function newDocument(info: { title: string; subject?: string }): Doc {
-  const doc = new PDFDocument({ size: 'A4', margins: { top: 56, bottom: 64, left: 56, right: 56 }, bufferPages: true, info: { Title: info.title, Subject: info.subject ?? '', Creator: 'Lampwright' } })
+/** A new A4 document with the font subsets registered (portrait with wide margins unless told). */
+export function newDocument(info: { title: string; subject?: string }, page: { layout?: 'portrait' | 'landscape'; margin?: number } = {}): Doc {
+  const margins = page.margin !== undefined ? { top: page.margin, bottom: page.margin, left: page.margin, right: page.margin } : { top: 56, bottom: 64, left: 56, right: 56 }
+  const doc = new PDFDocument({ size: 'A4', layout: page.layout ?? 'portrait', margins, bufferPages: true, info: { Title: info.title, Subject: info.subject ?? '', Creator: 'Lampwright' } })
   const subsets = loadSubsets()
   for (const weight of Object.keys(subsets) as Weight[]) for (const s of subsets[weight]) doc.registerFont(fontName(weight, s.name), s.file)
   doc.font(fontName('regular', 'latin'))
@@ -97,6 +98,27 @@ export function write(doc: Doc, text: string, opts: WriteOptions = {}): Doc {
     doc.text(run.text, { ...textOpts, continued: last ? (textOpts.continued ?? false) : true })
   })
   return doc
+}
+
+/** Writes text at a position (a table cell), switching subsets as needed. */
+export function writeAt(doc: Doc, text: string, x: number, y: number, opts: WriteOptions = {}): Doc {
+  const { weight = 'regular', size = 10, color = '#1b2a33', ...textOpts } = opts
+  doc.fontSize(size).fillColor(color)
+  const runs = textRuns(text || ' ', weight)
+  runs.forEach((run, i) => {
+    doc.font(run.font)
+    const more = i < runs.length - 1
+    if (i === 0) doc.text(run.text, x, y, { ...textOpts, continued: more })
+    else doc.text(run.text, { ...textOpts, continued: more })
+  })
+  return doc
+}
+
+/** Height of text in a column, measured in the font of its first run (close enough for table rows). */
+export function heightOf(doc: Doc, text: string, width: number, opts: { weight?: Weight; size?: number } = {}): number {
+  const runs = textRuns(text || ' ', opts.weight ?? 'regular')
+  doc.font(runs[0].font).fontSize(opts.size ?? 10)
+  return doc.heightOfString(runs.map((r) => r.text).join(''), { width })
 }
 
 export function heading(doc: Doc, text: string) {
