@@ -51,17 +51,21 @@ describe('main screens', () => {
         const b = await newBrowser(viewport)
         try {
           await b.context.addInitScript((t) => localStorage.setItem('lw-theme', t), theme)
-          const publicScreens = ['/', '/sign-in']
+          const publicScreens = ['/', '/sign-in', '/sign-up', '/forgot-password', '/reset-password?token=invented-token-for-the-screen']
           for (const path of publicScreens) {
             await b.page.goto(`${app.url}${path}`)
             await b.page.locator('h1, .n-card-header').first().waitFor()
-            await screenshot(b.page, `screens/${theme}-${viewport.width}${path === '/' ? '-landing' : path.replace(/\//g, '-')}`)
+            await screenshot(b.page, `screens/${theme}-${viewport.width}${path === '/' ? '-landing' : path.replace(/\?.*$/, '').replace(/\//g, '-')}`)
             for (const v of await axeViolations(b.page)) problems.push(`${theme} ${viewport.width} ${path}: ${v}`)
           }
           await signInThroughForm(b.page, app.url, 'owner@tallowmere.example', DEMO_PASSWORD)
           const sheetId = await firstId(b.page, '/api/sheets', (body) => (body.items as Array<{ id: string }> | undefined)?.[0]?.id ?? (body.sheets as Array<{ id: string }> | undefined)?.[0]?.id)
           const siteId = await firstId(b.page, '/api/sites', (body) => (body.sites as Array<{ id: string }> | undefined)?.[0]?.id ?? (body.items as Array<{ id: string }> | undefined)?.[0]?.id)
-          const logId = await firstId(b.page, '/api/discharge/logs', (body) => (body.logs as Array<{ id: string }> | undefined)?.[0]?.id ?? (body.items as Array<{ id: string }> | undefined)?.[0]?.id)
+          const logIds = await firstId(b.page, '/api/discharge/logs', (body) => {
+            const logs = (body.logs ?? body.items) as Array<{ id: string }> | undefined
+            return logs && logs.length >= 2 ? `${logs[0].id},${logs[1].id}` : logs?.[0]?.id
+          })
+          const [logId, otherLogId] = logIds?.split(',') ?? []
           const luminaireId = siteId
             ? await firstId(b.page, `/api/sites/${siteId}`, (body) => (body.luminaires as Array<{ id: string }> | undefined)?.[0]?.id)
             : undefined
@@ -69,14 +73,15 @@ describe('main screens', () => {
             '/home', '/pack-bench', '/charger-check', '/charger-check/retrofit', '/claim-check', '/sheets', sheetId ? `/sheets/${sheetId}` : null,
             '/sites', siteId ? `/sites/${siteId}` : null, siteId ? `/sites/${siteId}/round` : null, '/rounds', '/team', '/account', '/glossary', '/cautions', '/api-docs',
             luminaireId ? `/luminaires/${luminaireId}` : null,
-            '/discharge', '/discharge/new', logId ? `/discharge/${logId}` : null,
+            '/discharge', '/discharge/new', logId ? `/discharge/${logId}` : null, otherLogId ? `/discharge/compare?a=${logId}&b=${otherLogId}` : null,
+            siteId ? `/sites/${siteId}/import` : null, '/outbox',
             '/route-spacing', '/route-spacing/selector', '/route-spacing/types', '/route-spacing/photometry',
           ].filter((p): p is string => !!p)
           for (const path of screens) {
             await b.page.goto(`${app.url}${path}`)
             await b.page.locator('main h1, #main h1').first().waitFor()
             await b.page.waitForLoadState('networkidle')
-            await screenshot(b.page, `screens/${theme}-${viewport.width}${path.replace(/\/[0-9a-f-]{36}/g, '-id').replace(/\//g, '-')}`)
+            await screenshot(b.page, `screens/${theme}-${viewport.width}${path.replace(/\?.*$/, '').replace(/\/[0-9a-f-]{36}/g, '-id').replace(/\//g, '-')}`)
             for (const v of await axeViolations(b.page)) problems.push(`${theme} ${viewport.width} ${path}: ${v}`)
             const overflow = await b.page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth)
             if (viewport.width === 375 && overflow > 2) problems.push(`${theme} 375 ${path}: the page scrolls sideways by ${overflow} px`)
