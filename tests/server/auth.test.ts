@@ -1,7 +1,7 @@
 import supertest from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { dataSource } from '../../server/data-source'
-import type { BuiltApp } from '../../server/app'
+import { createApp, type BuiltApp } from '../../server/app'
 import { User } from '../../server/modules/users/user.entity'
 import { anonymous, closeTestApp, getTestApp, mailTo, makeTeam, signIn, SIGN_IN_WINDOW_MS, TEST_PASSWORD, uniqueEmail } from '../helpers/test-app'
 
@@ -78,6 +78,29 @@ describe('failed sign-in limit', () => {
     await new Promise((r) => setTimeout(r, SIGN_IN_WINDOW_MS + 200))
     const ok = await supertest(built.app).post('/api/auth/sign-in').send({ email, password: TEST_PASSWORD })
     expect(ok.status).toBe(200)
+  })
+
+  it('counts failures across app processes: five on one and four on another, the tenth is refused on either', async () => {
+    const team = await makeTeam()
+    const email = team.users.viewer.email
+    // A second app on the same database, as a second process behind a load balancer would be.
+    const second = createApp({ signInWindowMs: 60_000, clientDir: null })
+    try {
+      const statuses: number[] = []
+      for (let i = 0; i < 9; i++) {
+        const app = i < 5 ? built.app : second.app
+        statuses.push((await supertest(app).post('/api/auth/sign-in').send({ email, password: `wrong-${i}-password` })).status)
+      }
+      const tenth = await supertest(second.app).post('/api/auth/sign-in').send({ email, password: 'wrong-9-password' })
+      expect(statuses).toEqual([401, 401, 401, 401, 401, 401, 401, 401, 401])
+      expect(tenth.status).toBe(429)
+      // Nothing readable is kept: the counter's key is a hash, not the e-mail.
+      const rows: Array<{ key: string }> = await dataSource.query('SELECT key FROM rate_limit_hits')
+      expect(rows.some((r) => r.key.includes(email))).toBe(false)
+      expect(rows.every((r) => /^[0-9a-f]{64}$/.test(r.key))).toBe(true)
+    } finally {
+      await second.close()
+    }
   })
 })
 

@@ -2,6 +2,7 @@
 import crypto from 'node:crypto'
 import type { NextFunction, Request, RequestHandler, Response } from 'express'
 import { ipKeyGenerator, rateLimit } from 'express-rate-limit'
+import { PostgresHitStore } from '../../lib/rate-limit-store'
 import passport from 'passport'
 import {
   ForgotPasswordSchema,
@@ -44,10 +45,14 @@ export async function meResponse(req: Request): Promise<MeResponse> {
   }
 }
 
-/** Ten wrong passwords in a row for one e-mail from one address: the tenth is refused with 429. */
+/**
+ * Ten wrong passwords in a row for one e-mail from one address: the tenth is refused with 429.
+ * Counted in PostgreSQL, so the limit holds across every app process.
+ */
 export function signInLimiter(windowMs: number): RequestHandler {
   return rateLimit({
     windowMs,
+    store: new PostgresHitStore('sign-in|'),
     limit: 9,
     skipSuccessfulRequests: true,
     standardHeaders: 'draft-7',
