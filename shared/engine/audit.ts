@@ -6,7 +6,8 @@
 import { z } from 'zod'
 import { finiteNumber, quantity } from './fields'
 import { defineTool } from './tool'
-import { sortWarnings, type EngineWarning, type Reference, type WorkingStep, type WorkingValue } from './types'
+import { sortWarnings, workingValue, type EngineWarning, type Reference, type WorkingStep } from './types'
+import { significantText } from './round'
 
 // ---------------------------------------------------------------------------------------------
 // Sources
@@ -234,14 +235,8 @@ export interface AuditResult {
 // Helpers
 // ---------------------------------------------------------------------------------------------
 
-/** Three significant figures for messages. */
-function fmt(value: number, digits = 3): string {
-  return String(Number(value.toPrecision(digits)))
-}
-
-function val(symbol: string, label: string, value: number, unit: string): WorkingValue {
-  return { symbol, label, value, unit }
-}
+const fmt = significantText
+const val = workingValue
 
 /** How far a claim is from a candidate, as a fraction of the candidate. */
 function relativeGap(claimed: number, candidate: number): number {

@@ -12,7 +12,7 @@ import type { ChemistryId, Range } from './chemistries/types'
 import { ambientTemperature, finiteNumber, quantity } from './fields'
 import { addChemistryNotes, chooseCellsInSeries, describeCellChoice, packIssues } from './size'
 import { defineTool } from './tool'
-import { sortWarnings, type EngineWarning, type Reference, type WorkingStep, type WorkingValue } from './types'
+import { sortWarnings, workingValue, type EngineWarning, type Reference, type WorkingStep } from './types'
 import { roundToSignificant } from './round'
 
 const SECONDS_PER_HOUR = 3600
@@ -81,7 +81,7 @@ export interface ChargeResult {
   working: WorkingStep[]
 }
 
-const v = (symbol: string, label: string, value: number, unit: string): WorkingValue => ({ symbol, label, value, unit })
+const v = workingValue
 const round = roundToSignificant
 
 export function checkCharge(input: ChargeInput, options: { explain?: boolean } = {}): ChargeResult {

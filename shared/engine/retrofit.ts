@@ -14,9 +14,10 @@
 import { z } from 'zod'
 import { finiteNumber, quantity } from './fields'
 import { defineTool } from './tool'
-import { sortWarnings, type EngineWarning, type Reference, type WorkingStep, type WorkingValue } from './types'
+import { sortWarnings, workingValue, type EngineWarning, type Reference, type WorkingStep } from './types'
 import { CHEMISTRY_IDS, getChemistry, type Chemistry } from './chemistries'
 import { nearestPreferred, resistorRatingFor, type ESeriesName } from './resistor-series'
+import { significantText } from './round'
 
 // ---------------------------------------------------------------------------------------------
 // Sources and constants
@@ -312,13 +313,8 @@ export interface RetrofitResult {
 // The plan
 // ---------------------------------------------------------------------------------------------
 
-function fmt(value: number, digits = 3): string {
-  return String(Number(value.toPrecision(digits)))
-}
-
-function val(symbol: string, label: string, value: number, unit: string): WorkingValue {
-  return { symbol, label, value, unit }
-}
+const fmt = significantText
+const val = workingValue
 
 export const RETROFIT_CAUTIONS: readonly string[] = [
   'Modifying a certified emergency luminaire can void its certification and warranty and may breach the product standard it was approved to; the person who modifies it takes on that responsibility.',

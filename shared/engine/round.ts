@@ -18,3 +18,8 @@ export function roundToSignificant(x: number, digits = 3): number {
   }
   return Number(x.toPrecision(digits))
 }
+
+/** The same rounding written out for a sentence: 0.1234 → "0.123", 1200 → "1200". */
+export function significantText(x: number, digits = 3): string {
+  return String(roundToSignificant(x, digits))
+}

@@ -29,7 +29,7 @@ import { REF } from './chemistries/references'
 import type { Chemistry, ChemistryId, Range } from './chemistries/types'
 import { ambientTemperature, finiteNumber, quantity } from './fields'
 import { defineTool } from './tool'
-import { SEVERITY_ORDER, sortWarnings, type EngineWarning, type Reference, type WorkingStep, type WorkingValue } from './types'
+import { SEVERITY_ORDER, sortWarnings, workingValue, type EngineWarning, type Reference, type WorkingStep, type WorkingValue } from './types'
 import { roundToSignificant } from './round'
 
 const SECONDS_PER_HOUR = 3600
@@ -124,7 +124,7 @@ export interface SizeOptions {
   explain?: boolean
 }
 
-const v = (symbol: string, label: string, value: number, unit: string): WorkingValue => ({ symbol, label, value, unit })
+const v = workingValue
 
 function step(
   id: string,

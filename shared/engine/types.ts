@@ -42,6 +42,11 @@ export interface EngineWarning {
   field?: string
 }
 
+/** One named value in a working step. */
+export function workingValue(symbol: string, label: string, value: number, unit: string): WorkingValue {
+  return { symbol, label, value, unit }
+}
+
 export const SEVERITY_ORDER: Record<Severity, number> = { critical: 0, warning: 1, info: 2 }
 
 /** Warnings ordered most severe first, stable within a severity. */
