@@ -3,13 +3,10 @@ import type { Request, Response } from 'express'
 import { tools } from '../../../shared/engine/registry'
 import { runTool } from '../../../shared/engine/tool'
 import { ENGINE_VERSION } from '../../../shared/engine/version'
-import { z } from 'zod'
+import { CalcQuerySchema } from '../../../shared/schemas/calc.schema'
 import { AppError, NotFoundError } from '../../errors/app-error'
 import { parse } from '../../lib/parse'
 import type { RouteSpec } from '../../policy/access'
-
-/** `?working=false`: numbers, warnings and no working steps, for callers that run many cases. */
-export const CalcQuerySchema = z.object({ working: z.enum(['true', 'false'], { message: "must be 'true' or 'false'" }).default('true') })
 
 async function calc(req: Request, res: Response) {
   const query = parse(CalcQuerySchema, req.query)
