@@ -17,6 +17,8 @@ const DURATION_S = Number(process.env.LOAD_SECONDS ?? 8)
 const PROFILE_DIR = process.env.LOAD_PROFILE_DIR
 /** LOAD_CONNECTIONS=50 runs one connection count instead of 50 and 200. */
 const CONNECTIONS = process.env.LOAD_CONNECTIONS ? process.env.LOAD_CONNECTIONS.split(',').map(Number) : [50, 200]
+/** LOAD_SCENARIOS=compute,reads runs only those (of bare, reads, compute, lean, mix, sign-in); the ratio needs bare. */
+const SCENARIOS = new Set((process.env.LOAD_SCENARIOS ?? 'bare,reads,compute,lean,mix,sign-in').split(','))
 const work = fs.mkdtempSync(path.join(os.tmpdir(), 'lw-load-'))
 fs.chmodSync(work, 0o755)
 const children: ChildProcess[] = []
@@ -35,11 +37,53 @@ async function waitFor(url: string) {
 }
 
 type Result = autocannon.Result
-function run(opts: autocannon.Options): Promise<Result> {
+function once(opts: autocannon.Options): Promise<Result> {
   return new Promise((resolve, reject) => {
     autocannon({ duration: DURATION_S, timeout: 10, ...opts }, (err, res) => (err ? reject(err) : resolve(res)))
   })
 }
+
+/** CPU time (user + system, ms) of some processes, from /proc: what a scenario really costs each side. */
+function cpuMs(pids: number[]): number {
+  let ticks = 0
+  for (const pid of pids) {
+    try {
+      const fields = fs.readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1].split(' ')
+      ticks += Number(fields[11]) + Number(fields[12])
+    } catch {
+      // gone meanwhile
+    }
+  }
+  return (ticks * 1000) / 100
+}
+
+/** The postmaster of the load cluster and its backends. */
+function postgresPids(pgDir: string): number[] {
+  const postmaster = Number(fs.readFileSync(path.join(pgDir, 'postmaster.pid'), 'utf8').split('\n')[0])
+  const pids = [postmaster]
+  for (const entry of fs.readdirSync('/proc')) {
+    if (!/^\d+$/.test(entry)) continue
+    try {
+      if (Number(fs.readFileSync(`/proc/${entry}/stat`, 'utf8').split(') ')[1].split(' ')[1]) === postmaster) pids.push(Number(entry))
+    } catch {
+      // gone meanwhile
+    }
+  }
+  return pids
+}
+
+let pgDir = ''
+
+/** Two seconds of the same load first, not counted, so the figures are of warmed-up code on both sides. */
+async function run(opts: autocannon.Options, server: ChildProcess): Promise<Result> {
+  await once({ ...opts, duration: 2 })
+  const pg = pgDir ? postgresPids(pgDir) : []
+  const before = { app: cpuMs([server.pid!]), pg: cpuMs(pg) }
+  const result = await once(opts)
+  cpuPerRequest.set(result, { app: (cpuMs([server.pid!]) - before.app) / result.requests.total, pg: (cpuMs(pg) - before.pg) / result.requests.total })
+  return result
+}
+const cpuPerRequest = new WeakMap<Result, { app: number; pg: number }>()
 
 function row(label: string, r: Result) {
   const lat = r.latency as unknown as Record<string, number>
@@ -53,13 +97,16 @@ function row(label: string, r: Result) {
     errors: r.errors + r.timeouts,
     non2xx: r.non2xx,
     requests: r.requests.total,
+    'server CPU ms/req': cpuPerRequest.has(r) ? cpuPerRequest.get(r)!.app.toFixed(2) : '',
+    'PostgreSQL CPU ms/req': cpuPerRequest.has(r) && pgDir ? cpuPerRequest.get(r)!.pg.toFixed(2) : '',
   }
 }
 
 async function main() {
   const bin = ensurePostgresBinaries()
   const pgPort = await findFreePort(57000)
-  cluster = startCluster({ bin, dir: path.join(work, 'pg'), port: pgPort, database: 'lampwright_load' })
+  pgDir = path.join(work, 'pg')
+  cluster = startCluster({ bin, dir: pgDir, port: pgPort, database: 'lampwright_load' })
   const env = { ...process.env, NODE_ENV: 'production', DATABASE_URL: cluster.url, DATA_DIR: path.join(work, 'data'), JOBS: '0', LOG_LEVEL: 'silent', SMTP_CATCHER_PORT: '0' }
   for (const script of ['server/scripts/migrate.ts', 'server/scripts/seed.ts']) {
     const r = spawnSync('node', ['--import', 'tsx', script], { env, encoding: 'utf8' })
@@ -68,10 +115,9 @@ async function main() {
   const appPort = await findFreePort(46000)
   const barePort = await findFreePort(47000)
   const profile = PROFILE_DIR ? ['--cpu-prof', `--cpu-prof-dir=${path.resolve(PROFILE_DIR)}`] : []
-  children.push(spawn('node', [...profile, '--import', 'tsx', 'server/index.ts'], { env: { ...env, PORT: String(appPort) }, stdio: 'ignore' }))
-  children.push(
-    spawn('node', ['-e', `const e=require('express');const a=e();a.get('/bare',(q,s)=>s.json({ok:true}));a.post('/bare',e.json(),(q,s)=>s.json({ok:true,n:q.body&&q.body.n}));a.listen(${barePort},'127.0.0.1')`], { stdio: 'ignore' }),
-  )
+  const app = spawn('node', [...profile, '--import', 'tsx', 'server/index.ts'], { env: { ...env, PORT: String(appPort) }, stdio: 'ignore' })
+  const bareServer = spawn('node', ['-e', `const e=require('express');const a=e();a.get('/bare',(q,s)=>s.json({ok:true}));a.post('/bare',e.json(),(q,s)=>s.json({ok:true,n:q.body&&q.body.n}));a.listen(${barePort},'127.0.0.1')`], { stdio: 'ignore' })
+  children.push(app, bareServer)
   const base = `http://127.0.0.1:${appPort}`
   await waitFor(`${base}/api/health`)
   await waitFor(`http://127.0.0.1:${barePort}/bare`)
@@ -112,26 +158,41 @@ async function main() {
 
   const results: ReturnType<typeof row>[] = []
   for (const connections of CONNECTIONS) {
-    const bare = await run({ url: `http://127.0.0.1:${barePort}/bare`, connections })
-    results.push(row(`bare Express GET, ${connections} conn`, bare))
-    const bareRow = results[results.length - 1]
+    // Like with like: reads against the bare GET, the compute route against a bare POST of the same JSON body.
+    let bareGet: Result | null = null
+    let barePost: Result | null = null
+    if (SCENARIOS.has('bare')) {
+      bareGet = await run({ url: `http://127.0.0.1:${barePort}/bare`, connections }, bareServer)
+      results.push(row(`bare Express GET, ${connections} conn`, bareGet))
+      barePost = await run({ url: `http://127.0.0.1:${barePort}/bare`, method: 'POST', connections, headers: { 'content-type': 'application/json' }, body: sizeBody }, bareServer)
+      results.push(row(`bare Express POST (same body), ${connections} conn`, barePost))
+    }
 
-    const reads = await run({
-      url: base,
-      connections,
-      headers,
-      requests: [
-        { method: 'GET', path: '/api/sheets?page=1&pageSize=20' },
-        { method: 'GET', setupRequest: (req) => ({ ...req, path: `/api/sheets/${sheets[Math.floor(Math.random() * sheets.length)].id}` }) },
-      ],
-    })
-    results.push(row(`reads (list + open sheet), ${connections} conn`, reads))
+    if (SCENARIOS.has('reads')) {
+      const reads = await run({
+        url: base,
+        connections,
+        headers,
+        requests: [
+          { method: 'GET', path: '/api/sheets?page=1&pageSize=20' },
+          { method: 'GET', setupRequest: (req) => ({ ...req, path: `/api/sheets/${sheets[Math.floor(Math.random() * sheets.length)].id}` }) },
+        ],
+      }, app)
+      results.push(row(`reads (list + open sheet), ${connections} conn`, reads))
+    }
 
-    const compute = await run({ url: `${base}/api/calc/size`, method: 'POST', connections, headers, body: sizeBody })
-    results.push(row(`compute POST /api/calc/size, ${connections} conn`, compute))
-    const lean = await run({ url: `${base}/api/calc/size?working=false`, method: 'POST', connections, headers, body: sizeBody })
-    results.push(row(`compute, numbers only (?working=false), ${connections} conn`, lean))
-    console.log(`compute / bare throughput at ${connections} connections: ${(compute.requests.average / bare.requests.average).toFixed(2)} with working, ${(lean.requests.average / bare.requests.average).toFixed(2)} numbers only (bare ${bareRow['req/s']} req/s)`)
+    const ratio = (r: Result, bare: Result | null) => (bare ? (r.requests.average / bare.requests.average).toFixed(2) : 'n/a')
+    if (SCENARIOS.has('compute')) {
+      const compute = await run({ url: `${base}/api/calc/size`, method: 'POST', connections, headers, body: sizeBody }, app)
+      results.push(row(`compute POST /api/calc/size, ${connections} conn`, compute))
+      console.log(`compute / bare throughput at ${connections} connections: ${ratio(compute, barePost)} against the bare POST, ${ratio(compute, bareGet)} against the bare GET`)
+    }
+    if (SCENARIOS.has('lean')) {
+      const lean = await run({ url: `${base}/api/calc/size?working=false`, method: 'POST', connections, headers, body: sizeBody }, app)
+      results.push(row(`compute, numbers only (?working=false), ${connections} conn`, lean))
+      console.log(`numbers-only compute / bare throughput at ${connections} connections: ${ratio(lean, barePost)} against the bare POST, ${ratio(lean, bareGet)} against the bare GET`)
+    }
+    if (!SCENARIOS.has('mix')) continue
 
     // The realistic mix: list, open, compute, open, save a revision (each connection its own sheet).
     let next = 0
@@ -169,11 +230,13 @@ async function main() {
           },
         },
       ],
-    })
+    }, app)
     results.push(row(`mix (list, open, compute, save), ${connections} conn`, mix))
   }
-  const signIns = await run({ url: `${base}/api/auth/sign-in`, method: 'POST', connections: 4, headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: 'viewer@tallowmere.example', password: DEMO_PASSWORD }) })
-  results.push(row('sign-in (bcrypt cost 12), 4 conn', signIns))
+  if (SCENARIOS.has('sign-in')) {
+    const signIns = await run({ url: `${base}/api/auth/sign-in`, method: 'POST', connections: 4, headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: 'viewer@tallowmere.example', password: DEMO_PASSWORD }) }, app)
+    results.push(row('sign-in (bcrypt cost 12), 4 conn', signIns))
+  }
 
   console.log(`\nmachine: ${os.cpus()[0]?.model} × ${os.cpus().length}, Node ${process.version}; ${DURATION_S} s per scenario`)
   console.table(results)

@@ -67,16 +67,24 @@ export function createApp(opts: AppOptions = {}): BuiltApp {
   const session = createSessionMiddleware(cfg)
   app.use('/api', session.middleware)
   configurePassport()
-  app.use('/api', passport.initialize(), passport.session(), apiTokenAuth)
+  app.use('/api', passport.initialize({ compat: false }), passport.session(), apiTokenAuth)
   app.use('/api', csrfProtection(cfg.session.cookieName, cfg.origin))
 
   const routeTable = buildRouteTable({ signInWindowMs: opts.signInWindowMs ?? 15 * 60 * 1000 })
-  const api = Router()
+  // One router per resource (/api/sheets, /api/calc, …): a request is matched against its own
+  // group's routes, not against every route of the API in turn.
+  const groups = new Map<string, Router>()
   for (const route of routeTable) {
+    const prefix = route.path.split('/').slice(0, 3).join('/')
+    let group = groups.get(prefix)
+    if (!group) {
+      group = Router()
+      groups.set(prefix, group)
+      app.use(prefix, group)
+    }
     const handlers = Array.isArray(route.handler) ? route.handler : [route.handler]
-    api[route.method](route.path, authorize(route.access), ...handlers)
+    group[route.method](route.path.slice(prefix.length) || '/', authorize(route.access), ...handlers)
   }
-  app.use(api)
   app.use('/api', notFoundApi)
 
   const clientDir = opts.clientDir === undefined ? path.resolve('dist') : opts.clientDir

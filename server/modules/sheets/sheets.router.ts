@@ -55,7 +55,7 @@ async function create(req: Request, res: Response) {
 }
 
 async function read(req: Request, res: Response) {
-  res.json(await service.getSheet(scope(req).workspaceId, param(req, 'id')))
+  res.type('json').send(await service.getSheetJson(scope(req).workspaceId, param(req, 'id')))
 }
 
 async function save(req: Request, res: Response) {

@@ -13,6 +13,8 @@ import { SHEET_CAUTIONS, SheetContentSchema, type SheetContent, type SheetListQu
 import { config } from '../../config'
 import { dataSource } from '../../data-source'
 import { AppError, BadRequestError, ConflictError, NotFoundError } from '../../errors/app-error'
+import { jsonWithRawFields } from '../../lib/raw-json'
+import { preparedRows } from '../../lib/sql'
 import { hashToken, newToken, safeEqual } from '../../lib/tokens'
 import { recordAudit } from '../audit/audit.service'
 import { composeMail, sendMail } from '../mail/mail.service'
@@ -45,9 +47,10 @@ async function namesOf(ids: Array<string | null | undefined>): Promise<Map<strin
   return new Map(rows.map((u) => [u.id, u.name]))
 }
 
-const person = (names: Map<string, string>, id: string | null) => (id ? { id, name: names.get(id) ?? 'Former member' } : null)
+const personNamed = (id: string | null, name: string | null | undefined) => (id ? { id, name: name ?? 'Former member' } : null)
+const person = (names: Map<string, string>, id: string | null) => personNamed(id, id ? names.get(id) : null)
 
-export async function sheetView(s: SpecSheet, known?: Map<string, string>) {
+export async function sheetView(s: Omit<SpecSheet, 'workspaceId' | 'selectedCapacityAh' | 'requiredCapacityAh'>, known?: Map<string, string>) {
   const names = known ?? (await namesOf([s.createdBy, s.updatedBy]))
   return {
     id: s.id,
@@ -161,22 +164,45 @@ export async function createSheet(workspaceId: string, userId: string, content: 
   return sheetView(saved)
 }
 
-/** One sheet with its authors' names, in one query (the most frequent read of all). */
-export async function getSheet(workspaceId: string, id: string) {
-  const { entities, raw } = await sheets()
-    .createQueryBuilder('s')
-    .leftJoin(User, 'creator', 'creator.id = s.created_by')
-    .leftJoin(User, 'updater', 'updater.id = s.updated_by')
-    .addSelect('creator.name', 'creator_name')
-    .addSelect('updater.name', 'updater_name')
-    .where('s.id = :id AND s.workspace_id = :workspaceId', { id, workspaceId })
-    .getRawAndEntities()
-  const s = entities[0]
-  if (!s) throw new NotFoundError('That sheet')
+type SheetRow = Omit<SpecSheet, 'workspaceId' | 'selectedCapacityAh' | 'requiredCapacityAh' | 'inputs' | 'results'> & {
+  /** JSON text: parsed only when the caller needs objects (see getSheetJson). */
+  inputs: string
+  results: string
+  creatorName: string | null
+  updaterName: string | null
+}
+
+const GET_SHEET_SQL = `SELECT s.id, s.title, s.reference, s.client, s.site, s.luminaire, s.chemistry, s.inputs::text AS inputs,
+  s.results::text AS results, s.engine_version AS "engineVersion", s.status, s.current_revision AS "currentRevision",
+  s.issued_revision AS "issuedRevision", s.version, s.created_by AS "createdBy", s.updated_by AS "updatedBy",
+  s.archived_at AS "archivedAt", s.created_at AS "createdAt", s.updated_at AS "updatedAt",
+  creator.name AS "creatorName", updater.name AS "updaterName"
+FROM spec_sheets s
+LEFT JOIN users creator ON creator.id = s.created_by
+LEFT JOIN users updater ON updater.id = s.updated_by
+WHERE s.id = $1 AND s.workspace_id = $2`
+
+/** One sheet row with its authors' names: one prepared statement, as this is the most frequent read of all. */
+async function sheetRow(workspaceId: string, id: string) {
+  const [row] = await preparedRows<SheetRow>('sheet-get', GET_SHEET_SQL, [id, workspaceId])
+  if (!row) throw new NotFoundError('That sheet')
   const names = new Map<string, string>()
-  if (s.createdBy && raw[0].creator_name !== null) names.set(s.createdBy, raw[0].creator_name)
-  if (s.updatedBy && raw[0].updater_name !== null) names.set(s.updatedBy, raw[0].updater_name)
-  return sheetView(s, names)
+  if (row.createdBy && row.creatorName !== null) names.set(row.createdBy, row.creatorName)
+  if (row.updatedBy && row.updaterName !== null) names.set(row.updatedBy, row.updaterName)
+  const { inputs, results, ...rest } = row
+  return { inputs, results, view: await sheetView({ ...rest, inputs: {}, results: {} }, names) }
+}
+
+export async function getSheet(workspaceId: string, id: string) {
+  const { inputs, results, view } = await sheetRow(workspaceId, id)
+  return { ...view, inputs: JSON.parse(inputs) as Record<string, unknown>, results: JSON.parse(results) as Record<string, unknown> }
+}
+
+/** The same sheet as JSON text for the API, its stored inputs and results passed through unparsed. */
+export async function getSheetJson(workspaceId: string, id: string): Promise<string> {
+  const { inputs, results, view } = await sheetRow(workspaceId, id)
+  const { inputs: _inputs, results: _results, ...fields } = view
+  return jsonWithRawFields(fields, { inputs, results })
 }
 
 /** A save: a new revision, or 409 with what changed since the editor's version. */
@@ -216,42 +242,59 @@ export async function saveSheet(workspaceId: string, userId: string, id: string,
   return sheetView(saved)
 }
 
+const LIST_SORT_COLUMNS: Record<SheetListQuery['sort'], string> = {
+  updatedAt: 's.updated_at',
+  createdAt: 's.created_at',
+  title: 'lower(s.title)',
+  reference: 'lower(s.reference)',
+  client: 'lower(s.client)',
+  status: 's.status',
+  chemistry: 's.chemistry',
+}
+
+interface SheetListRow {
+  id: string; title: string; reference: string; client: string; site: string; chemistry: string; status: SpecSheet['status']
+  currentRevision: number; issuedRevision: number | null; selectedCapacityAh: number | null; requiredCapacityAh: number | null
+  createdBy: string | null; authorName: string | null; archivedAt: Date | null; createdAt: Date; updatedAt: Date; totalRows: string
+}
+
+/**
+ * A page of sheets. The SQL text depends only on which filters are present and on the order, so
+ * each variant is one named prepared statement; the values are always parameters. A row needs two
+ * figures of the results, not the whole working: they come from generated columns. The author's
+ * name and the total come in the same query (a window count over the filtered rows).
+ */
 export async function listSheets(workspaceId: string, q: SheetListQuery) {
-  const column: Record<SheetListQuery['sort'], string> = {
-    updatedAt: 's.updated_at',
-    createdAt: 's.created_at',
-    title: 'lower(s.title)',
-    reference: 'lower(s.reference)',
-    client: 'lower(s.client)',
-    status: 's.status',
-    chemistry: 's.chemistry',
-  }
-  const qb = sheets().createQueryBuilder('s').where('s.workspace_id = :workspaceId', { workspaceId })
-  qb.andWhere(q.archived ? 's.archived_at IS NOT NULL' : 's.archived_at IS NULL')
+  const values: unknown[] = [workspaceId]
+  const where = ['s.workspace_id = $1', q.archived ? 's.archived_at IS NOT NULL' : 's.archived_at IS NULL']
+  const variant = [q.archived ? 'a' : 'c', q.sort, q.order]
   if (q.q) {
-    const like = `%${q.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`
-    qb.andWhere('(s.title ILIKE :like OR s.reference ILIKE :like OR s.client ILIKE :like OR s.site ILIKE :like OR s.luminaire ILIKE :like)', { like })
+    values.push(`%${q.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`)
+    const n = `$${values.length}`
+    where.push(`(s.title ILIKE ${n} OR s.reference ILIKE ${n} OR s.client ILIKE ${n} OR s.site ILIKE ${n} OR s.luminaire ILIKE ${n})`)
+    variant.push('q')
   }
-  if (q.chemistry) qb.andWhere('s.chemistry = :chemistry', { chemistry: q.chemistry })
-  if (q.status) qb.andWhere('s.status = :status', { status: q.status })
-  if (q.author) qb.andWhere('s.created_by = :author', { author: q.author })
+  for (const [key, column] of [['chemistry', 's.chemistry'], ['status', 's.status'], ['author', 's.created_by']] as const) {
+    if (!q[key]) continue
+    values.push(q[key])
+    where.push(`${column} = $${values.length}`)
+    variant.push(key)
+  }
   const direction = q.order === 'asc' ? 'ASC' : 'DESC'
-  qb.orderBy(column[q.sort], direction).addOrderBy('s.id', direction)
-  // offset/limit rather than skip/take: the author join is one row per sheet, so plain SQL paging is right.
-  qb.offset((q.page - 1) * q.pageSize).limit(q.pageSize)
-  // A list row needs two figures of the results, not the whole working: they come from generated columns.
-  // The author's name and the total come in the same query (a window count over the filtered rows).
-  qb.select(['s.id', 's.title', 's.reference', 's.client', 's.site', 's.chemistry', 's.status', 's.currentRevision', 's.issuedRevision', 's.createdBy', 's.archivedAt', 's.createdAt', 's.updatedAt', 's.selectedCapacityAh', 's.requiredCapacityAh'])
-    .leftJoin(User, 'author', 'author.id = s.created_by')
-    .addSelect('author.name', 'author_name')
-    .addSelect('COUNT(*) OVER ()', 'total_rows')
-  const { entities: rows, raw } = await qb.getRawAndEntities()
+  values.push(q.pageSize, (q.page - 1) * q.pageSize)
+  const text = `SELECT s.id, s.title, s.reference, s.client, s.site, s.chemistry, s.status,
+  s.current_revision AS "currentRevision", s.issued_revision AS "issuedRevision",
+  s.selected_capacity_ah AS "selectedCapacityAh", s.required_capacity_ah AS "requiredCapacityAh",
+  s.created_by AS "createdBy", author.name AS "authorName", s.archived_at AS "archivedAt",
+  s.created_at AS "createdAt", s.updated_at AS "updatedAt", COUNT(*) OVER () AS "totalRows"
+FROM spec_sheets s
+LEFT JOIN users author ON author.id = s.created_by
+WHERE ${where.join(' AND ')}
+ORDER BY ${LIST_SORT_COLUMNS[q.sort]} ${direction}, s.id ${direction}
+LIMIT $${values.length - 1} OFFSET $${values.length}`
+  const rows = await preparedRows<SheetListRow>(`sheet-list-${variant.join('-')}`, text, values)
   // Past the last page there is no row to carry the total: count apart.
-  const total = raw.length ? Number(raw[0].total_rows) : q.page > 1 ? await qb.offset(undefined).limit(undefined).getCount() : 0
-  const names = new Map<string, string>()
-  rows.forEach((row, i) => {
-    if (row.createdBy && raw[i]?.author_name != null) names.set(row.createdBy, raw[i].author_name)
-  })
+  const total = rows.length ? Number(rows[0].totalRows) : q.page > 1 ? await countSheets(text, values, variant) : 0
   return {
     page: q.page,
     pageSize: q.pageSize,
@@ -268,12 +311,19 @@ export async function listSheets(workspaceId: string, q: SheetListQuery) {
       issuedRevision: s.issuedRevision,
       selectedCapacityAh: s.selectedCapacityAh,
       requiredCapacityAh: s.requiredCapacityAh,
-      author: person(names, s.createdBy),
+      author: personNamed(s.createdBy, s.authorName),
       archivedAt: s.archivedAt,
       createdAt: s.createdAt,
       updatedAt: s.updatedAt,
     })),
   }
+}
+
+/** The filtered total when the page asked for is past the end (the same query without its page). */
+async function countSheets(listText: string, values: unknown[], variant: string[]) {
+  const from = listText.slice(listText.indexOf('FROM spec_sheets'), listText.indexOf('ORDER BY'))
+  const [row] = await preparedRows<{ n: string }>(`sheet-count-${variant.join('-')}`, `SELECT COUNT(*) AS n ${from}`, values.slice(0, -2))
+  return Number(row.n)
 }
 
 /** People who authored sheets in the workspace (for the author filter). */

@@ -13,10 +13,11 @@ const userCache = hotCache<{ u: User | null }>()
 /** A user by id (cached for two seconds, as every request loads its user). */
 export async function findUserById(id: string) {
   const hit = userCache.get(id)
-  if (hit) return hit.u ? users().create({ ...hit.u }) : null
+  // A copy each time, so a caller's change never reaches the cache.
+  if (hit) return hit.u ? Object.assign(new User(), hit.u) : null
   const u = await users().findOne({ where: { id } })
   userCache.set(id, { u })
-  return u ? users().create({ ...u }) : null
+  return u ? Object.assign(new User(), u) : null
 }
 
 /** Forget a cached user after a change to it. */
