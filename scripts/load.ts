@@ -10,6 +10,7 @@ import os from 'node:os'
 import path from 'node:path'
 import autocannon from 'autocannon'
 import { DEMO_PASSWORD } from '../server/scripts/demo-users'
+import { LAYERS } from './load-layers'
 import { ensurePostgresBinaries, findFreePort, startCluster } from './lib/setup.mjs'
 
 const DURATION_S = Number(process.env.LOAD_SECONDS ?? 8)
@@ -17,7 +18,11 @@ const DURATION_S = Number(process.env.LOAD_SECONDS ?? 8)
 const PROFILE_DIR = process.env.LOAD_PROFILE_DIR
 /** LOAD_CONNECTIONS=50 runs one connection count instead of 50 and 200. */
 const CONNECTIONS = process.env.LOAD_CONNECTIONS ? process.env.LOAD_CONNECTIONS.split(',').map(Number) : [50, 200]
-/** LOAD_SCENARIOS=compute,reads runs only those (of bare, reads, compute, lean, mix, sign-in); the ratio needs bare. */
+/**
+ * LOAD_SCENARIOS=compute,reads runs only those (of bare, reads, compute, lean, mix, sign-in, layers);
+ * the ratios need bare. `layers` (not in the default run) serves the compute route through the app's
+ * middleware one layer at a time and prints what each costs.
+ */
 const SCENARIOS = new Set((process.env.LOAD_SCENARIOS ?? 'bare,reads,compute,lean,mix,sign-in').split(','))
 const work = fs.mkdtempSync(path.join(os.tmpdir(), 'lw-load-'))
 fs.chmodSync(work, 0o755)
@@ -191,6 +196,17 @@ async function main() {
       const lean = await run({ url: `${base}/api/calc/size?working=false`, method: 'POST', connections, headers, body: sizeBody }, app)
       results.push(row(`compute, numbers only (?working=false), ${connections} conn`, lean))
       console.log(`numbers-only compute / bare throughput at ${connections} connections: ${ratio(lean, barePost)} against the bare POST, ${ratio(lean, bareGet)} against the bare GET`)
+    }
+    if (SCENARIOS.has('layers')) {
+      for (let layer = 0; layer < LAYERS.length; layer++) {
+        const port = await findFreePort(48000)
+        const server = spawn('node', ['--import', 'tsx', 'scripts/load-layers.ts'], { env: { ...env, PORT: String(port), LAYERS: String(layer) }, stdio: ['ignore', 'pipe', 'inherit'] })
+        children.push(server)
+        await new Promise((resolve) => server.stdout!.once('data', resolve))
+        const r = await run({ url: `http://127.0.0.1:${port}/api/calc/size`, method: 'POST', connections, headers, body: sizeBody }, server)
+        results.push(row(`layer ${layer}: ${LAYERS[layer]}, ${connections} conn`, r))
+        await new Promise((resolve) => (server.once('exit', resolve), server.kill('SIGTERM')))
+      }
     }
     if (!SCENARIOS.has('mix')) continue
 

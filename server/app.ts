@@ -4,7 +4,7 @@ import path from 'node:path'
 import express, { Router, type Express } from 'express'
 import helmet from 'helmet'
 import passport from 'passport'
-import { config } from './config'
+import { config, type AppConfig } from './config'
 import { apiTokenAuth } from './middleware/api-token'
 import { csrfProtection } from './middleware/csrf'
 import { errorHandler, notFoundApi } from './middleware/error-handler'
@@ -27,6 +27,30 @@ export interface BuiltApp {
   close: () => Promise<void>
 }
 
+/** helmet's headers with the content security policy the client really works under. */
+export function securityHeaders(cfg: AppConfig) {
+  return helmet({
+    contentSecurityPolicy: {
+      useDefaults: true,
+      directives: {
+        'default-src': ["'self'"],
+        'script-src': ["'self'"],
+        // naive-ui injects its component styles at run time.
+        'style-src': ["'self'", "'unsafe-inline'"],
+        'img-src': ["'self'", 'data:', 'blob:'],
+        'font-src': ["'self'", 'data:'],
+        'connect-src': ["'self'"],
+        'object-src': ["'none'"],
+        'frame-ancestors': ["'none'"],
+        'upgrade-insecure-requests': cfg.https ? [] : null,
+      },
+    },
+    // HSTS only makes sense when the app is really served over HTTPS.
+    strictTransportSecurity: cfg.https ? { maxAge: 15552000, includeSubDomains: true } : false,
+    crossOriginEmbedderPolicy: false,
+  })
+}
+
 export function createApp(opts: AppOptions = {}): BuiltApp {
   const cfg = config()
   const app = express()
@@ -34,28 +58,7 @@ export function createApp(opts: AppOptions = {}): BuiltApp {
   app.set('trust proxy', cfg.trustProxy)
   app.set('query parser', 'simple')
 
-  app.use(
-    helmet({
-      contentSecurityPolicy: {
-        useDefaults: true,
-        directives: {
-          'default-src': ["'self'"],
-          'script-src': ["'self'"],
-          // naive-ui injects its component styles at run time.
-          'style-src': ["'self'", "'unsafe-inline'"],
-          'img-src': ["'self'", 'data:', 'blob:'],
-          'font-src': ["'self'", 'data:'],
-          'connect-src': ["'self'"],
-          'object-src': ["'none'"],
-          'frame-ancestors': ["'none'"],
-          'upgrade-insecure-requests': cfg.https ? [] : null,
-        },
-      },
-      // HSTS only makes sense when the app is really served over HTTPS.
-      strictTransportSecurity: cfg.https ? { maxAge: 15552000, includeSubDomains: true } : false,
-      crossOriginEmbedderPolicy: false,
-    }),
-  )
+  app.use(securityHeaders(cfg))
   // API answers are private to the signed-in team: never cached (so no ETag to hash either).
   app.set('etag', false)
   app.use('/api', (_req, res, next) => {

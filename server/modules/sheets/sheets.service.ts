@@ -243,87 +243,85 @@ export async function saveSheet(workspaceId: string, userId: string, id: string,
 }
 
 const LIST_SORT_COLUMNS: Record<SheetListQuery['sort'], string> = {
-  updatedAt: 's.updated_at',
-  createdAt: 's.created_at',
-  title: 'lower(s.title)',
-  reference: 'lower(s.reference)',
-  client: 'lower(s.client)',
-  status: 's.status',
-  chemistry: 's.chemistry',
+  updatedAt: 'updated_at',
+  createdAt: 'created_at',
+  title: 'lower(title)',
+  reference: 'lower(reference)',
+  client: 'lower(client)',
+  status: 'status',
+  chemistry: 'chemistry',
 }
 
 interface SheetListRow {
-  id: string; title: string; reference: string; client: string; site: string; chemistry: string; status: SpecSheet['status']
+  id: string | null; title: string; reference: string; client: string; site: string; chemistry: string; status: SpecSheet['status']
   currentRevision: number; issuedRevision: number | null; selectedCapacityAh: number | null; requiredCapacityAh: number | null
-  createdBy: string | null; authorName: string | null; archivedAt: Date | null; createdAt: Date; updatedAt: Date; totalRows: string
+  createdBy: string | null; authorName: string | null; archivedAt: Date | null; createdAt: Date; updatedAt: Date; total: string
 }
 
 /**
  * A page of sheets. The SQL text depends only on which filters are present and on the order, so
- * each variant is one named prepared statement; the values are always parameters. A row needs two
- * figures of the results, not the whole working: they come from generated columns. The author's
- * name and the total come in the same query (a window count over the filtered rows).
+ * each variant is one named prepared statement; the values are always parameters. The page is
+ * taken first (by the (workspace, updated_at, id) index for the usual order) and only its rows are
+ * joined to their authors; the total comes in the same answer, which holds one row of nulls past
+ * the last page. A row needs two figures of the results, not the whole working: they come from
+ * generated columns.
  */
 export async function listSheets(workspaceId: string, q: SheetListQuery) {
   const values: unknown[] = [workspaceId]
-  const where = ['s.workspace_id = $1', q.archived ? 's.archived_at IS NOT NULL' : 's.archived_at IS NULL']
+  const where = ['workspace_id = $1', q.archived ? 'archived_at IS NOT NULL' : 'archived_at IS NULL']
   const variant = [q.archived ? 'a' : 'c', q.sort, q.order]
   if (q.q) {
     values.push(`%${q.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`)
     const n = `$${values.length}`
-    where.push(`(s.title ILIKE ${n} OR s.reference ILIKE ${n} OR s.client ILIKE ${n} OR s.site ILIKE ${n} OR s.luminaire ILIKE ${n})`)
+    where.push(`(title ILIKE ${n} OR reference ILIKE ${n} OR client ILIKE ${n} OR site ILIKE ${n} OR luminaire ILIKE ${n})`)
     variant.push('q')
   }
-  for (const [key, column] of [['chemistry', 's.chemistry'], ['status', 's.status'], ['author', 's.created_by']] as const) {
+  for (const [key, column] of [['chemistry', 'chemistry'], ['status', 'status'], ['author', 'created_by']] as const) {
     if (!q[key]) continue
     values.push(q[key])
     where.push(`${column} = $${values.length}`)
     variant.push(key)
   }
   const direction = q.order === 'asc' ? 'ASC' : 'DESC'
+  const order = `${LIST_SORT_COLUMNS[q.sort]} ${direction}, id ${direction}`
   values.push(q.pageSize, (q.page - 1) * q.pageSize)
-  const text = `SELECT s.id, s.title, s.reference, s.client, s.site, s.chemistry, s.status,
-  s.current_revision AS "currentRevision", s.issued_revision AS "issuedRevision",
-  s.selected_capacity_ah AS "selectedCapacityAh", s.required_capacity_ah AS "requiredCapacityAh",
-  s.created_by AS "createdBy", author.name AS "authorName", s.archived_at AS "archivedAt",
-  s.created_at AS "createdAt", s.updated_at AS "updatedAt", COUNT(*) OVER () AS "totalRows"
-FROM spec_sheets s
-LEFT JOIN users author ON author.id = s.created_by
-WHERE ${where.join(' AND ')}
-ORDER BY ${LIST_SORT_COLUMNS[q.sort]} ${direction}, s.id ${direction}
-LIMIT $${values.length - 1} OFFSET $${values.length}`
+  const text = `WITH total AS (SELECT COUNT(*) AS n FROM spec_sheets WHERE ${where.join(' AND ')}),
+page AS (SELECT id, title, reference, client, site, chemistry, status, current_revision, issued_revision,
+    selected_capacity_ah, required_capacity_ah, created_by, archived_at, created_at, updated_at
+  FROM spec_sheets WHERE ${where.join(' AND ')}
+  ORDER BY ${order} LIMIT $${values.length - 1} OFFSET $${values.length})
+SELECT page.id, page.title, page.reference, page.client, page.site, page.chemistry, page.status,
+  page.current_revision AS "currentRevision", page.issued_revision AS "issuedRevision",
+  page.selected_capacity_ah AS "selectedCapacityAh", page.required_capacity_ah AS "requiredCapacityAh",
+  page.created_by AS "createdBy", author.name AS "authorName", page.archived_at AS "archivedAt",
+  page.created_at AS "createdAt", page.updated_at AS "updatedAt", total.n AS total
+FROM total LEFT JOIN page ON true LEFT JOIN users author ON author.id = page.created_by
+ORDER BY ${order.replace(/\b(updated_at|created_at|title|reference|client|status|chemistry|id)\b/g, 'page.$1')}`
   const rows = await preparedRows<SheetListRow>(`sheet-list-${variant.join('-')}`, text, values)
-  // Past the last page there is no row to carry the total: count apart.
-  const total = rows.length ? Number(rows[0].totalRows) : q.page > 1 ? await countSheets(text, values, variant) : 0
   return {
     page: q.page,
     pageSize: q.pageSize,
-    total,
-    items: rows.map((s) => ({
-      id: s.id,
-      title: s.title,
-      reference: s.reference,
-      client: s.client,
-      site: s.site,
-      chemistry: s.chemistry,
-      status: s.status,
-      currentRevision: s.currentRevision,
-      issuedRevision: s.issuedRevision,
-      selectedCapacityAh: s.selectedCapacityAh,
-      requiredCapacityAh: s.requiredCapacityAh,
-      author: personNamed(s.createdBy, s.authorName),
-      archivedAt: s.archivedAt,
-      createdAt: s.createdAt,
-      updatedAt: s.updatedAt,
-    })),
+    total: Number(rows[0]?.total ?? 0),
+    items: rows
+      .filter((s) => s.id !== null)
+      .map((s) => ({
+        id: s.id,
+        title: s.title,
+        reference: s.reference,
+        client: s.client,
+        site: s.site,
+        chemistry: s.chemistry,
+        status: s.status,
+        currentRevision: s.currentRevision,
+        issuedRevision: s.issuedRevision,
+        selectedCapacityAh: s.selectedCapacityAh,
+        requiredCapacityAh: s.requiredCapacityAh,
+        author: personNamed(s.createdBy, s.authorName),
+        archivedAt: s.archivedAt,
+        createdAt: s.createdAt,
+        updatedAt: s.updatedAt,
+      })),
   }
-}
-
-/** The filtered total when the page asked for is past the end (the same query without its page). */
-async function countSheets(listText: string, values: unknown[], variant: string[]) {
-  const from = listText.slice(listText.indexOf('FROM spec_sheets'), listText.indexOf('ORDER BY'))
-  const [row] = await preparedRows<{ n: string }>(`sheet-count-${variant.join('-')}`, `SELECT COUNT(*) AS n ${from}`, values.slice(0, -2))
-  return Number(row.n)
 }
 
 /** People who authored sheets in the workspace (for the author filter). */
