@@ -110,6 +110,10 @@ describe('faults', () => {
     pgCtl('stop')
     const before = acknowledged.length
     while ((statuses['503'] ?? 0) < 3) await new Promise((r) => setTimeout(r, 20))
+    // Reads by prepared statement (the sheet list) fail the same clear way, and work again after.
+    const readDuringOutage = await fetch(`http://127.0.0.1:${port}/api/sheets`, { headers: { cookie: s.cookie } })
+    expect(readDuringOutage.status).toBe(503)
+    expect((await readDuringOutage.json()).code).toBe('unavailable')
     pgCtl('start')
     const restartedAt = Date.now()
     while (acknowledged.length <= before + 5) await new Promise((r) => setTimeout(r, 20))
@@ -120,6 +124,9 @@ describe('faults', () => {
     expect(statuses['500'] ?? 0).toBe(0)
     expect(statuses['503']).toBeGreaterThan(0)
     expect(recoverySeconds).toBeLessThan(10)
+    const readAfter = await fetch(`http://127.0.0.1:${port}/api/sheets`, { headers: { cookie: s.cookie } })
+    expect(readAfter.status).toBe(200)
+    expect((await readAfter.json()).total).toBe(0)
     const client = new pg.Client({ connectionString: cluster.url })
     await client.connect()
     const found = await client.query('SELECT count(*)::int AS n FROM workspaces WHERE id = ANY($1::uuid[])', [acknowledged])
