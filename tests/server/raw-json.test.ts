@@ -8,7 +8,7 @@ describe('jsonWithRawFields', () => {
       fc.property(fc.dictionary(fc.string(), fc.jsonValue()), fc.dictionary(fc.string(), fc.jsonValue()), (plain, stored) => {
         // Raw fields replace plain fields of the same name, as they do in the API answers.
         const expected = { ...plain, ...stored }
-        const rest = Object.fromEntries(Object.entries(plain).filter(([key]) => !(key in stored)))
+        const rest = Object.fromEntries(Object.entries(plain).filter(([key]) => !Object.hasOwn(stored, key)))
         const raw = Object.fromEntries(Object.entries(stored).map(([key, value]) => [key, JSON.stringify(value)]))
         expect(JSON.parse(jsonWithRawFields(rest, raw))).toEqual(JSON.parse(JSON.stringify(expected)))
       }),
