@@ -242,14 +242,15 @@ export async function saveSheet(workspaceId: string, userId: string, id: string,
   return sheetView(saved)
 }
 
-const LIST_SORT_COLUMNS: Record<SheetListQuery['sort'], string> = {
-  updatedAt: 'updated_at',
-  createdAt: 'created_at',
-  title: 'lower(title)',
-  reference: 'lower(reference)',
-  client: 'lower(client)',
-  status: 'status',
-  chemistry: 'chemistry',
+/** The sort keys of the list, as SQL over a given table alias (the page, then the answer, are ordered alike). */
+const LIST_SORT_KEYS: Record<SheetListQuery['sort'], (alias: string) => string> = {
+  updatedAt: (t) => `${t}.updated_at`,
+  createdAt: (t) => `${t}.created_at`,
+  title: (t) => `lower(${t}.title)`,
+  reference: (t) => `lower(${t}.reference)`,
+  client: (t) => `lower(${t}.client)`,
+  status: (t) => `${t}.status`,
+  chemistry: (t) => `${t}.chemistry`,
 }
 
 interface SheetListRow {
@@ -283,20 +284,20 @@ export async function listSheets(workspaceId: string, q: SheetListQuery) {
     variant.push(key)
   }
   const direction = q.order === 'asc' ? 'ASC' : 'DESC'
-  const order = `${LIST_SORT_COLUMNS[q.sort]} ${direction}, id ${direction}`
+  const order = (alias: string) => `${LIST_SORT_KEYS[q.sort](alias)} ${direction}, ${alias}.id ${direction}`
   values.push(q.pageSize, (q.page - 1) * q.pageSize)
   const text = `WITH total AS (SELECT COUNT(*) AS n FROM spec_sheets WHERE ${where.join(' AND ')}),
 page AS (SELECT id, title, reference, client, site, chemistry, status, current_revision, issued_revision,
     selected_capacity_ah, required_capacity_ah, created_by, archived_at, created_at, updated_at
-  FROM spec_sheets WHERE ${where.join(' AND ')}
-  ORDER BY ${order} LIMIT $${values.length - 1} OFFSET $${values.length})
+  FROM spec_sheets s WHERE ${where.join(' AND ')}
+  ORDER BY ${order('s')} LIMIT $${values.length - 1} OFFSET $${values.length})
 SELECT page.id, page.title, page.reference, page.client, page.site, page.chemistry, page.status,
   page.current_revision AS "currentRevision", page.issued_revision AS "issuedRevision",
   page.selected_capacity_ah AS "selectedCapacityAh", page.required_capacity_ah AS "requiredCapacityAh",
   page.created_by AS "createdBy", author.name AS "authorName", page.archived_at AS "archivedAt",
   page.created_at AS "createdAt", page.updated_at AS "updatedAt", total.n AS total
 FROM total LEFT JOIN page ON true LEFT JOIN users author ON author.id = page.created_by
-ORDER BY ${order.replace(/\b(updated_at|created_at|title|reference|client|status|chemistry|id)\b/g, 'page.$1')}`
+ORDER BY ${order('page')}`
   const rows = await preparedRows<SheetListRow>(`sheet-list-${variant.join('-')}`, text, values)
   return {
     page: q.page,
