@@ -58,6 +58,8 @@ describe('route spacing: photometry to a specification sheet', () => {
       // The calculator with that type: figures as the engine gives them, the plan, the profile, the height table.
       await page.locator('tr', { hasText: typeName }).getByRole('link', { name: 'Spacing' }).click()
       await page.waitForURL(/\/route-spacing\?type=/)
+      // As a person would: the form shows the chosen type (it loads after the page) before we ask.
+      await expect.poll(() => page.locator('[data-test="sp-source"]').textContent(), { timeout: 30_000 }).toContain(typeName)
       await page.locator('[data-test="sp-calculate"]').click()
       await page.locator('[data-test="sp-maxSpacing"]').waitFor()
       const expected = computeSpacing(spacingInput.parse({ photometry: lm63, mountingHeight: 2.5, emergencyOutputFactor: 0.5, maintenanceFactor: 0.8, criteria: 'en1838-route', routeWidth: 2, routeLength: 30 }))
