@@ -32,7 +32,8 @@ describe('reading text back out of a PDF', () => {
       if (!pdfText(await pdfOf(lines)).includes(`Line ${i}-29`)) misread.push(i)
     }
     expect(misread).toEqual([])
-  })
+    // 300 documents, each embedding a font: about 25 s here, up to twice that when the machine is slow.
+  }, 180_000)
 
   it('refuses something that is not a PDF', () => {
     expect(() => pdfText(Buffer.from('hello'))).toThrow('not a PDF')
