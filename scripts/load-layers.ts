@@ -5,7 +5,7 @@
  */
 import express, { type Request, type Response } from 'express'
 import passport from 'passport'
-import { createApp, securityHeaders } from '../server/app'
+import { createApp, noStore, securityHeaders } from '../server/app'
 import { config } from '../server/config'
 import { dataSource } from '../server/data-source'
 import { createSessionMiddleware } from '../server/lib/session'
@@ -36,7 +36,7 @@ async function main() {
     app.set('etag', false)
     if (layers >= 2) {
       app.use(securityHeaders(cfg))
-      app.use('/api', (_req, res, next) => (res.setHeader('Cache-Control', 'private, no-store'), next()))
+      app.use('/api', noStore)
     }
     app.use('/api', express.json({ limit: '1mb' }))
     if (layers >= 3) app.use('/api', createSessionMiddleware(cfg).middleware)

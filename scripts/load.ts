@@ -187,15 +187,11 @@ async function main() {
     }
 
     const ratio = (r: Result, bare: Result | null) => (bare ? (r.requests.average / bare.requests.average).toFixed(2) : 'n/a')
-    if (SCENARIOS.has('compute')) {
-      const compute = await run({ url: `${base}/api/calc/size`, method: 'POST', connections, headers, body: sizeBody }, app)
-      results.push(row(`compute POST /api/calc/size, ${connections} conn`, compute))
-      console.log(`compute / bare throughput at ${connections} connections: ${ratio(compute, barePost)} against the bare POST, ${ratio(compute, bareGet)} against the bare GET`)
-    }
-    if (SCENARIOS.has('lean')) {
-      const lean = await run({ url: `${base}/api/calc/size?working=false`, method: 'POST', connections, headers, body: sizeBody }, app)
-      results.push(row(`compute, numbers only (?working=false), ${connections} conn`, lean))
-      console.log(`numbers-only compute / bare throughput at ${connections} connections: ${ratio(lean, barePost)} against the bare POST, ${ratio(lean, bareGet)} against the bare GET`)
+    for (const [scenario, query, label] of [['compute', '', 'compute POST /api/calc/size'], ['lean', '?working=false', 'compute, numbers only (?working=false)']] as const) {
+      if (!SCENARIOS.has(scenario)) continue
+      const r = await run({ url: `${base}/api/calc/size${query}`, method: 'POST', connections, headers, body: sizeBody }, app)
+      results.push(row(`${label}, ${connections} conn`, r))
+      console.log(`${label} / bare throughput at ${connections} connections: ${ratio(r, barePost)} against the bare POST, ${ratio(r, bareGet)} against the bare GET`)
     }
     if (SCENARIOS.has('layers')) {
       for (let layer = 0; layer < LAYERS.length; layer++) {

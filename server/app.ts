@@ -1,7 +1,7 @@
 /** Builds the Express app (no listening here: tests drive it with supertest). */
 import fs from 'node:fs'
 import path from 'node:path'
-import express, { Router, type Express } from 'express'
+import express, { Router, type Express, type RequestHandler } from 'express'
 import helmet from 'helmet'
 import passport from 'passport'
 import { config, type AppConfig } from './config'
@@ -51,6 +51,12 @@ export function securityHeaders(cfg: AppConfig) {
   })
 }
 
+/** Every /api answer: private to the signed-in team and never cached. */
+export const noStore: RequestHandler = (_req, res, next) => {
+  res.setHeader('Cache-Control', 'private, no-store')
+  next()
+}
+
 export function createApp(opts: AppOptions = {}): BuiltApp {
   const cfg = config()
   const app = express()
@@ -61,10 +67,7 @@ export function createApp(opts: AppOptions = {}): BuiltApp {
   app.use(securityHeaders(cfg))
   // API answers are private to the signed-in team: never cached (so no ETag to hash either).
   app.set('etag', false)
-  app.use('/api', (_req, res, next) => {
-    res.setHeader('Cache-Control', 'private, no-store')
-    next()
-  })
+  app.use('/api', noStore)
   if (cfg.logLevel !== 'silent') app.use('/api', requestLog)
   app.use('/api', express.json({ limit: '1mb', strict: true }))
   const session = createSessionMiddleware(cfg)
