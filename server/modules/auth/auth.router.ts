@@ -5,6 +5,7 @@ import { ipKeyGenerator, rateLimit } from 'express-rate-limit'
 import { PostgresHitStore } from '../../lib/rate-limit-store'
 import passport from 'passport'
 import {
+  ChangePasswordSchema,
   ForgotPasswordSchema,
   ResetPasswordSchema,
   SignInSchema,
@@ -18,7 +19,7 @@ import type { RouteSpec } from '../../policy/access'
 import type { User } from '../users/user.entity'
 import { forgetUser, users } from '../users/users.repository'
 import { myWorkspaces } from '../workspaces/workspaces.service'
-import { requestPasswordReset, resetPassword, signUp } from './auth.service'
+import { changePassword, requestPasswordReset, resetPassword, signUp } from './auth.service'
 
 function ensureCsrfToken(req: Request): string {
   req.session.csrfToken ??= crypto.randomBytes(24).toString('base64url')
@@ -27,7 +28,14 @@ function ensureCsrfToken(req: Request): string {
 
 function login(req: Request, user: User): Promise<void> {
   // passport ≥ 0.6 regenerates the session id on login (no fixation).
-  return new Promise((resolve, reject) => req.login(user, (err) => (err ? reject(err) : resolve())))
+  return new Promise((resolve, reject) =>
+    req.login(user, (err) => {
+      if (err) return reject(err)
+      // Compared with the user's "sessions valid after" stamp on every request.
+      req.session.signedInAt = Date.now()
+      resolve()
+    }),
+  )
 }
 
 export async function meResponse(req: Request): Promise<MeResponse> {
@@ -118,6 +126,15 @@ async function updateMe(req: Request, res: Response) {
   res.json(await meResponse(req))
 }
 
+async function changePasswordHandler(req: Request, res: Response) {
+  const { currentPassword, newPassword } = parse(ChangePasswordSchema, req.body)
+  const user = req.user as User
+  await changePassword(user.id, currentPassword, newPassword, req.sessionID)
+  // This session goes on: it counts as signed in after the change.
+  req.session.signedInAt = Date.now()
+  res.json({ message: 'Your password has been changed. You have been signed out everywhere else.' })
+}
+
 function csrf(req: Request, res: Response) {
   res.json({ csrfToken: ensureCsrfToken(req) })
 }
@@ -131,7 +148,7 @@ async function forgot(req: Request, res: Response) {
 async function reset(req: Request, res: Response) {
   const { token, password } = parse(ResetPasswordSchema, req.body)
   await resetPassword(token, password)
-  res.json({ message: 'Your password has been changed. Sign in with the new one.' })
+  res.json({ message: 'Your password has been changed. You have been signed out everywhere and your API tokens have been revoked. Sign in with the new one.' })
 }
 
 export function authRoutes(opts: { signInWindowMs: number }): RouteSpec[] {
@@ -141,6 +158,7 @@ export function authRoutes(opts: { signInWindowMs: number }): RouteSpec[] {
     { method: 'post', path: '/api/auth/sign-out', access: 'public', summary: 'Sign out', handler: signOut },
     { method: 'get', path: '/api/auth/me', access: 'signed-in', summary: 'The user, the current workspace and role', handler: me },
     { method: 'patch', path: '/api/auth/me', access: 'signed-in', summary: 'Change name or unit preference', body: UpdateProfileSchema, handler: updateMe },
+    { method: 'post', path: '/api/auth/password', access: 'signed-in', summary: 'Change my password (ends my other sessions)', body: ChangePasswordSchema, handler: changePasswordHandler },
     { method: 'get', path: '/api/auth/csrf', access: 'public', summary: 'A CSRF token for the X-CSRF-Token header', handler: csrf },
     { method: 'post', path: '/api/auth/forgot-password', access: 'public', summary: 'E-mail a single-use password reset link', body: ForgotPasswordSchema, handler: forgot },
     { method: 'post', path: '/api/auth/reset-password', access: 'public', summary: 'Set a new password with a reset token', body: ResetPasswordSchema, handler: reset },

@@ -7,6 +7,7 @@ import type { Role } from '../../../shared/schemas/roles'
 import { recordAudit } from '../audit/audit.service'
 import { composeMail, sendMail } from '../mail/mail.service'
 import type { User } from '../users/user.entity'
+import { endSessions } from '../users/sessions'
 import { findUserById } from '../users/users.repository'
 import { Invitation } from './invitation.entity'
 import { Membership } from './membership.entity'
@@ -70,7 +71,12 @@ export async function removeMember(workspaceId: string, actorId: string, members
   if (m.role === 'owner' && (await countOwners(workspaceId)) <= 1) {
     throw new ConflictError('This is the last owner of the workspace and cannot be removed.')
   }
-  await dataSource.getRepository(Membership).delete({ id: m.id })
+  await dataSource.transaction(async (tx) => {
+    await tx.getRepository(Membership).delete({ id: m.id })
+    // A removed member is signed out everywhere at once and their tokens here stop working.
+    await endSessions(m.userId, { manager: tx })
+    await tx.query('UPDATE api_tokens SET revoked_at = now() WHERE user_id = $1 AND workspace_id = $2 AND revoked_at IS NULL', [m.userId, workspaceId])
+  })
   forgetMemberships()
   await recordAudit({ workspaceId, actorId, action: 'member.removed', entityType: 'membership', entityId: m.id, data: { userId: m.userId } })
 }
