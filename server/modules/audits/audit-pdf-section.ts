@@ -5,8 +5,8 @@
 import type { EngineWarning } from '../../../shared/engine/types'
 import { formatFigure } from '../../../shared/schemas/sheet-text'
 import { AUDIT_RESULT_FIGURES, auditFigureText, CLAIM_MEANING_WORDS, CLAIM_VERDICT_WORDS, plainAuditWarnings } from '../../../shared/schemas/wattage-audit-text'
-import { ensureSpace, heading, pair, write } from '../sheets/pdf/pdf-kit'
-import type { PdfSection } from '../sheets/pdf/sheet-pdf'
+import { ensureSpace, heading, pair, write } from '../../lib/pdf/pdf-kit'
+import type { PdfSection } from '../sheets/sheet-pdf'
 import type { AuditDto } from './audits.service'
 
 const date = (d: Date | string) => new Date(d).toISOString().slice(0, 10)

@@ -4,8 +4,8 @@
  */
 import type { EngineWarning } from '../../../shared/engine/types'
 import { formatFigure } from '../../../shared/schemas/sheet-text'
-import { ensureSpace, heading, pair, write, type Doc } from '../sheets/pdf/pdf-kit'
-import type { PdfSection } from '../sheets/pdf/sheet-pdf'
+import { ensureSpace, heading, pair, write, type Doc } from '../../lib/pdf/pdf-kit'
+import type { PdfSection } from '../sheets/sheet-pdf'
 import type { DischargeLogDto } from './discharge.service'
 
 const date = (d: Date | string) => new Date(d).toISOString().slice(0, 10)

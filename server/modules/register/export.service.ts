@@ -4,7 +4,7 @@
  * a spreadsheet shows them as text instead of running them as a formula.
  */
 import Papa from 'papaparse'
-import { heightOf, newDocument, toBuffer, write, writeAt, type Doc, type WriteOptions } from '../sheets/pdf/pdf-kit'
+import { heightOf, newDocument, toBuffer, write, writeAt, type Doc, type WriteOptions } from '../../lib/pdf/pdf-kit'
 import { PURPOSE_LABELS } from '../../../shared/schemas/luminaire.schema'
 import { REGIME_LABELS } from '../../../shared/schemas/site.schema'
 import { chemistryName, DUE_REASON_LABELS, FORECAST_STATE_LABELS, LUMINAIRE_STATE_LABELS, MODE_LABELS, testKindWords } from '../../../shared/schemas/logbook-labels'
