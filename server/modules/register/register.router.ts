@@ -2,7 +2,7 @@
 import multer from 'multer'
 import { z } from 'zod'
 import { ImportRequestSchema, LuminairePatchSchema, LuminaireSchema, PackReplacementSchema } from '../../../shared/schemas/luminaire.schema'
-import { AreaPatchSchema, AreaSchema, SitePatchSchema, SiteSchema } from '../../../shared/schemas/site.schema'
+import { AreaPatchSchema, AreaSchema, RegisterSettingsPatchSchema, SitePatchSchema, SiteSchema } from '../../../shared/schemas/site.schema'
 import { TestBatchSchema } from '../../../shared/schemas/test-record.schema'
 import { IdParams, Uuid } from '../../lib/parse'
 import { defineRoute, scope, type RouteSpec } from '../../policy/access'
@@ -25,6 +25,19 @@ function csvOf(input: { file?: Express.Multer.File; body?: { csv: string } }): s
 }
 
 export const registerRoutes: RouteSpec[] = [
+  // the workspace's log-book rules
+  defineRoute({
+    method: 'get', path: '/api/register/settings', access: 'viewer', summary: "The workspace's log-book rules (repair window for retests)",
+    handler: (_input, req) => register.registerSettings(scope(req).workspaceId),
+  }),
+  defineRoute({
+    method: 'patch', path: '/api/register/settings', access: 'owner', summary: "Change the workspace's log-book rules",
+    body: RegisterSettingsPatchSchema,
+    handler: ({ body }, req) => {
+      const s = scope(req)
+      return register.updateRegisterSettings(s.workspaceId, s.userId, body)
+    },
+  }),
   // sites
   defineRoute({
     method: 'get', path: '/api/sites', access: 'viewer', summary: 'Sites with their due counts, and tests falling due soon',
