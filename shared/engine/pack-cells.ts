@@ -29,7 +29,8 @@ export interface VoltageCells {
 /** Whole cells of a chemistry nearest to a nominal pack voltage (4.8 V of NiCd → 4; of LiFePO4 → 2, 6.4 V, not exact). */
 export function cellsForVoltage(chemistry: Chemistry, volts: number): VoltageCells {
   const cell = chemistry.nominalCellVoltage.value
-  const cells = Math.max(1, Math.round(volts / cell))
+  // Ties (4.8 V of 3.2 V cells) go to the higher count; either way the voltage is flagged.
+  const cells = Math.max(1, Math.round(volts / cell + 1e-9))
   const nominalVoltageV = cells * cell
   return { cells, nominalVoltageV, exact: sameNominalVoltage(nominalVoltageV, volts) }
 }
