@@ -3,7 +3,7 @@ import type { Request, Response } from 'express'
 import multer from 'multer'
 import { z } from 'zod'
 import { ImportRequestSchema, LuminairePatchSchema, LuminaireSchema, PackReplacementSchema } from '../../../shared/schemas/luminaire.schema'
-import { AreaPatchSchema, AreaSchema, SitePatchSchema, SiteSchema } from '../../../shared/schemas/site.schema'
+import { AreaPatchSchema, AreaSchema, RegisterSettingsPatchSchema, SitePatchSchema, SiteSchema } from '../../../shared/schemas/site.schema'
 import { TestBatchSchema } from '../../../shared/schemas/test-record.schema'
 import { BadRequestError, NotFoundError } from '../../errors/app-error'
 import { idParam, parse } from '../../lib/parse'
@@ -27,6 +27,20 @@ function csvFrom(req: Request): string {
 const DaysQuery = z.object({ days: z.coerce.number().int().min(1).max(366).default(60) })
 
 export const registerRoutes: RouteSpec[] = [
+  // the workspace's log-book rules
+  {
+    method: 'get', path: '/api/register/settings', access: 'viewer', summary: "The workspace's log-book rules (repair window for retests)",
+    handler: async (req, res) => {
+      res.json(await register.registerSettings(scope(req).workspaceId))
+    },
+  },
+  {
+    method: 'patch', path: '/api/register/settings', access: 'owner', body: RegisterSettingsPatchSchema, summary: "Change the workspace's log-book rules",
+    handler: async (req, res) => {
+      const s = scope(req)
+      res.json(await register.updateRegisterSettings(s.workspaceId, s.userId, parse(RegisterSettingsPatchSchema, req.body)))
+    },
+  },
   // sites
   {
     method: 'get', path: '/api/sites', access: 'viewer', summary: 'Sites with their due counts, and tests falling due soon',

@@ -18,7 +18,7 @@ import { auditsForSheet } from '../audits/audits.service'
 import { withWattageAudits } from '../audits/audit-pdf-section'
 import { logsForSheet } from '../discharge/discharge.service'
 import { withDischargeLogs } from '../discharge/discharge-pdf-section'
-import { buildSheetPdf, cautionsSection, SHEET_SECTIONS } from './pdf/sheet-pdf'
+import { buildSheetPdf, cautionsSection, SHEET_SECTIONS } from './sheet-pdf'
 import * as service from './sheets.service'
 
 const Uuid = z.string().uuid()
