@@ -1,6 +1,6 @@
 /**
  * The row solver: for a long row of identical luminaires along a route, the largest spacing
- * and end distance that meet a criterion, and the check of a finite row on a route.
+ * and end distance that meet a criterion (a finite row on a real route is laid out in layout.ts).
  */
 import { intensityAt, type IntensityTable } from '../lm63'
 import type { EvaluationLine, RowCriteria } from './criteria'
@@ -60,7 +60,7 @@ export interface RowStatistics {
   average: number
 }
 
-type PointFn = (line: number, dx: number) => number
+export type PointFn = (line: number, dx: number) => number
 
 const SAMPLES = 32
 const GOLDEN = (Math.sqrt(5) - 1) / 2
@@ -68,7 +68,7 @@ const GOLDEN = (Math.sqrt(5) - 1) / 2
 const NEGLIGIBLE = 1e-4
 const BISECTION_TOLERANCE_M = 0.001
 
-function goldenExtreme(f: (x: number) => number, a: number, b: number, sign: 1 | -1, iterations = 18): number {
+export function goldenExtreme(f: (x: number) => number, a: number, b: number, sign: 1 | -1, iterations = 18): number {
   // Minimises sign·f on [a, b]; returns f at the best point found.
   let x1 = b - GOLDEN * (b - a)
   let x2 = a + GOLDEN * (b - a)
@@ -131,16 +131,46 @@ export class RowSolver {
     this.step = Math.max(h / 64, this.reach / 8192)
     this.cells = Math.ceil(this.reach / this.step)
     this.areas = []
+    this.cumulative = []
     this.grids = this.lines.map((_, j) => {
       const g = new Float64Array(2 * this.cells + 2)
-      let area = 0
-      for (let k = 0; k <= 2 * this.cells; k++) {
-        g[k] = this.direct(j, -this.reach + k * this.step)
-        area += k === 0 || k === 2 * this.cells ? g[k] / 2 : g[k]
-      }
-      this.areas.push(area * this.step)
+      for (let k = 0; k <= 2 * this.cells; k++) g[k] = this.direct(j, -this.reach + k * this.step)
+      // Running trapezoid integral from −reach, so any stretch of one luminaire's light is two look-ups.
+      const c = new Float64Array(2 * this.cells + 2)
+      for (let k = 1; k <= 2 * this.cells + 1; k++) c[k] = c[k - 1] + ((g[k - 1] + g[k]) * this.step) / 2
+      this.cumulative.push(c)
+      this.areas.push(c[2 * this.cells])
       return g
     })
+  }
+
+  get mountingHeight(): number {
+    return this.o.mountingHeight
+  }
+
+  get rowCriteria(): RowCriteria {
+    return this.o.criteria
+  }
+
+  /** Distances along the row at which line j sees a luminaire at one of the table's vertical angles. */
+  kinksOf(j: number): readonly number[] {
+    return this.kinks[j]
+  }
+
+  /** ∫ E dx on line j from dx = a to dx = b (a ≤ b) for one luminaire at the origin (from the table). */
+  integral(j: number, a: number, b: number): number {
+    const c = this.cumulative[j]
+    const at = (dx: number) => {
+      const u = (dx + this.reach) / this.step
+      if (!(u > 0)) return 0
+      if (u >= 2 * this.cells) return c[2 * this.cells]
+      const k = Math.floor(u)
+      const g = this.grids[j]
+      const t = u - k
+      // Exact integral of the linear interpolant over the part cell.
+      return c[k] + this.step * t * (g[k] + (t * (g[k + 1] - g[k])) / 2)
+    }
+    return at(b) - at(a)
   }
 
   /** Lines actually evaluated (a mirrored pair is evaluated once when the light is symmetric about the row). */
@@ -149,6 +179,8 @@ export class RowSolver {
   private readonly kinks: number[][]
   /** ∫ E dx of one luminaire along each line: an endless row at spacing S averages area / S. */
   private readonly areas: number[]
+  /** Running integral of each line's table, for stretches of one luminaire's light. */
+  private readonly cumulative: Float64Array[]
 
   /**
    * A spacing above which the darkest line cannot meet its minimum: half-way between two
@@ -400,70 +432,5 @@ export class RowSolver {
       const x = (k * spacing) / (points - 1)
       return { x, lux: this.rowAt(centre, x, spacing, this.exact) }
     })
-  }
-
-  /**
-   * Checks an actual finite row: n luminaires, end ones `end` from each end of a route of
-   * length L, evenly spaced between. Returns whether every point meets the levels.
-   */
-  finiteRowMeets(routeLength: number, count: number, end: number): boolean {
-    const { lines } = this
-    const { scenarios, maxToMin, endBorder } = this.o.criteria
-    const positions = count === 1 ? [routeLength / 2] : Array.from({ length: count }, (_, k) => end + (k * (routeLength - 2 * end)) / (count - 1))
-    const gap = count > 1 ? (routeLength - 2 * end) / (count - 1) : routeLength
-    const step = Math.min(this.o.mountingHeight / 8, gap / 12, routeLength / 16)
-    const from = endBorder
-    const to = routeLength - endBorder
-    const points = Math.max(2, Math.ceil((to - from) / step) + 1)
-    let max = 0
-    let ratioMin = Infinity
-    const sums = lines.map(() => 0)
-    const mins = lines.map(() => Infinity)
-    for (let p = 0; p < points; p++) {
-      const x = from + ((to - from) * p) / (points - 1)
-      for (let j = 0; j < lines.length; j++) {
-        let e = 0
-        for (const xi of positions) if (Math.abs(x - xi) <= this.reach) e += this.exact(j, x - xi)
-        sums[j] += e
-        mins[j] = Math.min(mins[j], e)
-        if (lines[j].ratio) {
-          max = Math.max(max, e)
-          ratioMin = Math.min(ratioMin, e)
-        }
-      }
-    }
-    if (!(ratioMin > 0) || max / ratioMin > maxToMin) return false
-    const average = lines.reduce((a, l, j) => a + (l.weight * sums[j]) / points, 0)
-    for (const s of scenarios) {
-      for (let j = 0; j < lines.length; j++) if (mins[j] * s.scale < s.minLx * lines[j].minFraction) return false
-      if (s.averageLx !== undefined && average * s.scale < s.averageLx) return false
-    }
-    return true
-  }
-
-  /**
-   * Fewest luminaires for a route of length L that pass the finite-row check, or null.
-   * Starts from the long-row estimate; if that fails, steps up exponentially, then bisects
-   * (more luminaires on the same route never make a point darker).
-   */
-  luminairesFor(routeLength: number, spacing: number, end: number): number | null {
-    const usableEnd = Math.min(end, routeLength / 2)
-    const passes = (n: number) => this.finiteRowMeets(routeLength, n, n === 1 ? routeLength / 2 : usableEnd)
-    const estimate = routeLength <= 2 * usableEnd ? 1 : Math.ceil((routeLength - 2 * usableEnd) / spacing - 1e-9) + 1
-    if (passes(estimate)) return estimate
-    const cap = Math.max(estimate + 1, Math.ceil(routeLength / Math.max(this.o.mountingHeight / 4, 0.05)) + 1)
-    let lo = estimate
-    let hi = estimate + 1
-    while (!passes(hi)) {
-      if (hi >= cap) return null
-      lo = hi
-      hi = Math.min(cap, estimate + 2 * (hi - estimate))
-    }
-    while (hi - lo > 1) {
-      const mid = (lo + hi) >> 1
-      if (passes(mid)) hi = mid
-      else lo = mid
-    }
-    return hi
   }
 }
