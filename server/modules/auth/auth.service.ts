@@ -62,7 +62,7 @@ export async function requestPasswordReset(email: string): Promise<void> {
     [`Hello ${user.name},`, 'Someone asked to reset the password of your Lampwright account. The link below works once, for one hour.', 'If it was not you, ignore this message: your password stays as it is.'],
     { label: 'Choose a new password', url },
   )
-  await sendMail({ to: user.email, subject: 'Reset your Lampwright password', ...body })
+  await sendMail({ to: user.email, subject: 'Reset your Lampwright password', ...body }, { kind: 'account', workspaceId: null })
 }
 
 export async function resetPassword(token: string, password: string): Promise<void> {

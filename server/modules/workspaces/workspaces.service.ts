@@ -103,7 +103,7 @@ export async function invite(workspaceId: string, actorId: string, email: string
     [`${inviter?.name ?? 'A colleague'} invites you to the Lampwright workspace "${ws.name}" as ${role}.`, 'The link works once and expires in seven days. Sign up or sign in to accept.'],
     { label: 'Accept the invitation', url },
   )
-  await sendMail({ to: email, subject: `Join "${ws.name}" on Lampwright`, ...body })
+  await sendMail({ to: email, subject: `Join "${ws.name}" on Lampwright`, ...body }, { kind: 'invitation', workspaceId })
   await recordAudit({ workspaceId, actorId, action: 'member.invited', entityType: 'invitation', entityId: inv.id, data: { email, role } })
   return { id: inv.id, email, role, expiresAt: inv.expiresAt }
 }
