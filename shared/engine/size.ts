@@ -22,6 +22,7 @@ import {
   chemistryServiceLifeYears,
   coldCapacityFactor,
   cutoffCellVoltageAtRate,
+  deepDischargeLimitCellV,
   runtimeH,
 } from './battery-models'
 import { CHEMISTRIES } from './chemistries'
@@ -147,7 +148,12 @@ export interface CellChoice {
 }
 
 const GIVEN_CELLS_REF = REF.commonPractice('Cells in series as given by the user')
-const DIRECT_CELLS_REF = REF.commonPractice('Direct drive: pack voltage at cut-off must reach the LED forward voltage')
+const DIRECT_CELLS_REF = REF.commonPractice('Direct drive: pack voltage at cut-off must reach the LED forward voltage plus the current limiter’s headroom')
+/** Volts a direct-drive current limiter (series resistor or linear regulator) needs above the LED string to hold its current. */
+export const DIRECT_DRIVE_HEADROOM_V = 0.3
+export const DIRECT_DRIVE_HEADROOM_REF = REF.commonPractice(
+  'Linear constant-current limiters need about 0.3–0.5 V across them to regulate; a series resistor needs a share of the supply to set the current',
+)
 const WINDOW_CELLS_REF = REF.commonPractice('Converter drive: the pack must stay inside the converter input window')
 
 /** Fewest cells that keep the load working to the end-of-discharge voltage, or the given count. */
@@ -162,7 +168,7 @@ export function chooseCellsInSeries(
   if (given !== undefined) return { cells: given, rule: 'given' }
   if (driver === 'direct') {
     // Tiny tolerance so 3 × 1.0 V exactly reaching 3.0 V does not ask for a 4th cell.
-    return { cells: Math.max(1, Math.ceil((load.ledVoltage as number) / cutoffCellVoltage - 1e-9)), rule: 'direct' }
+    return { cells: Math.max(1, Math.ceil(((load.ledVoltage as number) + DIRECT_DRIVE_HEADROOM_V) / cutoffCellVoltage - 1e-9)), rule: 'direct' }
   }
   if (window?.min !== undefined) {
     return { cells: Math.max(1, Math.ceil(window.min / cutoffCellVoltage - 1e-9)), rule: 'window-min' }
@@ -188,7 +194,7 @@ export function describeCellChoice(
       return { explanation: 'Cells in series as given.', reference: GIVEN_CELLS_REF }
     case 'direct':
       return {
-        explanation: `Fewest cells whose end-of-discharge voltage (n × ${cutoffCellVoltage} V) still reaches the LED string voltage ${round(load.ledVoltage as number)} V, so the string stays lit to the cut-off.`,
+        explanation: `Fewest cells whose end-of-discharge voltage (n × ${cutoffCellVoltage} V) still reaches the LED string voltage ${round(load.ledVoltage as number)} V plus ${DIRECT_DRIVE_HEADROOM_V} V for the current limiter, so the string stays lit at its current to the cut-off.`,
         reference: DIRECT_CELLS_REF,
       }
     case 'window-min':
@@ -384,12 +390,14 @@ export function sizePack(input: SizeInput, options: SizeOptions = {}): SizeResul
       message: 'Emergency-luminaire batteries are designed for at least 4 years of normal operation (IEC 60598-2-22 Annex A, IEC 61347-2-7).',
     })
   }
-  if (cutoffCell < chemistry.minSafeCellVoltage.value) {
+  // One deep-discharge rule with the makers' rate table where there is one (the same table chose the default cut-off).
+  const safeCell = deepDischargeLimitCellV(chemistry, dischargeCRate)
+  if (cutoffCell < safeCell - 1e-9) {
     warnings.push({
       code: 'deep-discharge',
       severity: 'critical',
       field: 'cutoffCellVoltage',
-      message: `An end-of-discharge voltage of ${cutoffCell} V per cell is below the safe minimum of ${chemistry.minSafeCellVoltage.value} V for ${chemistry.name}: deep discharge damages the cells.`,
+      message: `An end-of-discharge voltage of ${cutoffCell} V per cell is below the safe minimum of ${safeCell} V for ${chemistry.name}${chemistry.cutoffByDischargeRate ? ` at ${round(dischargeCRate, 2)} C` : ''}: deep discharge damages the cells.`,
     })
   }
   if (input.driver === 'direct' && input.load.ledVoltage !== undefined) {
@@ -400,6 +408,13 @@ export function sizePack(input: SizeInput, options: SizeOptions = {}): SizeResul
         severity: choice.rule === 'given' ? 'critical' : 'warning',
         field: 'cellsInSeries',
         message: `At the end-of-discharge voltage the pack gives ${round(packCutoffV)} V, below the LED string's ${round(input.load.ledVoltage)} V: the light fades out before the pack is used up.`,
+      })
+    } else if (packCutoffV - input.load.ledVoltage < DIRECT_DRIVE_HEADROOM_V - 1e-9) {
+      warnings.push({
+        code: 'direct-drive-headroom',
+        severity: 'warning',
+        field: 'cellsInSeries',
+        message: `At the end-of-discharge voltage the pack gives ${round(packCutoffV)} V, only ${round(packCutoffV - input.load.ledVoltage, 2)} V above the LED string's ${round(input.load.ledVoltage)} V; the current limiter needs about ${DIRECT_DRIVE_HEADROOM_V} V, so the LED current (and the light) falls before the cut-off. Add a cell or use a converter.`,
       })
     }
   }
