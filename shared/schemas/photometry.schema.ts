@@ -13,12 +13,7 @@ export const MAX_LM63_BYTES = 512 * 1024
 
 export const CRITERIA_IDS = ['en1838-route', 'en1838-open-area', 'en1838-high-risk', 'nfpa101'] as const
 export const CriteriaSchema = z.enum(CRITERIA_IDS, { errorMap: () => ({ message: `must be one of ${CRITERIA_IDS.join(', ')}` }) })
-export const CRITERIA_LABELS: Record<(typeof CRITERIA_IDS)[number], string> = {
-  'en1838-route': 'EN 1838 escape route',
-  'en1838-open-area': 'EN 1838 open (anti-panic) area',
-  'en1838-high-risk': 'EN 1838 high-risk task area',
-  nfpa101: 'NFPA 101 egress path',
-}
+export { CRITERIA_LABELS } from '../labels'
 
 /** An upload as JSON (the multipart form sends the same two fields). */
 export const PhotometryUploadSchema = z.object({
