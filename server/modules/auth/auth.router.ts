@@ -4,6 +4,7 @@ import { ipKeyGenerator, rateLimit } from 'express-rate-limit'
 import { PostgresHitStore } from '../../lib/rate-limit-store'
 import passport from 'passport'
 import {
+  ChangePasswordSchema,
   ForgotPasswordSchema,
   ResetPasswordSchema,
   SignInSchema,
@@ -14,14 +15,21 @@ import { AppError, UnauthorizedError } from '../../errors/app-error'
 import { defineRoute, type RouteSpec } from '../../policy/access'
 import type { User } from '../users/user.entity'
 import { forgetUser, users } from '../users/users.repository'
-import { requestPasswordReset, resetPassword, signUp } from './auth.service'
+import { changePassword, requestPasswordReset, resetPassword, signUp } from './auth.service'
 import { ensureCsrfToken, meResponse } from './me.service'
 import { CsrfAnswer, MeAnswer } from '../../../shared/schemas/answers/accounts'
 import { MessageSchema } from '../../../shared/schemas/answers/common'
 
 function login(req: Request, user: User): Promise<void> {
   // passport ≥ 0.6 regenerates the session id on login (no fixation).
-  return new Promise((resolve, reject) => req.login(user, (err) => (err ? reject(err) : resolve())))
+  return new Promise((resolve, reject) =>
+    req.login(user, (err) => {
+      if (err) return reject(err)
+      // Compared with the user's "sessions valid after" stamp on every request.
+      req.session.signedInAt = Date.now()
+      resolve()
+    }),
+  )
 }
 
 /**
@@ -113,6 +121,16 @@ export function authRoutes(opts: { signInWindowMs: number }): RouteSpec[] {
       },
     }),
     defineRoute({
+      method: 'post', path: '/api/auth/password', response: MessageSchema, access: 'signed-in', summary: 'Change my password (ends my other sessions)',
+      body: ChangePasswordSchema,
+      handler: async ({ body }, req) => {
+        await changePassword((req.user as User).id, body.currentPassword, body.newPassword, req.sessionID)
+        // This session goes on: it counts as signed in after the change.
+        req.session.signedInAt = Date.now()
+        return { message: 'Your password has been changed. You have been signed out everywhere else.' }
+      },
+    }),
+    defineRoute({
       method: 'get', path: '/api/auth/csrf', response: CsrfAnswer, access: 'public', summary: 'A CSRF token for the X-CSRF-Token header',
       handler: (_input, req) => ({ csrfToken: ensureCsrfToken(req) }),
     }),
@@ -129,7 +147,7 @@ export function authRoutes(opts: { signInWindowMs: number }): RouteSpec[] {
       body: ResetPasswordSchema,
       handler: async ({ body }) => {
         await resetPassword(body.token, body.password)
-        return { message: 'Your password has been changed. Sign in with the new one.' }
+        return { message: 'Your password has been changed. You have been signed out everywhere and your API tokens have been revoked. Sign in with the new one.' }
       },
     }),
   ]
