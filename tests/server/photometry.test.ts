@@ -254,7 +254,7 @@ describe('choosing a type for a route', () => {
     const spacing = computeSpacing(
       spacingInput.parse({ photometry: file.rawText, mountingHeight: 2.5, emergencyOutputFactor: 0.5, maintenanceFactor: 0.8, criteria: 'en1838-route', routeWidth: 2, routeLength: 30 }),
     )
-    const pack = sizePack(sizeInputSchema.parse({ chemistry: 'nicd', cellsInSeries: 4, duration: 10800, driver: 'converter', load: { power: 1.6, mainsPower: 1.2 } }), { explain: false })
+    const pack = sizePack(sizeInputSchema.parse({ chemistry: 'nicd', cellsInSeries: 4, duration: '3 h', driver: 'converter', load: { power: 1.6, mainsPower: 1.2 } }), { explain: false })
     const g = results.find((r) => r.id === good.id)!
     expect(g.meets).toBe(true)
     expect(g.reasons).toEqual([])

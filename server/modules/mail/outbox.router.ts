@@ -3,21 +3,21 @@
  * An owner sees mail sent on behalf of the current workspace and mail addressed to them; account
  * mail is read by the operator in data/mail/ only.
  */
-import type { Request, Response } from 'express'
+import type { Request } from 'express'
 import { config } from '../../config'
 import { NotFoundError } from '../../errors/app-error'
-import { scope, type RouteSpec } from '../../policy/access'
+import { defineRoute, scope, type RouteSpec } from '../../policy/access'
 import type { User } from '../users/user.entity'
 import { readCaughtMail, visibleMail } from './mail-catcher'
 
-async function outbox(req: Request, res: Response) {
+function outbox(req: Request) {
   if (config().mail.smtpUrl) throw new NotFoundError('The outbox (mail goes to a real server)')
   const { workspaceId } = scope(req)
   const email = (req.user as User).email
   const messages = visibleMail(readCaughtMail(config().mail.catcherDir), { email, workspaceId })
-  res.json({ messages: messages.slice(0, 200).map(({ id, receivedAt, to, subject, text }) => ({ id, receivedAt, to, subject, text })) })
+  return { messages: messages.slice(0, 200).map(({ id, receivedAt, to, subject, text }) => ({ id, receivedAt, to, subject, text })) }
 }
 
 export const outboxRoutes: RouteSpec[] = [
-  { method: 'get', path: '/api/outbox', access: 'owner', summary: 'Mail caught by the local SMTP catcher', handler: outbox },
+  defineRoute({ method: 'get', path: '/api/outbox', access: 'owner', summary: 'Mail caught by the local SMTP catcher', handler: (_input, req) => outbox(req) }),
 ]
