@@ -44,6 +44,10 @@ export function sheetInputsFor(raw: Record<string, unknown>, result: ReplaceResu
   if (c.cellFormat) inputs.cellFormat = c.cellFormat
   if (result.dischargeSource === 'load') Object.assign(inputs, { load: raw.load, driver: raw.driver, driverEfficiency: raw.driverEfficiency })
   else inputs.dischargeCurrent = `${sig(c.dischargeCurrentA)} A`
+  if (result.dischargeSource === 'label') {
+    // The current is only the old pack's own (see the description): the sheet judges the pack as the tool did, at 20 °C and without margin.
+    Object.assign(inputs, { ambientMin: '20 °C', designMargin: 0 })
+  }
   const charger = (raw.charger ?? {}) as Record<string, unknown>
   inputs.charger = { type: charger.type, chargeCurrent: charger.chargeCurrent, ...(charger.trickleCurrent !== undefined ? { trickleCurrent: charger.trickleCurrent } : {}) }
   for (const k of Object.keys(inputs)) if (inputs[k] === undefined) delete inputs[k]
@@ -59,7 +63,7 @@ export function packName(c: Pick<ReplaceCandidate, 'chemistry' | 'cellsInSeries'
 export function sheetDescription(result: ReplaceResult): string {
   const old = result.oldPack
   const how = result.dischargeSource === 'label'
-    ? 'The discharge current is assumed from the old label (no load or measurement given).'
+    ? 'No load or measured current was given: the discharge current is what the old pack just gives for the rated duration at end of life, so the new pack is judged against it at 20 °C with no design margin; the cold was not judged. Measure the discharge current to check it.'
     : result.dischargeSource === 'measured' ? 'The discharge current was measured.' : 'The discharge current comes from the LED load.'
   return `Replaces the old pack: ${packName({ ...old, capacityAh: old.capacityAh })}, read from its label. ${how}`
 }
