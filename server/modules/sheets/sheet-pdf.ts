@@ -9,6 +9,7 @@ import type { EngineWarning, Reference, WorkingStep } from '../../../shared/engi
 import { flattenInputs, formatFigure, PACK_INPUT_LABELS, PACK_RESULT_FIGURES, SHEET_CAUTIONS } from '../../../shared/schemas/sheet.schema'
 import type { RevisionView } from './sheets.service'
 import { ensureSpace, footers, heading, newDocument, pair, toBuffer, write, type PdfSection as GenericPdfSection } from '../../lib/pdf/pdf-kit'
+import { chargerCheckSection, inputValueText, packToOrderSection } from './pack-pdf-section'
 
 export interface SheetPdfData extends RevisionView {
   /** Shown at the top right; the workspace that issued the sheet. */
@@ -45,7 +46,7 @@ export const projectSection: PdfSection = (doc, d) => {
 export const inputsSection: PdfSection = (doc, d) => {
   heading(doc, 'Inputs (as entered)')
   for (const { path, value } of flattenInputs(d.inputs)) {
-    pair(doc, PACK_INPUT_LABELS[path] ?? path, path === 'chemistry' ? chemistryName(value) : value)
+    pair(doc, PACK_INPUT_LABELS[path] ?? path, path === 'chemistry' ? chemistryName(value) : inputValueText(path, value))
   }
 }
 
@@ -118,7 +119,7 @@ export const referencesSection: PdfSection = (doc, d) => {
 }
 
 /** The sheet as issued today; later features push their sections onto a copy of this list. */
-export const SHEET_SECTIONS: PdfSection[] = [titleSection, projectSection, inputsSection, resultsSection, warningsSection, workingSection, cautionsSection, referencesSection]
+export const SHEET_SECTIONS: PdfSection[] = [titleSection, projectSection, packToOrderSection, inputsSection, resultsSection, chargerCheckSection, warningsSection, workingSection, cautionsSection, referencesSection]
 
 export async function buildSheetPdf(data: SheetPdfData, sections: PdfSection[] = SHEET_SECTIONS): Promise<Buffer> {
   const doc = newDocument({ title: data.title, subject: `Revision ${data.number}` })
