@@ -96,7 +96,7 @@ export async function runReminders(day: string, opts: ReminderOptions = {}): Pro
           'Before working on a luminaire, isolate the mains; a charged pack can still deliver a high current. Local codes and a competent, licensed person decide what the installation needs.',
         ]
         const subject = `Emergency lighting tests at ${site.name}: ${items.failed.length} failed, ${items.overdue.length} overdue, ${items.soon.length} due soon`
-        await sendMail({ to, subject, ...composeMail(paragraphs, { label: 'Open the site', url: `${config().origin}/sites/${site.id}` }) })
+        await sendMail({ to, subject, ...composeMail(paragraphs, { label: 'Open the site', url: `${config().origin}/sites/${site.id}` }) }, { kind: 'reminder', workspaceId: site.workspaceId })
         return true
       })
       if (claimed) outcome.sent.push({ siteId: site.id, to, luminaires: items.tags.size })

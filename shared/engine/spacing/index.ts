@@ -6,11 +6,13 @@
  *
  * illuminance.ts  point illuminance        criteria.ts   what each criterion asks, where
  * row-solver.ts   long-row spacing, ends   glare.ts      EN 1838 glare limits
- * input.ts        tool input and result    tool.ts       computeSpacing, the tool
+ * layout.ts       a finite route laid out  input.ts      tool input and result
+ * tool.ts         computeSpacing, the tool
  */
 export * from './illuminance'
 export * from './criteria'
 export * from './row-solver'
+export * from './layout'
 export * from './glare'
 export * from './input'
 export * from './tool'

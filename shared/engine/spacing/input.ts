@@ -4,6 +4,7 @@ import { finiteNumber, fraction, quantity } from '../fields'
 import { checkIntensityTable, parseLm63, type IntensityTable } from '../lm63'
 import type { EngineWarning, WorkingStep } from '../types'
 import type { Requirement } from './criteria'
+import type { RouteLayout } from './layout'
 
 const intensityTableInput = z.object({
   verticalAngles: z.array(finiteNumber()).min(1, 'needs at least one vertical angle'),
@@ -82,6 +83,8 @@ export interface SpacingResult {
   profile: Array<{ x: number; lux: number }>
   spacingTable: SpacingTableRow[]
   luminairesNeeded?: number | null
+  /** With a route length: the fewest luminaires evenly spaced along it (null when no even row passes). */
+  layout?: RouteLayout | null
   warnings: EngineWarning[]
   working: WorkingStep[]
 }

@@ -1,10 +1,14 @@
 /**
  * The row solver: for a long row of identical luminaires along a route, the largest spacing
- * and end distance that meet a criterion, and the check of a finite row on a route.
+ * and end distance that meet a criterion (a finite row on a real route is laid out in layout.ts).
  */
 import { intensityAt, type IntensityTable } from '../lm63'
 import type { EvaluationLine, RowCriteria } from './criteria'
 import { DEG, horizontalIlluminance } from './illuminance'
+
+// Held here once: the hottest loops call these millions of times.
+const lookUpIntensity = intensityAt
+const pointIlluminance = horizontalIlluminance
 
 /** Whether the light is the same either side of the vertical plane along the row. */
 function symmetricAboutRow(table: IntensityTable, cPlane: number): boolean {
@@ -60,7 +64,21 @@ export interface RowStatistics {
   average: number
 }
 
-type PointFn = (line: number, dx: number) => number
+export type PointFn = (line: number, dx: number) => number
+
+/** Running sums of a row's distant luminaires for one spacing and line (see RowSolver.tails). */
+interface RowTails {
+  /** Luminaires within K spacings are summed one by one. */
+  nearK: number
+  /** Number of spacings within reach (sums beyond are zero). */
+  count: number
+  nodes: Float64Array
+  weights: Float64Array
+  /** [k·m + i]: Σ_{k' ≥ k} g(u_i + k'·S), towards +x. */
+  ahead: Float64Array
+  /** [k·m + i]: Σ_{k' ≥ k} g(−(u_i + k'·S)), towards −x. */
+  behind: Float64Array
+}
 
 const SAMPLES = 32
 const GOLDEN = (Math.sqrt(5) - 1) / 2
@@ -68,7 +86,7 @@ const GOLDEN = (Math.sqrt(5) - 1) / 2
 const NEGLIGIBLE = 1e-4
 const BISECTION_TOLERANCE_M = 0.001
 
-function goldenExtreme(f: (x: number) => number, a: number, b: number, sign: 1 | -1, iterations = 18): number {
+export function goldenExtreme(f: (x: number) => number, a: number, b: number, sign: 1 | -1, iterations = 18): number {
   // Minimises sign·f on [a, b]; returns f at the best point found.
   let x1 = b - GOLDEN * (b - a)
   let x2 = a + GOLDEN * (b - a)
@@ -131,16 +149,46 @@ export class RowSolver {
     this.step = Math.max(h / 64, this.reach / 8192)
     this.cells = Math.ceil(this.reach / this.step)
     this.areas = []
+    this.cumulative = []
     this.grids = this.lines.map((_, j) => {
       const g = new Float64Array(2 * this.cells + 2)
-      let area = 0
-      for (let k = 0; k <= 2 * this.cells; k++) {
-        g[k] = this.direct(j, -this.reach + k * this.step)
-        area += k === 0 || k === 2 * this.cells ? g[k] / 2 : g[k]
-      }
-      this.areas.push(area * this.step)
+      for (let k = 0; k <= 2 * this.cells; k++) g[k] = this.direct(j, -this.reach + k * this.step)
+      // Running trapezoid integral from −reach, so any stretch of one luminaire's light is two look-ups.
+      const c = new Float64Array(2 * this.cells + 2)
+      for (let k = 1; k <= 2 * this.cells + 1; k++) c[k] = c[k - 1] + ((g[k - 1] + g[k]) * this.step) / 2
+      this.cumulative.push(c)
+      this.areas.push(c[2 * this.cells])
       return g
     })
+  }
+
+  get mountingHeight(): number {
+    return this.o.mountingHeight
+  }
+
+  get rowCriteria(): RowCriteria {
+    return this.o.criteria
+  }
+
+  /** Distances along the row at which line j sees a luminaire at one of the table's vertical angles. */
+  kinksOf(j: number): readonly number[] {
+    return this.kinks[j]
+  }
+
+  /** ∫ E dx on line j from dx = a to dx = b (a ≤ b) for one luminaire at the origin (from the table). */
+  integral(j: number, a: number, b: number): number {
+    const c = this.cumulative[j]
+    const at = (dx: number) => {
+      const u = (dx + this.reach) / this.step
+      if (!(u > 0)) return 0
+      if (u >= 2 * this.cells) return c[2 * this.cells]
+      const k = Math.floor(u)
+      const g = this.grids[j]
+      const t = u - k
+      // Exact integral of the linear interpolant over the part cell.
+      return c[k] + this.step * t * (g[k] + (t * (g[k + 1] - g[k])) / 2)
+    }
+    return at(b) - at(a)
   }
 
   /** Lines actually evaluated (a mirrored pair is evaluated once when the light is symmetric about the row). */
@@ -149,6 +197,8 @@ export class RowSolver {
   private readonly kinks: number[][]
   /** ∫ E dx of one luminaire along each line: an endless row at spacing S averages area / S. */
   private readonly areas: number[]
+  /** Running integral of each line's table, for stretches of one luminaire's light. */
+  private readonly cumulative: Float64Array[]
 
   /**
    * A spacing above which the darkest line cannot meet its minimum: half-way between two
@@ -200,7 +250,7 @@ export class RowSolver {
     const r = Math.hypot(dx, y)
     const gamma = Math.atan2(r, this.o.mountingHeight) * DEG
     const c = this.o.cPlane + (r === 0 ? 0 : Math.atan2(y, dx) * DEG)
-    return this.o.factor * horizontalIlluminance(intensityAt(this.o.table, c, gamma), this.o.mountingHeight, r)
+    return this.o.factor * pointIlluminance(lookUpIntensity(this.o.table, c, gamma), this.o.mountingHeight, r)
   }
 
   /** Interpolated from the precomputed table (fast; for the scan). */
@@ -215,14 +265,92 @@ export class RowSolver {
   /** Exact for nearby luminaires, table for distant ones (their share is small and smooth). */
   exact: PointFn = (j, dx) => (Math.abs(dx) <= this.near ? this.direct(j, dx) : this.tabled(j, dx))
 
-  /** Illuminance at x on line j with luminaires at k·S (all of them, or the two either side in 'pair' mode). */
+  /**
+   * Illuminance at x on line j with luminaires at k·S (all of them, or the two either side in
+   * 'pair' mode). The row repeats every S, so x is taken into [0, S). The nearby luminaires are
+   * summed one by one; the distant ones come from sums made once per spacing (see `tails`).
+   */
   rowAt(j: number, x: number, spacing: number, fn: PointFn): number {
     if (this.mode === 'pair') return fn(j, x) + fn(j, x - spacing)
+    const tails = this.tails(j, spacing)
+    if (!tails) {
+      let total = 0
+      const kMin = Math.ceil((x - this.reach) / spacing)
+      const kMax = Math.floor((x + this.reach) / spacing)
+      for (let k = kMin; k <= kMax; k++) total += fn(j, x - k * spacing)
+      return total
+    }
+    const u = x - Math.floor(x / spacing) * spacing
+    const nearK = tails.nearK
     let total = 0
-    const kMin = Math.ceil((x - this.reach) / spacing)
-    const kMax = Math.floor((x + this.reach) / spacing)
-    for (let k = kMin; k <= kMax; k++) total += fn(j, x - k * spacing)
-    return total
+    for (let k = -nearK; k <= nearK + 1; k++) total += fn(j, u - k * spacing)
+    // Beyond: luminaires at u + k·S (k > K) on one side, at −((S − u) + k·S) (k > K) on the other.
+    return total + this.tailAt(tails, tails.ahead, u, nearK + 1) + this.tailAt(tails, tails.behind, spacing - u, nearK + 1)
+  }
+
+  /** Chebyshev points across one spacing at which the distant luminaires are summed. */
+  private static readonly TAIL_NODES = 7
+  private tailCache = new Map<number, Array<RowTails | null | undefined>>()
+
+  /**
+   * Distant luminaires of a row at spacing S, summed once per spacing and line: at each of a few
+   * points u across one spacing, the sums Σ_{k' ≥ k} g(±(u + k'·S)) for every k (running sums
+   * from the far end), taken from the fast table. Luminaires at least K·S away, K·S being the
+   * larger of 2S and the distance beyond the last vertical angle the table bends at (where
+   * the light is smooth), add a smooth function of u, so a polynomial through the points gives
+   * it anywhere in the spacing (from the fast table, within 0.01 % of the exact look-up).
+   * Null when the row is too short for this to pay.
+   */
+  private tails(j: number, spacing: number): RowTails | null {
+    let perLine = this.tailCache.get(spacing)
+    if (!perLine) {
+      if (this.tailCache.size > 8) this.tailCache.clear()
+      perLine = []
+      this.tailCache.set(spacing, perLine)
+    }
+    const cached = perLine[j]
+    if (cached !== undefined) return cached
+    const kinks = this.kinks[j]
+    const smoothFrom = Math.max(2 * spacing, (kinks.length ? kinks[kinks.length - 1] : 0) + spacing)
+    const nearK = Math.ceil(smoothFrom / spacing)
+    const count = Math.ceil(this.reach / spacing) + 2
+    if (nearK + 2 >= count) {
+      perLine[j] = null
+      return null
+    }
+    const m = RowSolver.TAIL_NODES
+    const nodes = new Float64Array(m)
+    const weights = new Float64Array(m)
+    for (let i = 0; i < m; i++) {
+      nodes[i] = (spacing / 2) * (1 - Math.cos(((2 * i + 1) * Math.PI) / (2 * m)))
+      weights[i] = (i % 2 === 0 ? 1 : -1) * Math.sin(((2 * i + 1) * Math.PI) / (2 * m))
+    }
+    const running = (sign: 1 | -1) => {
+      const sums = new Float64Array((count + 1) * m)
+      for (let i = 0; i < m; i++) {
+        for (let k = count - 1; k >= 0; k--) sums[k * m + i] = sums[(k + 1) * m + i] + this.tabled(j, sign * (nodes[i] + k * spacing))
+      }
+      return sums
+    }
+    const tails: RowTails = { nearK, count, nodes, weights, ahead: running(1), behind: running(-1) }
+    perLine[j] = tails
+    return tails
+  }
+
+  /** Σ_{k' ≥ k} of the distant luminaires at u in [0, S], interpolated between the points (barycentric form). */
+  private tailAt(t: RowTails, sums: Float64Array, u: number, k: number): number {
+    if (k >= t.count) return 0
+    const m = t.nodes.length
+    let num = 0
+    let den = 0
+    for (let i = 0; i < m; i++) {
+      const d = u - t.nodes[i]
+      if (d === 0) return sums[k * m + i]
+      const w = t.weights[i] / d
+      num += w * sums[k * m + i]
+      den += w
+    }
+    return num / den
   }
 
   /** Minimum per line, max and average over one spacing (x from one luminaire to the next). */
@@ -352,9 +480,17 @@ export class RowSolver {
   /** Illuminance at distance x beyond the end luminaire (direction +1 or −1 along the row). */
   endAt(j: number, x: number, spacing: number, direction: 1 | -1, fn: PointFn = this.exact): number {
     if (this.mode === 'pair') return fn(j, direction * x)
+    const tails = this.tails(j, spacing)
     let total = 0
-    for (let k = 0; k * spacing <= this.reach + x; k++) total += fn(j, direction * (x + k * spacing))
-    return total
+    if (!tails) {
+      for (let k = 0; k * spacing <= this.reach + x; k++) total += fn(j, direction * (x + k * spacing))
+      return total
+    }
+    // x = m·S + u: the first K luminaires one by one, the rest from the running sums.
+    const m = Math.floor(x / spacing)
+    const u = x - m * spacing
+    for (let k = 0; k < tails.nearK; k++) total += fn(j, direction * (x + k * spacing))
+    return total + this.tailAt(tails, direction === 1 ? tails.ahead : tails.behind, u, m + tails.nearK)
   }
 
   /**
@@ -400,70 +536,5 @@ export class RowSolver {
       const x = (k * spacing) / (points - 1)
       return { x, lux: this.rowAt(centre, x, spacing, this.exact) }
     })
-  }
-
-  /**
-   * Checks an actual finite row: n luminaires, end ones `end` from each end of a route of
-   * length L, evenly spaced between. Returns whether every point meets the levels.
-   */
-  finiteRowMeets(routeLength: number, count: number, end: number): boolean {
-    const { lines } = this
-    const { scenarios, maxToMin, endBorder } = this.o.criteria
-    const positions = count === 1 ? [routeLength / 2] : Array.from({ length: count }, (_, k) => end + (k * (routeLength - 2 * end)) / (count - 1))
-    const gap = count > 1 ? (routeLength - 2 * end) / (count - 1) : routeLength
-    const step = Math.min(this.o.mountingHeight / 8, gap / 12, routeLength / 16)
-    const from = endBorder
-    const to = routeLength - endBorder
-    const points = Math.max(2, Math.ceil((to - from) / step) + 1)
-    let max = 0
-    let ratioMin = Infinity
-    const sums = lines.map(() => 0)
-    const mins = lines.map(() => Infinity)
-    for (let p = 0; p < points; p++) {
-      const x = from + ((to - from) * p) / (points - 1)
-      for (let j = 0; j < lines.length; j++) {
-        let e = 0
-        for (const xi of positions) if (Math.abs(x - xi) <= this.reach) e += this.exact(j, x - xi)
-        sums[j] += e
-        mins[j] = Math.min(mins[j], e)
-        if (lines[j].ratio) {
-          max = Math.max(max, e)
-          ratioMin = Math.min(ratioMin, e)
-        }
-      }
-    }
-    if (!(ratioMin > 0) || max / ratioMin > maxToMin) return false
-    const average = lines.reduce((a, l, j) => a + (l.weight * sums[j]) / points, 0)
-    for (const s of scenarios) {
-      for (let j = 0; j < lines.length; j++) if (mins[j] * s.scale < s.minLx * lines[j].minFraction) return false
-      if (s.averageLx !== undefined && average * s.scale < s.averageLx) return false
-    }
-    return true
-  }
-
-  /**
-   * Fewest luminaires for a route of length L that pass the finite-row check, or null.
-   * Starts from the long-row estimate; if that fails, steps up exponentially, then bisects
-   * (more luminaires on the same route never make a point darker).
-   */
-  luminairesFor(routeLength: number, spacing: number, end: number): number | null {
-    const usableEnd = Math.min(end, routeLength / 2)
-    const passes = (n: number) => this.finiteRowMeets(routeLength, n, n === 1 ? routeLength / 2 : usableEnd)
-    const estimate = routeLength <= 2 * usableEnd ? 1 : Math.ceil((routeLength - 2 * usableEnd) / spacing - 1e-9) + 1
-    if (passes(estimate)) return estimate
-    const cap = Math.max(estimate + 1, Math.ceil(routeLength / Math.max(this.o.mountingHeight / 4, 0.05)) + 1)
-    let lo = estimate
-    let hi = estimate + 1
-    while (!passes(hi)) {
-      if (hi >= cap) return null
-      lo = hi
-      hi = Math.min(cap, estimate + 2 * (hi - estimate))
-    }
-    while (hi - lo > 1) {
-      const mid = (lo + hi) >> 1
-      if (passes(mid)) hi = mid
-      else lo = mid
-    }
-    return hi
   }
 }

@@ -9,6 +9,7 @@ import { sortWarnings, type EngineWarning, type Reference, type WorkingStep } fr
 import { requirementFor, rowCriteria, type RowCriteria } from './criteria'
 import { glareLimitCd, peakIntensityBetween } from './glare'
 import { spacingInput, type SpacingInput, type SpacingResult, type SpacingTableRow } from './input'
+import { layRoute, type RouteLayout } from './layout'
 import { RowSolver, type RowStatistics } from './row-solver'
 
 const POINT_METHOD: Reference = {
@@ -25,6 +26,8 @@ interface HeightSolution {
   spacing: number | null
   end: number | null
   stats: RowStatistics | null
+  /** Undefined without a route length; null when no even row passes. */
+  layout?: RouteLayout | null
   count?: number | null
 }
 
@@ -37,16 +40,31 @@ function solveHeight(input: SpacingInput, table: IntensityTable, criteria: RowCr
     criteria,
   })
   const spacing = solver.maxSpacing()
-  if (spacing === null) return { solver, spacing: null, end: null, stats: null, count: input.routeLength === undefined ? undefined : null }
+  if (spacing === null) return { solver, spacing: null, end: null, stats: null, ...(input.routeLength === undefined ? {} : { layout: null, count: null }) }
   const stats = solver.statistics(spacing)
   const end = solver.endDistance(spacing, stats.max)
-  const count = input.routeLength === undefined ? undefined : solver.luminairesFor(input.routeLength, spacing, end)
-  return { solver, spacing, end, stats, count }
+  if (input.routeLength === undefined) return { solver, spacing, end, stats }
+  const layout = layRoute(solver, input.routeLength, spacing, input.criteria === 'nfpa101' ? input.endOfDurationFactor : undefined)
+  return { solver, spacing, end, stats, layout, count: layout?.count ?? null }
 }
 
 const round = (v: number, digits = 4) => Number(v.toFixed(digits))
 /** Distances are rounded down, so the figure shown never exceeds the one found. */
 const roundDown = (v: number) => Math.floor(v * 1e4 + 1e-9) / 1e4
+
+function roundLayout(l: RouteLayout): RouteLayout {
+  const out: RouteLayout = {
+    count: l.count,
+    positionsM: l.positionsM.map((p) => round(p)),
+    spacingM: l.spacingM === null ? null : round(l.spacingM),
+    endDistanceM: round(l.endDistanceM),
+    averageLx: round(l.averageLx, 6),
+    minLx: round(l.minLx, 6),
+    maxToMin: l.maxToMin === null ? null : round(l.maxToMin),
+  }
+  if (l.endOfDuration) out.endOfDuration = { factor: l.endOfDuration.factor, averageLx: round(l.endOfDuration.averageLx, 6), minLx: round(l.endOfDuration.minLx, 6) }
+  return out
+}
 
 export function computeSpacing(input: SpacingInput): SpacingResult {
   const { table, absolute } = input.photometry
@@ -130,7 +148,7 @@ export function computeSpacing(input: SpacingInput): SpacingResult {
       code: 'count-not-found',
       severity: 'warning',
       field: 'routeLength',
-      message: 'No even row of luminaires passed the check over the whole route length; lay the route out point by point.',
+      message: 'No even row of luminaires, at any end distance tried, passed the check over the whole route length; lay the route out point by point.',
     })
   }
   warnings.push({
@@ -212,18 +230,33 @@ export function computeSpacing(input: SpacingInput): SpacingResult {
         references: [POINT_METHOD],
       },
     )
-    if (input.routeLength !== undefined && main.count) {
+    if (input.routeLength !== undefined && main.layout) {
+      const l = main.layout
       working.push({
         id: 'luminairesNeeded',
         label: 'Luminaires for the route',
-        formula: 'n = ⌈(L − 2d) / S⌉ + 1, then checked point by point over the finite row',
-        explanation: 'A finite row lacks the light from beyond its ends, so the count is checked over the whole route and raised until every point passes.',
+        formula: 'n = fewest with every point of the route passing; positions d + k·(L − 2d)/(n − 1), d chosen with n',
+        explanation:
+          'A finite row lacks the light from beyond its ends, so it is checked point by point over the whole route, both ends included, with only its own luminaires. The count starts at ⌈L/S⌉ and is lowered while one fewer still passes, or raised until one passes; for each count the end distance d is L/(2n) (each luminaire in the middle of an equal share of the route) when that passes, else the passing end distance nearest to it.',
         inputs: [
           { symbol: 'L', label: 'route length', value: input.routeLength, unit: 'm' },
-          { symbol: 'S', label: 'largest spacing', value: round(main.spacing), unit: 'm' },
-          { symbol: 'd', label: 'end distance', value: round(main.end ?? 0), unit: 'm' },
+          { symbol: 'S', label: 'largest spacing in a long row', value: round(main.spacing), unit: 'm' },
         ],
-        result: { symbol: 'n', label: 'luminaires', value: main.count, unit: '' },
+        result: { symbol: 'n', label: 'luminaires', value: l.count, unit: '' },
+        references: [POINT_METHOD],
+      })
+      working.push({
+        id: 'layout',
+        label: 'The route as laid out',
+        formula: input.criteria === 'nfpa101' ? 'E_avg, E_min over the route; at the end of the duration × f_end' : 'E_min, E_max/E_min over the route',
+        explanation: `Spacing ${round(l.spacingM ?? 0, 3)} m, ${round(l.endDistanceM, 3)} m from each end; figures from the finite row over the whole route.`,
+        inputs: [
+          { symbol: 's', label: 'spacing', value: round(l.spacingM ?? 0), unit: 'm' },
+          { symbol: 'd', label: 'end distance', value: round(l.endDistanceM), unit: 'm' },
+          { symbol: 'E_min', label: 'minimum over the route', value: round(l.minLx, 6), unit: 'lx' },
+          ...(l.endOfDuration ? [{ symbol: 'E_avg,end', label: 'average at the end of the rated duration', value: round(l.endOfDuration.averageLx, 6), unit: 'lx' }] : []),
+        ],
+        result: { symbol: 'E_avg', label: 'average over the route', value: round(l.averageLx, 6), unit: 'lx' },
         references: [POINT_METHOD],
       })
     }
@@ -242,7 +275,10 @@ export function computeSpacing(input: SpacingInput): SpacingResult {
     warnings: sortWarnings(warnings),
     working,
   }
-  if (input.routeLength !== undefined) result.luminairesNeeded = main.count ?? null
+  if (input.routeLength !== undefined) {
+    result.luminairesNeeded = main.count ?? null
+    result.layout = main.layout ? roundLayout(main.layout) : null
+  }
   return result
 }
 
