@@ -4,6 +4,7 @@ import { ipKeyGenerator, rateLimit } from 'express-rate-limit'
 import { PostgresHitStore } from '../../lib/rate-limit-store'
 import passport from 'passport'
 import {
+  ChangePasswordSchema,
   ForgotPasswordSchema,
   ResetPasswordSchema,
   SignInSchema,
@@ -14,12 +15,21 @@ import { AppError, UnauthorizedError } from '../../errors/app-error'
 import { defineRoute, type RouteSpec } from '../../policy/access'
 import type { User } from '../users/user.entity'
 import { forgetUser, users } from '../users/users.repository'
-import { requestPasswordReset, resetPassword, signUp } from './auth.service'
+import { changePassword, requestPasswordReset, resetPassword, signUp } from './auth.service'
 import { ensureCsrfToken, meResponse } from './me.service'
+import { CsrfAnswer, MeAnswer } from '../../../shared/schemas/answers/accounts'
+import { MessageSchema } from '../../../shared/schemas/answers/common'
 
 function login(req: Request, user: User): Promise<void> {
   // passport ≥ 0.6 regenerates the session id on login (no fixation).
-  return new Promise((resolve, reject) => req.login(user, (err) => (err ? reject(err) : resolve())))
+  return new Promise((resolve, reject) =>
+    req.login(user, (err) => {
+      if (err) return reject(err)
+      // Compared with the user's "sessions valid after" stamp on every request.
+      req.session.signedInAt = Date.now()
+      resolve()
+    }),
+  )
 }
 
 /**
@@ -53,7 +63,7 @@ export function signInLimiter(windowMs: number): RequestHandler {
 export function authRoutes(opts: { signInWindowMs: number }): RouteSpec[] {
   return [
     defineRoute({
-      method: 'post', path: '/api/auth/sign-up', access: 'public', summary: 'Create an account (and a workspace, or accept an invitation)',
+      method: 'post', path: '/api/auth/sign-up', response: MeAnswer, access: 'public', summary: 'Create an account (and a workspace, or accept an invitation)',
       body: SignUpSchema, status: 201,
       handler: async ({ body }, req) => {
         const user = await signUp(body)
@@ -62,7 +72,7 @@ export function authRoutes(opts: { signInWindowMs: number }): RouteSpec[] {
       },
     }),
     defineRoute({
-      method: 'post', path: '/api/auth/sign-in', access: 'public', summary: 'Sign in with e-mail and password',
+      method: 'post', path: '/api/auth/sign-in', response: MeAnswer, access: 'public', summary: 'Sign in with e-mail and password',
       // The limiter counts failed attempts, including bodies that fail the schema.
       before: [signInLimiter(opts.signInWindowMs)], body: SignInSchema,
       handler: (_input, req, res, next) => {
@@ -93,14 +103,14 @@ export function authRoutes(opts: { signInWindowMs: number }): RouteSpec[] {
       },
     }),
     defineRoute({
-      method: 'get', path: '/api/auth/me', access: 'signed-in', summary: 'The user, the current workspace and role',
+      method: 'get', path: '/api/auth/me', response: MeAnswer, access: 'signed-in', summary: 'The user, the current workspace and role',
       handler: (_input, req) => {
         if (!req.user && !req.ctx?.viaToken) throw new UnauthorizedError()
         return meResponse(req)
       },
     }),
     defineRoute({
-      method: 'patch', path: '/api/auth/me', access: 'signed-in', summary: 'Change name or unit preference',
+      method: 'patch', path: '/api/auth/me', response: MeAnswer, access: 'signed-in', summary: 'Change name or unit preference',
       body: UpdateProfileSchema,
       handler: async ({ body }, req) => {
         const user = req.user as User
@@ -111,11 +121,21 @@ export function authRoutes(opts: { signInWindowMs: number }): RouteSpec[] {
       },
     }),
     defineRoute({
-      method: 'get', path: '/api/auth/csrf', access: 'public', summary: 'A CSRF token for the X-CSRF-Token header',
+      method: 'post', path: '/api/auth/password', response: MessageSchema, access: 'signed-in', summary: 'Change my password (ends my other sessions)',
+      body: ChangePasswordSchema,
+      handler: async ({ body }, req) => {
+        await changePassword((req.user as User).id, body.currentPassword, body.newPassword, req.sessionID)
+        // This session goes on: it counts as signed in after the change.
+        req.session.signedInAt = Date.now()
+        return { message: 'Your password has been changed. You have been signed out everywhere else.' }
+      },
+    }),
+    defineRoute({
+      method: 'get', path: '/api/auth/csrf', response: CsrfAnswer, access: 'public', summary: 'A CSRF token for the X-CSRF-Token header',
       handler: (_input, req) => ({ csrfToken: ensureCsrfToken(req) }),
     }),
     defineRoute({
-      method: 'post', path: '/api/auth/forgot-password', access: 'public', summary: 'E-mail a single-use password reset link',
+      method: 'post', path: '/api/auth/forgot-password', response: MessageSchema, access: 'public', summary: 'E-mail a single-use password reset link',
       body: ForgotPasswordSchema, status: 202,
       handler: async ({ body }) => {
         await requestPasswordReset(body.email)
@@ -123,11 +143,11 @@ export function authRoutes(opts: { signInWindowMs: number }): RouteSpec[] {
       },
     }),
     defineRoute({
-      method: 'post', path: '/api/auth/reset-password', access: 'public', summary: 'Set a new password with a reset token',
+      method: 'post', path: '/api/auth/reset-password', response: MessageSchema, access: 'public', summary: 'Set a new password with a reset token',
       body: ResetPasswordSchema,
       handler: async ({ body }) => {
         await resetPassword(body.token, body.password)
-        return { message: 'Your password has been changed. Sign in with the new one.' }
+        return { message: 'Your password has been changed. You have been signed out everywhere and your API tokens have been revoked. Sign in with the new one.' }
       },
     }),
   ]
