@@ -101,13 +101,21 @@ export const cautionsSection: PdfSection = (doc) => {
   }
 }
 
-export const referencesSection: PdfSection = (doc, d) => {
-  const steps = (d.results.working ?? []) as WorkingStep[]
+/**
+ * The references of a sheet's working, each once per source and basis: one source cited both as
+ * published and from memory is listed twice, so a from-memory value never appears without its mark.
+ */
+export function issuedReferences(steps: WorkingStep[]): Reference[] {
   const seen = new Map<string, Reference>()
-  for (const s of steps) for (const r of s.references) seen.set(r.source, seen.get(r.source) ?? r)
+  for (const s of steps) for (const r of s.references) if (!seen.has(`${r.source}|${r.basis}`)) seen.set(`${r.source}|${r.basis}`, r)
+  return [...seen.values()]
+}
+
+export const referencesSection: PdfSection = (doc, d) => {
+  const refs = issuedReferences((d.results.working ?? []) as WorkingStep[])
   heading(doc, 'References')
-  if (!seen.size) write(doc, 'None recorded.')
-  for (const r of seen.values()) write(doc, `• ${r.source} — ${r.basis}`, { size: 9 })
+  if (!refs.length) write(doc, 'None recorded.')
+  for (const r of refs) write(doc, `• ${r.source} — ${r.basis}`, { size: 9 })
 }
 
 /** The sheet as issued today; later features push their sections onto a copy of this list. */
