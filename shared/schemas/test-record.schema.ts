@@ -76,3 +76,12 @@ export type TestRecordData = z.output<typeof TestRecordSchema>
 export const TestBatchSchema = z.object({
   records: z.array(TestRecordSchema, { required_error: 'is required' }).min(1, 'give at least one record').max(500, 'at most 500 records at once'),
 })
+
+/** The end of a round: signed off by name and date; its records carry the same round id. */
+export const RoundSignOffSchema = z.object({
+  clientId: z.string({ required_error: 'is required' }).uuid('must be a UUID made by the client'),
+  signedOffByName: z.string({ required_error: 'is required' }).trim().min(1, 'is required: the name of the person signing off').max(120, 'must be at most 120 characters'),
+  signedOffOn: IsoDateSchema,
+  notes: z.string().trim().max(2000, 'must be at most 2000 characters').default(''),
+})
+export type RoundSignOff = z.output<typeof RoundSignOffSchema>
