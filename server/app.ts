@@ -12,6 +12,7 @@ import { requestLog } from './middleware/request-log'
 import { authorize, type RouteSpec } from './policy/access'
 import { configurePassport } from './modules/auth/passport'
 import { buildRouteTable } from './routes'
+import { referenceCheck } from './lib/references'
 import { createSessionMiddleware } from './lib/session'
 
 export interface AppOptions {
@@ -89,7 +90,9 @@ export function createApp(opts: AppOptions = {}): BuiltApp {
       app.use(prefix, group)
     }
     const handlers = Array.isArray(route.handler) ? route.handler : [route.handler]
-    group[route.method](route.path.slice(prefix.length) || '/', authorize(route.access), ...handlers)
+    // Ids in the body must name records of the caller's workspace (404 naming the field otherwise).
+    const references = referenceCheck(route.body)
+    group[route.method](route.path.slice(prefix.length) || '/', authorize(route.access), ...(references ? [references] : []), ...handlers)
   }
   app.use('/api', notFoundApi)
 

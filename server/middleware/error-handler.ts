@@ -56,6 +56,18 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
     return
   }
   const pgCode = (err as { driverError?: { code?: string } })?.driverError?.code
+  if (pgCode === '23503') {
+    // Ids are checked before a handler runs; this is the race where the record went in between.
+    const detail = String((err as { driverError?: { detail?: string } }).driverError?.detail ?? '')
+    if (/still referenced/.test(detail)) {
+      res.status(409).json({ error: 'Other records still refer to this one; remove or change them first.', code: 'conflict' })
+      return
+    }
+    const column = /^Key \(([a-z_]+)\)=/.exec(detail)?.[1]
+    const field = column?.replace(/_([a-z])/g, (_m, c: string) => c.toUpperCase())
+    res.status(404).json({ error: 'A record this refers to was not found in this workspace.', code: 'not_found', ...(field ? { fields: [{ path: field, message: 'was not found in this workspace' }] } : {}) })
+    return
+  }
   if (pgCode === '22P02' || pgCode === '22003' || pgCode === '22021') {
     res.status(400).json({ error: 'A value in the request is not valid for its field.', code: 'bad_request' })
     return

@@ -4,12 +4,14 @@
  * log is attached, and the list query. Used by the server routes and the client's mapping form.
  */
 import { z } from 'zod'
+import { referenceId, type ReferenceKind } from './reference'
 import { dischargeInput } from '../engine/discharge'
 
 export { CURRENT_UNITS, perCellVolts, TIME_UNITS, VOLTAGE_UNITS } from '../engine/discharge-log'
 
 const text = (max: number) => z.string({ invalid_type_error: 'must be text' }).trim().max(max, `must be at most ${max} characters`)
 const id = (what: string) => z.string({ invalid_type_error: `must be the id of ${what}` }).uuid(`must be the id of ${what}`)
+const ref = (kind: ReferenceKind, what: string) => referenceId(kind, `must be the id of ${what}`, { invalidType: `must be the id of ${what}` })
 
 /** Largest log file accepted, bytes. A million rows of time, voltage and current is about 25 MB. */
 export const MAX_LOG_BYTES = 50 * 1024 * 1024
@@ -96,7 +98,7 @@ export function engineOptions(raw: DischargeOptionsInput) {
 export const DischargeAnalyseSchema = z
   .object({
     uploadId: id('an upload').optional(),
-    fileId: id('a stored log file').optional(),
+    fileId: ref('dischargeFile', 'a stored log file').optional(),
     title: text(200).default(''),
     notes: text(2000).default(''),
     mapping: ColumnMappingSchema,
@@ -105,8 +107,8 @@ export const DischargeAnalyseSchema = z
     acceptBadRows: z.boolean({ invalid_type_error: 'must be true or false' }).default(false),
     /** Analyse and answer, store nothing. */
     dryRun: z.boolean({ invalid_type_error: 'must be true or false' }).default(false),
-    specSheetId: id('a specification sheet').nullable().optional(),
-    testRecordId: id('a test record').nullable().optional(),
+    specSheetId: ref('specSheet', 'a specification sheet').nullable().optional(),
+    testRecordId: ref('testRecord', 'a test record').nullable().optional(),
   })
   .superRefine((v, ctx) => {
     if (!v.uploadId === !v.fileId) ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['uploadId'], message: 'give either uploadId (a new upload) or fileId (a stored file)' })

@@ -35,8 +35,8 @@ async function remove(req: Request, res: Response) {
 // (it may back an issued sheet) is left to designers, like the other records a sheet rests on.
 export const auditRoutes: RouteSpec[] = [
   { method: 'get', path: '/api/audits', access: 'viewer', summary: 'Wattage audits (newest first; by sheet, luminaire or a list of ids)', handler: list },
-  { method: 'post', path: '/api/audits', access: 'technician', summary: 'Save a wattage audit (the engine computes its results)', handler: create },
+  { method: 'post', path: '/api/audits', access: 'technician', summary: 'Save a wattage audit (the engine computes its results)', body: AuditCreateSchema, handler: create },
   { method: 'get', path: '/api/audits/:id', access: 'viewer', summary: 'One wattage audit with its working', handler: read },
   { method: 'delete', path: '/api/audits/:id', access: 'designer', summary: 'Delete a wattage audit (its readings stay in the audit trail)', handler: remove },
-  { method: 'post', path: '/api/audits/:id/attach', access: 'technician', summary: 'Attach a wattage audit to a sheet or a luminaire (null detaches)', handler: attach },
+  { method: 'post', path: '/api/audits/:id/attach', access: 'technician', summary: 'Attach a wattage audit to a sheet or a luminaire (null detaches)', body: AuditAttachSchema, handler: attach },
 ]

@@ -195,19 +195,14 @@ async function sampleOf(file: string): Promise<Buffer> {
 // ---------------------------------------------------------------------------------------------
 // Links and views
 
-/** Sheet and test-record links must point inside the workspace; a foreign id reads like a missing one. */
-async function checkLinks(m: EntityManager, workspaceId: string, v: { specSheetId?: string | null; testRecordId?: string | null }) {
-  const fields: Array<{ path: string; message: string }> = []
-  if (v.specSheetId) {
-    const rows: unknown[] = await m.query('SELECT 1 FROM spec_sheets WHERE id = $1 AND workspace_id = $2', [v.specSheetId, workspaceId])
-    if (!rows.length) fields.push({ path: 'specSheetId', message: 'is not a specification sheet of this workspace' })
+/** A log backs a full-duration test only (that the ids are of this workspace is checked before the handler, server/lib/references.ts). */
+async function checkLinks(m: EntityManager, workspaceId: string, v: { testRecordId?: string | null }) {
+  if (!v.testRecordId) return
+  const rows: Array<{ kind: string }> = await m.query('SELECT kind FROM test_records WHERE id = $1 AND workspace_id = $2', [v.testRecordId, workspaceId])
+  if (!rows.length) throw new NotFoundError('That test record')
+  if (rows[0].kind !== 'duration') {
+    throw new BadRequestError('A log can only be attached to a full-duration test.', [{ path: 'testRecordId', message: 'is a functional test; attach a discharge log to a full-duration test' }])
   }
-  if (v.testRecordId) {
-    const rows: Array<{ kind: string }> = await m.query('SELECT kind FROM test_records WHERE id = $1 AND workspace_id = $2', [v.testRecordId, workspaceId])
-    if (!rows.length) fields.push({ path: 'testRecordId', message: 'is not a test record of this workspace' })
-    else if (rows[0].kind !== 'duration') fields.push({ path: 'testRecordId', message: 'is a functional test; attach a discharge log to a full-duration test' })
-  }
-  if (fields.length) throw new BadRequestError('A log can only be attached to a sheet or a full-duration test of this workspace.', fields)
 }
 
 interface Links {

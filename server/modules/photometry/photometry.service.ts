@@ -171,13 +171,6 @@ async function findType(workspaceId: string, id: string, m?: EntityManager): Pro
   return t
 }
 
-/** A type may only name a photometric file of its own workspace; another's reads like a missing one. */
-async function checkFile(m: EntityManager, workspaceId: string, fileId: string | null | undefined) {
-  if (!fileId) return
-  const found = await files(m).exists({ where: { id: fileId, workspaceId } })
-  if (!found) throw new BadRequestError('The photometric file was not found in this workspace.', [{ path: 'photometricFileId', message: 'is not a photometric file of this workspace' }])
-}
-
 function applyType(t: LuminaireType, v: Partial<LuminaireTypeInput>) {
   if (v.name !== undefined) t.name = v.name
   if (v.photometricFileId !== undefined) t.photometricFileId = v.photometricFileId
@@ -208,7 +201,6 @@ export async function getType(workspaceId: string, id: string) {
 export async function createType(workspaceId: string, userId: string, input: LuminaireTypeInput) {
   try {
     return await dataSource.transaction(async (m) => {
-      await checkFile(m, workspaceId, input.photometricFileId)
       const t = types(m).create({ workspaceId, createdBy: userId })
       applyType(t, input)
       await types(m).save(t)
@@ -225,7 +217,6 @@ export async function updateType(workspaceId: string, userId: string, id: string
   try {
     return await dataSource.transaction(async (m) => {
       const t = await findType(workspaceId, id, m)
-      await checkFile(m, workspaceId, patch.photometricFileId)
       applyType(t, patch)
       await types(m).save(t)
       await recordAudit({ workspaceId, actorId: userId, action: 'luminaire-type.changed', entityType: 'luminaire_type', entityId: t.id, data: { fields: Object.keys(patch) } }, m)

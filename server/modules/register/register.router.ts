@@ -88,7 +88,7 @@ export const registerRoutes: RouteSpec[] = [
   },
   // luminaires
   {
-    method: 'post', path: '/api/sites/:id/luminaires', access: 'designer', summary: 'Add a luminaire to a site',
+    method: 'post', path: '/api/sites/:id/luminaires', access: 'designer', summary: 'Add a luminaire to a site', body: LuminaireSchema,
     handler: async (req, res) => {
       const s = scope(req)
       res.status(201).json(await register.createLuminaire(s.workspaceId, s.userId, idParam(req), parse(LuminaireSchema, req.body)))
@@ -101,7 +101,7 @@ export const registerRoutes: RouteSpec[] = [
     },
   },
   {
-    method: 'patch', path: '/api/luminaires/:id', access: 'designer', summary: 'Change a luminaire',
+    method: 'patch', path: '/api/luminaires/:id', access: 'designer', summary: 'Change a luminaire', body: LuminairePatchSchema,
     handler: async (req, res) => {
       const s = scope(req)
       res.json(await register.updateLuminaire(s.workspaceId, s.userId, idParam(req), parse(LuminairePatchSchema, req.body)))
@@ -130,7 +130,7 @@ export const registerRoutes: RouteSpec[] = [
   },
   // tests
   {
-    method: 'post', path: '/api/tests', access: 'technician', summary: 'Record tests (one or a round); retries with the same clientId never duplicate',
+    method: 'post', path: '/api/tests', access: 'technician', summary: 'Record tests (one or a round); retries with the same clientId never duplicate', body: TestBatchSchema,
     handler: async (req, res) => {
       const s = scope(req)
       const { records } = parse(TestBatchSchema, req.body)
