@@ -32,6 +32,10 @@ const EnvSchema = z.object({
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).optional(),
   /** Run background jobs (reminders) in this process: 1 or 0. */
   JOBS: z.coerce.number().int().min(0).max(1).default(1),
+  /** Room per workspace for stored files (discharge logs, photometric files) and uploads waiting to be saved, MB; a workspace row may set its own. */
+  STORAGE_QUOTA_MB: z.coerce.number().min(1).default(1024),
+  /** Room for uploads waiting to be saved across all workspaces (on disk in DATA_DIR/discharge-uploads), MB. */
+  STAGED_UPLOADS_TOTAL_MB: z.coerce.number().min(1).default(4096),
 })
 
 export type Env = z.infer<typeof EnvSchema>
@@ -74,6 +78,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env) {
     mail: { smtpUrl: e.SMTP_URL, catcherPort: e.SMTP_CATCHER_PORT, catcherDir: path.join(dataDir, 'mail'), from: 'Lampwright <no-reply@lampwright.invalid>' },
     logLevel: e.LOG_LEVEL ?? (e.NODE_ENV === 'test' ? 'silent' : 'info'),
     jobs: e.JOBS === 1,
+    storage: { quotaBytes: Math.round(e.STORAGE_QUOTA_MB * 1024 * 1024), stagedTotalBytes: Math.round(e.STAGED_UPLOADS_TOTAL_MB * 1024 * 1024), stagedForMs: 3600 * 1000 },
     version: APP_VERSION,
   }
 }

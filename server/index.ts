@@ -5,6 +5,7 @@ import { dataSource } from './data-source'
 import { logger } from './lib/logger'
 import { startMailCatcher, type MailCatcher } from './modules/mail/mail-catcher'
 import { useCatcherPort } from './modules/mail/mail.service'
+import { sweepStagedUploads } from './modules/discharge/discharge.service'
 import { startReminderJobs, type JobRunner } from './modules/register/reminder-jobs'
 import { DEMO_PASSWORD, DEMO_USERS } from './scripts/demo-users'
 
@@ -38,6 +39,9 @@ if (!cfg.mail.smtpUrl) {
 }
 // Background jobs (daily test reminders) only where JOBS=1; any number of processes may run them.
 const jobs: JobRunner | null = cfg.jobs ? await startReminderJobs() : null
+// Uploads nobody saved within the hour are removed even when no one uploads anything new.
+const sweep = setInterval(() => void sweepStagedUploads().catch((err) => logger.warn({ err }, 'staged upload sweep failed')), 10 * 60 * 1000)
+sweep.unref()
 const { app, close } = createApp()
 const server = app.listen(cfg.port, cfg.host, () => {
   const lines = [

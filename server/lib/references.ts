@@ -12,7 +12,7 @@ import { dataSource } from '../data-source'
 import { AppError } from '../errors/app-error'
 
 /** Where each kind lives and what people call it; every one of these tables has workspace_id. */
-export const REFERENCE_TABLES: Record<ReferenceKind, { table: string; what: string }> = {
+export const REFERENCE_TABLES: Record<ReferenceKind, { table: string; what: string; hint?: string }> = {
   site: { table: 'sites', what: 'site' },
   area: { table: 'areas', what: 'area' },
   luminaire: { table: 'luminaires', what: 'luminaire' },
@@ -22,7 +22,7 @@ export const REFERENCE_TABLES: Record<ReferenceKind, { table: string; what: stri
   photometricFile: { table: 'photometric_files', what: 'photometric file' },
   dischargeLog: { table: 'discharge_logs', what: 'discharge log' },
   dischargeFile: { table: 'discharge_files', what: 'stored log file' },
-  stagedUpload: { table: 'staged_uploads', what: 'upload' },
+  stagedUpload: { table: 'staged_uploads', what: 'upload', hint: 'uploads wait an hour to be saved; upload the file again' },
   wattageAudit: { table: 'wattage_audits', what: 'wattage audit' },
 }
 
@@ -33,12 +33,14 @@ const STILL_VALID: Partial<Record<ReferenceKind, string>> = {
 
 export class ReferenceNotFoundError extends AppError {
   constructor(missing: ReferenceInValue[]) {
-    const first = REFERENCE_TABLES[missing[0].kind].what
+    const first = REFERENCE_TABLES[missing[0].kind]
     super(
       404,
       'not_found',
-      missing.length === 1 ? `That ${first} (${missing[0].path}) was not found in this workspace.` : `${missing.length} of the records this names were not found in this workspace: ${missing.map((m) => m.path).join(', ')}.`,
-      missing.map((m) => ({ path: m.path, message: `is not a ${REFERENCE_TABLES[m.kind].what} of this workspace` })),
+      missing.length === 1
+        ? `That ${first.what} (${missing[0].path}) was not found in this workspace${first.hint ? ` (${first.hint})` : ''}.`
+        : `${missing.length} of the records this names were not found in this workspace: ${missing.map((m) => m.path).join(', ')}.`,
+      missing.map((m) => ({ path: m.path, message: `is not ${/^[aeiou]/.test(REFERENCE_TABLES[m.kind].what) ? 'an' : 'a'} ${REFERENCE_TABLES[m.kind].what} of this workspace` })),
     )
   }
 }

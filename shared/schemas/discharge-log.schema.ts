@@ -97,7 +97,7 @@ export function engineOptions(raw: DischargeOptionsInput) {
 /** Analyse an uploaded (or already stored) file; store it unless `dryRun`. */
 export const DischargeAnalyseSchema = z
   .object({
-    uploadId: id('an upload').optional(),
+    uploadId: ref('stagedUpload', 'an upload').optional(),
     fileId: ref('dischargeFile', 'a stored log file').optional(),
     title: text(200).default(''),
     notes: text(2000).default(''),

@@ -28,7 +28,6 @@ afterAll(closeTestApp)
 const NOT_REFERENCES: Record<string, string> = {
   clientId: 'made by the client so a retried send is recognised',
   workspaceId: 'switching workspace checks membership itself (403/404 in workspaces.test.ts)',
-  uploadId: 'a staged file on disk, checked against the workspace by the staging store (discharge.test.ts)',
 }
 
 /** A record of each kind in a workspace: the id another workspace must not be able to use. */

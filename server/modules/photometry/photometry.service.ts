@@ -11,6 +11,7 @@ import { CRITERIA_LABELS, type LuminaireTypeInput, type LuminaireTypePatch, type
 import { dataSource } from '../../data-source'
 import { BadRequestError, ConflictError, NotFoundError } from '../../errors/app-error'
 import { recordAudit } from '../audit/audit.service'
+import { admitBytes } from '../storage/storage.service'
 import { contentOf, createSheet, getSheet, saveSheet } from '../sheets/sheets.service'
 import { User } from '../users/user.entity'
 import { LuminaireType } from './luminaire-type.entity'
@@ -111,6 +112,7 @@ export async function createFile(workspaceId: string, userId: string, name: stri
   const finalName = (name?.trim() || fallback).slice(0, 120)
   try {
     return await dataSource.transaction(async (m) => {
+      await admitBytes(m, workspaceId, Buffer.byteLength(text, 'utf8'))
       const f = await files(m).save(files(m).create({ workspaceId, name: finalName, rawText: text, sha256, parsed, createdBy: userId }))
       await recordAudit({ workspaceId, actorId: userId, action: 'photometry.uploaded', entityType: 'photometric_file', entityId: f.id, data: { name: f.name, sha256 } }, m)
       return getFileIn(m, f)
