@@ -3,6 +3,7 @@ import { createApp } from './app'
 import { config } from './config'
 import { dataSource } from './data-source'
 import { logger } from './lib/logger'
+import { budgetWarning, connectionBudget } from './lib/pools'
 import { startMailCatcher, type MailCatcher } from './modules/mail/mail-catcher'
 import { useCatcherPort } from './modules/mail/mail.service'
 import { sweepStagedUploads } from './modules/discharge/discharge.service'
@@ -32,6 +33,10 @@ async function initializeDatabase() {
 }
 
 await initializeDatabase()
+const budget = connectionBudget(cfg)
+logger.info({ connections: budget }, 'PostgreSQL connections this process may hold')
+const tooMany = await budgetWarning(budget).catch(() => null)
+if (tooMany) logger.warn(tooMany)
 let catcher: MailCatcher | null = null
 if (!cfg.mail.smtpUrl) {
   catcher = await startMailCatcher(cfg.mail.catcherDir, cfg.mail.catcherPort)

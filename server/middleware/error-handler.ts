@@ -6,6 +6,7 @@ import type { ErrorRequestHandler, RequestHandler } from 'express'
 import { ZodError } from 'zod'
 import { AppError } from '../errors/app-error'
 import { logger } from '../lib/logger'
+import { appPoolIsFull, isPoolWaitTimeout } from '../lib/pools'
 
 const DB_DOWN_CODES = new Set(['ECONNREFUSED', 'ECONNRESET', 'ETIMEDOUT', 'EPIPE', '57P01', '57P02', '57P03', '08006', '08001', '08003'])
 
@@ -49,6 +50,11 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   const status = e?.status ?? e?.statusCode
   if (typeof status === 'number' && status >= 400 && status < 500) {
     res.status(status).json({ error: e.type === 'charset.unsupported' || e.type === 'encoding.unsupported' ? 'Unsupported body encoding.' : (e.message ?? 'Bad request.'), code: 'bad_request' })
+    return
+  }
+  if (isPoolWaitTimeout(err) && appPoolIsFull()) {
+    // Every connection is in use: the database is fine, this process is busy. Come back shortly.
+    res.status(503).set('Retry-After', '2').json({ error: 'The server is busy right now; try again in a couple of seconds.', code: 'busy' })
     return
   }
   if (isDatabaseDown(err)) {
