@@ -43,6 +43,8 @@ const EnvSchema = z.object({
   JOBS_POOL_MAX: z.coerce.number().int().min(1).max(50).default(2),
   /** App processes `npm start` runs behind one port; default the number of CPUs (at least 1). */
   WEB_CONCURRENCY: z.coerce.number().int().min(1).max(256).optional(),
+  /** Set by server/cluster.ts: which of the app processes this is (0 = the first). */
+  LAMPWRIGHT_WORKER: z.coerce.number().int().min(0).optional(),
   /** Room per workspace for stored files (discharge logs, photometric files) and uploads waiting to be saved, MB; a workspace row may set its own. */
   STORAGE_QUOTA_MB: z.coerce.number().min(1).default(1024),
   /** Room for uploads waiting to be saved across all workspaces (on disk in DATA_DIR/discharge-uploads), MB. */
@@ -86,6 +88,8 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env) {
     dataDir,
     db: { url: e.DATABASE_URL, poolMax: e.DB_POOL_MAX, poolWaitMs: e.DB_POOL_WAIT_MS, sessionPoolMax: e.SESSION_POOL_MAX, jobsPoolMax: e.JOBS_POOL_MAX },
     webConcurrency: e.WEB_CONCURRENCY ?? Math.max(1, os.availableParallelism()),
+    /** Index of this process among those server/cluster.ts runs; null when started on its own. */
+    workerSlot: e.LAMPWRIGHT_WORKER ?? null,
     session: { secret: loadSessionSecret(dataDir, e.SESSION_SECRET), cookieName: 'lw.sid' },
     mail: { smtpUrl: e.SMTP_URL, catcherPort: e.SMTP_CATCHER_PORT, catcherDir: path.join(dataDir, 'mail'), from: 'Lampwright <no-reply@lampwright.invalid>' },
     logLevel: e.LOG_LEVEL ?? (e.NODE_ENV === 'test' ? 'silent' : 'info'),

@@ -49,6 +49,8 @@ const sweep = setInterval(() => void sweepStagedUploads().catch((err) => logger.
 sweep.unref()
 const { app, close } = createApp()
 const server = app.listen(cfg.port, cfg.host, () => {
+  // Several processes behind one port: the first one greets.
+  if (cfg.workerSlot !== null && cfg.workerSlot > 0) return
   const lines = [
     '',
     `  Lampwright ${cfg.version} is running at ${cfg.origin}`,
