@@ -32,7 +32,8 @@ const children: ChildProcess[] = []
 let cluster: { url: string; stop(): void } | null = null
 
 async function waitFor(url: string) {
-  for (let i = 0; i < 300; i++) {
+  // Up to two minutes: on a busy machine tsx alone can take most of a minute to start a process.
+  for (let i = 0; i < 1200; i++) {
     try {
       if ((await fetch(url)).ok) return
     } catch {
