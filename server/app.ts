@@ -10,9 +10,9 @@ import { csrfProtection } from './middleware/csrf'
 import { errorHandler, notFoundApi } from './middleware/error-handler'
 import { requestLog } from './middleware/request-log'
 import { authorize, type RouteSpec } from './policy/access'
+import { routeChain } from './policy/route'
 import { configurePassport } from './modules/auth/passport'
 import { buildRouteTable } from './routes'
-import { referenceCheck } from './lib/references'
 import { createSessionMiddleware } from './lib/session'
 
 export interface AppOptions {
@@ -89,10 +89,7 @@ export function createApp(opts: AppOptions = {}): BuiltApp {
       groups.set(prefix, group)
       app.use(prefix, group)
     }
-    const handlers = Array.isArray(route.handler) ? route.handler : [route.handler]
-    // Ids in the body must name records of the caller's workspace (404 naming the field otherwise).
-    const references = referenceCheck(route.body)
-    group[route.method](route.path.slice(prefix.length) || '/', authorize(route.access), ...(references ? [references] : []), ...handlers)
+    group[route.method](route.path.slice(prefix.length) || '/', authorize(route.access), ...routeChain(route))
   }
   app.use('/api', notFoundApi)
 

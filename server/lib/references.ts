@@ -63,16 +63,15 @@ export async function checkReferences(workspaceId: string, refs: ReferenceInValu
 }
 
 /**
- * Middleware for a route's body schema, or null when the schema names no record. A body that does
- * not parse is left to the handler (it answers 400 with the fields); routes without a workspace
- * (signed-in only) have nothing to check against.
+ * Middleware for a route's body schema, or null when the schema names no record. It runs after the
+ * route's validation (server/policy/route.ts), so `req.body` is the parsed body; routes without a
+ * workspace (signed-in only) have nothing to check against.
  */
 export function referenceCheck(schema: ZodTypeAny | undefined): RequestHandler | null {
   if (!schema || !idFieldsOf(schema).some((f) => f.kind !== null)) return null
   return (req: Request, _res: Response, next: NextFunction) => {
     const workspaceId = req.ctx?.workspaceId
-    const parsed = schema.safeParse(req.body ?? {})
-    if (!workspaceId || !parsed.success) return next()
-    checkReferences(workspaceId, referencesIn(schema, parsed.data)).then(() => next(), next)
+    if (!workspaceId) return next()
+    checkReferences(workspaceId, referencesIn(schema, req.body)).then(() => next(), next)
   }
 }

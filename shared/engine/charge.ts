@@ -5,12 +5,13 @@
  */
 import { z } from 'zod'
 import { batteryDraw, chemistryIdSchema, loadFields, loadIssues } from './battery-inputs'
-import { floatCellVoltage } from './battery-models'
+import { deepDischargeLimitCellV, floatCellVoltage } from './battery-models'
 import { CHEMISTRIES } from './chemistries'
 import { REF } from './chemistries/references'
 import type { ChemistryId, Range } from './chemistries/types'
 import { ambientTemperature, finiteNumber, quantity } from './fields'
-import { addChemistryNotes, chooseCellsInSeries, describeCellChoice, packIssues } from './size'
+import { chooseCellsInSeries, describeCellChoice } from './pack-cells'
+import { addChemistryNotes, packIssues } from './pack-rules'
 import { defineTool } from './tool'
 import { sortWarnings, workingValue, type EngineWarning, type Reference, type WorkingStep } from './types'
 import { roundToSignificant } from './round'
@@ -29,7 +30,7 @@ export const chargeInputObject = z.object({
   ...loadFields,
   /** Charger current (constant-current stage), A. */
   chargeCurrent: quantity('current', { positive: true, max: 1_000 }),
-  /** Permanent current once charged; nickel chargers usually keep the charge current on, so it defaults to chargeCurrent for nickel and 0 otherwise. */
+  /** Permanent current once charged; defaults to chargeCurrent (the charger keeps its current on); 0 for a charger that stops when full. */
   trickleCurrent: quantity('current', { min: 0, max: 1_000 }).optional(),
   /** Charger float / hold voltage; read per pack or per cell according to voltageBasis. */
   floatVoltage: quantity('voltage', { positive: true, max: 1_000 }).optional(),
@@ -97,17 +98,29 @@ export function checkCharge(input: ChargeInput, options: { explain?: boolean } =
   const perCell = (volts: number) => (input.voltageBasis === 'cell' ? volts : volts / n)
 
   const draw = batteryDraw(input.load, input.driver, input.driverEfficiency, n * averageCell)
-  const dischargeAh = draw.currentA * durationH
+  // A full test cannot take out more than the pack holds: the pack runs flat first.
+  const demandAh = draw.currentA * durationH
+  const dischargeAh = Math.min(demandAh, capacityAh)
   const factor = chemistry.chargeFactor.value
   const rechargeH = (dischargeAh * factor) / input.chargeCurrent
   const chargeC = input.chargeCurrent / capacityAh
-  const trickleA = input.trickleCurrent ?? (chemistry.family === 'nickel' ? input.chargeCurrent : 0)
+  // Left empty, the charger is taken to keep its current on (as nickel chargers do) for every chemistry:
+  // a charger that stops when full is typed as 0, so a blank never hides a permanent charge.
+  const trickleA = input.trickleCurrent ?? input.chargeCurrent
   const trickleC = trickleA / capacityAh
   const limit = chemistry.continuousChargeRangeC.value
   const tol = 1e-9
   const trickleWithinLimit = trickleC <= limit.max + tol && (trickleC === 0 ? chemistry.family !== 'nickel' : trickleC >= limit.min - tol)
   const rechargeOk = rechargeH <= RECHARGE_LIMIT_H
 
+  if (demandAh > capacityAh * (1 + 1e-9)) {
+    warnings.push({
+      code: 'load-exceeds-pack',
+      severity: 'critical',
+      field: 'capacity',
+      message: `The load takes about ${round(demandAh)} Ah over the ${round(durationH)} h rated duration, more than the ${round(capacityAh)} Ah pack holds: the pack runs flat before the end of the test. The recharge is counted from a flat pack (${round(capacityAh)} Ah).`,
+    })
+  }
   // Charge rate.
   if (chargeC > chemistry.maxChargeRateC.value + tol) {
     warnings.push({
@@ -172,6 +185,17 @@ export function checkCharge(input: ChargeInput, options: { explain?: boolean } =
     })
   }
 
+  // Lithium in the cold: the makers cut the charge current between 0 °C and about 10 °C.
+  const cold = chemistry.coldCharge
+  if (cold && input.ambient >= 0 && input.ambient < cold.belowC && chargeC > cold.maxRateC.value + tol) {
+    warnings.push({
+      code: 'charge-current-cold',
+      severity: 'warning',
+      field: 'chargeCurrent',
+      message: `At ${input.ambient} °C ${chemistry.name} should be charged at no more than ${cold.maxRateC.value} C (${round(cold.maxRateC.value * capacityAh)} A here); ${round(chargeC)} C risks lithium plating. Use a charger that reduces its current in the cold, or keep the pack above ${cold.belowC} °C.`,
+    })
+  }
+
   // Float voltage.
   let floatVoltageCheck: FloatCheck | null = null
   if (chemistry.float) {
@@ -207,12 +231,13 @@ export function checkCharge(input: ChargeInput, options: { explain?: boolean } =
       field: 'floatVoltage',
       message: `${chemistry.name} is charged at constant current, not floated at a voltage; the float voltage was not used.`,
     })
-  } else if (chemistry.family === 'lithium' && input.floatVoltage !== undefined && perCell(input.floatVoltage) > chemistry.fullChargeCellVoltage.value + 0.005) {
+  } else if (chemistry.family === 'lithium' && input.floatVoltage !== undefined && perCell(input.floatVoltage) > (chemistry.maxChargeCellVoltage ?? chemistry.fullChargeCellVoltage).value + 0.005) {
+    const limit = (chemistry.maxChargeCellVoltage ?? chemistry.fullChargeCellVoltage).value
     warnings.push({
       code: 'lithium-overvoltage',
       severity: 'critical',
       field: 'floatVoltage',
-      message: `${round(perCell(input.floatVoltage), 3)} V per cell is above the ${chemistry.fullChargeCellVoltage.value} V full-charge limit of ${chemistry.name}: overcharge is a fire risk.`,
+      message: `${round(perCell(input.floatVoltage), 3)} V per cell is above the ${limit} V highest charge voltage of ${chemistry.name}: overcharge is a fire risk.`,
     })
   }
 
@@ -230,13 +255,15 @@ export function checkCharge(input: ChargeInput, options: { explain?: boolean } =
   let deepDischarge: boolean | null = null
   if (input.cutoffVoltage !== undefined) {
     const cutCell = perCell(input.cutoffVoltage)
-    deepDischarge = cutCell < chemistry.minSafeCellVoltage.value - tol
+    // The same rule as the sizing: the makers' final voltage at this discharge rate where they tabulate it.
+    const safeCell = deepDischargeLimitCellV(chemistry, draw.currentA / capacityAh)
+    deepDischarge = cutCell < safeCell - tol
     if (deepDischarge) {
       warnings.push({
         code: 'deep-discharge',
         severity: 'critical',
         field: 'cutoffVoltage',
-        message: `The cut-off of ${round(cutCell, 3)} V per cell is below the safe minimum of ${chemistry.minSafeCellVoltage.value} V for ${chemistry.name}: the pack is deep-discharged on every duration test.`,
+        message: `The cut-off of ${round(cutCell, 3)} V per cell is below the safe minimum of ${safeCell} V for ${chemistry.name}${chemistry.cutoffByDischargeRate ? ` at ${round(draw.currentA / capacityAh, 2)} C` : ''}: the pack is deep-discharged on every duration test.`,
       })
     }
   } else {
@@ -244,7 +271,7 @@ export function checkCharge(input: ChargeInput, options: { explain?: boolean } =
       code: 'deep-discharge-protection',
       severity: 'info',
       field: 'cutoffVoltage',
-      message: `Give the luminaire's deep-discharge cut-off to check it; ${chemistry.name} should stop at or above ${chemistry.minSafeCellVoltage.value} V per cell.`,
+      message: `Give the luminaire's deep-discharge cut-off to check it; ${chemistry.name} should stop at or above ${deepDischargeLimitCellV(chemistry, draw.currentA / capacityAh)} V per cell at this rate.`,
     })
   }
   addChemistryNotes(chemistry, warnings)
@@ -260,9 +287,9 @@ export function checkCharge(input: ChargeInput, options: { explain?: boolean } =
         references: [describeCellChoice(choice, chemistry, input.load, chemistry.cutoffCellVoltage.value, input.converterInput).reference],
       },
       {
-        id: 'dischargeAh', label: 'Charge taken by one rated-duration discharge', formula: 'Q = I · t',
-        explanation: 'The ampere-hours a full rated-duration test takes out of the pack.',
-        inputs: [v('I', 'Average current', draw.currentA, 'A'), v('t', 'Rated duration', durationH, 'h')],
+        id: 'dischargeAh', label: 'Charge taken by one rated-duration discharge', formula: 'Q = min(I · t, C)',
+        explanation: 'The ampere-hours a full rated-duration test takes out of the pack; never more than the pack holds (it runs flat first).',
+        inputs: [v('I', 'Average current', draw.currentA, 'A'), v('t', 'Rated duration', durationH, 'h'), v('C', 'Capacity', capacityAh, 'Ah')],
         result: v('Q', 'Charge taken out', dischargeAh, 'Ah'), references: [REF.commonPractice('Charge balance')],
       },
       {

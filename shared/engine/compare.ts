@@ -6,9 +6,10 @@ import { z } from 'zod'
 import { chemistryIdSchema, designFields, loadFields, loadIssues } from './battery-inputs'
 import { CHEMISTRIES, CHEMISTRY_IDS } from './chemistries'
 import { REF } from './chemistries/references'
-import type { ChemistryId, Range } from './chemistries/types'
-import { ambientTemperature, finiteNumber } from './fields'
-import { packIssues, sizePack, type SizeInput, type SizeResult } from './size'
+import type { Chemistry, ChemistryId, Range } from './chemistries/types'
+import { ambientTemperature, finiteNumber, quantity } from './fields'
+import { packIssues } from './pack-rules'
+import { sizePack, type SizeInput, type SizeResult } from './size'
 import { defineTool } from './tool'
 import { sortWarnings, type EngineWarning, type WorkingStep } from './types'
 import { roundToSignificant } from './round'
@@ -32,6 +33,8 @@ export const compareInputObject = z.object({
   ...designFields,
   ambientMin: ambientTemperature().default(5),
   ambientMax: ambientTemperature().default(25),
+  /** Nominal pack voltage every chemistry must make (cells recomputed per chemistry; one that cannot is flagged). */
+  nominalVoltage: quantity('voltage', { positive: true, max: 1_000 }).optional(),
   chemistries: z
     .array(chemistryIdSchema, { invalid_type_error: 'must be a list of chemistry ids' })
     .min(1, 'must name at least one chemistry')
@@ -75,6 +78,8 @@ export interface CompareResult {
 }
 
 const CRITICAL_PENALTY = 0.5
+/** A pack that cannot be charged at the site's lowest temperature is not full when needed: the same halving. */
+const COLD_CHARGE_PENALTY = 0.5
 const round = roundToSignificant
 const CRITERION_WORDS = {
   life: 'service life',
@@ -97,7 +102,7 @@ export type Luminaire = Pick<
   | 'designLifeYears'
   | 'ambientMin'
   | 'ambientMax'
->
+> & { load: NonNullable<SizeInput['load']>; nominalVoltage?: number }
 
 /** The size input for one chemistry and a luminaire; written out (not spread) so every call has one shape. */
 export function sizeInputFor(chemistry: ChemistryId, input: Luminaire): SizeInput {
@@ -114,16 +119,26 @@ export function sizeInputFor(chemistry: ChemistryId, input: Luminaire): SizeInpu
     designLifeYears: input.designLifeYears,
     ambientMin: input.ambientMin,
     ambientMax: input.ambientMax,
+    nominalVoltage: input.nominalVoltage,
   }
 }
+
+/** The site's lowest ambient is below the chemistry's charging range (a nickel pack then stays partly charged). */
+const chargesBelowRange = (chemistry: Chemistry, ambientMinC: number) => ambientMinC < chemistry.chargeTemperatureC.value.min
 
 const hasCritical = (warnings: EngineWarning[]) => {
   for (const w of warnings) if (w.severity === 'critical') return true
   return false
 }
 
-/** `explain: false` skips verdict sentences and working (bulk runs such as the benchmark). */
-export function compareChemistries(input: CompareInput, options: { explain?: boolean } = {}): CompareResult {
+export interface CompareOptions {
+  /** `false` skips verdict sentences and working (bulk runs such as the benchmark). */
+  explain?: boolean
+  /** The pack already sized on a screen: its chemistry's row is sized with exactly this input, so the row matches it. */
+  exact?: SizeInput
+}
+
+export function compareChemistries(input: CompareInput, options: CompareOptions = {}): CompareResult {
   const explain = options.explain !== false
   // Plain loops below: this runs once per luminaire in bulk comparisons.
   const ids: ChemistryId[] = []
@@ -132,7 +147,7 @@ export function compareChemistries(input: CompareInput, options: { explain?: boo
   let maxLife = 0
   let minVolume = Infinity
   for (const id of ids) {
-    const r = sizePack(sizeInputFor(id, input), { explain: false })
+    const r = sizePack(options.exact?.chemistry === id ? options.exact : sizeInputFor(id, input), { explain: false })
     sized.push(r)
     if (r.serviceLifeYears > maxLife) maxLife = r.serviceLifeYears
     const volume = (r.volumeL.min + r.volumeL.max) / 2
@@ -161,7 +176,7 @@ export function compareChemistries(input: CompareInput, options: { explain?: boo
       volumeL: r.volumeL,
       serviceLifeYears: r.serviceLifeYears,
       scores,
-      score: hasCritical(r.warnings) ? weighted * CRITICAL_PENALTY : weighted,
+      score: hasCritical(r.warnings) ? weighted * CRITICAL_PENALTY : chargesBelowRange(chemistry, input.ambientMin) ? weighted * COLD_CHARGE_PENALTY : weighted,
       rank: 0,
       verdict: '',
       warnings: r.warnings,
@@ -202,9 +217,9 @@ export function compareChemistries(input: CompareInput, options: { explain?: boo
   const working: WorkingStep[] = rows.map((row) => ({
     id: `score.${row.chemistry}`,
     label: `Score: ${row.name}`,
-    formula: 'S = (w_L·s_L + w_T·s_T + w_S·s_S + w_R·s_R) / Σw  (× 0.5 with a critical warning)',
+    formula: 'S = (w_L·s_L + w_T·s_T + w_S·s_S + w_R·s_R) / Σw  (× 0.5 with a critical warning; × 0.5 when it cannot be charged at the lowest ambient)',
     explanation:
-      's_L = life / longest life; s_T = tolerance of permanent charge; s_S = smallest mid-range volume / this volume; s_R = 1 − restriction burden.',
+      `s_L = life / longest life; s_T = tolerance of permanent charge; s_S = smallest mid-range volume / this volume; s_R = 1 − restriction burden.${chargesBelowRange(CHEMISTRIES[row.chemistry], input.ambientMin) ? ` Halved: ${row.name} is charged from ${CHEMISTRIES[row.chemistry].chargeTemperatureC.value.min} °C and the site goes down to ${input.ambientMin} °C.` : ''}`,
     inputs: [
       { symbol: 's_L', label: 'Life score', value: row.scores.life, unit: '' },
       { symbol: 's_T', label: 'Permanent-charge score', value: row.scores.trickle, unit: '' },
@@ -228,6 +243,7 @@ const CRITICAL_WORDS: Record<string, string> = {
   'converter-window-low': 'no cell count fits the converter input window',
   'converter-window-high': 'no cell count fits the converter input window',
   'deep-discharge': 'the cut-off deep-discharges it',
+  'pack-voltage-changed': 'no whole number of its cells makes this pack voltage',
 }
 
 function verdictFor(row: CompareRow, input: CompareInput, w: Weights): string {
@@ -235,10 +251,13 @@ function verdictFor(row: CompareRow, input: CompareInput, w: Weights): string {
   const best = keys.reduce((a, b) => (row.scores[b] > row.scores[a] ? b : a), keys[0])
   const worst = keys.reduce((a, b) => (row.scores[b] < row.scores[a] ? b : a), keys[0])
   const critical = row.warnings.find((x) => x.severity === 'critical')
+  const cold = chargesBelowRange(CHEMISTRIES[row.chemistry], input.ambientMin)
   const pack = `${round(row.selectedCapacityAh)} Ah × ${row.cellsInSeries} cell${row.cellsInSeries === 1 ? '' : 's'} (${round(row.massKg.min, 2)}–${round(row.massKg.max, 2)} kg)`
   const life = `about ${round(row.serviceLifeYears, 2)} years at ${input.ambientMax} °C`
   const trail = critical
     ? `but ${CRITICAL_WORDS[critical.code] ?? 'a critical check fails (see its warnings)'}`
+    : cold
+      ? `but it cannot be charged at ${input.ambientMin} °C, so it is not full when needed`
     : best === worst
       ? `even on every criterion`
       : `strongest on ${CRITERION_WORDS[best]}, weakest on ${CRITERION_WORDS[worst]}`

@@ -6,6 +6,7 @@
 import { z } from 'zod'
 import { referenceId, type ReferenceKind } from './reference'
 import { dischargeInput } from '../engine/discharge'
+import { isIsoDate } from '../engine/due'
 
 export { CURRENT_UNITS, perCellVolts, TIME_UNITS, VOLTAGE_UNITS } from '../engine/discharge-log'
 
@@ -23,18 +24,12 @@ export const LISTED_BAD_ROWS = 20
 export const MAX_BAD_ROW_SHARE = 0.2
 
 export const DELIMITERS = [',', ';', '\t'] as const
-export const DELIMITER_LABELS: Record<(typeof DELIMITERS)[number], string> = { ',': 'comma', ';': 'semicolon', '\t': 'tab' }
+export { DATE_ORDER_LABELS, DELIMITER_LABELS, TIME_FORMAT_LABELS } from '../labels'
 
 /** How the time column is written. */
 export const TIME_FORMATS = ['elapsed', 'clock', 'timestamp'] as const
-export const TIME_FORMAT_LABELS: Record<(typeof TIME_FORMATS)[number], string> = {
-  elapsed: 'Elapsed time as a number',
-  clock: 'Elapsed time as hh:mm:ss',
-  timestamp: 'Date and time',
-}
 /** Order of day, month and year in a date such as 01/03/2026 (ISO 8601 dates are always year first). */
 export const DATE_ORDERS = ['ymd', 'dmy', 'mdy'] as const
-export const DATE_ORDER_LABELS: Record<(typeof DATE_ORDERS)[number], string> = { ymd: 'year-month-day', dmy: 'day/month/year', mdy: 'month/day/year' }
 
 
 const column = z.number({ invalid_type_error: 'must be a column number', required_error: 'choose a column' }).int('must be a column number').min(0, 'must be a column number').max(999, 'must be a column number')
@@ -109,6 +104,12 @@ export const DischargeAnalyseSchema = z
     dryRun: z.boolean({ invalid_type_error: 'must be true or false' }).default(false),
     specSheetId: ref('specSheet', 'a specification sheet').nullable().optional(),
     testRecordId: ref('testRecord', 'a test record').nullable().optional(),
+    /** The luminaire whose pack was tested: saving records (or updates) its full-duration test from the log. */
+    luminaireId: ref('luminaire', 'a luminaire').nullable().optional(),
+    /** Day of the test, for the record made from the log (today when left out). */
+    testedOn: z.string({ invalid_type_error: 'must be a date (YYYY-MM-DD)' }).trim().refine(isIsoDate, 'must be a real date written YYYY-MM-DD').optional(),
+    /** Why the runtime typed in the attached record differs from the log. */
+    runtimeNote: text(500).default(''),
   })
   .superRefine((v, ctx) => {
     if (!v.uploadId === !v.fileId) ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['uploadId'], message: 'give either uploadId (a new upload) or fileId (a stored file)' })

@@ -10,12 +10,7 @@ export const MODES = ['maintained', 'non-maintained'] as const
 export const ModeSchema = z.enum(MODES, { errorMap: () => ({ message: 'must be maintained or non-maintained' }) })
 export const ChemistrySchema = z.enum(CHEMISTRY_IDS, { errorMap: () => ({ message: `must be one of ${CHEMISTRY_IDS.join(', ')}` }) })
 
-export const PURPOSE_LABELS: Record<(typeof PURPOSES)[number], string> = {
-  'escape-route': 'Escape route',
-  'open-area': 'Open area',
-  'high-risk': 'High-risk task area',
-  'exit-sign': 'Exit sign',
-}
+export { MODE_LABELS, PURPOSE_LABELS } from '../labels'
 
 /** A calendar day written YYYY-MM-DD. */
 export const IsoDateSchema = z

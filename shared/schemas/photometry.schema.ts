@@ -14,12 +14,7 @@ export const MAX_LM63_BYTES = 512 * 1024
 
 export const CRITERIA_IDS = ['en1838-route', 'en1838-open-area', 'en1838-high-risk', 'nfpa101'] as const
 export const CriteriaSchema = z.enum(CRITERIA_IDS, { errorMap: () => ({ message: `must be one of ${CRITERIA_IDS.join(', ')}` }) })
-export const CRITERIA_LABELS: Record<(typeof CRITERIA_IDS)[number], string> = {
-  'en1838-route': 'EN 1838 escape route',
-  'en1838-open-area': 'EN 1838 open (anti-panic) area',
-  'en1838-high-risk': 'EN 1838 high-risk task area',
-  nfpa101: 'NFPA 101 egress path',
-}
+export { CRITERIA_LABELS } from '../labels'
 
 /** An upload as JSON (the multipart form sends the same two fields). */
 export const PhotometryUploadSchema = z.object({
@@ -71,6 +66,10 @@ export const RouteNeedSchema = z
     ratedDuration: quantity('time', { min: 0.5 * HOUR, max: 24 * HOUR, display: { unit: 'h', factor: 1 / HOUR } }),
     maintenanceFactor: fraction().default(0.8),
     normalIlluminance: quantity('illuminance', { positive: true, max: 100000 }).optional(),
+    /** Typed by the designer: used for every type instead of the type's own emergency output factor. */
+    emergencyOutputFactor: fraction().optional(),
+    /** NFPA 101: share of the initial emergency output left at the end of the rated duration. */
+    endOfDurationFactor: fraction().optional(),
   })
   .superRefine((v, ctx) => {
     if (v.criteria === 'en1838-high-risk' && v.normalIlluminance === undefined) {

@@ -14,9 +14,5 @@ export function roleAtLeast(role: Role, least: Role): boolean {
   return roleRank(role) >= roleRank(least)
 }
 
-export const ROLE_LABELS: Record<Role, string> = {
-  viewer: 'Viewer: reads everything in the workspace',
-  technician: 'Technician: also records tests and uploads logs',
-  designer: 'Designer: also edits specifications, sites and luminaire data',
-  owner: 'Owner: also manages members and the workspace',
-}
+/** Words for each role live with every other enumeration's words. */
+export { ROLE_LABELS, ROLE_NAMES } from '../labels'

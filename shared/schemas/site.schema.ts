@@ -6,10 +6,7 @@ export const TEST_REGIMES = ['en50172', 'nfpa101'] as const
 export const TestRegimeSchema = z.enum(TEST_REGIMES, { errorMap: () => ({ message: 'must be en50172 or nfpa101' }) })
 export type TestRegimeId = z.infer<typeof TestRegimeSchema>
 
-export const REGIME_LABELS: Record<TestRegimeId, string> = {
-  en50172: 'EN 50172 / BS 5266-1: monthly functional test, annual full-duration test',
-  nfpa101: 'NFPA 101: 30-second test every 30 days, 90-minute test every year',
-}
+export { REGIME_LABELS, REGIME_SHORT_LABELS } from '../labels'
 
 const text = (max: number) => z.string({ required_error: 'is required', invalid_type_error: 'must be text' }).trim().max(max, `must be at most ${max} characters`)
 
@@ -36,3 +33,17 @@ export const AreaSchema = z.object({
   notes: text(400).default(''),
 })
 export const AreaPatchSchema = AreaSchema.partial()
+
+/** A workspace's log-book rules. */
+export const RegisterSettingsPatchSchema = z
+  .object({
+    /** Days from a failure (or a new pack) to its retest before the retest is overdue. */
+    repairWindowDays: z
+      .number({ invalid_type_error: 'must be a whole number of days' })
+      .int('must be a whole number of days')
+      .min(1, 'must be at least 1 day')
+      .max(365, 'must be at most 365 days')
+      .optional(),
+  })
+  .strict('give only repairWindowDays')
+  .refine((v) => Object.keys(v).length > 0, 'give at least one setting to change')

@@ -28,6 +28,7 @@ afterAll(closeTestApp)
 const NOT_REFERENCES: Record<string, string> = {
   clientId: 'made by the client so a retried send is recognised',
   workspaceId: 'switching workspace checks membership itself (403/404 in workspaces.test.ts)',
+  roundClientId: 'a round is named by the id its client made, like clientId',
 }
 
 /** A record of each kind in a workspace: the id another workspace must not be able to use. */

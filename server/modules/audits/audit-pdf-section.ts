@@ -3,14 +3,14 @@
  * with the claim against the readings, the figures, and its warnings in plain sentences.
  */
 import type { EngineWarning } from '../../../shared/engine/types'
+import { SEVERITY_LABELS } from '../../../shared/labels'
 import { formatFigure } from '../../../shared/schemas/sheet-text'
 import { AUDIT_RESULT_FIGURES, auditFigureText, CLAIM_MEANING_WORDS, CLAIM_VERDICT_WORDS, plainAuditWarnings } from '../../../shared/schemas/wattage-audit-text'
-import { ensureSpace, heading, pair, write } from '../sheets/pdf/pdf-kit'
-import type { PdfSection } from '../sheets/pdf/sheet-pdf'
+import { ensureSpace, heading, pair, write } from '../../lib/pdf/pdf-kit'
+import type { PdfSection } from '../sheets/sheet-pdf'
 import type { AuditDto } from './audits.service'
 
 const date = (d: Date | string) => new Date(d).toISOString().slice(0, 10)
-const SEVERITY_WORD = { critical: 'Critical', warning: 'Warning', info: 'Note' } as const
 
 export function wattageAuditsSection(audits: AuditDto[]): PdfSection {
   return (doc) => {
@@ -34,7 +34,7 @@ export function wattageAuditsSection(audits: AuditDto[]): PdfSection {
       const warnings = plainAuditWarnings((r.warnings ?? []) as EngineWarning[]).filter((w) => w.severity !== 'info')
       for (const w of warnings) {
         ensureSpace(doc, 24)
-        write(doc, `${SEVERITY_WORD[w.severity]}: `, { weight: 'semibold', continued: true, size: 9.5, color: w.severity === 'critical' ? '#a3161a' : '#a4460f' })
+        write(doc, `${SEVERITY_LABELS[w.severity]}: `, { weight: 'semibold', continued: true, size: 9.5, color: w.severity === 'critical' ? '#a3161a' : '#a4460f' })
         write(doc, w.message, { size: 9.5 })
       }
     }

@@ -3,14 +3,13 @@
  * its verdict, figures and a small plot of the pack voltage against the cut-off.
  */
 import type { EngineWarning } from '../../../shared/engine/types'
+import { labelOf, RUNTIME_END_LABELS as END_WORDS, SEVERITY_LABELS } from '../../../shared/labels'
 import { formatFigure } from '../../../shared/schemas/sheet-text'
-import { ensureSpace, heading, pair, write, type Doc } from '../sheets/pdf/pdf-kit'
-import type { PdfSection } from '../sheets/pdf/sheet-pdf'
+import { ensureSpace, heading, pair, write, type Doc } from '../../lib/pdf/pdf-kit'
+import type { PdfSection } from '../sheets/sheet-pdf'
 import type { DischargeLogDto } from './discharge.service'
 
 const date = (d: Date | string) => new Date(d).toISOString().slice(0, 10)
-const SEVERITY_WORD = { critical: 'Critical', warning: 'Warning', info: 'Note' } as const
-const END_WORDS: Record<string, string> = { cutoff: 'the pack fell through the cut-off', dropout: 'the load dropped out', 'end-of-log': 'the log ended' }
 
 function verdict(pass: unknown): string {
   return pass === true ? 'Passed: lasted its rated duration' : pass === false ? 'Failed: did not last its rated duration' : 'Inconclusive: the log stops too early to tell'
@@ -62,7 +61,7 @@ export function dischargeLogsSection(logs: DischargeLogDto[]): PdfSection {
       write(doc, `Saved by ${log.author?.name ?? '—'} on ${date(log.createdAt)} · engine ${log.engineVersion} · ${read.rows ?? 0} readings${read.badRows?.count ? `, ${read.badRows.count} unreadable rows left out` : ''}`, { size: 8.5, color: '#5b6b75' })
       if (log.notes) write(doc, log.notes, { size: 9.5 })
       pair(doc, 'Verdict', verdict(s.pass))
-      pair(doc, 'Runtime', `${formatFigure(s.runtimeH, 'h')} (ended because ${END_WORDS[String(s.runtimeEnd)] ?? String(s.runtimeEnd)}); margin ${formatFigure(s.marginH, 'h')}`)
+      pair(doc, 'Runtime', `${formatFigure(s.runtimeH, 'h')} (ended because ${labelOf(END_WORDS, String(s.runtimeEnd)).toLowerCase()}); margin ${formatFigure(s.marginH, 'h')}`)
       pair(doc, 'Cut-off used', formatFigure(s.cutoffVoltageV, 'V'))
       if (typeof s.deliveredAh === 'number') pair(doc, s.estimated ? 'Delivered (estimated)' : 'Delivered', `${formatFigure(s.deliveredAh, 'Ah')}, ${formatFigure(s.deliveredWh, 'Wh')}`)
       pair(doc, 'Mid-point voltage', formatFigure(s.midpointVoltageV, 'V'))
@@ -71,7 +70,7 @@ export function dischargeLogsSection(logs: DischargeLogDto[]): PdfSection {
       const warnings = ((s.warnings ?? []) as EngineWarning[]).filter((w) => w.severity !== 'info')
       for (const w of warnings) {
         ensureSpace(doc, 24)
-        write(doc, `${SEVERITY_WORD[w.severity]}: `, { weight: 'semibold', continued: true, size: 9.5, color: w.severity === 'critical' ? '#a3161a' : '#a4460f' })
+        write(doc, `${SEVERITY_LABELS[w.severity]}: `, { weight: 'semibold', continued: true, size: 9.5, color: w.severity === 'critical' ? '#a3161a' : '#a4460f' })
         write(doc, w.message, { size: 9.5 })
       }
     }

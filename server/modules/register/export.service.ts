@@ -4,9 +4,11 @@
  * a spreadsheet shows them as text instead of running them as a formula.
  */
 import Papa from 'papaparse'
-import { heightOf, newDocument, toBuffer, write, writeAt, type Doc, type WriteOptions } from '../sheets/pdf/pdf-kit'
+import { heightOf, newDocument, toBuffer, write, writeAt, type Doc, type WriteOptions } from '../../lib/pdf/pdf-kit'
 import { PURPOSE_LABELS } from '../../../shared/schemas/luminaire.schema'
 import { REGIME_LABELS } from '../../../shared/schemas/site.schema'
+import { chemistryName, DUE_REASON_LABELS, FORECAST_STATE_LABELS, LUMINAIRE_STATE_LABELS, MODE_LABELS, testKindWords } from '../../../shared/schemas/logbook-labels'
+import type { LuminaireStatus } from './register.service'
 import { siteStatus, todayIso } from './register.service'
 import { siteLogBook } from './tests.service'
 
@@ -25,11 +27,18 @@ export async function registerRows(workspaceId: string, siteId: string) {
   const header = [
     'tag', 'area', 'location', 'type', 'purpose', 'mode', 'rated_duration_h', 'chemistry', 'cells', 'capacity_ah', 'pack_fitted_on',
     'last_functional', 'next_functional', 'last_duration', 'next_duration', 'state', 'replace_pack_by',
+    'functional_due_reason', 'functional_overdue_after', 'duration_due_reason', 'duration_overdue_after',
+    'open_failure', 'failed_on', 'faults', 'remedial_action', 'retest_due_by', 'retest_overdue',
   ]
-  const rows = status.luminaires.map((l) => [
-    l.tag, l.areaName ?? '', l.location, l.typeLabel, l.purpose, l.mode, l.ratedDurationH, l.chemistry, l.cellsInSeries, l.capacityAh, l.packFittedOn,
-    l.due.functional.lastTestedOn, l.due.functional.nextDueOn, l.due.duration.lastTestedOn, l.due.duration.nextDueOn, l.due.state, l.forecast.replaceBy,
-  ])
+  const rows = status.luminaires.map((l) => {
+    const f = l.due.lastFailure
+    return [
+      l.tag, l.areaName ?? '', l.location, l.typeLabel, l.purpose, l.mode, l.ratedDurationH, l.chemistry, l.cellsInSeries, l.capacityAh, l.packFittedOn,
+      l.due.functional.lastTestedOn, l.due.functional.nextDueOn, l.due.duration.lastTestedOn, l.due.duration.nextDueOn, l.due.state, l.forecast.replaceBy,
+      l.due.functional.reason, l.due.functional.overdueAfter, l.due.duration.reason, l.due.duration.overdueAfter,
+      f?.kind ?? '', f?.testedOn ?? '', f?.faults ?? '', f?.remedialAction ?? '', f?.retestBy ?? '', f ? String(f.retestOverdue) : '',
+    ]
+  })
   return { status, header, rows }
 }
 
@@ -66,6 +75,12 @@ export async function exportFile(workspaceId: string, siteId: string, file: Expo
 // ---------------------------------------------------------------- PDF
 
 type SiteStatus = Awaited<ReturnType<typeof siteStatus>>
+
+/** A due test in words: "2026-01-31", or "retest due by 2026-01-31", "overdue: first full-duration test of this pack, by …". */
+function dueWords(t: LuminaireStatus['due']['functional']): string {
+  if (t.reason === 'interval') return t.state === 'overdue' ? `${t.nextDueOn} (overdue)` : t.nextDueOn
+  return `${t.state === 'overdue' ? 'Overdue' : 'Due now'}: ${DUE_REASON_LABELS[t.reason]}, by ${t.overdueAfter}`
+}
 
 // Landscape with narrow margins: the register is a wide table.
 const newDoc = (title: string) => newDocument({ title }, { layout: 'landscape', margin: 36 })
@@ -121,7 +136,7 @@ async function registerPdf(reg: Awaited<ReturnType<typeof registerRows>>): Promi
   const s = reg.status
   const doc = newDoc(`Emergency lighting register — ${s.site.name}`)
   heading(doc, 'Emergency lighting register', s)
-  write(doc, `${s.counts.luminaires} luminaires: ${s.counts.failed} failed at the last test, ${s.counts.overdue} overdue, ${s.counts.dueSoon} due within 14 days.`)
+  write(doc, `${s.counts.luminaires} luminaires: ${s.counts.failed} with a failure not yet put right (${s.counts.retestOverdue} of them past the ${s.settings.repairWindowDays}-day repair window), ${s.counts.overdue} overdue, ${s.counts.dueNow} with a test due now, ${s.counts.dueSoon} due within 14 days.`)
   doc.moveDown(0.6)
   const columns: Column[] = [
     { title: 'Tag', width: 52 }, { title: 'Area / location', width: 130 }, { title: 'Purpose', width: 70 }, { title: 'Mode', width: 62 },
@@ -132,10 +147,23 @@ async function registerPdf(reg: Awaited<ReturnType<typeof registerRows>>): Promi
     doc,
     columns,
     s.luminaires.map((l) => [
-      l.tag, [l.areaName, l.location].filter(Boolean).join(' — '), PURPOSE_LABELS[l.purpose], l.mode, `${l.ratedDurationH} h`,
-      `${l.chemistry}, ${l.cellsInSeries} cells, ${l.capacityAh} Ah`, l.packFittedOn, l.due.functional.nextDueOn, l.due.duration.nextDueOn, l.due.state, l.forecast.replaceBy,
+      l.tag, [l.areaName, l.location].filter(Boolean).join(' — '), PURPOSE_LABELS[l.purpose], MODE_LABELS[l.mode], `${l.ratedDurationH} h`,
+      `${chemistryName(l.chemistry)}, ${l.cellsInSeries} cells, ${l.capacityAh} Ah`, l.packFittedOn, dueWords(l.due.functional), dueWords(l.due.duration), LUMINAIRE_STATE_LABELS[l.due.state],
+      `${l.forecast.replaceBy} (${FORECAST_STATE_LABELS[l.forecast.state].toLowerCase()})`,
     ]),
   )
+  const failures = s.luminaires.filter((l) => l.due.openFailures.length)
+  if (failures.length) {
+    doc.moveDown(0.8)
+    write(doc, 'Failures not yet put right', { weight: 'semibold', size: 12, x: doc.page.margins.left } as WriteOptions)
+    table(
+      doc,
+      [{ title: 'Tag', width: 52 }, { title: 'Failed', width: 150 }, { title: 'Fault', width: 190 }, { title: 'Remedial action', width: 190 }, { title: 'Retest', width: 150 }],
+      failures.flatMap((l) => l.due.openFailures.map((f) => [
+        l.tag, `${testKindWords(f.kind)} on ${f.testedOn}`, f.faults, f.remedialAction || '—', f.retestOverdue ? `overdue: was due by ${f.retestBy}` : `due now, by ${f.retestBy}`,
+      ])),
+    )
+  }
   doc.moveDown(1)
   write(doc, 'Isolate the mains before opening a luminaire. Spent nickel-cadmium and lithium packs go to a battery collection point, never into general waste. Local codes and a competent, licensed person decide what the installation needs.', { size: 8, x: doc.page.margins.left } as WriteOptions)
   return toBuffer(doc)

@@ -76,10 +76,13 @@ function streamRecords(csv: string, onRecord: (cells: string[]) => void): Promis
   return new Promise((resolve, reject) => {
     let failed = false
     Papa.parse<string[]>(csv.replace(/^\uFEFF/, ''), {
+      delimiter: ',',
       skipEmptyLines: 'greedy',
       chunkSize: CHUNK_CHARS,
       chunk: (results: Papa.ParseResult<string[]>, parser: Papa.Parser) => {
-        const quote = results.errors.find((e) => e.type === 'Quotes')
+        // Rows may have fewer or more cells than the header (checked cell by cell); anything else
+        // (a quote left open) is the file's fault, and the whole file is refused naming the row.
+        const quote = results.errors.find((e) => e.type !== 'FieldMismatch')
         if (quote) {
           failed = true
           parser.abort()

@@ -2,19 +2,21 @@
  * The specification sheet as a PDF. Each section is a function of (doc, data); a sheet is the list
  * SHEET_SECTIONS, and later features (audits, discharge logs) append their own sections.
  */
-import { CHEMISTRIES } from '../../../../shared/engine/chemistries'
-import type { ChemistryId } from '../../../../shared/engine/chemistries/types'
-import type { EngineWarning, Reference, WorkingStep } from '../../../../shared/engine/types'
-import { flattenInputs, formatFigure, PACK_INPUT_LABELS, PACK_RESULT_FIGURES, SHEET_CAUTIONS } from '../../../../shared/schemas/sheet.schema'
-import type { RevisionView } from '../sheets.service'
-import { ensureSpace, footers, heading, newDocument, pair, toBuffer, write, type Doc } from './pdf-kit'
+import { SEVERITY_LABELS } from '../../../shared/labels'
+import { CHEMISTRIES } from '../../../shared/engine/chemistries'
+import type { ChemistryId } from '../../../shared/engine/chemistries/types'
+import type { EngineWarning, Reference, WorkingStep } from '../../../shared/engine/types'
+import { flattenInputs, formatFigure, PACK_INPUT_LABELS, PACK_RESULT_FIGURES, SHEET_CAUTIONS } from '../../../shared/schemas/sheet.schema'
+import type { RevisionView } from './sheets.service'
+import { ensureSpace, footers, heading, newDocument, pair, toBuffer, write, type PdfSection as GenericPdfSection } from '../../lib/pdf/pdf-kit'
+import { chargerCheckSection, inputValueText, packToOrderSection } from './pack-pdf-section'
 
 export interface SheetPdfData extends RevisionView {
   /** Shown at the top right; the workspace that issued the sheet. */
   issuer?: string
 }
 
-export type PdfSection<D = SheetPdfData> = (doc: Doc, data: D) => void
+export type PdfSection<D = SheetPdfData> = GenericPdfSection<D>
 
 const date = (d: Date | string | null | undefined) => (d ? new Date(d).toISOString().slice(0, 10) : '—')
 const chemistryName = (id: unknown) => CHEMISTRIES[id as ChemistryId]?.name ?? String(id)
@@ -44,7 +46,7 @@ export const projectSection: PdfSection = (doc, d) => {
 export const inputsSection: PdfSection = (doc, d) => {
   heading(doc, 'Inputs (as entered)')
   for (const { path, value } of flattenInputs(d.inputs)) {
-    pair(doc, PACK_INPUT_LABELS[path] ?? path, path === 'chemistry' ? chemistryName(value) : value)
+    pair(doc, PACK_INPUT_LABELS[path] ?? path, path === 'chemistry' ? chemistryName(value) : inputValueText(path, value))
   }
 }
 
@@ -58,7 +60,6 @@ export const resultsSection: PdfSection = (doc, d) => {
   }
 }
 
-const SEVERITY_WORD = { critical: 'Critical', warning: 'Warning', info: 'Note' } as const
 
 export const warningsSection: PdfSection = (doc, d) => {
   const warnings = (d.results.warnings ?? []) as EngineWarning[]
@@ -66,7 +67,7 @@ export const warningsSection: PdfSection = (doc, d) => {
   if (!warnings.length) write(doc, 'None.')
   for (const w of warnings) {
     ensureSpace(doc, 28)
-    write(doc, `${SEVERITY_WORD[w.severity] ?? w.severity}: `, { weight: 'semibold', continued: true, color: w.severity === 'critical' ? '#a3161a' : w.severity === 'warning' ? '#a4460f' : '#1b2a33' })
+    write(doc, `${SEVERITY_LABELS[w.severity]}: `, { weight: 'semibold', continued: true, color: w.severity === 'critical' ? '#a3161a' : w.severity === 'warning' ? '#a4460f' : '#1b2a33' })
     write(doc, w.message)
     doc.moveDown(0.2)
   }
@@ -110,7 +111,7 @@ export const referencesSection: PdfSection = (doc, d) => {
 }
 
 /** The sheet as issued today; later features push their sections onto a copy of this list. */
-export const SHEET_SECTIONS: PdfSection[] = [titleSection, projectSection, inputsSection, resultsSection, warningsSection, workingSection, cautionsSection, referencesSection]
+export const SHEET_SECTIONS: PdfSection[] = [titleSection, projectSection, packToOrderSection, inputsSection, resultsSection, chargerCheckSection, warningsSection, workingSection, cautionsSection, referencesSection]
 
 export async function buildSheetPdf(data: SheetPdfData, sections: PdfSection[] = SHEET_SECTIONS): Promise<Buffer> {
   const doc = newDocument({ title: data.title, subject: `Revision ${data.number}` })

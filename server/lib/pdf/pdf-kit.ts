@@ -52,6 +52,9 @@ const fontName = (weight: Weight, subset: string) => `SourceSans3-${weight}-${su
 
 export type Doc = PDFKit.PDFDocument
 
+/** One part of a document: writes its data onto the document, page breaks included. */
+export type PdfSection<D> = (doc: Doc, data: D) => void
+
 /** A new A4 document with the font subsets registered (portrait with wide margins unless told). */
 export function newDocument(info: { title: string; subject?: string }, page: { layout?: 'portrait' | 'landscape'; margin?: number } = {}): Doc {
   const margins = page.margin !== undefined ? { top: page.margin, bottom: page.margin, left: page.margin, right: page.margin } : { top: 56, bottom: 64, left: 56, right: 56 }
