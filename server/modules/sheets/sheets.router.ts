@@ -19,6 +19,7 @@ import { withWattageAudits } from '../audits/audit-pdf-section'
 import { logsForSheet } from '../discharge/discharge.service'
 import { withDischargeLogs } from '../discharge/discharge-pdf-section'
 import { buildSheetPdf, cautionsSection, SHEET_SECTIONS } from './sheet-pdf'
+import * as shareLinks from './share-links.service'
 import * as service from './sheets.service'
 
 const Uuid = z.string().uuid()
@@ -111,16 +112,16 @@ async function createShare(req: Request, res: Response) {
   const s = scope(req)
   const id = param(req, 'id')
   const { expiresAt } = parse(ShareCreateSchema, req.body)
-  res.status(201).json(await service.createShare(s.workspaceId, s.userId, id, expiresAt ? new Date(expiresAt) : null))
+  res.status(201).json(await shareLinks.createShare(s.workspaceId, s.userId, id, expiresAt ? new Date(expiresAt) : null))
 }
 
 async function listShares(req: Request, res: Response) {
-  res.json({ shares: await service.listShares(scope(req).workspaceId, param(req, 'id')) })
+  res.json({ shares: await shareLinks.listShares(scope(req).workspaceId, param(req, 'id')) })
 }
 
 async function revokeShare(req: Request, res: Response) {
   const s = scope(req)
-  await service.revokeShare(s.workspaceId, s.userId, param(req, 'id'), param(req, 'shareId'))
+  await shareLinks.revokeShare(s.workspaceId, s.userId, param(req, 'id'), param(req, 'shareId'))
   res.status(204).end()
 }
 
@@ -128,17 +129,17 @@ async function emailShare(req: Request, res: Response) {
   const s = scope(req)
   const id = param(req, 'id')
   const shareId = param(req, 'shareId')
-  await service.emailShare(s.workspaceId, s.userId, id, shareId, parse(ShareEmailSchema, req.body))
+  await shareLinks.emailShare(s.workspaceId, s.userId, id, shareId, parse(ShareEmailSchema, req.body))
   res.status(202).json({ sent: true })
 }
 
 async function shared(req: Request, res: Response) {
   res.setHeader('Cache-Control', 'no-store')
-  res.json(await service.sharedSheet(param(req, 'token', TokenParam)))
+  res.json(await shareLinks.sharedSheet(param(req, 'token', TokenParam)))
 }
 
 async function sharedPdf(req: Request, res: Response) {
-  const view = await service.sharedSheet(param(req, 'token', TokenParam))
+  const view = await shareLinks.sharedSheet(param(req, 'token', TokenParam))
   sendPdf(res, await buildSheetPdf(view), fileName(view.title, view.number))
 }
 
