@@ -27,8 +27,8 @@ export const CHEMISTRY_SHORT_LABELS: Record<keyof typeof CHEMISTRY_LABELS, strin
 }
 
 export const DRIVER_LABELS = {
-  direct: 'Direct from the pack',
-  converter: 'Through a converter (LED driver)',
+  converter: 'Converter (DC-DC driver)',
+  direct: 'Direct (current limiter)',
 } as const
 
 export const MODE_LABELS = {
@@ -245,8 +245,11 @@ export function unitLabel(unit: string): string {
  * hyphen, digits, or mixed case.
  */
 export function isTellTaleCode(code: string): boolean {
-  return /[-_]/.test(code) || /\d/.test(code) || /[a-z][A-Z]/.test(code)
+  return /[-_]/.test(code) || /\d/.test(code) || /[a-z][A-Z]/.test(code) || NON_WORD_CODES.has(code)
 }
+
+/** Lower-case codes that are no English word. */
+const NON_WORD_CODES = new Set(['nicd', 'nimh', 'ymd', 'dmy', 'mdy'])
 
 /** Every code across the enumerations that must never appear as text on a client-facing page. */
 export function tellTaleCodes(): string[] {

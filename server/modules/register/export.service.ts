@@ -4,9 +4,9 @@
  * a spreadsheet shows them as text instead of running them as a formula.
  */
 import Papa from 'papaparse'
-import { heightOf, newDocument, toBuffer, write, writeAt, type Doc, type WriteOptions } from '../../lib/pdf/pdf-kit'
-import { PURPOSE_LABELS } from '../../../shared/schemas/luminaire.schema'
-import { REGIME_LABELS } from '../../../shared/schemas/site.schema'
+import { DEFAULT_PREFS, formatDate, formatHours, formatNumber, type FormatPrefs } from '../../../shared/format'
+import { CHEMISTRY_SHORT_LABELS, labelOf, MODE_LABELS, PURPOSE_LABELS, REGIME_LABELS, TEST_KIND_LABELS, TEST_STATE_LABELS } from '../../../shared/labels'
+import { frame, heightOf, newDocument, toBuffer, write, writeAt, type Doc } from '../../lib/pdf/pdf-kit'
 import { siteStatus, todayIso } from './register.service'
 import { siteLogBook } from './tests.service'
 
@@ -53,13 +53,13 @@ export interface ExportResult {
 
 const slug = (s: string) => s.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '').slice(0, 60) || 'site'
 
-export async function exportFile(workspaceId: string, siteId: string, file: ExportFile): Promise<ExportResult> {
+export async function exportFile(workspaceId: string, siteId: string, file: ExportFile, prefs: FormatPrefs = DEFAULT_PREFS): Promise<ExportResult> {
   const reg = await registerRows(workspaceId, siteId)
   const base = `${slug(reg.status.site.name)}-${file.startsWith('register') ? 'register' : 'log-book'}-${reg.status.today}`
   if (file === 'register.csv') return { filename: `${base}.csv`, mediaType: 'text/csv; charset=utf-8', body: Buffer.from(toCsv(reg.header, reg.rows), 'utf8') }
   const log = await logBookRows(workspaceId, siteId)
   if (file === 'logbook.csv') return { filename: `${base}.csv`, mediaType: 'text/csv; charset=utf-8', body: Buffer.from(toCsv(log.header, log.rows), 'utf8') }
-  const body = file === 'register.pdf' ? await registerPdf(reg) : await logBookPdf(reg.status, log.rows)
+  const body = file === 'register.pdf' ? await registerPdf(reg, prefs) : await logBookPdf(reg.status, log.rows, prefs)
   return { filename: `${base}.pdf`, mediaType: 'application/pdf', body }
 }
 
@@ -70,12 +70,17 @@ type SiteStatus = Awaited<ReturnType<typeof siteStatus>>
 // Landscape with narrow margins: the register is a wide table.
 const newDoc = (title: string) => newDocument({ title }, { layout: 'landscape', margin: 36 })
 
-function heading(doc: Doc, title: string, status: SiteStatus) {
+function heading(doc: Doc, title: string, status: SiteStatus, prefs: FormatPrefs) {
   write(doc, title, { weight: 'semibold', size: 16 })
   write(doc, `${status.site.name}${status.site.address ? ` — ${status.site.address.replace(/\s*\n\s*/g, ', ')}` : ''}`)
   write(doc, `Responsible person: ${status.site.responsibleName || '—'} ${status.site.responsibleEmail ? `<${status.site.responsibleEmail}>` : ''}`)
-  write(doc, `Testing regime: ${REGIME_LABELS[status.site.regime]}. Printed ${status.today}.`)
+  write(doc, `Testing regime: ${REGIME_LABELS[status.site.regime]}. Printed ${formatDate(status.today, prefs)}.`)
   doc.moveDown(0.6)
+}
+
+/** Header and footer bands of the register and log book. */
+function frameSiteDocument(doc: Doc, title: string, status: SiteStatus, prefs: FormatPrefs) {
+  frame(doc, { header: `${title} — ${status.site.name}`, footer: `Printed ${formatDate(status.today, prefs)} · Lampwright` })
 }
 
 interface Column {
@@ -117,10 +122,10 @@ function table(doc: Doc, columns: Column[], rows: string[][]) {
   }
 }
 
-async function registerPdf(reg: Awaited<ReturnType<typeof registerRows>>): Promise<Buffer> {
+async function registerPdf(reg: Awaited<ReturnType<typeof registerRows>>, prefs: FormatPrefs): Promise<Buffer> {
   const s = reg.status
   const doc = newDoc(`Emergency lighting register — ${s.site.name}`)
-  heading(doc, 'Emergency lighting register', s)
+  heading(doc, 'Emergency lighting register', s, prefs)
   write(doc, `${s.counts.luminaires} luminaires: ${s.counts.failed} failed at the last test, ${s.counts.overdue} overdue, ${s.counts.dueSoon} due within 14 days.`)
   doc.moveDown(0.6)
   const columns: Column[] = [
@@ -132,18 +137,21 @@ async function registerPdf(reg: Awaited<ReturnType<typeof registerRows>>): Promi
     doc,
     columns,
     s.luminaires.map((l) => [
-      l.tag, [l.areaName, l.location].filter(Boolean).join(' — '), PURPOSE_LABELS[l.purpose], l.mode, `${l.ratedDurationH} h`,
-      `${l.chemistry}, ${l.cellsInSeries} cells, ${l.capacityAh} Ah`, l.packFittedOn, l.due.functional.nextDueOn, l.due.duration.nextDueOn, l.due.state, l.forecast.replaceBy,
+      l.tag, [l.areaName, l.location].filter(Boolean).join(' — '), labelOf(PURPOSE_LABELS, l.purpose), labelOf(MODE_LABELS, l.mode), formatHours(l.ratedDurationH, prefs),
+      `${labelOf(CHEMISTRY_SHORT_LABELS, l.chemistry)}, ${l.cellsInSeries} cells, ${formatNumber(l.capacityAh, { unit: 'Ah' }, prefs)}`, formatDate(l.packFittedOn, prefs),
+      formatDate(l.due.functional.nextDueOn, prefs), formatDate(l.due.duration.nextDueOn, prefs), labelOf(TEST_STATE_LABELS, l.due.state), formatDate(l.forecast.replaceBy, prefs),
     ]),
   )
   doc.moveDown(1)
-  write(doc, 'Isolate the mains before opening a luminaire. Spent nickel-cadmium and lithium packs go to a battery collection point, never into general waste. Local codes and a competent, licensed person decide what the installation needs.', { size: 8, x: doc.page.margins.left } as WriteOptions)
+  doc.x = doc.page.margins.left
+  write(doc, 'Isolate the mains before opening a luminaire. Spent nickel-cadmium and lithium packs go to a battery collection point, never into general waste. Local codes and a competent, licensed person decide what the installation needs.', { size: 8 })
+  frameSiteDocument(doc, 'Emergency lighting register', s, prefs)
   return toBuffer(doc)
 }
 
-async function logBookPdf(status: SiteStatus, rows: Array<Array<string | number | boolean | null>>): Promise<Buffer> {
+async function logBookPdf(status: SiteStatus, rows: Array<Array<string | number | boolean | null>>, prefs: FormatPrefs): Promise<Buffer> {
   const doc = newDoc(`Emergency lighting log book — ${status.site.name}`)
-  heading(doc, 'Emergency lighting log book', status)
+  heading(doc, 'Emergency lighting log book', status, prefs)
   const columns: Column[] = [
     { title: 'Date', width: 58 }, { title: 'Tag', width: 52 }, { title: 'Test', width: 56 }, { title: 'Result', width: 36 }, { title: 'Lit for', width: 40 },
     { title: 'Faults found', width: 170 }, { title: 'Remedial action', width: 170 }, { title: 'By', width: 90 },
@@ -151,8 +159,12 @@ async function logBookPdf(status: SiteStatus, rows: Array<Array<string | number 
   table(
     doc,
     columns,
-    rows.map((r) => [String(r[0]), String(r[1]), r[2] === 'duration' ? 'Full duration' : 'Functional', String(r[3]), r[4] === null || r[4] === '' ? '' : `${r[4]} h`, String(r[5] ?? ''), String(r[6] ?? ''), String(r[7] ?? '')]),
+    rows.map((r) => [
+      formatDate(String(r[0]), prefs), String(r[1]), labelOf(TEST_KIND_LABELS, String(r[2])), r[3] === 'pass' ? 'Pass' : 'Fail',
+      typeof r[4] === 'number' ? formatHours(r[4], prefs) : '', String(r[5] ?? ''), String(r[6] ?? ''), String(r[7] ?? ''),
+    ]),
   )
   if (!rows.length) write(doc, 'No tests recorded yet.')
+  frameSiteDocument(doc, 'Emergency lighting log book', status, prefs)
   return toBuffer(doc)
 }

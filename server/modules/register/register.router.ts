@@ -8,6 +8,7 @@ import { TestBatchSchema } from '../../../shared/schemas/test-record.schema'
 import { BadRequestError, NotFoundError } from '../../errors/app-error'
 import { idParam, parse } from '../../lib/parse'
 import { scope, type RouteSpec } from '../../policy/access'
+import { formatPrefsOf } from '../../lib/format-prefs'
 import { EXPORT_FILES, exportFile, type ExportFile } from './export.service'
 import { commitImport, previewImport } from './import.service'
 import * as register from './register.service'
@@ -173,7 +174,7 @@ export const registerRoutes: RouteSpec[] = [
       if (!EXPORT_FILES.includes(file)) throw new NotFoundError(`The export "${file}"`)
       const as = req.query.as
       if (as !== undefined && as !== 'json') throw new BadRequestError('as must be "json" or left out.', [{ path: 'as', message: 'must be "json" or left out' }])
-      const out = await exportFile(scope(req).workspaceId, idParam(req), file)
+      const out = await exportFile(scope(req).workspaceId, idParam(req), file, formatPrefsOf(req))
       if (as === 'json') {
         const text = out.mediaType.startsWith('text/')
         res.json({ filename: out.filename, mediaType: out.mediaType, encoding: text ? 'utf8' : 'base64', content: out.body.toString(text ? 'utf8' : 'base64') })

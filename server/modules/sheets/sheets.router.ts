@@ -19,6 +19,7 @@ import { withWattageAudits } from '../audits/audit-pdf-section'
 import { logsForSheet } from '../discharge/discharge.service'
 import { withDischargeLogs } from '../discharge/discharge-pdf-section'
 import { buildSheetPdf, cautionsSection, SHEET_SECTIONS } from './sheet-pdf'
+import { formatPrefsOf } from '../../lib/format-prefs'
 import * as shareLinks from './share-links.service'
 import * as service from './sheets.service'
 
@@ -105,7 +106,7 @@ async function pdf(req: Request, res: Response) {
   const audits = await auditsForSheet(s.workspaceId, id)
   const dischargeLogs = await logsForSheet(s.workspaceId, id)
   const sections = withDischargeLogs(withWattageAudits(SHEET_SECTIONS, audits, cautionsSection), dischargeLogs, cautionsSection)
-  sendPdf(res, await buildSheetPdf({ ...data, issuer: ws?.name }, sections), fileName(data.title, data.number))
+  sendPdf(res, await buildSheetPdf({ ...data, issuer: ws?.name, prefs: formatPrefsOf(req) }, sections), fileName(data.title, data.number))
 }
 
 async function createShare(req: Request, res: Response) {
@@ -140,7 +141,7 @@ async function shared(req: Request, res: Response) {
 
 async function sharedPdf(req: Request, res: Response) {
   const view = await shareLinks.sharedSheet(param(req, 'token', TokenParam))
-  sendPdf(res, await buildSheetPdf(view), fileName(view.title, view.number))
+  sendPdf(res, await buildSheetPdf({ ...view, prefs: formatPrefsOf(req) }), fileName(view.title, view.number))
 }
 
 export const sheetRoutes: RouteSpec[] = [
