@@ -10,6 +10,7 @@ import { csrfProtection } from './middleware/csrf'
 import { errorHandler, notFoundApi } from './middleware/error-handler'
 import { requestLog } from './middleware/request-log'
 import { authorize, type RouteSpec } from './policy/access'
+import { routeChain } from './policy/route'
 import { configurePassport } from './modules/auth/passport'
 import { buildRouteTable } from './routes'
 import { createSessionMiddleware } from './lib/session'
@@ -88,8 +89,7 @@ export function createApp(opts: AppOptions = {}): BuiltApp {
       groups.set(prefix, group)
       app.use(prefix, group)
     }
-    const handlers = Array.isArray(route.handler) ? route.handler : [route.handler]
-    group[route.method](route.path.slice(prefix.length) || '/', authorize(route.access), ...handlers)
+    group[route.method](route.path.slice(prefix.length) || '/', authorize(route.access), ...routeChain(route))
   }
   app.use('/api', notFoundApi)
 

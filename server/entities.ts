@@ -8,9 +8,12 @@ import { LuminaireType } from './modules/photometry/luminaire-type.entity'
 import { PhotometricFile } from './modules/photometry/photometric-file.entity'
 import { AreaEntity } from './modules/register/area.entity'
 import { LuminaireEntity } from './modules/register/luminaire.entity'
+import { RegisterSettingsEntity } from './modules/register/register-settings.entity'
 import { ReminderSendEntity } from './modules/register/reminder-send.entity'
 import { SiteEntity } from './modules/register/site.entity'
+import { TestPlanEntity } from './modules/register/test-plan.entity'
 import { TestRecordEntity } from './modules/register/test-record.entity'
+import { TestRoundEntity } from './modules/register/test-round.entity'
 import { ShareLink } from './modules/sheets/share-link.entity'
 import { SpecRevision } from './modules/sheets/spec-revision.entity'
 import { SpecSheet } from './modules/sheets/spec-sheet.entity'
@@ -20,4 +23,4 @@ import { Invitation } from './modules/workspaces/invitation.entity'
 import { Membership } from './modules/workspaces/membership.entity'
 import { Workspace } from './modules/workspaces/workspace.entity'
 
-export const entities = [User, Workspace, Membership, Invitation, PasswordReset, AuditEvent, ApiToken, SpecSheet, SpecRevision, ShareLink, SiteEntity, AreaEntity, LuminaireEntity, TestRecordEntity, ReminderSendEntity, WattageAudit, PhotometricFile, LuminaireType, DischargeFile, DischargeLog]
+export const entities = [User, Workspace, Membership, Invitation, PasswordReset, AuditEvent, ApiToken, SpecSheet, SpecRevision, ShareLink, SiteEntity, AreaEntity, LuminaireEntity, TestRecordEntity, ReminderSendEntity, RegisterSettingsEntity, TestRoundEntity, TestPlanEntity, WattageAudit, PhotometricFile, LuminaireType, DischargeFile, DischargeLog]

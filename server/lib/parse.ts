@@ -7,11 +7,20 @@ export function parse<S extends z.ZodTypeAny>(schema: S, value: unknown): z.outp
   return schema.parse(value ?? {})
 }
 
-const Uuid = z.string().uuid()
+/** A record id in a path. */
+export const Uuid = z.string().uuid()
+
+/** Path parameters of the routes about one record: `/:id`. */
+export const IdParams = z.object({ id: Uuid })
+
+/** Path parameters made of several record ids, e.g. `uuidParams('id', 'shareId')`. */
+export function uuidParams<K extends string>(...names: K[]) {
+  return z.object(Object.fromEntries(names.map((n) => [n, Uuid])) as Record<K, typeof Uuid>)
+}
 
 /**
- * A record id from the path. A malformed id answers 404 exactly like a missing one, so ids cannot
- * be probed; `what` names the record in the message ("That discharge log was not found.").
+ * A record id from the path, for code outside a route declaration. Routes declare
+ * `params: IdParams` instead: the route middleware then answers a malformed id with 404.
  */
 export function idParam(req: Request, what?: string, name = 'id'): string {
   const r = Uuid.safeParse(req.params[name])

@@ -4,32 +4,13 @@
  * access-control tests walk.
  */
 import type { NextFunction, Request, RequestHandler, Response } from 'express'
-import type { ZodTypeAny } from 'zod'
 import { roleAtLeast, type Role } from '../../shared/schemas/roles'
 import { ForbiddenError, UnauthorizedError } from '../errors/app-error'
+import type { Access } from './route'
 import { findMembership, firstMembership } from '../modules/workspaces/workspaces.repository'
 
-/** public: anyone; signed-in: any signed-in user; a role: that role or higher in the current workspace. */
-export type Access = 'public' | 'signed-in' | Role
-
-export type Method = 'get' | 'post' | 'put' | 'patch' | 'delete'
-
-export interface RouteSpec {
-  method: Method
-  /** Express path under /api, e.g. "/api/sheets/:id". */
-  path: string
-  access: Access
-  summary: string
-  handler: RequestHandler | RequestHandler[]
-  /** The zod schema of the JSON body, for the OpenAPI document and the fuzzer. */
-  body?: ZodTypeAny
-  /** The zod schema of the query string. */
-  query?: ZodTypeAny
-  /** Grouping in the API docs. */
-  tags?: string[]
-  /** The body is multipart/form-data (an upload) rather than JSON. */
-  upload?: boolean
-}
+export type { Access, Method, RouteSpec, RouteInput } from './route'
+export { defineRoute } from './route'
 
 export interface RequestContext {
   userId: string

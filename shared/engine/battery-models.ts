@@ -118,3 +118,16 @@ export function floatCellVoltage(chemistry: Chemistry, ambientC: number, at25C?:
   const t = limits ? Math.min(limits.max, Math.max(limits.min, ambientC)) : ambientC
   return (at25C ?? float.cellVoltageAt25C.value) + float.coefficientVPerC.value * (t - 25)
 }
+
+/**
+ * Lowest end-of-discharge voltage per cell the cells tolerate at a discharge rate: one rule for every
+ * tool. Where the makers tabulate final voltage by rate (VRLA), it is the table's value at that rate;
+ * when the rate is not known, the table's lowest value (the floor at any rate). Otherwise the chemistry's
+ * minimum safe voltage.
+ */
+export function deepDischargeLimitCellV(chemistry: Chemistry, dischargeRateC: number | null): number {
+  const table = chemistry.cutoffByDischargeRate?.value
+  if (!table) return chemistry.minSafeCellVoltage.value
+  if (dischargeRateC === null) return Math.min(...table.map(([, volts]) => volts))
+  return cutoffCellVoltageAtRate(chemistry, dischargeRateC)
+}

@@ -10,7 +10,8 @@ import { CHEMISTRIES } from './chemistries'
 import { REF } from './chemistries/references'
 import type { ChemistryId, Range } from './chemistries/types'
 import { ambientTemperature, finiteNumber, quantity } from './fields'
-import { addChemistryNotes, chooseCellsInSeries, describeCellChoice, packIssues } from './size'
+import { chooseCellsInSeries, describeCellChoice } from './pack-cells'
+import { addChemistryNotes, packIssues } from './pack-rules'
 import { defineTool } from './tool'
 import { sortWarnings, workingValue, type EngineWarning, type Reference, type WorkingStep } from './types'
 import { roundToSignificant } from './round'
@@ -29,7 +30,7 @@ export const chargeInputObject = z.object({
   ...loadFields,
   /** Charger current (constant-current stage), A. */
   chargeCurrent: quantity('current', { positive: true, max: 1_000 }),
-  /** Permanent current once charged; nickel chargers usually keep the charge current on, so it defaults to chargeCurrent for nickel and 0 otherwise. */
+  /** Permanent current once charged; defaults to chargeCurrent (the charger keeps its current on); 0 for a charger that stops when full. */
   trickleCurrent: quantity('current', { min: 0, max: 1_000 }).optional(),
   /** Charger float / hold voltage; read per pack or per cell according to voltageBasis. */
   floatVoltage: quantity('voltage', { positive: true, max: 1_000 }).optional(),
@@ -97,17 +98,29 @@ export function checkCharge(input: ChargeInput, options: { explain?: boolean } =
   const perCell = (volts: number) => (input.voltageBasis === 'cell' ? volts : volts / n)
 
   const draw = batteryDraw(input.load, input.driver, input.driverEfficiency, n * averageCell)
-  const dischargeAh = draw.currentA * durationH
+  // A full test cannot take out more than the pack holds: the pack runs flat first.
+  const demandAh = draw.currentA * durationH
+  const dischargeAh = Math.min(demandAh, capacityAh)
   const factor = chemistry.chargeFactor.value
   const rechargeH = (dischargeAh * factor) / input.chargeCurrent
   const chargeC = input.chargeCurrent / capacityAh
-  const trickleA = input.trickleCurrent ?? (chemistry.family === 'nickel' ? input.chargeCurrent : 0)
+  // Left empty, the charger is taken to keep its current on (as nickel chargers do) for every chemistry:
+  // a charger that stops when full is typed as 0, so a blank never hides a permanent charge.
+  const trickleA = input.trickleCurrent ?? input.chargeCurrent
   const trickleC = trickleA / capacityAh
   const limit = chemistry.continuousChargeRangeC.value
   const tol = 1e-9
   const trickleWithinLimit = trickleC <= limit.max + tol && (trickleC === 0 ? chemistry.family !== 'nickel' : trickleC >= limit.min - tol)
   const rechargeOk = rechargeH <= RECHARGE_LIMIT_H
 
+  if (demandAh > capacityAh * (1 + 1e-9)) {
+    warnings.push({
+      code: 'load-exceeds-pack',
+      severity: 'critical',
+      field: 'capacity',
+      message: `The load takes about ${round(demandAh)} Ah over the ${round(durationH)} h rated duration, more than the ${round(capacityAh)} Ah pack holds: the pack runs flat before the end of the test. The recharge is counted from a flat pack (${round(capacityAh)} Ah).`,
+    })
+  }
   // Charge rate.
   if (chargeC > chemistry.maxChargeRateC.value + tol) {
     warnings.push({
@@ -260,9 +273,9 @@ export function checkCharge(input: ChargeInput, options: { explain?: boolean } =
         references: [describeCellChoice(choice, chemistry, input.load, chemistry.cutoffCellVoltage.value, input.converterInput).reference],
       },
       {
-        id: 'dischargeAh', label: 'Charge taken by one rated-duration discharge', formula: 'Q = I · t',
-        explanation: 'The ampere-hours a full rated-duration test takes out of the pack.',
-        inputs: [v('I', 'Average current', draw.currentA, 'A'), v('t', 'Rated duration', durationH, 'h')],
+        id: 'dischargeAh', label: 'Charge taken by one rated-duration discharge', formula: 'Q = min(I · t, C)',
+        explanation: 'The ampere-hours a full rated-duration test takes out of the pack; never more than the pack holds (it runs flat first).',
+        inputs: [v('I', 'Average current', draw.currentA, 'A'), v('t', 'Rated duration', durationH, 'h'), v('C', 'Capacity', capacityAh, 'Ah')],
         result: v('Q', 'Charge taken out', dischargeAh, 'Ah'), references: [REF.commonPractice('Charge balance')],
       },
       {

@@ -7,8 +7,9 @@ import { chemistryIdSchema, designFields, loadFields, loadIssues } from './batte
 import { CHEMISTRIES, CHEMISTRY_IDS } from './chemistries'
 import { REF } from './chemistries/references'
 import type { ChemistryId, Range } from './chemistries/types'
-import { ambientTemperature, finiteNumber } from './fields'
-import { packIssues, sizePack, type SizeInput, type SizeResult } from './size'
+import { ambientTemperature, finiteNumber, quantity } from './fields'
+import { packIssues } from './pack-rules'
+import { sizePack, type SizeInput, type SizeResult } from './size'
 import { defineTool } from './tool'
 import { sortWarnings, type EngineWarning, type WorkingStep } from './types'
 import { roundToSignificant } from './round'
@@ -32,6 +33,8 @@ export const compareInputObject = z.object({
   ...designFields,
   ambientMin: ambientTemperature().default(5),
   ambientMax: ambientTemperature().default(25),
+  /** Nominal pack voltage every chemistry must make (cells recomputed per chemistry; one that cannot is flagged). */
+  nominalVoltage: quantity('voltage', { positive: true, max: 1_000 }).optional(),
   chemistries: z
     .array(chemistryIdSchema, { invalid_type_error: 'must be a list of chemistry ids' })
     .min(1, 'must name at least one chemistry')
@@ -97,7 +100,7 @@ export type Luminaire = Pick<
   | 'designLifeYears'
   | 'ambientMin'
   | 'ambientMax'
->
+> & { load: NonNullable<SizeInput['load']>; nominalVoltage?: number }
 
 /** The size input for one chemistry and a luminaire; written out (not spread) so every call has one shape. */
 export function sizeInputFor(chemistry: ChemistryId, input: Luminaire): SizeInput {
@@ -114,6 +117,7 @@ export function sizeInputFor(chemistry: ChemistryId, input: Luminaire): SizeInpu
     designLifeYears: input.designLifeYears,
     ambientMin: input.ambientMin,
     ambientMax: input.ambientMax,
+    nominalVoltage: input.nominalVoltage,
   }
 }
 
@@ -122,8 +126,14 @@ const hasCritical = (warnings: EngineWarning[]) => {
   return false
 }
 
-/** `explain: false` skips verdict sentences and working (bulk runs such as the benchmark). */
-export function compareChemistries(input: CompareInput, options: { explain?: boolean } = {}): CompareResult {
+export interface CompareOptions {
+  /** `false` skips verdict sentences and working (bulk runs such as the benchmark). */
+  explain?: boolean
+  /** The pack already sized on a screen: its chemistry's row is sized with exactly this input, so the row matches it. */
+  exact?: SizeInput
+}
+
+export function compareChemistries(input: CompareInput, options: CompareOptions = {}): CompareResult {
   const explain = options.explain !== false
   // Plain loops below: this runs once per luminaire in bulk comparisons.
   const ids: ChemistryId[] = []
@@ -132,7 +142,7 @@ export function compareChemistries(input: CompareInput, options: { explain?: boo
   let maxLife = 0
   let minVolume = Infinity
   for (const id of ids) {
-    const r = sizePack(sizeInputFor(id, input), { explain: false })
+    const r = sizePack(options.exact?.chemistry === id ? options.exact : sizeInputFor(id, input), { explain: false })
     sized.push(r)
     if (r.serviceLifeYears > maxLife) maxLife = r.serviceLifeYears
     const volume = (r.volumeL.min + r.volumeL.max) / 2
@@ -228,6 +238,7 @@ const CRITICAL_WORDS: Record<string, string> = {
   'converter-window-low': 'no cell count fits the converter input window',
   'converter-window-high': 'no cell count fits the converter input window',
   'deep-discharge': 'the cut-off deep-discharges it',
+  'pack-voltage-changed': 'no whole number of its cells makes this pack voltage',
 }
 
 function verdictFor(row: CompareRow, input: CompareInput, w: Weights): string {

@@ -34,6 +34,12 @@ export function quantity(dimension: Dimension, bounds: QuantityBounds = {}) {
       return z.NEVER
     }
     const v = parsed.value
+    // Beyond the kind's ceiling a value is a slip (1e300, a unit typed wrong), never a reading.
+    const ceiling = DIMENSIONS[dimension].ceiling
+    if (bounds.max === undefined && Math.abs(v) > ceiling) {
+      ctx.addIssue({ code: z.ZodIssueCode.custom, message: `is not a plausible value for ${DIMENSIONS[dimension].noun}: at most ${show(ceiling)} in size` })
+      return z.NEVER
+    }
     if (bounds.positive && !(v > 0)) {
       ctx.addIssue({ code: z.ZodIssueCode.custom, message: 'must be greater than zero' })
       return z.NEVER
@@ -50,9 +56,14 @@ export function quantity(dimension: Dimension, bounds: QuantityBounds = {}) {
   })
 }
 
-/** A plain finite number (counts, ratios), optionally bounded. */
+/** Largest magnitude a plain number field takes when it states no bounds of its own: beyond it the value is a slip. */
+export const PLAIN_NUMBER_CEILING = 1e9
+
+/** A plain finite number (counts, ratios), optionally bounded; unbounded sides stop at ±PLAIN_NUMBER_CEILING. */
 export function finiteNumber(opts: { min?: number; max?: number; positive?: boolean; int?: boolean } = {}) {
   let s = z.number({ invalid_type_error: 'must be a number' }).finite('must be a finite number')
+  if (opts.max === undefined) s = s.max(PLAIN_NUMBER_CEILING, `is not a plausible value: at most ${PLAIN_NUMBER_CEILING.toExponential()}`)
+  if (opts.min === undefined && !opts.positive) s = s.min(-PLAIN_NUMBER_CEILING, `is not a plausible value: at least −${PLAIN_NUMBER_CEILING.toExponential()}`)
   if (opts.int) s = s.int('must be a whole number')
   if (opts.positive) s = s.positive('must be greater than zero')
   if (opts.min !== undefined) s = s.min(opts.min, `must be at least ${opts.min}`)

@@ -1,8 +1,9 @@
 /**
- * Quantities at the engine's edge: a bare number is taken in the field's base unit
- * (SI: A, A·s, s, V, W, J, Ω, Hz, m, lx, cd; temperature in °C), a string is parsed by
- * mathjs (`"120 mA"`, `"1.6 Ah"`, `"90 min"`, `"25 degC"`). Inside the engine every
- * value is a plain number in that base unit, so the hot paths never touch mathjs.
+ * Quantities at the engine's edge: a string is parsed by mathjs (`"120 mA"`, `"1.6 Ah"`, `"90 min"`,
+ * `"25 degC"`); a bare number is taken in the field's base unit (SI: A, V, W, Ω, Hz, m, lx, cd;
+ * temperature in °C), except for times, charges and energies, where the trade writes several units
+ * of very different size (s, min, h; C, mAh, Ah; J, Wh) and a bare number is refused. Inside the
+ * engine every value is a plain number in the base unit, so the hot paths never touch mathjs.
  */
 import { create, createUnitDependencies, unitDependencies, type Unit } from 'mathjs'
 
@@ -36,22 +37,28 @@ interface DimensionSpec {
   /** Words for error messages. */
   noun: string
   example: string
+  /** 'base': a bare number is read in the base unit; 'refuse': a unit is required (the units in use differ by ×60 to ×3600). */
+  bareNumber: 'base' | 'refuse'
+  /** The units a bare number could mean, for the refusal message. */
+  bareMeanings?: string
+  /** Largest magnitude, in the base unit, that any field of this kind accepts: beyond it the value is a slip, not a reading. */
+  ceiling: number
 }
 
 export const DIMENSIONS: Record<Dimension, DimensionSpec> = {
-  current: { base: 'A', probe: '1 A', noun: 'a current', example: '120 mA' },
-  charge: { base: 'C', probe: '1 C', noun: 'a charge (capacity)', example: '1.6 Ah' },
-  time: { base: 's', probe: '1 s', noun: 'a time', example: '90 min' },
-  temperature: { base: 'degC', probe: '1 K', noun: 'a temperature', example: '25 degC' },
-  voltage: { base: 'V', probe: '1 V', noun: 'a voltage', example: '3.6 V' },
-  power: { base: 'W', probe: '1 W', noun: 'a power', example: '4 W' },
-  apparentPower: { base: 'VA', probe: '1 VA', noun: 'an apparent power', example: '6 VA' },
-  energy: { base: 'J', probe: '1 J', noun: 'an energy', example: '5 Wh' },
-  resistance: { base: 'ohm', probe: '1 ohm', noun: 'a resistance', example: '47 ohm' },
-  frequency: { base: 'Hz', probe: '1 Hz', noun: 'a frequency', example: '50 Hz' },
-  length: { base: 'm', probe: '1 m', noun: 'a length', example: '2.5 m' },
-  illuminance: { base: 'lx', probe: '1 lx', noun: 'an illuminance', example: '1 lx' },
-  luminousIntensity: { base: 'cd', probe: '1 cd', noun: 'a luminous intensity', example: '100 cd' },
+  current: { base: 'A', probe: '1 A', noun: 'a current', example: '120 mA', bareNumber: 'base', ceiling: 1e4 },
+  charge: { base: 'C', probe: '1 C', noun: 'a charge (capacity)', example: '1.6 Ah', bareNumber: 'refuse', bareMeanings: 'coulombs, mAh or Ah', ceiling: 1e5 * 3600 },
+  time: { base: 's', probe: '1 s', noun: 'a time', example: '3 h', bareNumber: 'refuse', bareMeanings: 'seconds, minutes or hours', ceiling: 366 * 24 * 3600 },
+  temperature: { base: 'degC', probe: '1 K', noun: 'a temperature', example: '25 degC', bareNumber: 'base', ceiling: 1e3 },
+  voltage: { base: 'V', probe: '1 V', noun: 'a voltage', example: '3.6 V', bareNumber: 'base', ceiling: 1e5 },
+  power: { base: 'W', probe: '1 W', noun: 'a power', example: '4 W', bareNumber: 'base', ceiling: 1e7 },
+  apparentPower: { base: 'VA', probe: '1 VA', noun: 'an apparent power', example: '6 VA', bareNumber: 'base', ceiling: 1e7 },
+  energy: { base: 'J', probe: '1 J', noun: 'an energy', example: '5 Wh', bareNumber: 'refuse', bareMeanings: 'joules or watt-hours', ceiling: 1e12 },
+  resistance: { base: 'ohm', probe: '1 ohm', noun: 'a resistance', example: '47 ohm', bareNumber: 'base', ceiling: 1e12 },
+  frequency: { base: 'Hz', probe: '1 Hz', noun: 'a frequency', example: '50 Hz', bareNumber: 'base', ceiling: 1e9 },
+  length: { base: 'm', probe: '1 m', noun: 'a length', example: '2.5 m', bareNumber: 'base', ceiling: 1e6 },
+  illuminance: { base: 'lx', probe: '1 lx', noun: 'an illuminance', example: '1 lx', bareNumber: 'base', ceiling: 1e6 },
+  luminousIntensity: { base: 'cd', probe: '1 cd', noun: 'a luminous intensity', example: '100 cd', bareNumber: 'base', ceiling: 1e8 },
 }
 
 export type ParseResult = { ok: true; value: number } | { ok: false; reason: string }
@@ -96,21 +103,31 @@ for (const [dimension, symbols] of Object.entries(COMMON_SYMBOLS) as Array<[Dime
 }
 const SIMPLE_QUANTITY = /^([+-]?(?:\d+\.?\d*|\.\d+)(?:e[+-]?\d+)?)\s*([A-Za-z]+)$/
 
+/** A bare number where the unit decides the meaning: refused, naming what it could mean. */
+function bareRefused(spec: DimensionSpec, shown: string): ParseResult {
+  return { ok: false, reason: `needs a unit: ${shown} on its own could be ${spec.bareMeanings}; write it like "${spec.example}"` }
+}
+
 /** Parse a number or a string with units into the dimension's base unit. */
 export function parseQuantity(input: unknown, dimension: Dimension): ParseResult {
   const spec = DIMENSIONS[dimension]
   if (typeof input === 'number') {
     if (!Number.isFinite(input)) return { ok: false, reason: 'must be a finite number' }
+    if (spec.bareNumber === 'refuse') return bareRefused(spec, String(input))
     return { ok: true, value: input }
   }
   if (typeof input !== 'string') {
-    return { ok: false, reason: `must be a number in ${spec.base} or a string with units, e.g. "${spec.example}"` }
+    return {
+      ok: false,
+      reason: spec.bareNumber === 'refuse' ? `must be ${spec.noun} with its unit, e.g. "${spec.example}"` : `must be a number in ${spec.base} or a string with units, e.g. "${spec.example}"`,
+    }
   }
   const text = input.trim().replace(/°\s*C\b/g, 'degC').replace(/°\s*F\b/g, 'degF').replace(/Ω/g, 'ohm')
   if (text === '') return { ok: false, reason: 'is required' }
   // A bare numeric string is read like a bare number.
   if (/^[+-]?(\d+\.?\d*|\.\d+)(e[+-]?\d+)?$/i.test(text)) {
     const n = Number(text)
+    if (spec.bareNumber === 'refuse' && Number.isFinite(n)) return bareRefused(spec, text)
     return Number.isFinite(n) ? { ok: true, value: n } : { ok: false, reason: 'must be a finite number' }
   }
   if (/^[+-]?(nan|infinity|inf)$/i.test(text)) return { ok: false, reason: 'must be a finite number' }

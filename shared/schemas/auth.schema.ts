@@ -37,6 +37,12 @@ export const ResetPasswordSchema = z.object({
   password: PasswordSchema,
 })
 
+export const ChangePasswordSchema = z.object({
+  currentPassword: z.string({ required_error: 'is required' }).min(1, 'is required').max(128, 'is too long'),
+  newPassword: PasswordSchema,
+})
+export type ChangePassword = z.infer<typeof ChangePasswordSchema>
+
 export const UpdateProfileSchema = z.object({
   name: z.string().trim().min(1, 'is required').max(120, 'is too long').optional(),
   units: z.enum(['si', 'us']).optional(),

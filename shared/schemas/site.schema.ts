@@ -33,3 +33,17 @@ export const AreaSchema = z.object({
   notes: text(400).default(''),
 })
 export const AreaPatchSchema = AreaSchema.partial()
+
+/** A workspace's log-book rules. */
+export const RegisterSettingsPatchSchema = z
+  .object({
+    /** Days from a failure (or a new pack) to its retest before the retest is overdue. */
+    repairWindowDays: z
+      .number({ invalid_type_error: 'must be a whole number of days' })
+      .int('must be a whole number of days')
+      .min(1, 'must be at least 1 day')
+      .max(365, 'must be at most 365 days')
+      .optional(),
+  })
+  .strict('give only repairWindowDays')
+  .refine((v) => Object.keys(v).length > 0, 'give at least one setting to change')

@@ -8,6 +8,7 @@ export const signUp = (body: SignUp) => http.post<MeResponse>('/auth/sign-up', b
 export const signOut = () => http.post<void>('/auth/sign-out')
 export const forgotPassword = (email: string) => http.post<{ message: string }>('/auth/forgot-password', { email })
 export const resetPassword = (token: string, password: string) => http.post<{ message: string }>('/auth/reset-password', { token, password })
+export const changePassword = (currentPassword: string, newPassword: string) => http.post<{ message: string }>('/auth/password', { currentPassword, newPassword })
 export const updateProfile = (body: { name?: string; units?: 'si' | 'us' }) => http.patch<MeResponse>('/auth/me', body)
 export const switchWorkspace = (workspaceId: string) => http.post<MeResponse>('/workspaces/switch', { workspaceId })
 export const createWorkspace = (name: string) => http.post<{ id: string; name: string; role: Role }>('/workspaces', { name })

@@ -39,10 +39,15 @@ export function runtimeCurve(input: SizeInput, capacityAh: number, temperatures 
   })
 }
 
-/** Every chemistry sized for the same luminaire and ranked with the default weights. */
-export function compareAll(input: SizeInput): CompareResult {
-  // Only the luminaire fields are read: each chemistry gets its own cells and capacity.
-  return compareChemistries({ ...input, chemistries: [...CHEMISTRY_IDS], weights: { ...DEFAULT_WEIGHTS } })
+/**
+ * Every chemistry sized for the same luminaire at the same nominal pack voltage and ranked with the
+ * default weights; the chosen chemistry's row is sized with exactly the bench's input, so it matches the results.
+ */
+export function compareAll(input: SizeInput & { load: NonNullable<SizeInput['load']> }, nominalVoltageV: number): CompareResult {
+  return compareChemistries(
+    { ...input, nominalVoltage: nominalVoltageV, chemistries: [...CHEMISTRY_IDS], weights: { ...DEFAULT_WEIGHTS } },
+    { exact: input },
+  )
 }
 
 /** One keystroke's worth of work. Raw values are the form's, units as typed. */
@@ -53,10 +58,12 @@ export function recalcPack(raw: unknown): PackRecalc {
   const result = sizePack(input)
   const out: PackRecalc = { ok: true, fields: [], input, result }
   // The comparison picks each chemistry's own cell count, which a direct drive can only do from the LED voltage.
-  if (input.driver === 'direct' && input.load.ledVoltage === undefined) {
+  if (!input.load) {
+    out.comparisonNote = 'Give the LED load to compare chemistries (a measured discharge current belongs to this pack only).'
+  } else if (input.driver === 'direct' && input.load.ledVoltage === undefined) {
     out.comparisonNote = 'Give the LED string voltage to compare chemistries for a direct-driven load.'
   } else {
-    out.comparison = compareAll(input)
+    out.comparison = compareAll({ ...input, load: input.load }, result.nominalVoltageV)
   }
   out.curve = runtimeCurve(input, result.selectedCapacityAh)
   assertFinite(out)

@@ -22,6 +22,8 @@ const areaId = async (workspaceId: string) => (await areaIn(workspaceId, await s
 
 export const registerRouteExamples: Record<string, ExampleFn> = {
   'get /api/sites': async () => ({ path: '/api/sites?days=30' }),
+  'get /api/register/settings': async () => ({ path: '/api/register/settings' }),
+  'patch /api/register/settings': async () => ({ path: '/api/register/settings', body: { repairWindowDays: 14 } }),
   'post /api/sites': async () => ({ path: '/api/sites', body: siteBody() }),
   'get /api/sites/:id': async ({ team, other }) => ({ path: `/api/sites/${await siteId(team.workspaceId)}`, foreignPath: `/api/sites/${await siteId(other.workspaceId)}` }),
   'patch /api/sites/:id': async ({ team, other }) => ({ path: `/api/sites/${await siteId(team.workspaceId)}`, body: { ceilingTemperatureC: 30 }, foreignPath: `/api/sites/${await siteId(other.workspaceId)}` }),

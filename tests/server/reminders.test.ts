@@ -57,7 +57,7 @@ describe('daily reminders', () => {
     expect(mails[0].to.sort()).toEqual([responsible, team.users.technician.email].sort())
     expect(mailTo(team.users.viewer.email)).toHaveLength(0)
     const text = mails[0].text
-    expect(text).toMatch(/OVR-1 \(Corridor\): functional test overdue since 2025-05-20 \(27 days\)/)
+    expect(text).toMatch(/OVR-1 \(Corridor\): functional test overdue \(was due by 2025-05-20, 27 days ago\)/)
     expect(text).toMatch(/SOON-1 \(Corridor\): functional test due 2025-06-25 \(in 9 days\)/)
     expect(text).toMatch(/ANN-1 \(Corridor\): full-duration test due 2025-06-20 \(in 4 days\)/)
     expect(text).not.toMatch(/FINE-1/)

@@ -11,7 +11,7 @@ import { Invitation } from '../../server/modules/workspaces/invitation.entity'
 import { Membership } from '../../server/modules/workspaces/membership.entity'
 import { Workspace } from '../../server/modules/workspaces/workspace.entity'
 import type { Role } from '../../shared/schemas/roles'
-import { makeTeam, uniqueEmail, type TestTeam } from '../helpers/test-app'
+import { makeTeam, TEST_PASSWORD, uniqueEmail, type TestTeam } from '../helpers/test-app'
 import { sheetRouteExamples } from './sheet-examples'
 import { registerRouteExamples } from './register-examples'
 import { auditRouteExamples } from './audit-examples'
@@ -80,6 +80,7 @@ export const routeExamples: Record<string, ExampleFn> = {
   'post /api/auth/sign-out': async () => ({ path: '/api/auth/sign-out' }),
   'get /api/auth/me': async () => ({ path: '/api/auth/me' }),
   'patch /api/auth/me': async () => ({ path: '/api/auth/me', body: { units: 'us' } }),
+  'post /api/auth/password': async () => ({ path: '/api/auth/password', body: { currentPassword: TEST_PASSWORD, newPassword: 'a changed passphrase today' } }),
   'get /api/auth/csrf': async () => ({ path: '/api/auth/csrf' }),
   'post /api/auth/forgot-password': async ({ team }) => ({ path: '/api/auth/forgot-password', body: { email: team.users.viewer.email } }),
   'post /api/auth/reset-password': async () => {

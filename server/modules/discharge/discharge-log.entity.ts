@@ -48,4 +48,8 @@ export class DischargeLog {
 
   @Column({ type: 'uuid', name: 'test_record_id', nullable: true })
   testRecordId!: string | null
+
+  /** The luminaire whose pack the log is of. */
+  @Column({ type: 'uuid', name: 'luminaire_id', nullable: true })
+  luminaireId!: string | null
 }

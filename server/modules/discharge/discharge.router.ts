@@ -3,9 +3,9 @@ import fs from 'node:fs'
 import type { NextFunction, Request, Response } from 'express'
 import multer from 'multer'
 import { DischargeAnalyseSchema, DischargeCompareQuerySchema, DischargeListQuerySchema, DischargeTextUploadSchema, MAX_LOG_BYTES } from '../../../shared/schemas/discharge-log.schema'
-import { AppError, NotFoundError } from '../../errors/app-error'
-import { idParam, parse } from '../../lib/parse'
-import { scope, type RouteSpec } from '../../policy/access'
+import { AppError } from '../../errors/app-error'
+import { IdParams } from '../../lib/parse'
+import { defineRoute, scope, type RouteSpec } from '../../policy/access'
 import * as service from './discharge.service'
 
 
@@ -30,62 +30,55 @@ function receive(req: Request, res: Response, next: NextFunction) {
   })
 }
 
-async function uploadLog(req: Request, res: Response) {
-  const s = scope(req)
-  const file = (req as Request & { file?: Express.Multer.File }).file
-  if (file) {
-    res.status(201).json(await service.stageUpload(s.workspaceId, s.userId, file.path, file.originalname))
-    return
-  }
-  const body = parse(DischargeTextUploadSchema, req.body)
-  const staged = service.newStagingPath()
-  fs.writeFileSync(staged.file, body.text)
-  res.status(201).json(await service.stageUpload(s.workspaceId, s.userId, staged.file, body.name))
-}
-
-async function analyse(req: Request, res: Response) {
-  const s = scope(req)
-  const body = parse(DischargeAnalyseSchema, req.body)
-  const out = await service.analyseAndMaybeSave(s.workspaceId, s.userId, body)
-  res.status(out.saved ? 201 : 200).json(out)
-}
-
-async function list(req: Request, res: Response) {
-  res.json(await service.listLogs(scope(req).workspaceId, parse(DischargeListQuerySchema, req.query)))
-}
-
-async function read(req: Request, res: Response) {
-  res.json(await service.getLog(scope(req).workspaceId, idParam(req, 'That discharge log')))
-}
-
-async function remove(req: Request, res: Response) {
-  const s = scope(req)
-  await service.deleteLog(s.workspaceId, s.userId, idParam(req, 'That discharge log'))
-  res.status(204).end()
-}
-
-async function compare(req: Request, res: Response) {
-  const q = DischargeCompareQuerySchema.safeParse(req.query)
-  // Ids that are not ids read like missing logs.
-  if (!q.success) throw new NotFoundError('That discharge log')
-  res.json(await service.compareLogs(scope(req).workspaceId, q.data.a, q.data.b))
-}
+const WHAT = 'That discharge log'
 
 // Technicians run duration tests, so they upload and save logs; removing one (it may back a test
 // record or an issued sheet) is left to designers, like the other records a sheet rests on.
 export const dischargeRoutes: RouteSpec[] = [
-  {
+  defineRoute({
     method: 'post', path: '/api/discharge/uploads', access: 'technician', upload: true, tags: ['discharge'],
     summary: `Upload a discharge log (CSV or TSV, multipart field "file", at most ${LIMIT_MB} MB; or JSON { name, text }): staged, answered with a preview and column guesses`,
-    handler: [receive, uploadLog],
-  },
-  {
+    before: [receive], body: DischargeTextUploadSchema, status: 201,
+    handler: ({ body, file }, req) => {
+      const s = scope(req)
+      if (file) return service.stageUpload(s.workspaceId, s.userId, file.path, file.originalname)
+      const staged = service.newStagingPath()
+      fs.writeFileSync(staged.file, body!.text)
+      return service.stageUpload(s.workspaceId, s.userId, staged.file, body!.name)
+    },
+  }),
+  defineRoute({
     method: 'post', path: '/api/discharge/logs', access: 'technician', body: DischargeAnalyseSchema, tags: ['discharge'],
     summary: 'Analyse an upload (or a stored file) with a column mapping; dryRun answers without storing, otherwise the file and the log are saved',
-    handler: analyse,
-  },
-  { method: 'get', path: '/api/discharge/logs', access: 'viewer', query: DischargeListQuerySchema, tags: ['discharge'], summary: 'Discharge logs, newest first (by sheet, test record or luminaire)', handler: list },
-  { method: 'get', path: '/api/discharge/logs/:id', access: 'viewer', tags: ['discharge'], summary: 'One discharge log with its summary, working and down-sampled curve', handler: read },
-  { method: 'delete', path: '/api/discharge/logs/:id', access: 'designer', tags: ['discharge'], summary: 'Delete a discharge log (its file goes with its last log; the trail keeps a record)', handler: remove },
-  { method: 'get', path: '/api/discharge/compare', access: 'viewer', query: DischargeCompareQuerySchema, tags: ['discharge'], summary: 'Two discharge logs side by side (?a=&b=), with the change from a to b', handler: compare },
+    handler: async ({ body }, req, res) => {
+      const s = scope(req)
+      const out = await service.analyseAndMaybeSave(s.workspaceId, s.userId, body)
+      res.status(out.saved ? 201 : 200)
+      return out
+    },
+  }),
+  defineRoute({
+    method: 'get', path: '/api/discharge/logs', access: 'viewer', query: DischargeListQuerySchema, tags: ['discharge'], summary: 'Discharge logs, newest first (by sheet, test record or luminaire)',
+    handler: ({ query }, req) => service.listLogs(scope(req).workspaceId, query),
+  }),
+  defineRoute({
+    method: 'get', path: '/api/discharge/logs/:id', access: 'viewer', tags: ['discharge'], summary: 'One discharge log with its summary, working and down-sampled curve',
+    params: IdParams, notFound: WHAT,
+    handler: ({ params }, req) => service.getLog(scope(req).workspaceId, params.id),
+  }),
+  defineRoute({
+    method: 'delete', path: '/api/discharge/logs/:id', access: 'designer', tags: ['discharge'], summary: 'Delete a discharge log (its file goes with its last log; the trail keeps a record)',
+    params: IdParams, notFound: WHAT, produces: 'none',
+    handler: async ({ params }, req, res) => {
+      const s = scope(req)
+      await service.deleteLog(s.workspaceId, s.userId, params.id)
+      res.status(204).end()
+    },
+  }),
+  defineRoute({
+    method: 'get', path: '/api/discharge/compare', access: 'viewer', tags: ['discharge'], summary: 'Two discharge logs side by side (?a=&b=), with the change from a to b',
+    // Ids that are not ids read like missing logs.
+    query: DischargeCompareQuerySchema, invalid: { query: 404 }, notFound: WHAT,
+    handler: ({ query }, req) => service.compareLogs(scope(req).workspaceId, query.a, query.b),
+  }),
 ]

@@ -1,20 +1,16 @@
-import type { Request, Response } from 'express'
-import type { RouteSpec } from '../../policy/access'
+import { defineRoute, type RouteSpec } from '../../policy/access'
 import { buildOpenApi } from './openapi'
 
 /** GET /api/openapi.json: built once from the final route table (passed in by routes.ts). */
 export function docsRoutes(table: () => RouteSpec[]): RouteSpec[] {
   let cached: Record<string, unknown> | null = null
   return [
-    {
+    defineRoute({
       method: 'get',
       path: '/api/openapi.json',
       access: 'public',
       summary: 'This API described in OpenAPI 3.1',
-      handler: (_req: Request, res: Response) => {
-        cached ??= buildOpenApi(table())
-        res.json(cached)
-      },
-    },
+      handler: () => (cached ??= buildOpenApi(table())),
+    }),
   ]
 }

@@ -1,10 +1,10 @@
-import type { Request, Response } from 'express'
+import type { Response } from 'express'
 import { APP_VERSION } from '../../config'
 import { dataSource } from '../../data-source'
 import { ENGINE_VERSION } from '../../../shared/engine/version'
-import type { RouteSpec } from '../../policy/access'
+import { defineRoute, type RouteSpec } from '../../policy/access'
 
-async function health(_req: Request, res: Response) {
+async function health(res: Response) {
   let database: 'reachable' | 'unreachable' = 'unreachable'
   try {
     if (dataSource.isInitialized) {
@@ -18,5 +18,5 @@ async function health(_req: Request, res: Response) {
 }
 
 export const healthRoutes: RouteSpec[] = [
-  { method: 'get', path: '/api/health', access: 'public', summary: 'Version and whether the database answers', handler: health },
+  defineRoute({ method: 'get', path: '/api/health', access: 'public', summary: 'Version and whether the database answers', handler: (_input, _req, res) => health(res) }),
 ]

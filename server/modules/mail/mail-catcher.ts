@@ -7,6 +7,7 @@ import path from 'node:path'
 import crypto from 'node:crypto'
 import { simpleParser } from 'mailparser'
 import { SMTPServer } from 'smtp-server'
+import { KIND_HEADER, WORKSPACE_HEADER, type MailKind } from './mail.service'
 
 export interface CaughtMail {
   id: string
@@ -16,6 +17,9 @@ export interface CaughtMail {
   subject: string
   text: string
   html: string
+  /** What the mail is and the workspace it was sent for (absent on mail caught before they were recorded). */
+  kind?: MailKind
+  workspaceId?: string | null
 }
 
 export interface MailCatcher {
@@ -23,8 +27,12 @@ export interface MailCatcher {
   close(): Promise<void>
 }
 
+function headerText(value: unknown): string | undefined {
+  return typeof value === 'string' ? value.trim() : undefined
+}
+
 export function startMailCatcher(dir: string, port: number): Promise<MailCatcher> {
-  fs.mkdirSync(dir, { recursive: true })
+  fs.mkdirSync(dir, { recursive: true, mode: 0o700 })
   const server = new SMTPServer({
     authOptional: true,
     disabledCommands: ['STARTTLS'],
@@ -42,8 +50,11 @@ export function startMailCatcher(dir: string, port: number): Promise<MailCatcher
             subject: mail.subject ?? '',
             text: mail.text ?? '',
             html: typeof mail.html === 'string' ? mail.html : '',
+            kind: headerText(mail.headers.get(KIND_HEADER)) as MailKind | undefined,
+            workspaceId: headerText(mail.headers.get(WORKSPACE_HEADER)) || null,
           }
-          fs.writeFileSync(path.join(dir, `${id}.json`), JSON.stringify(record, null, 2))
+          // Caught mail holds reset and invitation links: readable by the app's own user only.
+          fs.writeFileSync(path.join(dir, `${id}.json`), JSON.stringify(record, null, 2), { mode: 0o600 })
           callback()
         })
         .catch((err: Error) => callback(err))
@@ -68,4 +79,17 @@ export function readCaughtMail(dir: string): CaughtMail[] {
     .sort()
     .reverse()
     .map((f) => JSON.parse(fs.readFileSync(path.join(dir, f), 'utf8')) as CaughtMail)
+}
+
+/**
+ * What one signed-in person may read in the outbox: mail sent on behalf of their current workspace
+ * (when they own it) or addressed to them, never account mail (password reset, e-mail confirmation),
+ * and never mail without a recorded origin.
+ */
+export function visibleMail(all: CaughtMail[], viewer: { email: string; workspaceId: string }): CaughtMail[] {
+  const me = viewer.email.toLowerCase()
+  return all.filter((m) => {
+    if (!m.kind || m.kind === 'account') return false
+    return m.workspaceId === viewer.workspaceId || m.to.some((t) => t.toLowerCase() === me)
+  })
 }

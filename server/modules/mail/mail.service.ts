@@ -29,8 +29,24 @@ export interface OutgoingMail {
   html: string
 }
 
-export async function sendMail(mail: OutgoingMail): Promise<void> {
-  await getTransport().sendMail({ from: config().mail.from, ...mail })
+/**
+ * What a mail is, for the local outbox: account mail (reset, confirmation) is only ever read by the
+ * operator in data/mail/; the rest is shown to owners of the workspace it was sent for and to its addressee.
+ */
+export type MailKind = 'account' | 'invitation' | 'share' | 'reminder'
+export interface MailOrigin {
+  kind: MailKind
+  /** The workspace the mail was sent on behalf of; null for account mail. */
+  workspaceId: string | null
+}
+
+/** Headers the local catcher reads back; never added when mail goes to a real server. */
+export const KIND_HEADER = 'x-lampwright-kind'
+export const WORKSPACE_HEADER = 'x-lampwright-workspace'
+
+export async function sendMail(mail: OutgoingMail, origin: MailOrigin): Promise<void> {
+  const headers = config().mail.smtpUrl ? undefined : { [KIND_HEADER]: origin.kind, [WORKSPACE_HEADER]: origin.workspaceId ?? '' }
+  await getTransport().sendMail({ from: config().mail.from, ...mail, headers })
 }
 
 const esc = (s: string) => s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!)

@@ -5,8 +5,11 @@
  */
 import Papa from 'papaparse'
 import { DEFAULT_PREFS, formatDate, formatHours, formatNumber, type FormatPrefs } from '../../../shared/format'
-import { CHEMISTRY_SHORT_LABELS, labelOf, MODE_LABELS, PURPOSE_LABELS, REGIME_LABELS, TEST_KIND_LABELS, TEST_STATE_LABELS } from '../../../shared/labels'
-import { frame, heightOf, newDocument, toBuffer, write, writeAt, type Doc } from '../../lib/pdf/pdf-kit'
+import { frame, heightOf, newDocument, toBuffer, write, writeAt, type Doc, type WriteOptions } from '../../lib/pdf/pdf-kit'
+import { PURPOSE_LABELS } from '../../../shared/schemas/luminaire.schema'
+import { REGIME_LABELS } from '../../../shared/schemas/site.schema'
+import { chemistryName, DUE_REASON_LABELS, FORECAST_STATE_LABELS, LUMINAIRE_STATE_LABELS, MODE_LABELS, testKindWords } from '../../../shared/schemas/logbook-labels'
+import type { LuminaireStatus } from './register.service'
 import { siteStatus, todayIso } from './register.service'
 import { siteLogBook } from './tests.service'
 
@@ -25,11 +28,18 @@ export async function registerRows(workspaceId: string, siteId: string) {
   const header = [
     'tag', 'area', 'location', 'type', 'purpose', 'mode', 'rated_duration_h', 'chemistry', 'cells', 'capacity_ah', 'pack_fitted_on',
     'last_functional', 'next_functional', 'last_duration', 'next_duration', 'state', 'replace_pack_by',
+    'functional_due_reason', 'functional_overdue_after', 'duration_due_reason', 'duration_overdue_after',
+    'open_failure', 'failed_on', 'faults', 'remedial_action', 'retest_due_by', 'retest_overdue',
   ]
-  const rows = status.luminaires.map((l) => [
-    l.tag, l.areaName ?? '', l.location, l.typeLabel, l.purpose, l.mode, l.ratedDurationH, l.chemistry, l.cellsInSeries, l.capacityAh, l.packFittedOn,
-    l.due.functional.lastTestedOn, l.due.functional.nextDueOn, l.due.duration.lastTestedOn, l.due.duration.nextDueOn, l.due.state, l.forecast.replaceBy,
-  ])
+  const rows = status.luminaires.map((l) => {
+    const f = l.due.lastFailure
+    return [
+      l.tag, l.areaName ?? '', l.location, l.typeLabel, l.purpose, l.mode, l.ratedDurationH, l.chemistry, l.cellsInSeries, l.capacityAh, l.packFittedOn,
+      l.due.functional.lastTestedOn, l.due.functional.nextDueOn, l.due.duration.lastTestedOn, l.due.duration.nextDueOn, l.due.state, l.forecast.replaceBy,
+      l.due.functional.reason, l.due.functional.overdueAfter, l.due.duration.reason, l.due.duration.overdueAfter,
+      f?.kind ?? '', f?.testedOn ?? '', f?.faults ?? '', f?.remedialAction ?? '', f?.retestBy ?? '', f ? String(f.retestOverdue) : '',
+    ]
+  })
   return { status, header, rows }
 }
 
@@ -66,6 +76,13 @@ export async function exportFile(workspaceId: string, siteId: string, file: Expo
 // ---------------------------------------------------------------- PDF
 
 type SiteStatus = Awaited<ReturnType<typeof siteStatus>>
+
+/** A due test in words: "2026-01-31", or "retest due by 2026-01-31", "overdue: first full-duration test of this pack, by …". */
+function dueWords(t: LuminaireStatus['due']['functional'], prefs: FormatPrefs): string {
+  const date = (d: string | null) => formatDate(d, prefs)
+  if (t.reason === 'interval') return t.state === 'overdue' ? `${date(t.nextDueOn)} (overdue)` : date(t.nextDueOn)
+  return `${t.state === 'overdue' ? 'Overdue' : 'Due now'}: ${DUE_REASON_LABELS[t.reason]}, by ${date(t.overdueAfter)}`
+}
 
 // Landscape with narrow margins: the register is a wide table.
 const newDoc = (title: string) => newDocument({ title }, { layout: 'landscape', margin: 36 })
@@ -124,9 +141,10 @@ function table(doc: Doc, columns: Column[], rows: string[][]) {
 
 async function registerPdf(reg: Awaited<ReturnType<typeof registerRows>>, prefs: FormatPrefs): Promise<Buffer> {
   const s = reg.status
+  const date = (d: string | null) => formatDate(d, prefs)
   const doc = newDoc(`Emergency lighting register — ${s.site.name}`)
   heading(doc, 'Emergency lighting register', s, prefs)
-  write(doc, `${s.counts.luminaires} luminaires: ${s.counts.failed} failed at the last test, ${s.counts.overdue} overdue, ${s.counts.dueSoon} due within 14 days.`)
+  write(doc, `${s.counts.luminaires} luminaires: ${s.counts.failed} with a failure not yet put right (${s.counts.retestOverdue} of them past the ${s.settings.repairWindowDays}-day repair window), ${s.counts.overdue} overdue, ${s.counts.dueNow} with a test due now, ${s.counts.dueSoon} due within 14 days.`)
   doc.moveDown(0.6)
   const columns: Column[] = [
     { title: 'Tag', width: 52 }, { title: 'Area / location', width: 130 }, { title: 'Purpose', width: 70 }, { title: 'Mode', width: 62 },
@@ -137,14 +155,25 @@ async function registerPdf(reg: Awaited<ReturnType<typeof registerRows>>, prefs:
     doc,
     columns,
     s.luminaires.map((l) => [
-      l.tag, [l.areaName, l.location].filter(Boolean).join(' — '), labelOf(PURPOSE_LABELS, l.purpose), labelOf(MODE_LABELS, l.mode), formatHours(l.ratedDurationH, prefs),
-      `${labelOf(CHEMISTRY_SHORT_LABELS, l.chemistry)}, ${l.cellsInSeries} cells, ${formatNumber(l.capacityAh, { unit: 'Ah' }, prefs)}`, formatDate(l.packFittedOn, prefs),
-      formatDate(l.due.functional.nextDueOn, prefs), formatDate(l.due.duration.nextDueOn, prefs), labelOf(TEST_STATE_LABELS, l.due.state), formatDate(l.forecast.replaceBy, prefs),
+      l.tag, [l.areaName, l.location].filter(Boolean).join(' — '), PURPOSE_LABELS[l.purpose], MODE_LABELS[l.mode], formatHours(l.ratedDurationH, prefs),
+      `${chemistryName(l.chemistry)}, ${l.cellsInSeries} cells, ${formatNumber(l.capacityAh, { unit: 'Ah' }, prefs)}`, date(l.packFittedOn), dueWords(l.due.functional, prefs), dueWords(l.due.duration, prefs), LUMINAIRE_STATE_LABELS[l.due.state],
+      `${date(l.forecast.replaceBy)} (${FORECAST_STATE_LABELS[l.forecast.state].toLowerCase()})`,
     ]),
   )
+  const failures = s.luminaires.filter((l) => l.due.openFailures.length)
+  if (failures.length) {
+    doc.moveDown(0.8)
+    write(doc, 'Failures not yet put right', { weight: 'semibold', size: 12, x: doc.page.margins.left } as WriteOptions)
+    table(
+      doc,
+      [{ title: 'Tag', width: 52 }, { title: 'Failed', width: 150 }, { title: 'Fault', width: 190 }, { title: 'Remedial action', width: 190 }, { title: 'Retest', width: 150 }],
+      failures.flatMap((l) => l.due.openFailures.map((f) => [
+        l.tag, `${testKindWords(f.kind)} on ${date(f.testedOn)}`, f.faults, f.remedialAction || '—', f.retestOverdue ? `overdue: was due by ${date(f.retestBy)}` : `due now, by ${date(f.retestBy)}`,
+      ])),
+    )
+  }
   doc.moveDown(1)
-  doc.x = doc.page.margins.left
-  write(doc, 'Isolate the mains before opening a luminaire. Spent nickel-cadmium and lithium packs go to a battery collection point, never into general waste. Local codes and a competent, licensed person decide what the installation needs.', { size: 8 })
+  write(doc, 'Isolate the mains before opening a luminaire. Spent nickel-cadmium and lithium packs go to a battery collection point, never into general waste. Local codes and a competent, licensed person decide what the installation needs.', { size: 8, x: doc.page.margins.left } as WriteOptions)
   frameSiteDocument(doc, 'Emergency lighting register', s, prefs)
   return toBuffer(doc)
 }
@@ -160,7 +189,7 @@ async function logBookPdf(status: SiteStatus, rows: Array<Array<string | number 
     doc,
     columns,
     rows.map((r) => [
-      formatDate(String(r[0]), prefs), String(r[1]), labelOf(TEST_KIND_LABELS, String(r[2])), r[3] === 'pass' ? 'Pass' : 'Fail',
+      formatDate(String(r[0]), prefs), String(r[1]), r[2] === 'duration' ? 'Full duration' : 'Functional', r[3] === 'pass' ? 'Pass' : r[3] === 'fail' ? 'Fail' : String(r[3]),
       typeof r[4] === 'number' ? formatHours(r[4], prefs) : '', String(r[5] ?? ''), String(r[6] ?? ''), String(r[7] ?? ''),
     ]),
   )

@@ -54,6 +54,18 @@ export class LuminaireEntity {
   @Column({ type: 'uuid', name: 'luminaire_type_id', nullable: true })
   luminaireTypeId!: string | null
 
+  /** Place in the site's walking order for a round (lower first); null walks after the numbered ones, by area and tag. */
+  @Column({ type: 'integer', name: 'walk_order', nullable: true })
+  walkOrder!: number | null
+
+  /** The final circuit feeding it, as the designer labels it (the test planner can group by it). */
+  @Column({ type: 'varchar', length: 40, default: '' })
+  circuit!: string
+
+  /** Hours its charger takes to restore full duration after a full discharge, when the charger check has shown it. */
+  @Column({ type: 'double precision', name: 'recharge_h', nullable: true })
+  rechargeH!: number | null
+
   @CreateDateColumn({ type: 'timestamptz', name: 'created_at' })
   createdAt!: Date
 

@@ -5,7 +5,7 @@
  */
 import type { EntityManager } from 'typeorm'
 import { z } from 'zod'
-import { countDue, dueWithin, forecastPack, luminaireDue, REGIMES, type DueItem, type LuminaireDue, type PackForecast, type TestEvent } from '../../../shared/engine/due'
+import { countDue, DEFAULT_REPAIR_WINDOW_DAYS, dueWithin, forecastPack, luminaireDue, needingAttention, REGIMES, type DueItem, type LuminaireDue, type PackForecast, type TestEvent } from '../../../shared/engine/due'
 import type { AreaPatchSchema, AreaSchema, SitePatchSchema, SiteSchema } from '../../../shared/schemas/site.schema'
 import type { LuminairePatchSchema, LuminaireSchema, PackReplacementSchema } from '../../../shared/schemas/luminaire.schema'
 import { dataSource } from '../../data-source'
@@ -13,6 +13,7 @@ import { AppError, BadRequestError, NotFoundError } from '../../errors/app-error
 import { recordAudit } from '../audit/audit.service'
 import { AreaEntity } from './area.entity'
 import { LuminaireEntity } from './luminaire.entity'
+import { RegisterSettingsEntity } from './register-settings.entity'
 import { SiteEntity } from './site.entity'
 
 /** Today's calendar day in UTC, the day the due rules are evaluated on. */
@@ -76,6 +77,27 @@ function changedFields(before: Record<string, unknown>, patch: Record<string, un
   const out: Record<string, { from: unknown; to: unknown }> = {}
   for (const [k, v] of Object.entries(patch)) if (v !== undefined && before[k] !== v) out[k] = { from: before[k] ?? null, to: v }
   return out
+}
+
+// ---------------------------------------------------------------- workspace log-book settings
+
+export interface RegisterSettings {
+  repairWindowDays: number
+}
+
+export async function registerSettings(workspaceId: string, m: EntityManager = dataSource.manager): Promise<RegisterSettings> {
+  const row = await m.getRepository(RegisterSettingsEntity).findOne({ where: { workspaceId } })
+  return { repairWindowDays: row?.repairWindowDays ?? DEFAULT_REPAIR_WINDOW_DAYS }
+}
+
+export async function updateRegisterSettings(workspaceId: string, actorId: string, patch: Partial<RegisterSettings>) {
+  return dataSource.transaction(async (m) => {
+    const before = await registerSettings(workspaceId, m)
+    const after = { ...before, ...Object.fromEntries(Object.entries(patch).filter(([, v]) => v !== undefined)) }
+    await m.getRepository(RegisterSettingsEntity).upsert({ workspaceId, ...after }, ['workspaceId'])
+    await recordAudit({ workspaceId, actorId, action: 'register-settings.updated', entityType: 'workspace', entityId: workspaceId, data: { before, after } }, m)
+    return after
+  })
 }
 
 // ---------------------------------------------------------------- areas
@@ -151,6 +173,9 @@ export function luminaireDto(l: LuminaireEntity, areaName: string | null = null)
     cellsInSeries: l.cellsInSeries,
     capacityAh: l.capacityAh,
     packFittedOn: l.packFittedOn,
+    walkOrder: l.walkOrder,
+    circuit: l.circuit,
+    rechargeH: l.rechargeH,
     specSheetId: l.specSheetId,
     luminaireTypeId: l.luminaireTypeId,
     createdAt: l.createdAt,
@@ -251,6 +276,8 @@ interface TestRow {
   tested_on: string
   passed: boolean
   achieved_duration_h: number | null
+  faults: string
+  remedial_action: string
 }
 
 /** Every test of the given luminaires, oldest first (dates as text: no time zone can shift them). */
@@ -258,7 +285,7 @@ async function testsOf(workspaceId: string, luminaireIds: string[], m: EntityMan
   const byLuminaire = new Map<string, TestRow[]>()
   if (!luminaireIds.length) return byLuminaire
   const rows: TestRow[] = await m.query(
-    `SELECT luminaire_id, kind, tested_on::text AS tested_on, passed, achieved_duration_h
+    `SELECT luminaire_id, kind, tested_on::text AS tested_on, passed, achieved_duration_h, faults, remedial_action
        FROM test_records WHERE workspace_id = $1 AND luminaire_id = ANY($2::uuid[]) ORDER BY tested_on, recorded_at`,
     [workspaceId, luminaireIds],
   )
@@ -276,10 +303,11 @@ export interface LuminaireStatus extends LuminaireDto {
 }
 
 /** Due dates and pack forecast of each luminaire, from the engine. */
-export function statusOf(site: Pick<SiteEntity, 'regime' | 'ceilingTemperatureC'>, l: LuminaireEntity, areaName: string | null, tests: TestRow[], today: string): LuminaireStatus {
-  const events: TestEvent[] = tests.map((t) => ({ kind: t.kind, testedOn: t.tested_on, passed: t.passed }))
-  const since = l.packFittedOn < l.createdAt.toISOString().slice(0, 10) ? l.packFittedOn : l.createdAt.toISOString().slice(0, 10)
-  const due = luminaireDue({ regime: site.regime, since, tests: events }, today)
+export function statusOf(site: Pick<SiteEntity, 'regime' | 'ceilingTemperatureC'>, l: LuminaireEntity, areaName: string | null, tests: TestRow[], today: string, settings: RegisterSettings): LuminaireStatus {
+  const events: TestEvent[] = tests.map((t) => ({ kind: t.kind, testedOn: t.tested_on, passed: t.passed, faults: t.faults, remedialAction: t.remedial_action }))
+  const registeredOn = l.createdAt.toISOString().slice(0, 10)
+  const since = l.packFittedOn < registeredOn ? l.packFittedOn : registeredOn
+  const due = luminaireDue({ regime: site.regime, since, packFittedOn: l.packFittedOn, registeredOn, tests: events }, today, { repairWindowDays: settings.repairWindowDays })
   const forecast = forecastPack(
     {
       chemistry: l.chemistry,
@@ -305,13 +333,15 @@ export async function siteStatus(workspaceId: string, siteId: string, today = to
   const site = await findSite(workspaceId, siteId, m)
   const { rows, areaNames } = await luminairesOf(workspaceId, { siteId }, m)
   const tests = await testsOf(workspaceId, rows.map((l) => l.id), m)
+  const settings = await registerSettings(workspaceId, m)
   const luminaires = rows
-    .map((l) => statusOf(site, l, l.areaId ? (areaNames.get(l.areaId) ?? null) : null, tests.get(l.id) ?? [], today))
+    .map((l) => statusOf(site, l, l.areaId ? (areaNames.get(l.areaId) ?? null) : null, tests.get(l.id) ?? [], today, settings))
     .sort((a, b) => (a.areaName ?? '').localeCompare(b.areaName ?? '') || a.tag.localeCompare(b.tag, undefined, { numeric: true }))
   return {
     today,
     site: siteDto(site),
     regime: { label: REGIMES[site.regime].label, references: REGIMES[site.regime].references },
+    settings,
     areas: [...areaNames.entries()].map(([id, name]) => ({ id, name })).sort((a, b) => a.name.localeCompare(b.name)),
     counts: countDue(luminaires.map((l) => l.due)),
     luminaires,
@@ -328,13 +358,26 @@ export interface UpcomingTest {
   daysUntilDue: number
 }
 
-/** Every site with its counts, and the tests falling due in the next `days` days across the workspace. */
+/** A test due now or overdue somewhere in the workspace (a retest after a failure, a commissioning test, a routine test past its day). */
+export interface AttentionItem extends UpcomingTest {
+  reason: DueItem['reason']
+  state: 'overdue' | 'due-now'
+  /** Last day before it is overdue. */
+  overdueAfter: string
+  /** For a retest: the failure it follows. */
+  failedOn: string | null
+  faults: string
+  remedialAction: string
+}
+
+/** Every site with its counts, what is overdue or failed across sites, and the tests falling due in the next `days` days. */
 export async function overview(workspaceId: string, days = 60, today = todayIso()) {
   const sites = await dataSource.getRepository(SiteEntity).find({ where: { workspaceId }, order: { name: 'ASC' } })
   const { rows } = await luminairesOf(workspaceId, {})
   const tests = await testsOf(workspaceId, rows.map((l) => l.id))
+  const settings = await registerSettings(workspaceId)
   const siteById = new Map(sites.map((s) => [s.id, s]))
-  const statuses = rows.map((l) => ({ siteId: l.siteId, status: statusOf(siteById.get(l.siteId)!, l, null, tests.get(l.id) ?? [], today) }))
+  const statuses = rows.map((l) => ({ siteId: l.siteId, status: statusOf(siteById.get(l.siteId)!, l, null, tests.get(l.id) ?? [], today, settings) }))
   const perSite = sites.map((s) => {
     const mine = statuses.filter((x) => x.siteId === s.id).map((x) => x.status)
     return {
@@ -352,7 +395,25 @@ export async function overview(workspaceId: string, days = 60, today = todayIso(
     dueOn: test.nextDueOn,
     daysUntilDue: test.daysUntilDue,
   }))
-  return { today, days, sites: perSite, upcoming }
+  const attention: AttentionItem[] = needingAttention(statuses.map((x) => ({ ...x, due: x.status.due }))).map(({ item, test }) => {
+    const failure = test.reason === 'retest' ? item.status.due.openFailures.find((f) => f.kind === test.kind) : undefined
+    return {
+      siteId: item.siteId,
+      siteName: siteById.get(item.siteId)!.name,
+      luminaireId: item.status.id,
+      tag: item.status.tag,
+      kind: test.kind,
+      dueOn: test.nextDueOn,
+      daysUntilDue: test.daysUntilDue,
+      reason: test.reason,
+      state: test.state as AttentionItem['state'],
+      overdueAfter: test.overdueAfter,
+      failedOn: failure?.testedOn ?? null,
+      faults: failure?.faults ?? '',
+      remedialAction: failure?.remedialAction ?? '',
+    }
+  })
+  return { today, days, settings, sites: perSite, attention, upcoming }
 }
 
 /** One luminaire with its site, full test history, due dates and pack forecast. */
@@ -360,6 +421,6 @@ export async function luminaireDetail(workspaceId: string, id: string, today = t
   const l = await findLuminaire(workspaceId, id)
   const site = await findSite(workspaceId, l.siteId)
   const tests = await testsOf(workspaceId, [l.id])
-  const status = statusOf(site, l, await areaNameOf(dataSource.manager, l.areaId), tests.get(l.id) ?? [], today)
+  const status = statusOf(site, l, await areaNameOf(dataSource.manager, l.areaId), tests.get(l.id) ?? [], today, await registerSettings(workspaceId))
   return { today, site: siteDto(site), luminaire: status }
 }

@@ -1,7 +1,7 @@
 /**
  * The daily reminder: one mail per site per day to the site's responsible person and the
  * workspace's technicians, listing luminaires whose tests are overdue or fall due within 14 days
- * (and those that failed their last test). "Once" holds across processes: a row in reminder_sends
+ * (and those with a failure not yet put right, with the retest's deadline). "Once" holds across processes: a row in reminder_sends
  * with a unique (site_id, day) key is claimed inside a transaction before the mail goes out; a
  * second worker waits on that key and then finds it taken. If sending fails the transaction rolls
  * back and the claim is released for the next run.
@@ -37,13 +37,17 @@ export function reminderItems(luminaires: LuminaireStatus[]) {
   const tags = new Set<string>()
   for (const l of luminaires) {
     const label = `${l.tag}${where(l) ? ` (${where(l)})` : ''}`
-    if (l.due.failed && l.due.lastFailure) {
-      failed.push(`${label}: failed its ${testName(l.due.lastFailure.kind)} on ${l.due.lastFailure.testedOn}`)
+    for (const f of l.due.openFailures) {
+      const retest = f.retestOverdue ? `retest overdue (was due by ${f.retestBy})` : `retest due now, by ${f.retestBy}`
+      failed.push(`${label}: failed its ${testName(f.kind)} on ${f.testedOn}${f.faults ? ` (${f.faults})` : ''}; ${retest}${f.remedialAction ? `. Action: ${f.remedialAction}` : ''}`)
       tags.add(l.tag)
     }
     for (const t of [l.due.functional, l.due.duration]) {
-      if (t.state === 'overdue') overdue.push(`${label}: ${testName(t.kind)} overdue since ${t.nextDueOn} (${-t.daysUntilDue} days)`)
-      else if (t.state === 'due-soon') soon.push(`${label}: ${testName(t.kind)} due ${t.nextDueOn}${t.daysUntilDue === 0 ? ' (today)' : ` (in ${t.daysUntilDue} days)`}`)
+      if (t.reason === 'retest') continue // listed with its failure above
+      const what = t.reason === 'commissioning' ? 'first full-duration test of the pack now fitted' : testName(t.kind)
+      if (t.state === 'overdue') overdue.push(`${label}: ${what} overdue (was due by ${t.overdueAfter}, ${-t.daysUntilDue} days ago)`)
+      else if (t.state === 'due-now') soon.push(`${label}: ${what} due now, by ${t.overdueAfter}`)
+      else if (t.state === 'due-soon') soon.push(`${label}: ${what} due ${t.nextDueOn}${t.daysUntilDue === 0 ? ' (today)' : ` (in ${t.daysUntilDue} days)`}`)
       else continue
       tags.add(l.tag)
     }
@@ -88,11 +92,11 @@ export async function runReminders(day: string, opts: ReminderOptions = {}): Pro
           `Emergency lighting at ${site.name}: ${items.tags.size} luminaire${items.tags.size === 1 ? ' needs' : 's need'} attention (checked ${day}).`,
           ...(items.overdue.length ? ['Overdue:', ...capped(items.overdue)] : []),
           ...(items.soon.length ? [`Due within ${REMINDER_WINDOW_DAYS} days:`, ...capped(items.soon)] : []),
-          ...(items.failed.length ? ['Failed at the last test, not yet passed since:', ...capped(items.failed)] : []),
+          ...(items.failed.length ? ['Failed, not yet put right by a passing retest:', ...capped(items.failed)] : []),
           'Before working on a luminaire, isolate the mains; a charged pack can still deliver a high current. Local codes and a competent, licensed person decide what the installation needs.',
         ]
-        const subject = `Emergency lighting tests at ${site.name}: ${items.overdue.length} overdue, ${items.soon.length} due soon`
-        await sendMail({ to, subject, ...composeMail(paragraphs, { label: 'Open the site', url: `${config().origin}/sites/${site.id}` }) })
+        const subject = `Emergency lighting tests at ${site.name}: ${items.failed.length} failed, ${items.overdue.length} overdue, ${items.soon.length} due soon`
+        await sendMail({ to, subject, ...composeMail(paragraphs, { label: 'Open the site', url: `${config().origin}/sites/${site.id}` }) }, { kind: 'reminder', workspaceId: site.workspaceId })
         return true
       })
       if (claimed) outcome.sent.push({ siteId: site.id, to, luminaires: items.tags.size })

@@ -36,6 +36,22 @@ export class TestRecordEntity {
   @Column({ type: 'uuid', name: 'discharge_log_id', nullable: true })
   dischargeLogId!: string | null
 
+  /** The per-kind checklist as ticked on the round: item id → true (checked and fine) or false (found wrong). */
+  @Column({ type: 'jsonb', default: () => "'{}'" })
+  checklist!: Record<string, boolean>
+
+  /** Why the pass or fail differs from what the runtime against the rated duration says. */
+  @Column({ type: 'text', name: 'verdict_override_reason', default: '' })
+  verdictOverrideReason!: string
+
+  /** Why a typed runtime differs from its discharge log. */
+  @Column({ type: 'text', name: 'runtime_note', default: '' })
+  runtimeNote!: string
+
+  /** The round it was recorded on, by the round's client id. */
+  @Column({ type: 'uuid', name: 'round_client_id', nullable: true })
+  roundClientId!: string | null
+
   @Column({ type: 'uuid', name: 'recorded_by', nullable: true })
   recordedBy!: string | null
 

@@ -65,7 +65,7 @@ export async function emailShare(workspaceId: string, userId: string, sheetId: s
     ...(mail.message ? [`Their message: ${mail.message}`] : []),
     `The link opens a read-only copy of the issued revision; no account is needed.${link.expiresAt ? ` It works until ${link.expiresAt.toISOString().slice(0, 10)}.` : ''}`,
   ]
-  await sendMail({ to: mail.to, subject: `Specification sheet: ${sheet.title}`, ...composeMail(paragraphs, { label: 'Open the sheet', url: shareUrl(mail.token) }) })
+  await sendMail({ to: mail.to, subject: `Specification sheet: ${sheet.title}`, ...composeMail(paragraphs, { label: 'Open the sheet', url: shareUrl(mail.token) }) }, { kind: 'share', workspaceId })
   await recordAudit({ workspaceId, actorId: userId, action: 'sheet.share-emailed', entityType: 'spec_sheet', entityId: sheetId, data: { shareId, to: mail.to } })
 }
 

@@ -1,39 +1,43 @@
 /** /api/tokens: personal API tokens for the current workspace. Managed only from a signed-in session. */
-import type { Request, Response } from 'express'
-import { z } from 'zod'
+import type { Request } from 'express'
 import { CreateApiTokenSchema } from '../../../shared/schemas/token.schema'
-import { ForbiddenError, NotFoundError } from '../../errors/app-error'
-import { parse } from '../../lib/parse'
-import { scope, type RouteSpec } from '../../policy/access'
+import { ForbiddenError } from '../../errors/app-error'
+import { IdParams } from '../../lib/parse'
+import { defineRoute, scope, type RouteSpec } from '../../policy/access'
 import { createToken, listTokens, revokeToken } from './tokens.service'
 
+const SESSION_ONLY = 'API tokens cannot manage API tokens; sign in.'
+
 function sessionOnly(req: Request) {
-  if (req.ctx?.viaToken) throw new ForbiddenError('API tokens cannot manage API tokens; sign in.')
-}
-
-async function list(req: Request, res: Response) {
-  const s = scope(req)
-  res.json({ tokens: await listTokens(s.userId, s.workspaceId) })
-}
-
-async function create(req: Request, res: Response) {
-  sessionOnly(req)
-  const s = scope(req)
-  const input = parse(CreateApiTokenSchema, req.body)
-  res.status(201).json(await createToken(s.userId, s.workspaceId, s.role, input.name, input.role))
-}
-
-async function revoke(req: Request, res: Response) {
-  sessionOnly(req)
-  const s = scope(req)
-  const id = z.string().uuid().safeParse(req.params.id)
-  if (!id.success) throw new NotFoundError('That token')
-  await revokeToken(s.userId, s.workspaceId, id.data)
-  res.status(204).end()
+  if (req.ctx?.viaToken) throw new ForbiddenError(SESSION_ONLY)
 }
 
 export const tokenRoutes: RouteSpec[] = [
-  { method: 'get', path: '/api/tokens', access: 'viewer', summary: 'My API tokens in this workspace', handler: list },
-  { method: 'post', path: '/api/tokens', access: 'viewer', summary: 'Make an API token (role at most mine); the secret is shown once', body: CreateApiTokenSchema, handler: create },
-  { method: 'delete', path: '/api/tokens/:id', access: 'viewer', summary: 'Revoke an API token', handler: revoke },
+  defineRoute({
+    method: 'get', path: '/api/tokens', access: 'viewer', summary: 'My API tokens in this workspace',
+    handler: async (_input, req) => {
+      const s = scope(req)
+      return { tokens: await listTokens(s.userId, s.workspaceId) }
+    },
+  }),
+  defineRoute({
+    method: 'post', path: '/api/tokens', access: 'viewer', summary: 'Make an API token (role at most mine); the secret is shown once',
+    body: CreateApiTokenSchema, status: 201,
+    handler: ({ body }, req) => {
+      sessionOnly(req)
+      const s = scope(req)
+      return createToken(s.userId, s.workspaceId, s.role, body.name, body.role)
+    },
+  }),
+  defineRoute({
+    method: 'delete', path: '/api/tokens/:id', access: 'viewer', summary: 'Revoke an API token',
+    // An API token is refused before anything about the id is said.
+    before: [(req, _res, next) => next(req.ctx?.viaToken ? new ForbiddenError(SESSION_ONLY) : undefined)],
+    params: IdParams, notFound: 'That token', produces: 'none',
+    handler: async ({ params }, req, res) => {
+      const s = scope(req)
+      await revokeToken(s.userId, s.workspaceId, params.id)
+      res.status(204).end()
+    },
+  }),
 ]

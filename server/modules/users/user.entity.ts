@@ -19,6 +19,10 @@ export class User {
   @Column({ type: 'varchar', length: 8, default: 'si' })
   units!: string
 
+  /** Sessions signed in before this moment are no longer valid (set by a reset, a password change, a removal). */
+  @Column({ type: 'timestamptz', name: 'sessions_valid_after', nullable: true })
+  sessionsValidAfter!: Date | null
+
   @CreateDateColumn({ type: 'timestamptz', name: 'created_at' })
   createdAt!: Date
 }

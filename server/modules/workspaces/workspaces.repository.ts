@@ -32,7 +32,3 @@ export function listUserMemberships(userId: string) {
 export function listWorkspaceMembers(workspaceId: string) {
   return memberships().find({ where: { workspaceId }, relations: { user: true }, order: { createdAt: 'ASC' } })
 }
-
-export function countOwners(workspaceId: string) {
-  return memberships().count({ where: { workspaceId, role: 'owner' } })
-}

@@ -1,4 +1,5 @@
 /** Team workspaces: members, roles, invitations. The last owner can neither leave nor be demoted. */
+import { Not, type EntityManager } from 'typeorm'
 import { config } from '../../config'
 import { dataSource } from '../../data-source'
 import { BadRequestError, ConflictError, ForbiddenError, NotFoundError } from '../../errors/app-error'
@@ -7,11 +8,12 @@ import type { Role } from '../../../shared/schemas/roles'
 import { recordAudit } from '../audit/audit.service'
 import { composeMail, sendMail } from '../mail/mail.service'
 import type { User } from '../users/user.entity'
+import { endSessions } from '../users/sessions'
 import { findUserById } from '../users/users.repository'
 import { Invitation } from './invitation.entity'
 import { Membership } from './membership.entity'
 import { Workspace } from './workspace.entity'
-import { countOwners, forgetMemberships, listUserMemberships, listWorkspaceMembers } from './workspaces.repository'
+import { forgetMemberships, listUserMemberships, listWorkspaceMembers } from './workspaces.repository'
 
 const INVITE_TTL_MS = 7 * 24 * 60 * 60 * 1000
 
@@ -40,50 +42,75 @@ export async function members(workspaceId: string) {
   return rows.map((m) => ({ id: m.id, userId: m.userId, name: m.user?.name ?? '', email: m.user?.email ?? '', role: m.role, since: m.createdAt }))
 }
 
-async function membershipInWorkspace(workspaceId: string, membershipId: string) {
-  const m = await dataSource.getRepository(Membership).findOne({ where: { id: membershipId, workspaceId } })
-  if (!m) throw new NotFoundError('That member')
-  return m
+/**
+ * Runs a change to the workspace's members in one transaction that holds the workspace row's lock,
+ * so changes to one workspace's members happen one at a time and the last-owner check cannot be
+ * raced (two owners leaving, or removing each other, at the same moment).
+ */
+function withMembersLocked<T>(workspaceId: string, change: (tx: EntityManager) => Promise<T>): Promise<T> {
+  return dataSource.transaction(async (tx) => {
+    await tx.query('SELECT id FROM workspaces WHERE id = $1 FOR UPDATE', [workspaceId])
+    return change(tx)
+  })
+}
+
+async function otherOwners(tx: EntityManager, workspaceId: string, membershipId: string) {
+  return tx.getRepository(Membership).count({ where: { workspaceId, role: 'owner', id: Not(membershipId) } })
+}
+
+/** Checked under the lock: an owner demoted or removed a moment ago can no longer change members. */
+async function requireOwner(tx: EntityManager, workspaceId: string, actorId: string) {
+  const actor = await tx.getRepository(Membership).findOne({ where: { workspaceId, userId: actorId } })
+  if (actor?.role !== 'owner') throw new ForbiddenError('You are no longer an owner of this workspace.')
 }
 
 export async function changeRole(workspaceId: string, actorId: string, membershipId: string, role: Role) {
-  return dataSource.transaction(async (tx) => {
-    // Lock the workspace's owner rows so two concurrent demotions cannot remove the last owner.
-    await tx.query(`SELECT id FROM memberships WHERE workspace_id = $1 AND role = 'owner' FOR UPDATE`, [workspaceId])
+  const m = await withMembersLocked(workspaceId, async (tx) => {
+    await requireOwner(tx, workspaceId, actorId)
     const m = await tx.getRepository(Membership).findOne({ where: { id: membershipId, workspaceId } })
     if (!m) throw new NotFoundError('That member')
-    if (m.role === 'owner' && role !== 'owner') {
-      const owners = await tx.getRepository(Membership).count({ where: { workspaceId, role: 'owner' } })
-      if (owners <= 1) throw new ConflictError('This is the last owner of the workspace. Make someone else an owner first.')
+    if (m.role === 'owner' && role !== 'owner' && (await otherOwners(tx, workspaceId, m.id)) === 0) {
+      throw new ConflictError('This is the last owner of the workspace. Make someone else an owner first.')
     }
     const from = m.role
     m.role = role
     await tx.getRepository(Membership).save(m)
-    forgetMemberships()
     await recordAudit({ workspaceId, actorId, action: 'member.role-changed', entityType: 'membership', entityId: m.id, data: { from, to: role } }, tx)
     return m
   })
+  forgetMemberships()
+  return m
 }
 
 export async function removeMember(workspaceId: string, actorId: string, membershipId: string) {
-  const m = await membershipInWorkspace(workspaceId, membershipId)
-  if (m.role === 'owner' && (await countOwners(workspaceId)) <= 1) {
-    throw new ConflictError('This is the last owner of the workspace and cannot be removed.')
-  }
-  await dataSource.getRepository(Membership).delete({ id: m.id })
+  await withMembersLocked(workspaceId, async (tx) => {
+    await requireOwner(tx, workspaceId, actorId)
+    const m = await tx.getRepository(Membership).findOne({ where: { id: membershipId, workspaceId } })
+    if (!m) throw new NotFoundError('That member')
+    if (m.role === 'owner' && (await otherOwners(tx, workspaceId, m.id)) === 0) {
+      throw new ConflictError('This is the last owner of the workspace and cannot be removed.')
+    }
+    await tx.getRepository(Membership).delete({ id: m.id })
+    // A removed member is signed out everywhere at once and their tokens here stop working.
+    await endSessions(m.userId, { manager: tx })
+    await tx.query('UPDATE api_tokens SET revoked_at = now() WHERE user_id = $1 AND workspace_id = $2 AND revoked_at IS NULL', [m.userId, workspaceId])
+    await recordAudit({ workspaceId, actorId, action: 'member.removed', entityType: 'membership', entityId: m.id, data: { userId: m.userId } }, tx)
+  })
   forgetMemberships()
-  await recordAudit({ workspaceId, actorId, action: 'member.removed', entityType: 'membership', entityId: m.id, data: { userId: m.userId } })
 }
 
 export async function leaveWorkspace(workspaceId: string, userId: string) {
-  const m = await dataSource.getRepository(Membership).findOne({ where: { workspaceId, userId } })
-  if (!m) throw new NotFoundError('Your membership')
-  if (m.role === 'owner' && (await countOwners(workspaceId)) <= 1) {
-    throw new ConflictError('You are the last owner: make someone else an owner before you leave.')
-  }
-  await dataSource.getRepository(Membership).delete({ id: m.id })
+  await withMembersLocked(workspaceId, async (tx) => {
+    const m = await tx.getRepository(Membership).findOne({ where: { workspaceId, userId } })
+    if (!m) throw new NotFoundError('Your membership')
+    if (m.role === 'owner' && (await otherOwners(tx, workspaceId, m.id)) === 0) {
+      throw new ConflictError('You are the last owner: make someone else an owner before you leave.')
+    }
+    await tx.getRepository(Membership).delete({ id: m.id })
+    await tx.query('UPDATE api_tokens SET revoked_at = now() WHERE user_id = $1 AND workspace_id = $2 AND revoked_at IS NULL', [userId, workspaceId])
+    await recordAudit({ workspaceId, actorId: userId, action: 'member.left', entityType: 'membership', entityId: m.id }, tx)
+  })
   forgetMemberships()
-  await recordAudit({ workspaceId, actorId: userId, action: 'member.left', entityType: 'membership', entityId: m.id })
 }
 
 export async function invite(workspaceId: string, actorId: string, email: string, role: Role) {
@@ -103,7 +130,7 @@ export async function invite(workspaceId: string, actorId: string, email: string
     [`${inviter?.name ?? 'A colleague'} invites you to the Lampwright workspace "${ws.name}" as ${role}.`, 'The link works once and expires in seven days. Sign up or sign in to accept.'],
     { label: 'Accept the invitation', url },
   )
-  await sendMail({ to: email, subject: `Join "${ws.name}" on Lampwright`, ...body })
+  await sendMail({ to: email, subject: `Join "${ws.name}" on Lampwright`, ...body }, { kind: 'invitation', workspaceId })
   await recordAudit({ workspaceId, actorId, action: 'member.invited', entityType: 'invitation', entityId: inv.id, data: { email, role } })
   return { id: inv.id, email, role, expiresAt: inv.expiresAt }
 }

@@ -118,8 +118,44 @@ describe('charge and trickle rates', () => {
     const r = charge({ chemistry: 'nicd', capacity: '4 Ah', duration: '1 h', ...direct(0.5), chargeCurrent: '0.2 A' })
     expect(r.trickleCurrentA).toBeCloseTo(0.2, 12)
     expect(r.trickleCRate).toBeCloseTo(0.05, 12)
-    const lead = charge({ chemistry: 'lead-acid', capacity: '4 Ah', duration: '1 h', ...direct(0.5), chargeCurrent: '0.4 A' })
-    expect(lead.trickleCurrentA).toBe(0)
+  })
+
+  // Common practice: a charger is taken to keep its current on unless the user says it stops (trickle 0);
+  // an empty field must never hide a danger that the same current typed in would show.
+  test.each(['nicd', 'nimh', 'lifepo4', 'li-ion', 'lead-acid'])('%s: an empty trickle field reads as the charge current, same verdict as typing it', (chemistry) => {
+    const base = { chemistry, capacity: '1.6 Ah', duration: '3 h', ...direct(0.3), cellsInSeries: 4, chargeCurrent: '120 mA' }
+    const empty = charge(base)
+    const typed = charge({ ...base, trickleCurrent: '120 mA' })
+    expect(empty.trickleCurrentA).toBeCloseTo(0.12, 12)
+    expect(empty.trickleCRate).toBeCloseTo(0.075, 12)
+    expect(empty.trickleWithinLimit).toBe(typed.trickleWithinLimit)
+    expect(codes(empty)).toEqual(codes(typed))
+  })
+
+  test('lithium on a charger whose current stays on, trickle left empty: critical (lithium maker practice, IEC 62133-2)', () => {
+    const r = charge({ chemistry: 'lifepo4', capacity: '1.6 Ah', duration: '3 h', ...direct(0.3), cellsInSeries: 1, chargeCurrent: '120 mA' })
+    expect(r.warnings.find((w) => w.code === 'lithium-trickle')?.severity).toBe('critical')
+  })
+
+  test('a charger that stops when full is typed as trickle 0: no permanent charge for lithium', () => {
+    const r = charge({ chemistry: 'li-ion', capacity: '3 Ah', duration: '1 h', ...direct(0.5), cellsInSeries: 1, chargeCurrent: '0.5 A', trickleCurrent: 0 })
+    expect(r.trickleCurrentA).toBe(0)
+    expect(codes(r)).not.toContain('lithium-trickle')
+  })
+})
+
+describe('charge taken by a full test', () => {
+  test('never more than the pack holds: 0.613 A × 3 h = 1.84 Ah from a 1.6 Ah pack counts 1.6 Ah and is flagged (charge balance, common practice)', () => {
+    const r = charge({ chemistry: 'nicd', capacity: '1.6 Ah', duration: '3 h', ...direct(0.6133), cellsInSeries: 4, chargeCurrent: '120 mA' })
+    expect(r.dischargeAh).toBeLessThanOrEqual(1.6)
+    expect(r.dischargeAh).toBeCloseTo(1.6, 12)
+    expect(r.rechargeTimeH).toBeCloseTo((1.6 * 1.4) / 0.12, 9)
+    expect(r.warnings.find((w) => w.code === 'load-exceeds-pack')?.severity).toBe('critical')
+  })
+  test('a load the pack covers: Q = I · t exactly', () => {
+    const r = charge({ chemistry: 'nicd', capacity: '1.6 Ah', duration: '3 h', ...direct(0.4), cellsInSeries: 4, chargeCurrent: '120 mA' })
+    expect(r.dischargeAh).toBeCloseTo(1.2, 12)
+    expect(codes(r)).not.toContain('load-exceeds-pack')
   })
 })
 

@@ -83,10 +83,10 @@ describe('discharge: synthetic logs with known answers', () => {
     expect(codes).toContain('dropout-before-cutoff')
   })
 
-  it('a current log finds the dropout where the current falls through half its usual value', () => {
+  it('a current log times the dropout at the last sample that still shows the load on (the log cannot show more)', () => {
     const r = ok(log(2 * H, 10, (t) => (t <= H ? 6.5 - t / H : 6.2), (t) => (t <= H ? 1 : 0)), { ...nicd5, ratedDuration: H })
-    expect(r.dropoutTimeH! * H).toBeCloseTo(3605, 9)
-    expect(r.deliveredAh).toBeCloseTo((3600 + 5 * 0.75) / 3600, 12)
+    expect(r.dropoutTimeH! * H).toBeCloseTo(3600, 9)
+    expect(r.deliveredAh).toBeCloseTo(1, 12)
     expect(r.pass).toBe(true)
   })
 
@@ -171,7 +171,7 @@ describe('discharge tool (JSON input)', () => {
     expect(outcome.result.deliveredAh).toBeCloseTo(0.9, 12)
     expect(outcome.result.stateOfHealth).toBeCloseTo(0.75, 12)
     expect(outcome.result.pass).toBe(true)
-    expect(outcome.result.working.map((w) => w.id)).toEqual(['cutoffVoltage', 'runtime', 'margin', 'deliveredAh', 'deliveredWh', 'stateOfHealth'])
+    expect(outcome.result.working.map((w) => w.id)).toEqual(['cutoffVoltage', 'runtime', 'loadEvidence', 'margin', 'deliveredAh', 'deliveredWh', 'stateOfHealth'])
   })
 
   it('time running backwards is a reported issue, not a field error', () => {

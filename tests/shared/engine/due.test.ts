@@ -105,21 +105,50 @@ describe('EN 50172 / BS 5266-1: monthly functional test, annual full-duration te
     expect(luminaireDue({ regime: 'en50172', since: '2024-01-01', tests }, '2025-02-11').functional).toMatchObject({ daysUntilDue: -1, state: 'overdue' })
   })
 
-  test('never tested: due one interval after the pack was fitted', () => {
+  test('never tested: functional due one interval after the pack was fitted; the full-duration test is due now (commissioning, common practice)', () => {
     const due = luminaireDue({ regime: 'en50172', since: '2025-01-31', tests: [] }, '2025-02-01')
-    expect(due.functional).toMatchObject({ lastTestedOn: null, nextDueOn: '2025-02-28' })
-    expect(due.duration.nextDueOn).toBe('2026-01-31')
-    expect(due.state).toBe('ok')
+    expect(due.functional).toMatchObject({ lastTestedOn: null, nextDueOn: '2025-02-28', reason: 'interval' })
+    expect(due.duration).toMatchObject({ reason: 'commissioning', nextDueOn: '2025-01-31', overdueAfter: '2025-02-14', state: 'due-now' })
+    expect(due.commissioning).toBe(true)
+    expect(due.state).toBe('due-now')
+    // After the repair window it is overdue.
+    expect(luminaireDue({ regime: 'en50172', since: '2025-01-31', tests: [] }, '2025-02-15').duration.state).toBe('overdue')
+    // A luminaire entered in the register long after its pack went in gets the window from the day it was entered.
+    expect(luminaireDue({ regime: 'en50172', since: '2020-01-01', registeredOn: '2025-02-01', tests: [] }, '2025-02-10').duration).toMatchObject({ state: 'due-now', overdueAfter: '2025-02-15' })
   })
 
-  test('a failed test stays failed until a later test passes', () => {
-    const failed = luminaireDue({ regime: 'en50172', since: '2024-01-01', tests: [duration('2025-01-05'), functional('2025-02-05', false)] }, '2025-02-06')
+  test('a failed functional test stays failed until a later functional or full-duration pass', () => {
+    const failed = luminaireDue({ regime: 'en50172', since: '2024-01-01', tests: [duration('2025-01-05'), { ...functional('2025-02-05', false), faults: 'lamp out' }] }, '2025-02-06')
     expect(failed.failed).toBe(true)
     expect(failed.state).toBe('failed')
-    expect(failed.lastFailure?.testedOn).toBe('2025-02-05')
+    expect(failed.lastFailure).toMatchObject({ kind: 'functional', testedOn: '2025-02-05', faults: 'lamp out', retestBy: '2025-02-19', retestOverdue: false })
+    expect(failed.functional).toMatchObject({ reason: 'retest', nextDueOn: '2025-02-05', state: 'due-now' })
     const repaired = luminaireDue({ regime: 'en50172', since: '2024-01-01', tests: [duration('2025-01-05'), functional('2025-02-05', false), functional('2025-02-07')] }, '2025-02-08')
     expect(repaired.failed).toBe(false)
     expect(repaired.state).toBe('ok')
+    const byDuration = luminaireDue({ regime: 'en50172', since: '2024-01-01', tests: [duration('2025-01-05'), functional('2025-02-05', false), duration('2025-02-07')] }, '2025-02-08')
+    expect(byDuration.failed).toBe(false)
+  })
+
+  test('a failed full-duration test is not cleared by a functional pass, only by a later full-duration pass', () => {
+    const tests = [duration('2024-02-01'), duration('2025-01-10', false), functional('2025-01-20'), functional('2025-02-18')]
+    const due = luminaireDue({ regime: 'en50172', since: '2024-01-01', tests }, '2025-02-20')
+    expect(due.state).toBe('failed')
+    expect(due.openFailures.map((f) => f.kind)).toEqual(['duration'])
+    // Retest due at once and overdue after the 14-day window: not a year later.
+    expect(due.duration).toMatchObject({ reason: 'retest', nextDueOn: '2025-01-10', overdueAfter: '2025-01-24', state: 'overdue' })
+    expect(due.lastFailure?.retestOverdue).toBe(true)
+    // A workspace allowing 60 days.
+    expect(luminaireDue({ regime: 'en50172', since: '2024-01-01', tests }, '2025-02-20', { repairWindowDays: 60 }).duration.state).toBe('due-now')
+    const cleared = luminaireDue({ regime: 'en50172', since: '2024-01-01', packFittedOn: '2025-02-01', tests: [...tests, duration('2025-02-19')] }, '2025-02-20')
+    expect(cleared.state).toBe('ok')
+    expect(cleared.duration.nextDueOn).toBe('2026-02-19')
+  })
+
+  test('a new pack asks for a commissioning test even after earlier passes', () => {
+    const due = luminaireDue({ regime: 'en50172', since: '2023-01-01', packFittedOn: '2025-03-01', tests: [duration('2024-06-01'), functional('2025-02-20')] }, '2025-03-05')
+    expect(due.commissioning).toBe(true)
+    expect(due.duration).toMatchObject({ reason: 'commissioning', nextDueOn: '2025-03-01', overdueAfter: '2025-03-15' })
   })
 
   test('a test dated in the future does not push the calendar on', () => {
@@ -159,15 +188,17 @@ describe('counting and listing what falls due', () => {
       luminaireDue({ regime: 'en50172', since: '2020-01-01', tests: [] }, today),
       luminaireDue({ regime: 'en50172', since: '2024-06-01', tests: [duration('2024-06-02'), functional('2025-02-05')] }, today),
       luminaireDue({ regime: 'en50172', since: '2024-06-01', tests: [duration('2024-06-02'), functional('2025-02-25')] }, today),
+      luminaireDue({ regime: 'en50172', since: '2025-02-25', tests: [] }, today),
+      luminaireDue({ regime: 'en50172', since: '2024-01-01', tests: [duration('2024-06-02'), functional('2025-02-01', false)] }, today),
     ]
-    expect(states.map((s) => s.state)).toEqual(['failed', 'overdue', 'due-soon', 'ok'])
-    expect(countDue(states)).toEqual({ luminaires: 4, failed: 1, overdue: 1, dueSoon: 1, ok: 1 })
+    expect(states.map((s) => s.state)).toEqual(['failed', 'overdue', 'due-soon', 'ok', 'due-now', 'failed'])
+    expect(countDue(states)).toEqual({ luminaires: 6, failed: 2, overdue: 1, dueNow: 1, dueSoon: 1, ok: 1, retestOverdue: 1 })
   })
 
   test('lists tests falling due in the window, earliest first, without the overdue ones', () => {
     const today = '2025-03-01'
     const items = [
-      { tag: 'A', due: luminaireDue({ regime: 'en50172', since: '2024-04-20', tests: [functional('2025-02-20')] }, today) },
+      { tag: 'A', due: luminaireDue({ regime: 'en50172', since: '2024-04-20', tests: [duration('2024-04-20'), functional('2025-02-20')] }, today) },
       { tag: 'B', due: luminaireDue({ regime: 'en50172', since: '2020-01-01', tests: [] }, today) },
     ]
     const list = dueWithin(items, today, 60)
@@ -210,6 +241,37 @@ describe('battery replacement forecast', () => {
     expect(f.state).toBe('replace-now')
   })
 
+  test('fewer than three tests, or three within six months, give no trend: the life model alone (common practice)', () => {
+    const base = { chemistry: 'nicd' as const, fittedOn: '2024-01-01', ambientC: 25, ratedDurationH: 3 }
+    // Two tests eight weeks apart falling steeply would otherwise put the replacement before the tests.
+    const two = forecastPack({ ...base, durations: [{ testedOn: '2025-01-01', achievedH: 3.4 }, { testedOn: '2025-02-26', achievedH: 3.05 }] }, '2025-03-01')
+    expect(two.trend).toBeNull()
+    expect(two.trendStatus).toBe('not-enough-tests')
+    expect(two.durationTests).toBe(2)
+    expect(two.reason).toBe('service-life')
+    const close = forecastPack({ ...base, durations: [{ testedOn: '2025-01-01', achievedH: 3.4 }, { testedOn: '2025-03-01', achievedH: 3.3 }, { testedOn: '2025-06-30', achievedH: 3.1 }] }, '2025-07-01')
+    expect(close.trend).toBeNull()
+    const spread = forecastPack({ ...base, durations: [{ testedOn: '2025-01-01', achievedH: 3.4 }, { testedOn: '2025-03-01', achievedH: 3.3 }, { testedOn: '2025-07-01', achievedH: 3.1 }] }, '2025-07-02')
+    expect(spread.trend?.points).toBe(3)
+    expect(spread.trendStatus).toBe('used')
+  })
+
+  test('the replace-by date is never before the latest test', () => {
+    // Past its modelled life (NiCd at 35 °C: 2.5 years) yet it passed a test in 2025: replace from that test on, not before.
+    const f = forecastPack({ chemistry: 'nicd', fittedOn: '2020-01-01', ambientC: 35, ratedDurationH: 3, durations: [{ testedOn: '2025-05-01', achievedH: 3.1 }] }, '2025-06-01')
+    expect(f.endOfLifeOn < '2025-05-01').toBe(true)
+    expect(f.replaceBy).toBe('2025-05-01')
+    expect(f.reason).toBe('latest-test')
+    expect(f.state).toBe('replace-now')
+    fc.assert(
+      fc.property(fc.array(fc.tuple(fc.integer({ min: 0, max: 2000 }), fc.double({ min: 0, max: 6, noNaN: true })), { minLength: 0, maxLength: 8 }), (pts) => {
+        const durations = pts.map(([d, h]) => ({ testedOn: addDays('2020-01-01', d), achievedH: h }))
+        const out = forecastPack({ chemistry: 'nimh', fittedOn: '2020-01-01', ambientC: 30, ratedDurationH: 3, durations }, '2026-01-01')
+        for (const d of durations) expect(out.replaceBy >= d.testedOn).toBe(true)
+      }),
+    )
+  })
+
   test('tests of an earlier pack do not count towards the new pack', () => {
     const f = forecastPack(
       { chemistry: 'nicd', fittedOn: '2024-01-01', ambientC: 20, ratedDurationH: 3, durations: [{ testedOn: '2022-06-01', achievedH: 3.5 }, { testedOn: '2023-06-01', achievedH: 2.1 }, { testedOn: '2024-06-01', achievedH: 3.2 }] },
@@ -221,7 +283,7 @@ describe('battery replacement forecast', () => {
 
   test('a rising or flat trend never predicts a crossing, and no output is NaN or infinite', () => {
     const f = forecastPack(
-      { chemistry: 'nimh', fittedOn: '2023-01-01', ambientC: -10, ratedDurationH: 1, durations: [{ testedOn: '2023-06-01', achievedH: 1.2 }, { testedOn: '2024-06-01', achievedH: 1.2 }] },
+      { chemistry: 'nimh', fittedOn: '2023-01-01', ambientC: -10, ratedDurationH: 1, durations: [{ testedOn: '2023-06-01', achievedH: 1.2 }, { testedOn: '2023-12-01', achievedH: 1.2 }, { testedOn: '2024-06-01', achievedH: 1.2 }] },
       '2024-07-01',
     )
     expect(f.trend?.belowRatedOn).toBeNull()

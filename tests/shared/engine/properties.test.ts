@@ -143,7 +143,7 @@ describe('charge and compare stay finite', () => {
         temperature,
         (id, capacityAh, chargeA, trickleA, volts, basis, ambient) => {
           const outcome = runTool(chargeTool, {
-            chemistry: id, capacity: capacityAh * 3600, duration: 3 * 3600, load: { power: 3 }, chargeCurrent: chargeA,
+            chemistry: id, capacity: `${capacityAh} Ah`, duration: '3 h', load: { power: 3 }, chargeCurrent: chargeA,
             trickleCurrent: trickleA, floatVoltage: volts, voltageBasis: basis, ambient,
           })
           // runTool throws on a non-finite number; a field error is acceptable only for the cut-off rule
@@ -163,7 +163,7 @@ describe('charge and compare stay finite', () => {
         temperature,
         fc.record({ life: fc.double({ min: 0, max: 1, noNaN: true }), trickle: fc.double({ min: 0.01, max: 1, noNaN: true }), size: fc.double({ min: 0, max: 1, noNaN: true }), restrictions: fc.double({ min: 0, max: 1, noNaN: true }) }),
         (power, h, t1, t2, weights) => {
-          const outcome = runTool(compareTool, { load: { power }, duration: h * 3600, ambientMin: Math.min(t1, t2), ambientMax: Math.max(t1, t2), weights })
+          const outcome = runTool(compareTool, { load: { power }, duration: `${h} h`, ambientMin: Math.min(t1, t2), ambientMax: Math.max(t1, t2), weights })
           expect(outcome.ok).toBe(true)
           if (outcome.ok) expect(allFinite(outcome.result)).toBe(true)
         },

@@ -74,7 +74,7 @@ describe('hours field (capacity rating basis)', () => {
 describe('same answer whatever the unit', () => {
   test('a 4.5 Ah pack given in mAh, Ah and coulombs checks the same (mathjs conversions)', () => {
     const base = { chemistry: 'nicd', duration: '3 h', load: { power: '3 W' } }
-    const results = ['4500 mAh', '4.5 Ah', unit('4.5 Ah').toNumber('C')].map((capacity) => runTool(sizeTool, { ...base, capacity }))
+    const results = ['4500 mAh', '4.5 Ah', `${unit('4.5 Ah').toNumber('C')} C`].map((capacity) => runTool(sizeTool, { ...base, capacity }))
     for (const r of results) expect(r.ok).toBe(true)
     const [a, b, c] = results.map((r) => (r.ok ? r.result.runtimeH : Number.NaN))
     expect(a).toBeCloseTo(b, 12)

@@ -331,3 +331,54 @@ describe('field errors name the field', () => {
     expect(tools.size.name).toBe('size')
   })
 })
+
+describe('pack voltage, format and charger on the size tool', () => {
+  test.each<[string, string, number, number, boolean]>([
+    // IEC 61951-1: 1.2 V per NiCd/NiMH cell; LiFePO4 3.2 V per cell (makers' data); whole cells only (common practice)
+    ['nicd', '4.8 V', 4, 4.8, false],
+    ['nimh', '4.8 V', 4, 4.8, false],
+    ['lifepo4', '4.8 V', 2, 6.4, true],
+    ['lifepo4', '6.4 V', 2, 6.4, false],
+    ['lead-acid', '6 V', 3, 6, false],
+  ])('%s at a nominal %s → %d cells, %d V, voltage changed: %s', (chemistry, nominalVoltage, cells, volts, changed) => {
+    const r = size({ chemistry, nominalVoltage, duration: '3 h', load: { power: '2 W' } })
+    expect(r.cellsInSeries).toBe(cells)
+    expect(r.nominalVoltageV).toBeCloseTo(volts, 9)
+    expect(r.warnings.some((w) => w.code === 'pack-voltage-changed' && w.severity === 'critical')).toBe(changed)
+  })
+
+  test('four LiFePO4 cells given for a 4.8 V pack: 12.8 V, critical (common practice: keep the marked voltage)', () => {
+    const r = size({ chemistry: 'lifepo4', cellsInSeries: 4, nominalVoltage: '4.8 V', duration: '3 h', load: { power: '2 W' } })
+    expect(r.nominalVoltageV).toBeCloseTo(12.8, 9)
+    expect(r.warnings.find((w) => w.code === 'pack-voltage-changed')?.severity).toBe('critical')
+  })
+
+  test('the cell format is carried to the result; a measured discharge current replaces the load (I = given)', () => {
+    const r = size({ chemistry: 'nicd', cellsInSeries: 4, capacity: '1.6 Ah', cellFormat: 'sub-C', duration: '3 h', dischargeCurrent: '0.4 A' })
+    expect(r.cellFormat).toBe('sub-C')
+    expect(r.averageCurrentA).toBeCloseTo(0.4, 12)
+    expect(r.averagePowerW).toBeCloseTo(0.4 * 4.8, 12)
+  })
+
+  test('load and measured current together, or neither, are refused with the field named', () => {
+    const both = runTool(sizeTool, { chemistry: 'nicd', duration: '3 h', load: { power: '2 W' }, dischargeCurrent: '0.4 A' })
+    expect(both.ok ? [] : both.fields.map((f) => f.path)).toContain('dischargeCurrent')
+    const none = runTool(sizeTool, { chemistry: 'nicd', duration: '3 h' })
+    expect(none.ok ? [] : none.fields.map((f) => f.path)).toContain('load.power')
+  })
+
+  test('a charger on the size input is checked against the selected pack (charge rules) and carried in the result', () => {
+    const r = size({ chemistry: 'nicd-ht', cellsInSeries: 4, capacity: '1.6 Ah', duration: '3 h', dischargeCurrent: '0.4 A', charger: { type: 'nickel-constant-current', chargeCurrent: '120 mA' } })
+    expect(r.chargerCheck?.chargeCRate).toBeCloseTo(0.075, 12)
+    expect(r.chargerCheck?.trickleCRate).toBeCloseTo(0.075, 12)
+    expect(r.chargerCheck?.dischargeAh).toBeCloseTo(1.2, 12)
+    expect(r.chargerCheck?.compatible).toBe('yes') // HT NiCd take up to 0.1 C permanently (IEC 60285 practice, from memory)
+    expect(r.working.some((s) => s.id === 'charger.rechargeTimeH')).toBe(true)
+  })
+
+  test('lithium on a nickel constant-current charger: critical on the size result (lithium maker practice)', () => {
+    const r = size({ chemistry: 'lifepo4', cellsInSeries: 1, capacity: '1.5 Ah', duration: '3 h', dischargeCurrent: '0.3 A', charger: { type: 'nickel-constant-current', chargeCurrent: '120 mA' } })
+    expect(r.chargerCheck?.compatible).toBe('no')
+    expect(r.warnings.find((w) => w.code === 'charger-type-unsuitable')?.severity).toBe('critical')
+  })
+})

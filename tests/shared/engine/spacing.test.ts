@@ -210,12 +210,18 @@ describe('spacing tool', () => {
     expect(codes({ ...base, endOfDurationFactor: 0.7, normalIlluminance: 200 })).toEqual(expect.arrayContaining(['end-factor-unused', 'normal-illuminance-unused']))
     expect(codes(base)).toContain('relative-photometry')
   })
-  it('a tall mounting with a slow fall-off: the row end is too dark and no even row passes', () => {
+  it('a tall mounting with a slow fall-off: the end of a long row is too dark, but a closer even row with its own end distance passes', () => {
     const r = run({ ...base, photometry: { verticalAngles: [0, 90], horizontalAngles: [0], candela: [[10, 10]] }, mountingHeight: 8, routeLength: 30 })
     expect(r.maxSpacingM).toBeGreaterThan(0)
     expect(r.maxEndSpacingM).toBe(0)
-    expect(r.luminairesNeeded).toBeNull()
-    expect(r.warnings.map((w) => w.code)).toEqual(expect.arrayContaining(['row-end-too-dark', 'count-not-found']))
+    expect(r.warnings.map((w) => w.code)).toContain('row-end-too-dark')
+    expect(r.warnings.map((w) => w.code)).not.toContain('count-not-found')
+    const layout = r.layout!
+    expect(layout.spacingM!).toBeLessThan(r.maxSpacingM!)
+    // Independent check on the centre line (1 lx, EN 1838:2013 4.2.1) with the point method.
+    const row = layout.positionsM.map((x) => ({ x, y: 0, height: 8 }))
+    const darkest = Math.min(...Array.from({ length: 601 }, (_, k) => illuminanceAtPoint(uniform(10), row, k * 0.05, 0, 0.8)))
+    expect(darkest).toBeGreaterThanOrEqual(1 - 1e-3)
   })
   it('a count above the long-row estimate is found when the row ends need it', () => {
     const r = run({ ...base, photometry: { verticalAngles: [0, 90], horizontalAngles: [0], candela: [[10, 10]] }, mountingHeight: 3.5, routeLength: 12 })
@@ -253,7 +259,8 @@ describe('spacing tool', () => {
 })
 
 describe('property: at the spacing found the minimum is met, at 2 % more it is not (fast-check)', () => {
-  // Downlight-like tables: any intensities from 0° to 75°, none at the horizontal (90°).
+  // Downlight-like tables: any intensities from 0° to 75°, none at the horizontal (90°). Twenty
+  // brute-force checks take a few seconds on a busy machine, hence the longer time limit.
   it('holds for generated axially symmetric intensity tables', () => {
     const gammas = [0, 15, 30, 45, 60, 75, 90]
     fc.assert(
@@ -295,5 +302,5 @@ describe('property: at the spacing found the minimum is met, at 2 % more it is n
       ),
       { numRuns: 20, seed: 1838, endOnFailure: true },
     )
-  })
+  }, 60_000)
 })
