@@ -3,6 +3,8 @@
  * site's register and log book. Each must keep its text out of the header and footer bands, never
  * print text over text, number its pages "n of N", and show words instead of codes.
  */
+import fs from 'node:fs'
+import nodePath from 'node:path'
 import type { Response } from 'superagent'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { dataSource } from '../../server/data-source'
@@ -28,6 +30,8 @@ beforeAll(async () => {
     const res = await owner.get(path).buffer(true).parse(binary)
     expect(res.status, `${name}: ${path}`).toBe(200)
     documents.push({ name, pdf: res.body as Buffer })
+    // PDF_OUT_DIR=/tmp/pdfs keeps the documents, to render them (pdftoppm) and look at each page.
+    if (process.env.PDF_OUT_DIR) fs.writeFileSync(nodePath.join(process.env.PDF_OUT_DIR, `${documents.length}-${name.replace(/[^\w]+/g, '-').slice(0, 50)}.pdf`), res.body as Buffer)
   }
   const sheets = (await owner.get('/api/sheets?pageSize=100')).body.items as Array<{ id: string; title: string }>
   for (const s of sheets) await fetchPdf(`sheet "${s.title}"`, `/api/sheets/${s.id}/pdf`)
