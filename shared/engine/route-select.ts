@@ -219,7 +219,7 @@ export function assessType(route: RouteNeed, c: TypeCandidate): TypeSelection {
   const row = out.layout ? `${out.layout.count} luminaire${out.layout.count === 1 ? '' : 's'}${out.layout.spacingM !== null ? ` ${sig(out.layout.spacingM)} m apart` : ''}` : ''
   out.summary =
     out.verdict === 'meets'
-      ? `Meets the route: ${row}, and the fitted pack lasts the duration.`
+      ? `Meets the route: ${row}, ${out.pack?.fittedPackEnough ? 'and the fitted pack lasts the duration' : `with a ${out.pack ? sig(out.pack.selectedCapacityAh) + ' Ah ' : ''}pack for the duration (no fitted pack stated)`}.`
       : out.verdict === 'pack'
         ? `Meets the light with ${row}, but not the duration: ${out.packReasons.join('; ')}.`
         : out.verdict === 'light'

@@ -2,7 +2,7 @@
  * The words of a specification sheet: cautions, input labels, headline figures and how figures are
  * written. Free of engine code, so read-only pages (the public sheet, the list) stay small.
  */
-import { CHEMISTRY_LABELS, DRIVER_LABELS, labelOf } from '../labels'
+import { CHARGER_TYPE_LABELS, CHEMISTRY_LABELS, DRIVER_LABELS, labelOf, MODE_LABELS, VOLTAGE_BASIS_LABELS } from '../labels'
 
 /** The cautions every sheet and pack screen shows. Plain, short, our own words. */
 export const SHEET_CAUTIONS: Array<{ id: string; title: string; text: string }> = [
@@ -27,7 +27,7 @@ export const PACK_INPUT_LABELS: Record<string, string> = {
   driverEfficiency: 'Converter efficiency',
   ambientMin: 'Lowest ambient',
   ambientMax: 'Highest ambient',
-  capacity: 'Existing pack capacity',
+  capacity: 'Pack capacity (checked)',
   cellsInSeries: 'Cells in series',
   averageCellVoltage: 'Average cell voltage',
   cutoffCellVoltage: 'End-of-discharge voltage per cell',
@@ -41,6 +41,17 @@ export const PACK_INPUT_LABELS: Record<string, string> = {
   'converterInput.max': 'Converter maximum input',
   'load.mainsPower': 'Mains-mode power (maintained)',
   capacityLadder: 'Capacities to choose from',
+  nominalVoltage: 'Nominal pack voltage',
+  cellFormat: 'Cell format',
+  mode: 'Mode',
+  dischargeCurrent: 'Measured discharge current',
+  'charger.type': 'Charger type',
+  'charger.chargeCurrent': 'Charge current',
+  'charger.trickleCurrent': 'Permanent (trickle) current',
+  'charger.floatVoltage': 'Float / hold voltage',
+  'charger.cutoffVoltage': 'Deep-discharge cut-off',
+  'charger.voltageBasis': 'Charger voltages given',
+  'charger.ambient': 'Ambient while charging',
 }
 
 /** The headline figures of a pack result, in the order sheets show them; `key` is also the working step id. */
@@ -48,6 +59,7 @@ export const PACK_RESULT_FIGURES: Array<{ key: string; label: string; unit: stri
   { key: 'requiredCapacityAh', label: 'Required rated capacity', unit: 'Ah' },
   { key: 'selectedCapacityAh', label: 'Pack capacity', unit: 'Ah' },
   { key: 'cellsInSeries', label: 'Cells in series', unit: '' },
+  { key: 'nominalVoltageV', label: 'Nominal pack voltage', unit: 'V' },
   { key: 'averageCurrentA', label: 'Average discharge current', unit: 'A' },
   { key: 'averagePowerW', label: 'Average power from the pack', unit: 'W' },
   { key: 'dischargeCRate', label: 'Discharge rate', unit: 'C' },
@@ -96,6 +108,9 @@ export function tidyTypedValue(text: string): string {
 const ENUMERATED_INPUTS: Record<string, Record<string, string>> = {
   chemistry: CHEMISTRY_LABELS,
   driver: DRIVER_LABELS,
+  mode: MODE_LABELS,
+  'charger.type': CHARGER_TYPE_LABELS,
+  'charger.voltageBasis': VOLTAGE_BASIS_LABELS,
 }
 
 /** Fractions typed as 0.82 are read by people as a percentage. */

@@ -94,6 +94,11 @@ export interface LogBookEntry {
   achievedDurationH: number | null
   faults: string
   remedialAction: string
+  dischargeLogId: string | null
+  checklist: Record<string, boolean>
+  verdictOverrideReason: string
+  runtimeNote: string
+  roundClientId: string | null
   recordedByName: string | null
   recordedAt: string
 }

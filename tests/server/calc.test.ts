@@ -69,6 +69,22 @@ describe('POST /api/calc/:tool', () => {
     expect(res.body.fields).toContainEqual(expect.objectContaining({ path: 'measuredPower' }))
   })
 
+  it('runs replace from a label: the recommended pack keeps the 4.8 V and suits the charger', async () => {
+    const label = { oldPack: { chemistry: 'nicd', nominalVoltage: '4.8 V', capacity: '1.6 Ah', cellFormat: 'sub-C' }, duration: '3 h', mode: 'non-maintained', charger: { type: 'nickel-constant-current', chargeCurrent: '120 mA' } }
+    const res = await viewer.post('/api/calc/replace', label)
+    expect(res.status).toBe(200)
+    expect(res.body.oldPackNominalVoltageV).toBeCloseTo(4.8, 12)
+    const best = res.body.candidates[res.body.recommended]
+    expect(best).toMatchObject({ cellsInSeries: 4, sameVoltage: true, meetsDuration: true })
+    expect(best.chargerCompatible).not.toBe('no')
+  })
+
+  it('refuses a replace input whose old pack voltage is not whole cells, naming the field', async () => {
+    const res = await viewer.post('/api/calc/replace', { oldPack: { chemistry: 'nicd', nominalVoltage: '5 V', capacity: '1.6 Ah' }, duration: '3 h', mode: 'maintained', charger: { type: 'unknown', chargeCurrent: '100 mA' } })
+    expect(res.status).toBe(400)
+    expect(res.body.fields).toEqual(expect.arrayContaining([expect.objectContaining({ path: 'oldPack.nominalVoltage' })]))
+  })
+
   it('answers an unknown tool with 404', async () => {
     const res = await viewer.post('/api/calc/nothing-here', INPUT)
     expect(res.status).toBe(404)

@@ -17,6 +17,8 @@ import type { User } from '../users/user.entity'
 import { forgetUser, users } from '../users/users.repository'
 import { changePassword, requestPasswordReset, resetPassword, signUp } from './auth.service'
 import { ensureCsrfToken, meResponse } from './me.service'
+import { CsrfAnswer, MeAnswer } from '../../../shared/schemas/answers/accounts'
+import { MessageSchema } from '../../../shared/schemas/answers/common'
 
 function login(req: Request, user: User): Promise<void> {
   // passport ≥ 0.6 regenerates the session id on login (no fixation).
@@ -61,7 +63,7 @@ export function signInLimiter(windowMs: number): RequestHandler {
 export function authRoutes(opts: { signInWindowMs: number }): RouteSpec[] {
   return [
     defineRoute({
-      method: 'post', path: '/api/auth/sign-up', access: 'public', summary: 'Create an account (and a workspace, or accept an invitation)',
+      method: 'post', path: '/api/auth/sign-up', response: MeAnswer, access: 'public', summary: 'Create an account (and a workspace, or accept an invitation)',
       body: SignUpSchema, status: 201,
       handler: async ({ body }, req) => {
         const user = await signUp(body)
@@ -70,7 +72,7 @@ export function authRoutes(opts: { signInWindowMs: number }): RouteSpec[] {
       },
     }),
     defineRoute({
-      method: 'post', path: '/api/auth/sign-in', access: 'public', summary: 'Sign in with e-mail and password',
+      method: 'post', path: '/api/auth/sign-in', response: MeAnswer, access: 'public', summary: 'Sign in with e-mail and password',
       // The limiter counts failed attempts, including bodies that fail the schema.
       before: [signInLimiter(opts.signInWindowMs)], body: SignInSchema,
       handler: (_input, req, res, next) => {
@@ -101,14 +103,14 @@ export function authRoutes(opts: { signInWindowMs: number }): RouteSpec[] {
       },
     }),
     defineRoute({
-      method: 'get', path: '/api/auth/me', access: 'signed-in', summary: 'The user, the current workspace and role',
+      method: 'get', path: '/api/auth/me', response: MeAnswer, access: 'signed-in', summary: 'The user, the current workspace and role',
       handler: (_input, req) => {
         if (!req.user && !req.ctx?.viaToken) throw new UnauthorizedError()
         return meResponse(req)
       },
     }),
     defineRoute({
-      method: 'patch', path: '/api/auth/me', access: 'signed-in', summary: 'Change name or unit preference',
+      method: 'patch', path: '/api/auth/me', response: MeAnswer, access: 'signed-in', summary: 'Change name or unit preference',
       body: UpdateProfileSchema,
       handler: async ({ body }, req) => {
         const user = req.user as User
@@ -119,7 +121,7 @@ export function authRoutes(opts: { signInWindowMs: number }): RouteSpec[] {
       },
     }),
     defineRoute({
-      method: 'post', path: '/api/auth/password', access: 'signed-in', summary: 'Change my password (ends my other sessions)',
+      method: 'post', path: '/api/auth/password', response: MessageSchema, access: 'signed-in', summary: 'Change my password (ends my other sessions)',
       body: ChangePasswordSchema,
       handler: async ({ body }, req) => {
         await changePassword((req.user as User).id, body.currentPassword, body.newPassword, req.sessionID)
@@ -129,11 +131,11 @@ export function authRoutes(opts: { signInWindowMs: number }): RouteSpec[] {
       },
     }),
     defineRoute({
-      method: 'get', path: '/api/auth/csrf', access: 'public', summary: 'A CSRF token for the X-CSRF-Token header',
+      method: 'get', path: '/api/auth/csrf', response: CsrfAnswer, access: 'public', summary: 'A CSRF token for the X-CSRF-Token header',
       handler: (_input, req) => ({ csrfToken: ensureCsrfToken(req) }),
     }),
     defineRoute({
-      method: 'post', path: '/api/auth/forgot-password', access: 'public', summary: 'E-mail a single-use password reset link',
+      method: 'post', path: '/api/auth/forgot-password', response: MessageSchema, access: 'public', summary: 'E-mail a single-use password reset link',
       body: ForgotPasswordSchema, status: 202,
       handler: async ({ body }) => {
         await requestPasswordReset(body.email)
@@ -141,7 +143,7 @@ export function authRoutes(opts: { signInWindowMs: number }): RouteSpec[] {
       },
     }),
     defineRoute({
-      method: 'post', path: '/api/auth/reset-password', access: 'public', summary: 'Set a new password with a reset token',
+      method: 'post', path: '/api/auth/reset-password', response: MessageSchema, access: 'public', summary: 'Set a new password with a reset token',
       body: ResetPasswordSchema,
       handler: async ({ body }) => {
         await resetPassword(body.token, body.password)

@@ -24,7 +24,7 @@ const ACCESS_TEXT: Record<string, string> = {
   owner: 'Role owner of the current workspace.',
 }
 
-const ErrorSchema = {
+const ErrorSchema: Json = {
   type: 'object',
   required: ['error', 'code'],
   properties: {
@@ -32,7 +32,7 @@ const ErrorSchema = {
     code: { type: 'string', description: 'A machine code (invalid_input, not_found, …)' },
     fields: { type: 'array', items: { type: 'object', required: ['path', 'message'], properties: { path: { type: 'string' }, message: { type: 'string' } } } },
   },
-} as const
+}
 
 const errorResponse = (description: string): ResponseConfig => ({ description, content: { 'application/json': { schema: { $ref: '#/components/schemas/Error' } } } })
 

@@ -15,7 +15,7 @@ import { BadRequestError, ConflictError, NotFoundError } from '../../errors/app-
 import { jsonWithRawFields } from '../../lib/raw-json'
 import { recordAudit } from '../audit/audit.service'
 import { person, personNamed, revisionListItem, revisionView, sheetView as mapSheet, snapshot, type SheetFields } from './sheets.mapping'
-import { findSheet, insertRevision, namesOf, revisionAtVersion, revisions, sheetListRows, sheetRowWithNames, sheets } from './sheets.repository'
+import { findSheet, insertRevision, namesOf, revisionAtVersion, revisions, sheetListRows, sheetRowWithNames, sheets, type SheetListRow } from './sheets.repository'
 import type { SpecSheet } from './spec-sheet.entity'
 
 export { sheetAuthors } from './sheets.repository'
@@ -131,7 +131,7 @@ export async function listSheets(workspaceId: string, q: SheetListQuery) {
     pageSize: q.pageSize,
     total: Number(rows[0]?.total ?? 0),
     items: rows
-      .filter((s) => s.id !== null)
+      .filter((s): s is SheetListRow & { id: string } => s.id !== null)
       .map((s) => ({
         id: s.id,
         title: s.title,
