@@ -6,6 +6,7 @@ import { AreaPatchSchema, AreaSchema, RegisterSettingsPatchSchema, SitePatchSche
 import { RoundSignOffSchema, TestBatchSchema } from '../../../shared/schemas/test-record.schema'
 import { IdParams, Uuid } from '../../lib/parse'
 import { defineRoute, scope, type RouteSpec } from '../../policy/access'
+import { formatPrefsOf } from '../../lib/format-prefs'
 import { EXPORT_FILES, exportFile } from './export.service'
 import { commitImport, previewImport } from './import.service'
 import * as register from './register.service'
@@ -198,7 +199,7 @@ export const registerRoutes: RouteSpec[] = [
     params: SiteExportParams, query: ExportQuery,
     notFound: (raw) => ((EXPORT_FILES as readonly string[]).includes(raw.file ?? '') ? 'That record' : `The export "${raw.file}"`),
     handler: async ({ params, query }, req, res) => {
-      const out = await exportFile(scope(req).workspaceId, params.id, params.file)
+      const out = await exportFile(scope(req).workspaceId, params.id, params.file, formatPrefsOf(req))
       if (query.as === 'json') {
         const text = out.mediaType.startsWith('text/')
         return { filename: out.filename, mediaType: out.mediaType, encoding: text ? 'utf8' : 'base64', content: out.body.toString(text ? 'utf8' : 'base64') }
