@@ -133,10 +133,10 @@ function packFor(route: RouteNeed, c: TypeCandidate): { pack: PackNeed | null; r
   const parsed = sizeInputSchema.safeParse({
     chemistry: c.chemistry,
     ...(c.cellsInSeries ? { cellsInSeries: c.cellsInSeries } : {}),
-    // The size tool refuses a bare duration (seconds, minutes or hours?): say seconds.
+    // Quantities carry their units: a bare number is refused as ambiguous.
     duration: `${route.ratedDurationS} s`,
     driver: 'converter',
-    load: { power: c.emergencyPowerW, ...(c.inputPowerW > 0 ? { mainsPower: c.inputPowerW } : {}) },
+    load: { power: `${c.emergencyPowerW} W`, ...(c.inputPowerW > 0 ? { mainsPower: `${c.inputPowerW} W` } : {}) },
   })
   if (!parsed.success) {
     const first = parsed.error.issues[0]
