@@ -19,7 +19,7 @@ const library = {
   reference: 'QTL-EM-03',
   client: 'Quillfield Library Trust (invented)',
   site: 'Quillfield Town Library, reading rooms and stairs',
-  luminaire: 'Slim recessed LED escape-route downlight, non-maintained, converter-driven, 3 h. Ceiling void about 22 °C.',
+  luminaire: 'Slim recessed LED downlight for escape routes, non-maintained, converter-driven, 3 h. Ceiling void about 22 °C.',
 }
 const careHome = {
   title: 'Wrenhollow Care Residence — bedroom corridors',
@@ -33,7 +33,7 @@ const warehouse = {
   reference: 'SDS-EM-02',
   client: 'Saltmarsh Logistics (invented)',
   site: 'Saltmarsh Distribution Park, shed 2 (unheated)',
-  luminaire: 'High-mounted LED exit and open-area unit, non-maintained, 3 h; the shed falls to −15 °C on winter nights.',
+  luminaire: 'High-mounted LED exit and open area unit, non-maintained, 3 h; the shed falls to −15 °C on winter nights.',
 }
 
 const SHEETS: DemoRevision[][] = [

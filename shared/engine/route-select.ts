@@ -133,7 +133,8 @@ function packFor(route: RouteNeed, c: TypeCandidate): { pack: PackNeed | null; r
   const parsed = sizeInputSchema.safeParse({
     chemistry: c.chemistry,
     ...(c.cellsInSeries ? { cellsInSeries: c.cellsInSeries } : {}),
-    duration: route.ratedDurationS,
+    // The size tool refuses a bare duration (seconds, minutes or hours?): say seconds.
+    duration: `${route.ratedDurationS} s`,
     driver: 'converter',
     load: { power: c.emergencyPowerW, ...(c.inputPowerW > 0 ? { mainsPower: c.inputPowerW } : {}) },
   })

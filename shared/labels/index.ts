@@ -27,8 +27,8 @@ export const CHEMISTRY_SHORT_LABELS: Record<keyof typeof CHEMISTRY_LABELS, strin
 }
 
 export const DRIVER_LABELS = {
-  direct: 'Direct from the pack',
-  converter: 'Through a converter (LED driver)',
+  converter: 'Converter (DC-DC driver)',
+  direct: 'Direct (current limiter)',
 } as const
 
 export const MODE_LABELS = {
@@ -89,28 +89,38 @@ export const SHEET_STATUS_LABELS = {
 /** When a luminaire's next test falls. */
 export const DUE_STATE_LABELS = {
   overdue: 'Overdue',
+  'due-now': 'Due now',
   'due-soon': 'Due soon',
   scheduled: 'Scheduled',
 } as const
 
 /** A luminaire's test state in the register. */
 export const TEST_STATE_LABELS = {
-  failed: 'Failed its last test',
-  overdue: 'Test overdue',
-  'due-soon': 'Test due soon',
+  failed: 'Failed',
+  overdue: 'Overdue',
+  'due-now': 'Test due now',
+  'due-soon': 'Due soon',
   ok: 'Up to date',
+} as const
+
+/** Why a test is due. */
+export const DUE_REASON_LABELS = {
+  interval: 'routine test',
+  retest: 'retest after a failure',
+  commissioning: 'first full-duration test of this pack',
 } as const
 
 /** Whether a battery pack is due for replacement. */
 export const PACK_STATE_LABELS = {
-  'replace-now': 'Replace the pack now',
-  'replace-soon': 'Replace the pack soon',
-  ok: 'Pack within its life',
+  'replace-now': 'Replace now',
+  'replace-soon': 'Replace soon',
+  ok: 'Good',
 } as const
 
 export const PACK_REPLACE_REASON_LABELS = {
-  'service-life': 'service life reached',
-  'duration-trend': 'duration tests falling',
+  'service-life': 'service life',
+  'duration-trend': 'trend of measured durations',
+  'latest-test': 'latest test',
 } as const
 
 export const SEVERITY_LABELS = {
@@ -219,6 +229,7 @@ export const ENUMERATIONS = {
   sheetStatus: SHEET_STATUS_LABELS,
   dueState: DUE_STATE_LABELS,
   testState: TEST_STATE_LABELS,
+  dueReason: DUE_REASON_LABELS,
   packState: PACK_STATE_LABELS,
   packReplaceReason: PACK_REPLACE_REASON_LABELS,
   severity: SEVERITY_LABELS,
@@ -260,8 +271,11 @@ export function unitLabel(unit: string): string {
  * hyphen, digits, or mixed case.
  */
 export function isTellTaleCode(code: string): boolean {
-  return /[-_]/.test(code) || /\d/.test(code) || /[a-z][A-Z]/.test(code)
+  return /[-_]/.test(code) || /\d/.test(code) || /[a-z][A-Z]/.test(code) || NON_WORD_CODES.has(code)
 }
+
+/** Lower-case codes that are no English word. */
+const NON_WORD_CODES = new Set(['nicd', 'nimh', 'ymd', 'dmy', 'mdy'])
 
 /** Every code across the enumerations that must never appear as text on a client-facing page. */
 export function tellTaleCodes(): string[] {

@@ -2,6 +2,7 @@
  * The words of a specification sheet: cautions, input labels, headline figures and how figures are
  * written. Free of engine code, so read-only pages (the public sheet, the list) stay small.
  */
+import { CHARGER_TYPE_LABELS, CHEMISTRY_LABELS, DRIVER_LABELS, labelOf, MODE_LABELS, VOLTAGE_BASIS_LABELS } from '../labels'
 
 /** The cautions every sheet and pack screen shows. Plain, short, our own words. */
 export const SHEET_CAUTIONS: Array<{ id: string; title: string; text: string }> = [
@@ -16,28 +17,29 @@ export const SHEET_CAUTIONS: Array<{ id: string; title: string; text: string }> 
 
 /** Words for each pack input (dotted paths), for forms, sheets and the PDF. */
 export const PACK_INPUT_LABELS: Record<string, string> = {
+  // In the order the pack screen asks for them; sheets and PDFs list inputs in this order too.
   chemistry: 'Chemistry',
   duration: 'Rated duration',
   driver: 'Driver',
   'load.power': 'LED power in emergency mode',
   'load.ledVoltage': 'LED string voltage',
   'load.ledCurrent': 'LED current',
-  'load.mainsPower': 'Mains-mode power (maintained)',
   driverEfficiency: 'Converter efficiency',
-  'converterInput.min': 'Converter minimum input',
-  'converterInput.max': 'Converter maximum input',
+  ambientMin: 'Lowest ambient',
+  ambientMax: 'Highest ambient',
+  capacity: 'Pack capacity (checked)',
   cellsInSeries: 'Cells in series',
   averageCellVoltage: 'Average cell voltage',
   cutoffCellVoltage: 'End-of-discharge voltage per cell',
-  capacity: 'Pack capacity (checked)',
   ratedHours: 'Capacity rating basis',
   peukertExponent: 'Peukert exponent',
-  endOfLifeCapacity: 'End-of-life capacity fraction',
   depthOfDischarge: 'Depth of discharge',
+  endOfLifeCapacity: 'End-of-life capacity fraction',
   designMargin: 'Design margin',
   designLifeYears: 'Design life (years)',
-  ambientMin: 'Lowest ambient',
-  ambientMax: 'Highest ambient',
+  'converterInput.min': 'Converter minimum input',
+  'converterInput.max': 'Converter maximum input',
+  'load.mainsPower': 'Mains-mode power (maintained)',
   capacityLadder: 'Capacities to choose from',
   nominalVoltage: 'Nominal pack voltage',
   cellFormat: 'Cell format',
@@ -91,4 +93,46 @@ export function flattenInputs(inputs: Record<string, unknown>, prefix = ''): Arr
     else if (v !== undefined && v !== null && v !== '') out.push({ path, value: Array.isArray(v) ? v.join(', ') : String(v) })
   }
   return out
+}
+
+/** Typed units written the usual way ("25 degC" → "25 °C", "47 ohm" → "47 Ω"), a minus as a minus. */
+export function tidyTypedValue(text: string): string {
+  return text
+    .replace(/\bdeg\s*C\b/g, '°C')
+    .replace(/\bdeg\s*F\b/g, '°F')
+    .replace(/(\d)\s*ohm\b/g, '$1 Ω')
+    .replace(/(^|[\s(])-(?=\d)/g, '$1−')
+}
+
+/** How each enumerated input is written, by its dotted path. */
+const ENUMERATED_INPUTS: Record<string, Record<string, string>> = {
+  chemistry: CHEMISTRY_LABELS,
+  driver: DRIVER_LABELS,
+  mode: MODE_LABELS,
+  'charger.type': CHARGER_TYPE_LABELS,
+  'charger.voltageBasis': VOLTAGE_BASIS_LABELS,
+}
+
+/** Fractions typed as 0.82 are read by people as a percentage. */
+const FRACTION_INPUTS = new Set(['driverEfficiency', 'endOfLifeCapacity', 'depthOfDischarge', 'designMargin'])
+
+/**
+ * The inputs of a sheet as people read them, in the order the pack screen asks for them (the order
+ * of PACK_INPUT_LABELS): words for codes, usual unit symbols, fractions as percentages.
+ */
+export function sheetInputRows(inputs: Record<string, unknown>): Array<{ path: string; label: string; value: string }> {
+  const order = Object.keys(PACK_INPUT_LABELS)
+  const rank = (path: string) => (order.includes(path) ? order.indexOf(path) : order.length)
+  return flattenInputs(inputs)
+    .sort((a, b) => rank(a.path) - rank(b.path))
+    .map(({ path, value }) => {
+      const words = ENUMERATED_INPUTS[path]
+      const number = Number(value)
+      const shown = words
+        ? labelOf(words, value)
+        : FRACTION_INPUTS.has(path) && value.trim() !== '' && Number.isFinite(number)
+          ? `${Number((number * 100).toPrecision(3))} %`
+          : tidyTypedValue(value)
+      return { path, label: PACK_INPUT_LABELS[path] ?? labelOf({}, path), value: shown }
+    })
 }

@@ -111,9 +111,13 @@ export interface ImportIssue {
 
 export interface ImportPreview {
   columns: string[]
+  /** The first rows only; totalRows counts them all. */
   rows: Array<{ row: number; values: Record<string, unknown> | null }>
+  /** The first problems only; errorCount counts them all. */
   errors: ImportIssue[]
+  errorCount?: number
   validRows: number
+  totalRows?: number
   newAreas: string[]
 }
 

@@ -6,12 +6,12 @@
  */
 import zlib from 'node:zlib'
 
-interface PdfObject {
+export interface PdfObject {
   dict: string
   stream: Buffer | null
 }
 
-function readObjects(pdf: Buffer): Map<string, PdfObject> {
+export function readObjects(pdf: Buffer): Map<string, PdfObject> {
   const src = pdf.toString('latin1')
   const objects = new Map<string, PdfObject>()
   const header = /(\d+) 0 obj\b/g
@@ -49,7 +49,7 @@ function readObjects(pdf: Buffer): Map<string, PdfObject> {
   return objects
 }
 
-function parseCMap(text: string): Map<number, string> {
+export function parseCMap(text: string): Map<number, string> {
   const map = new Map<number, string>()
   const hexToString = (hex: string) => {
     let s = ''

@@ -382,7 +382,8 @@ describe('the PDF', () => {
     expect(res.status).toBe(200)
     const text = pdfText(res.body as Buffer).replace(/\s+/g, ' ')
     expect(text).toContain('Public PDF sheet')
-    expect(text).toMatch(/Revision 1 · issued \d{4}-\d\d-\d\d/)
+    // The date as people write it, month in words (shared/format), never 2026-12-02 or 12/2/2026.
+    expect(text).toMatch(/Revision 1 · issued \d{1,2} [A-Z][a-z]{2} \d{4}/)
   })
 })
 

@@ -55,9 +55,21 @@ export type Doc = PDFKit.PDFDocument
 /** One part of a document: writes its data onto the document, page breaks included. */
 export type PdfSection<D> = (doc: Doc, data: D) => void
 
+/**
+ * Every page has a header band and a footer band that body text never enters: the body's margins
+ * start below and end above them, and `frame` writes into them once the pages are laid out.
+ */
+export const BANDS = { header: 34, footer: 38, gap: 14 } as const
+
 /** A new A4 document with the font subsets registered (portrait with wide margins unless told). */
 export function newDocument(info: { title: string; subject?: string }, page: { layout?: 'portrait' | 'landscape'; margin?: number } = {}): Doc {
-  const margins = page.margin !== undefined ? { top: page.margin, bottom: page.margin, left: page.margin, right: page.margin } : { top: 56, bottom: 64, left: 56, right: 56 }
+  const side = page.margin ?? 56
+  const margins = {
+    top: Math.max(page.margin ?? 56, BANDS.header + BANDS.gap),
+    bottom: Math.max(page.margin ?? 64, BANDS.footer + BANDS.gap),
+    left: side,
+    right: side,
+  }
   const doc = new PDFDocument({ size: 'A4', layout: page.layout ?? 'portrait', margins, bufferPages: true, info: { Title: info.title, Subject: info.subject ?? '', Creator: 'Lampwright' } })
   const subsets = loadSubsets()
   for (const weight of Object.keys(subsets) as Weight[]) for (const s of subsets[weight]) doc.registerFont(fontName(weight, s.name), s.file)
@@ -90,9 +102,14 @@ export interface WriteOptions extends PDFKit.Mixins.TextOptions {
   color?: string
 }
 
-/** Writes a paragraph (or a continued piece) in Source Sans 3, switching subsets as needed. */
+/**
+ * Writes a paragraph (or a continued piece) in Source Sans 3, switching subsets as needed. `x` and
+ * `y` in the options place its first line (pdfkit reads them only as arguments, never as options).
+ */
 export function write(doc: Doc, text: string, opts: WriteOptions = {}): Doc {
-  const { weight = 'regular', size = 10, color = '#1b2a33', ...textOpts } = opts
+  const { x, y, ...rest } = opts as WriteOptions & { x?: number; y?: number }
+  if (x !== undefined || y !== undefined) return writeAt(doc, text, x ?? doc.x, y ?? doc.y, rest)
+  const { weight = 'regular', size = 10, color = '#1b2a33', ...textOpts } = rest
   doc.fontSize(size).fillColor(color)
   const runs = textRuns(text || ' ', weight)
   runs.forEach((run, i) => {
@@ -110,7 +127,7 @@ export function writeAt(doc: Doc, text: string, x: number, y: number, opts: Writ
   const runs = textRuns(text || ' ', weight)
   runs.forEach((run, i) => {
     doc.font(run.font)
-    const more = i < runs.length - 1
+    const more = i < runs.length - 1 || (textOpts.continued ?? false)
     if (i === 0) doc.text(run.text, x, y, { ...textOpts, continued: more })
     else doc.text(run.text, { ...textOpts, continued: more })
   })
@@ -136,25 +153,88 @@ export function heading(doc: Doc, text: string) {
 /** Label and value on one line (the label in semibold). */
 export function pair(doc: Doc, label: string, value: string) {
   ensureSpace(doc, 16)
-  const left = doc.page.margins.left
-  write(doc, `${label}: `, { weight: 'semibold', continued: true, x: left } as WriteOptions)
+  doc.x = doc.page.margins.left
+  write(doc, `${label}: `, { weight: 'semibold', continued: true })
   write(doc, value)
 }
 
+/** Starts a new page unless `height` more points fit above the footer band. */
 export function ensureSpace(doc: Doc, height: number) {
   if (doc.y + height > doc.page.height - doc.page.margins.bottom) doc.addPage()
 }
 
-/** "Page n of m" and a short line on every page, once the content is laid out. */
-export function footers(doc: Doc, line: string) {
+export interface FrameText {
+  /** Left of the header band: what the document is. */
+  header: string
+  /** Right of the header band: who issued it. */
+  headerRight?: string
+  /** Left of the footer band; "Page n of N" goes on the right. */
+  footer: string
+}
+
+/**
+ * Writes the header and footer bands on every page once the content is laid out: a title line and
+ * a rule at the top, a rule, a line and "Page n of N" at the bottom. Body text never reaches the
+ * bands (see BANDS), so nothing here is printed over it.
+ */
+export function frame(doc: Doc, text: FrameText) {
   const range = doc.bufferedPageRange()
   for (let i = range.start; i < range.start + range.count; i++) {
     doc.switchToPage(i)
-    const bottom = doc.page.margins.bottom
+    const { left, right, bottom } = doc.page.margins
+    const width = doc.page.width - left - right
+    const h = doc.page.height
+    // The bands lie outside the body's margins: lift the bottom margin so pdfkit adds no page.
     doc.page.margins.bottom = 0
-    write(doc, `${line}   ·   Page ${i + 1} of ${range.count}`, { size: 8, color: '#5b6b75', x: doc.page.margins.left, y: doc.page.height - 40, width: doc.page.width - doc.page.margins.left - doc.page.margins.right, align: 'center', lineBreak: false } as WriteOptions)
+    const pageText = `Page ${i + 1 - range.start} of ${range.count}`
+    const small = { size: 8, color: '#5b6b75', lineBreak: false } as const
+    writeAt(doc, text.header, left, 16, { ...small, width: text.headerRight ? width * 0.62 : width, ellipsis: true })
+    if (text.headerRight) writeAt(doc, text.headerRight, left + width * 0.64, 16, { ...small, width: width * 0.36, align: 'right', ellipsis: true })
+    doc.moveTo(left, BANDS.header - 6).lineTo(left + width, BANDS.header - 6).lineWidth(0.4).strokeColor('#c5ced3').stroke()
+    doc.moveTo(left, h - BANDS.footer + 4).lineTo(left + width, h - BANDS.footer + 4).lineWidth(0.4).strokeColor('#c5ced3').stroke()
+    writeAt(doc, text.footer, left, h - BANDS.footer + 12, { ...small, width: width - 80, ellipsis: true })
+    writeAt(doc, pageText, left + width - 78, h - BANDS.footer + 12, { ...small, width: 78, align: 'right' })
     doc.page.margins.bottom = bottom
   }
+}
+
+/** "Page n of m" and a short line on every page (the footer band only); see `frame`. */
+export function footers(doc: Doc, line: string) {
+  frame(doc, { header: '', footer: line })
+}
+
+export interface SignOffBox {
+  /** What the signer signs for, e.g. "Installed and tested by". */
+  role: string
+  name?: string
+  date?: string
+}
+
+/**
+ * Boxes for signatures, side by side, each with the role, a name, a signature line and a date;
+ * a name or date already known is printed in its box. Kept together on one page.
+ */
+export function signOffBoxes(doc: Doc, boxes: SignOffBox[]) {
+  const height = 96
+  ensureSpace(doc, height + 10)
+  const { left, right } = doc.page.margins
+  const gap = 12
+  const width = (doc.page.width - left - right - gap * (boxes.length - 1)) / boxes.length
+  const top = doc.y + 4
+  boxes.forEach((b, i) => {
+    const x = left + i * (width + gap)
+    doc.rect(x, top, width, height).lineWidth(0.6).strokeColor('#8a989f').stroke()
+    writeAt(doc, b.role, x + 8, top + 6, { weight: 'semibold', size: 9, width: width - 16, lineBreak: false, ellipsis: true })
+    const rows: Array<[string, string]> = [['Name', b.name ?? ''], ['Signature', ''], ['Date', b.date ?? '']]
+    rows.forEach(([label, value], k) => {
+      const y = top + 28 + k * 22
+      writeAt(doc, label, x + 8, y, { size: 8, color: '#5b6b75', lineBreak: false })
+      doc.moveTo(x + 58, y + 11).lineTo(x + width - 8, y + 11).lineWidth(0.4).strokeColor('#8a989f').stroke()
+      if (value) writeAt(doc, value, x + 60, y, { size: 9, width: width - 70, lineBreak: false, ellipsis: true })
+    })
+  })
+  doc.x = left
+  doc.y = top + height + 10
 }
 
 /** Collects the finished document into one buffer. */

@@ -4,16 +4,16 @@
  */
 import type { EngineWarning } from '../../../shared/engine/types'
 import { SEVERITY_LABELS } from '../../../shared/labels'
-import { formatFigure } from '../../../shared/schemas/sheet-text'
+import { DEFAULT_PREFS, formatDate, formatNumber } from '../../../shared/format'
 import { AUDIT_RESULT_FIGURES, auditFigureText, CLAIM_MEANING_WORDS, CLAIM_VERDICT_WORDS, plainAuditWarnings } from '../../../shared/schemas/wattage-audit-text'
 import { ensureSpace, heading, pair, write } from '../../lib/pdf/pdf-kit'
 import type { PdfSection } from '../sheets/sheet-pdf'
 import type { AuditDto } from './audits.service'
 
-const date = (d: Date | string) => new Date(d).toISOString().slice(0, 10)
 
 export function wattageAuditsSection(audits: AuditDto[]): PdfSection {
-  return (doc) => {
+  return (doc, d) => {
+    const prefs = d.prefs ?? DEFAULT_PREFS
     heading(doc, 'Wattage audits')
     write(doc, 'Readings taken on luminaires against the power their makers declare. Attached audits are listed whatever the revision shown.', { size: 9, color: '#3c4a52' })
     for (const a of audits) {
@@ -22,9 +22,9 @@ export function wattageAuditsSection(audits: AuditDto[]): PdfSection {
       doc.moveDown(0.4)
       write(doc, a.title, { weight: 'semibold', size: 11.5, color: '#1f3b4d' })
       if (a.luminaire) write(doc, a.luminaire, { size: 9.5 })
-      write(doc, `Recorded by ${a.author?.name ?? '—'} on ${date(a.createdAt)} · engine ${a.engineVersion}`, { size: 8.5, color: '#5b6b75' })
-      pair(doc, 'Claimed power', formatFigure(a.claimedPowerW, 'W'))
-      pair(doc, 'Verdict', `${formatFigure(r.measuredPowerW, 'W')} measured: ${CLAIM_VERDICT_WORDS[String(r.claimVerdict)] ?? String(r.claimVerdict)}; the claim most likely describes ${CLAIM_MEANING_WORDS[String(r.claimLikelyMeans)] ?? String(r.claimLikelyMeans)}`)
+      write(doc, `Recorded by ${a.author?.name ?? '—'} on ${formatDate(a.createdAt, prefs)} · engine ${a.engineVersion}`, { size: 8.5, color: '#5b6b75' })
+      pair(doc, 'Claimed power', formatNumber(a.claimedPowerW, { unit: 'W' }, prefs))
+      pair(doc, 'Verdict', `${formatNumber(r.measuredPowerW, { unit: 'W' }, prefs)} measured: ${CLAIM_VERDICT_WORDS[String(r.claimVerdict)] ?? String(r.claimVerdict)}; the claim most likely describes ${CLAIM_MEANING_WORDS[String(r.claimLikelyMeans)] ?? String(r.claimLikelyMeans)}`)
       for (const f of AUDIT_RESULT_FIGURES) {
         if (f.key === 'measuredPowerW') continue
         const text = auditFigureText(r, f)

@@ -4,19 +4,18 @@
  */
 import type { EngineWarning } from '../../../shared/engine/types'
 import { labelOf, RUNTIME_END_LABELS as END_WORDS, SEVERITY_LABELS } from '../../../shared/labels'
-import { formatFigure } from '../../../shared/schemas/sheet-text'
+import { DEFAULT_PREFS, formatDate, formatNumber, type FormatPrefs } from '../../../shared/format'
 import { ensureSpace, heading, pair, write, type Doc } from '../../lib/pdf/pdf-kit'
 import type { PdfSection } from '../sheets/sheet-pdf'
 import type { DischargeLogDto } from './discharge.service'
 
-const date = (d: Date | string) => new Date(d).toISOString().slice(0, 10)
 
 function verdict(pass: unknown): string {
   return pass === true ? 'Passed: lasted its rated duration' : pass === false ? 'Failed: did not last its rated duration' : 'Inconclusive: the log stops too early to tell'
 }
 
 /** Pack voltage against hours, with the cut-off dashed; at most a few hundred segments. */
-function plot(doc: Doc, curve: { tH: number[]; v: number[] }, cutoffV: number) {
+function plot(doc: Doc, curve: { tH: number[]; v: number[] }, cutoffV: number, prefs: FormatPrefs) {
   const n = curve.tH.length
   if (n < 2) return
   ensureSpace(doc, 130)
@@ -41,15 +40,16 @@ function plot(doc: Doc, curve: { tH: number[]; v: number[] }, cutoffV: number) {
   doc.lineWidth(1).strokeColor('#1f6f8b').stroke()
   doc.moveTo(left, y(cutoffV)).lineTo(left + width, y(cutoffV)).dash(3, { space: 3 }).lineWidth(0.8).strokeColor('#a3161a').stroke().undash()
   doc.restore()
-  write(doc, `${formatFigure(vMax, 'V')}`, { size: 7, color: '#5b6b75', x: doc.page.margins.left, y: top - 3, lineBreak: false } as never)
-  write(doc, `${formatFigure(vMin, 'V')}`, { size: 7, color: '#5b6b75', x: doc.page.margins.left, y: top + height - 6, lineBreak: false } as never)
-  write(doc, `0 h … ${formatFigure(tMax, 'h')}; dashed: cut-off ${formatFigure(cutoffV, 'V')}`, { size: 7.5, color: '#5b6b75', x: left, y: top + height + 3 } as never)
+  write(doc, `${formatNumber(vMax, { unit: 'V' }, prefs)}`, { size: 7, color: '#5b6b75', x: doc.page.margins.left, y: top - 3, lineBreak: false } as never)
+  write(doc, `${formatNumber(vMin, { unit: 'V' }, prefs)}`, { size: 7, color: '#5b6b75', x: doc.page.margins.left, y: top + height - 6, lineBreak: false } as never)
+  write(doc, `0 h … ${formatNumber(tMax, { unit: 'h' }, prefs)}; dashed: cut-off ${formatNumber(cutoffV, { unit: 'V' }, prefs)}`, { size: 7.5, color: '#5b6b75', x: left, y: top + height + 3 } as never)
   doc.x = doc.page.margins.left
   doc.moveDown(0.3)
 }
 
 export function dischargeLogsSection(logs: DischargeLogDto[]): PdfSection {
-  return (doc) => {
+  return (doc, d) => {
+    const prefs = d.prefs ?? DEFAULT_PREFS
     heading(doc, 'Discharge logs')
     write(doc, 'Logged full-duration tests attached to this sheet, read by the Lampwright engine. Attached logs are listed whatever the revision shown.', { size: 9, color: '#3c4a52' })
     for (const log of logs) {
@@ -58,15 +58,15 @@ export function dischargeLogsSection(logs: DischargeLogDto[]): PdfSection {
       ensureSpace(doc, 160)
       doc.moveDown(0.4)
       write(doc, log.title, { weight: 'semibold', size: 11.5, color: '#1f3b4d' })
-      write(doc, `Saved by ${log.author?.name ?? '—'} on ${date(log.createdAt)} · engine ${log.engineVersion} · ${read.rows ?? 0} readings${read.badRows?.count ? `, ${read.badRows.count} unreadable rows left out` : ''}`, { size: 8.5, color: '#5b6b75' })
+      write(doc, `Saved by ${log.author?.name ?? '—'} on ${formatDate(log.createdAt, prefs)} · engine ${log.engineVersion} · ${read.rows ?? 0} readings${read.badRows?.count ? `, ${read.badRows.count} unreadable rows left out` : ''}`, { size: 8.5, color: '#5b6b75' })
       if (log.notes) write(doc, log.notes, { size: 9.5 })
       pair(doc, 'Verdict', verdict(s.pass))
-      pair(doc, 'Runtime', `${formatFigure(s.runtimeH, 'h')} (ended because ${labelOf(END_WORDS, String(s.runtimeEnd)).toLowerCase()}); margin ${formatFigure(s.marginH, 'h')}`)
-      pair(doc, 'Cut-off used', formatFigure(s.cutoffVoltageV, 'V'))
-      if (typeof s.deliveredAh === 'number') pair(doc, s.estimated ? 'Delivered (estimated)' : 'Delivered', `${formatFigure(s.deliveredAh, 'Ah')}, ${formatFigure(s.deliveredWh, 'Wh')}`)
-      pair(doc, 'Mid-point voltage', formatFigure(s.midpointVoltageV, 'V'))
+      pair(doc, 'Runtime', `${formatNumber(s.runtimeH, { unit: 'h' }, prefs)} (ended because ${labelOf(END_WORDS, String(s.runtimeEnd)).toLowerCase()}); margin ${formatNumber(s.marginH, { unit: 'h' }, prefs)}`)
+      pair(doc, 'Cut-off used', formatNumber(s.cutoffVoltageV, { unit: 'V' }, prefs))
+      if (typeof s.deliveredAh === 'number') pair(doc, s.estimated ? 'Delivered (estimated)' : 'Delivered', `${formatNumber(s.deliveredAh, { unit: 'Ah' }, prefs)}, ${formatNumber(s.deliveredWh, { unit: 'Wh' }, prefs)}`)
+      pair(doc, 'Mid-point voltage', formatNumber(s.midpointVoltageV, { unit: 'V' }, prefs))
       if (typeof s.stateOfHealth === 'number') pair(doc, 'State of health', `${Math.round(s.stateOfHealth * 100)} % of the rated capacity`)
-      if (log.curve) plot(doc, log.curve, Number(s.cutoffVoltageV))
+      if (log.curve) plot(doc, log.curve, Number(s.cutoffVoltageV), prefs)
       const warnings = ((s.warnings ?? []) as EngineWarning[]).filter((w) => w.severity !== 'info')
       for (const w of warnings) {
         ensureSpace(doc, 24)

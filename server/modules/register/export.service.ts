@@ -4,7 +4,8 @@
  * a spreadsheet shows them as text instead of running them as a formula.
  */
 import Papa from 'papaparse'
-import { heightOf, newDocument, toBuffer, write, writeAt, type Doc, type WriteOptions } from '../../lib/pdf/pdf-kit'
+import { DEFAULT_PREFS, formatDate, formatHours, formatNumber, type FormatPrefs } from '../../../shared/format'
+import { frame, heightOf, newDocument, toBuffer, write, writeAt, type Doc, type WriteOptions } from '../../lib/pdf/pdf-kit'
 import { PURPOSE_LABELS } from '../../../shared/schemas/luminaire.schema'
 import { REGIME_LABELS } from '../../../shared/schemas/site.schema'
 import { chemistryName, DUE_REASON_LABELS, FORECAST_STATE_LABELS, LUMINAIRE_STATE_LABELS, MODE_LABELS, testKindWords } from '../../../shared/schemas/logbook-labels'
@@ -62,13 +63,13 @@ export interface ExportResult {
 
 const slug = (s: string) => s.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '').slice(0, 60) || 'site'
 
-export async function exportFile(workspaceId: string, siteId: string, file: ExportFile): Promise<ExportResult> {
+export async function exportFile(workspaceId: string, siteId: string, file: ExportFile, prefs: FormatPrefs = DEFAULT_PREFS): Promise<ExportResult> {
   const reg = await registerRows(workspaceId, siteId)
   const base = `${slug(reg.status.site.name)}-${file.startsWith('register') ? 'register' : 'log-book'}-${reg.status.today}`
   if (file === 'register.csv') return { filename: `${base}.csv`, mediaType: 'text/csv; charset=utf-8', body: Buffer.from(toCsv(reg.header, reg.rows), 'utf8') }
   const log = await logBookRows(workspaceId, siteId)
   if (file === 'logbook.csv') return { filename: `${base}.csv`, mediaType: 'text/csv; charset=utf-8', body: Buffer.from(toCsv(log.header, log.rows), 'utf8') }
-  const body = file === 'register.pdf' ? await registerPdf(reg) : await logBookPdf(reg.status, log.rows)
+  const body = file === 'register.pdf' ? await registerPdf(reg, prefs) : await logBookPdf(reg.status, log.rows, prefs)
   return { filename: `${base}.pdf`, mediaType: 'application/pdf', body }
 }
 
@@ -77,20 +78,26 @@ export async function exportFile(workspaceId: string, siteId: string, file: Expo
 type SiteStatus = Awaited<ReturnType<typeof siteStatus>>
 
 /** A due test in words: "2026-01-31", or "retest due by 2026-01-31", "overdue: first full-duration test of this pack, by …". */
-function dueWords(t: LuminaireStatus['due']['functional']): string {
-  if (t.reason === 'interval') return t.state === 'overdue' ? `${t.nextDueOn} (overdue)` : t.nextDueOn
-  return `${t.state === 'overdue' ? 'Overdue' : 'Due now'}: ${DUE_REASON_LABELS[t.reason]}, by ${t.overdueAfter}`
+function dueWords(t: LuminaireStatus['due']['functional'], prefs: FormatPrefs): string {
+  const date = (d: string | null) => formatDate(d, prefs)
+  if (t.reason === 'interval') return t.state === 'overdue' ? `${date(t.nextDueOn)} (overdue)` : date(t.nextDueOn)
+  return `${t.state === 'overdue' ? 'Overdue' : 'Due now'}: ${DUE_REASON_LABELS[t.reason]}, by ${date(t.overdueAfter)}`
 }
 
 // Landscape with narrow margins: the register is a wide table.
 const newDoc = (title: string) => newDocument({ title }, { layout: 'landscape', margin: 36 })
 
-function heading(doc: Doc, title: string, status: SiteStatus) {
+function heading(doc: Doc, title: string, status: SiteStatus, prefs: FormatPrefs) {
   write(doc, title, { weight: 'semibold', size: 16 })
   write(doc, `${status.site.name}${status.site.address ? ` — ${status.site.address.replace(/\s*\n\s*/g, ', ')}` : ''}`)
   write(doc, `Responsible person: ${status.site.responsibleName || '—'} ${status.site.responsibleEmail ? `<${status.site.responsibleEmail}>` : ''}`)
-  write(doc, `Testing regime: ${REGIME_LABELS[status.site.regime]}. Printed ${status.today}.`)
+  write(doc, `Testing regime: ${REGIME_LABELS[status.site.regime]}. Printed ${formatDate(status.today, prefs)}.`)
   doc.moveDown(0.6)
+}
+
+/** Header and footer bands of the register and log book. */
+function frameSiteDocument(doc: Doc, title: string, status: SiteStatus, prefs: FormatPrefs) {
+  frame(doc, { header: `${title} — ${status.site.name}`, footer: `Printed ${formatDate(status.today, prefs)} · Lampwright` })
 }
 
 interface Column {
@@ -132,10 +139,11 @@ function table(doc: Doc, columns: Column[], rows: string[][]) {
   }
 }
 
-async function registerPdf(reg: Awaited<ReturnType<typeof registerRows>>): Promise<Buffer> {
+async function registerPdf(reg: Awaited<ReturnType<typeof registerRows>>, prefs: FormatPrefs): Promise<Buffer> {
   const s = reg.status
+  const date = (d: string | null) => formatDate(d, prefs)
   const doc = newDoc(`Emergency lighting register — ${s.site.name}`)
-  heading(doc, 'Emergency lighting register', s)
+  heading(doc, 'Emergency lighting register', s, prefs)
   write(doc, `${s.counts.luminaires} luminaires: ${s.counts.failed} with a failure not yet put right (${s.counts.retestOverdue} of them past the ${s.settings.repairWindowDays}-day repair window), ${s.counts.overdue} overdue, ${s.counts.dueNow} with a test due now, ${s.counts.dueSoon} due within 14 days.`)
   doc.moveDown(0.6)
   const columns: Column[] = [
@@ -147,9 +155,9 @@ async function registerPdf(reg: Awaited<ReturnType<typeof registerRows>>): Promi
     doc,
     columns,
     s.luminaires.map((l) => [
-      l.tag, [l.areaName, l.location].filter(Boolean).join(' — '), PURPOSE_LABELS[l.purpose], MODE_LABELS[l.mode], `${l.ratedDurationH} h`,
-      `${chemistryName(l.chemistry)}, ${l.cellsInSeries} cells, ${l.capacityAh} Ah`, l.packFittedOn, dueWords(l.due.functional), dueWords(l.due.duration), LUMINAIRE_STATE_LABELS[l.due.state],
-      `${l.forecast.replaceBy} (${FORECAST_STATE_LABELS[l.forecast.state].toLowerCase()})`,
+      l.tag, [l.areaName, l.location].filter(Boolean).join(' — '), PURPOSE_LABELS[l.purpose], MODE_LABELS[l.mode], formatHours(l.ratedDurationH, prefs),
+      `${chemistryName(l.chemistry)}, ${l.cellsInSeries} cells, ${formatNumber(l.capacityAh, { unit: 'Ah' }, prefs)}`, date(l.packFittedOn), dueWords(l.due.functional, prefs), dueWords(l.due.duration, prefs), LUMINAIRE_STATE_LABELS[l.due.state],
+      `${date(l.forecast.replaceBy)} (${FORECAST_STATE_LABELS[l.forecast.state].toLowerCase()})`,
     ]),
   )
   const failures = s.luminaires.filter((l) => l.due.openFailures.length)
@@ -160,18 +168,19 @@ async function registerPdf(reg: Awaited<ReturnType<typeof registerRows>>): Promi
       doc,
       [{ title: 'Tag', width: 52 }, { title: 'Failed', width: 150 }, { title: 'Fault', width: 190 }, { title: 'Remedial action', width: 190 }, { title: 'Retest', width: 150 }],
       failures.flatMap((l) => l.due.openFailures.map((f) => [
-        l.tag, `${testKindWords(f.kind)} on ${f.testedOn}`, f.faults, f.remedialAction || '—', f.retestOverdue ? `overdue: was due by ${f.retestBy}` : `due now, by ${f.retestBy}`,
+        l.tag, `${testKindWords(f.kind)} on ${date(f.testedOn)}`, f.faults, f.remedialAction || '—', f.retestOverdue ? `overdue: was due by ${date(f.retestBy)}` : `due now, by ${date(f.retestBy)}`,
       ])),
     )
   }
   doc.moveDown(1)
   write(doc, 'Isolate the mains before opening a luminaire. Spent nickel-cadmium and lithium packs go to a battery collection point, never into general waste. Local codes and a competent, licensed person decide what the installation needs.', { size: 8, x: doc.page.margins.left } as WriteOptions)
+  frameSiteDocument(doc, 'Emergency lighting register', s, prefs)
   return toBuffer(doc)
 }
 
-async function logBookPdf(status: SiteStatus, rows: Array<Array<string | number | boolean | null>>): Promise<Buffer> {
+async function logBookPdf(status: SiteStatus, rows: Array<Array<string | number | boolean | null>>, prefs: FormatPrefs): Promise<Buffer> {
   const doc = newDoc(`Emergency lighting log book — ${status.site.name}`)
-  heading(doc, 'Emergency lighting log book', status)
+  heading(doc, 'Emergency lighting log book', status, prefs)
   const columns: Column[] = [
     { title: 'Date', width: 58 }, { title: 'Tag', width: 52 }, { title: 'Test', width: 56 }, { title: 'Result', width: 36 }, { title: 'Lit for', width: 40 },
     { title: 'Faults found', width: 170 }, { title: 'Remedial action', width: 170 }, { title: 'By', width: 90 },
@@ -179,8 +188,12 @@ async function logBookPdf(status: SiteStatus, rows: Array<Array<string | number 
   table(
     doc,
     columns,
-    rows.map((r) => [String(r[0]), String(r[1]), r[2] === 'duration' ? 'Full duration' : 'Functional', String(r[3]), r[4] === null || r[4] === '' ? '' : `${r[4]} h`, String(r[5] ?? ''), String(r[6] ?? ''), String(r[7] ?? '')]),
+    rows.map((r) => [
+      formatDate(String(r[0]), prefs), String(r[1]), r[2] === 'duration' ? 'Full duration' : 'Functional', r[3] === 'pass' ? 'Pass' : r[3] === 'fail' ? 'Fail' : String(r[3]),
+      typeof r[4] === 'number' ? formatHours(r[4], prefs) : '', String(r[5] ?? ''), String(r[6] ?? ''), String(r[7] ?? ''),
+    ]),
   )
   if (!rows.length) write(doc, 'No tests recorded yet.')
+  frameSiteDocument(doc, 'Emergency lighting log book', status, prefs)
   return toBuffer(doc)
 }

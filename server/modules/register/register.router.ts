@@ -3,9 +3,10 @@ import multer from 'multer'
 import { z } from 'zod'
 import { ImportRequestSchema, LuminairePatchSchema, LuminaireSchema, PackReplacementSchema } from '../../../shared/schemas/luminaire.schema'
 import { AreaPatchSchema, AreaSchema, RegisterSettingsPatchSchema, SitePatchSchema, SiteSchema } from '../../../shared/schemas/site.schema'
-import { TestBatchSchema } from '../../../shared/schemas/test-record.schema'
+import { RoundSignOffSchema, TestBatchSchema } from '../../../shared/schemas/test-record.schema'
 import { IdParams, Uuid } from '../../lib/parse'
 import { defineRoute, scope, type RouteSpec } from '../../policy/access'
+import { formatPrefsOf } from '../../lib/format-prefs'
 import { EXPORT_FILES, exportFile } from './export.service'
 import { commitImport, previewImport } from './import.service'
 import * as register from './register.service'
@@ -169,6 +170,16 @@ export const registerRoutes: RouteSpec[] = [
     params: IdParams,
     handler: async ({ params }, req) => ({ tests: await tests.siteLogBook(scope(req).workspaceId, params.id) }),
   }),
+  defineRoute({
+    method: 'post', path: '/api/sites/:id/rounds', access: 'technician', summary: 'Sign off a round by name and date; answers with the failures recorded on it',
+    params: IdParams, body: RoundSignOffSchema,
+    handler: async ({ params, body }, req, res) => {
+      const s = scope(req)
+      const out = await tests.signOffRound(s.workspaceId, s.userId, params.id, body)
+      res.status(out.created ? 201 : 200)
+      return out
+    },
+  }),
   // import and export
   defineRoute({
     method: 'post', path: '/api/sites/:id/import/preview', access: 'designer', summary: 'Check a luminaire schedule (CSV) row by row without storing it',
@@ -188,7 +199,7 @@ export const registerRoutes: RouteSpec[] = [
     params: SiteExportParams, query: ExportQuery,
     notFound: (raw) => ((EXPORT_FILES as readonly string[]).includes(raw.file ?? '') ? 'That record' : `The export "${raw.file}"`),
     handler: async ({ params, query }, req, res) => {
-      const out = await exportFile(scope(req).workspaceId, params.id, params.file)
+      const out = await exportFile(scope(req).workspaceId, params.id, params.file, formatPrefsOf(req))
       if (query.as === 'json') {
         const text = out.mediaType.startsWith('text/')
         return { filename: out.filename, mediaType: out.mediaType, encoding: text ? 'utf8' : 'base64', content: out.body.toString(text ? 'utf8' : 'base64') }

@@ -2,26 +2,20 @@
  * The specification sheet as a PDF. Each section is a function of (doc, data); a sheet is the list
  * SHEET_SECTIONS, and later features (audits, discharge logs) append their own sections.
  */
-import { SEVERITY_LABELS } from '../../../shared/labels'
-import { CHEMISTRIES } from '../../../shared/engine/chemistries'
-import type { ChemistryId } from '../../../shared/engine/chemistries/types'
 import type { EngineWarning, Reference, WorkingStep } from '../../../shared/engine/types'
-import { flattenInputs, formatFigure, PACK_INPUT_LABELS, PACK_RESULT_FIGURES, SHEET_CAUTIONS } from '../../../shared/schemas/sheet.schema'
-import type { RevisionView } from './sheets.service'
-import { ensureSpace, footers, heading, newDocument, pair, toBuffer, write, type PdfSection as GenericPdfSection } from '../../lib/pdf/pdf-kit'
-import { chargerCheckSection, inputValueText, packToOrderSection } from './pack-pdf-section'
+import { DEFAULT_PREFS, formatDate, formatNumber } from '../../../shared/format'
+import { BASIS_LABELS, CHEMISTRY_LABELS, labelOf, SEVERITY_LABELS } from '../../../shared/labels'
+import { PACK_RESULT_FIGURES, SHEET_CAUTIONS, sheetInputRows } from '../../../shared/schemas/sheet.schema'
+import { ensureSpace, frame, heading, newDocument, pair, toBuffer, write } from '../../lib/pdf/pdf-kit'
+import { chargerCheckSection, packToOrderSection } from './pack-pdf-section'
+import type { PdfSection, SheetPdfData } from './sheet-pdf-data'
 
-export interface SheetPdfData extends RevisionView {
-  /** Shown at the top right; the workspace that issued the sheet. */
-  issuer?: string
-}
+export type { PdfSection, SheetPdfData } from './sheet-pdf-data'
 
-export type PdfSection<D = SheetPdfData> = GenericPdfSection<D>
-
-const date = (d: Date | string | null | undefined) => (d ? new Date(d).toISOString().slice(0, 10) : '—')
-const chemistryName = (id: unknown) => CHEMISTRIES[id as ChemistryId]?.name ?? String(id)
+const prefsOf = (d: SheetPdfData) => d.prefs ?? DEFAULT_PREFS
 
 export const titleSection: PdfSection = (doc, d) => {
+  const date = (x: Date | string | null) => formatDate(x, prefsOf(d))
   write(doc, `Emergency battery specification${d.issuer ? ` · ${d.issuer}` : ''}`, { size: 9, color: '#5b6b75' })
   write(doc, d.title, { weight: 'semibold', size: 20, color: '#1f3b4d' })
   const state = d.status === 'issued' ? `issued ${date(d.issuedAt)}` : d.status === 'superseded' ? `superseded (issued ${date(d.issuedAt)})` : 'draft, not issued'
@@ -30,6 +24,7 @@ export const titleSection: PdfSection = (doc, d) => {
 }
 
 export const projectSection: PdfSection = (doc, d) => {
+  const date = (x: Date | string | null) => formatDate(x, prefsOf(d))
   heading(doc, 'Project')
   if (d.reference) pair(doc, 'Reference', d.reference)
   if (d.client) pair(doc, 'Client', d.client)
@@ -45,18 +40,16 @@ export const projectSection: PdfSection = (doc, d) => {
 
 export const inputsSection: PdfSection = (doc, d) => {
   heading(doc, 'Inputs (as entered)')
-  for (const { path, value } of flattenInputs(d.inputs)) {
-    pair(doc, PACK_INPUT_LABELS[path] ?? path, path === 'chemistry' ? chemistryName(value) : inputValueText(path, value))
-  }
+  for (const row of sheetInputRows(d.inputs)) pair(doc, row.label, row.value)
 }
 
 export const resultsSection: PdfSection = (doc, d) => {
   heading(doc, 'Results')
   const r = d.results
-  pair(doc, 'Chemistry', chemistryName(r.chemistry))
+  pair(doc, 'Chemistry', labelOf(CHEMISTRY_LABELS, String(r.chemistry)))
   for (const f of PACK_RESULT_FIGURES) {
     if (r[f.key] === undefined) continue
-    pair(doc, f.label, formatFigure(r[f.key], f.unit))
+    pair(doc, f.label, formatNumber(r[f.key], { unit: f.unit }, prefsOf(d)))
   }
 }
 
@@ -73,7 +66,7 @@ export const warningsSection: PdfSection = (doc, d) => {
   }
 }
 
-const refText = (r: Reference) => `${r.source} (${r.basis})${r.note ? ` — ${r.note}` : ''}`
+const refText = (r: Reference) => `${r.source} (${labelOf(BASIS_LABELS, r.basis)})${r.note ? ` — ${r.note}` : ''}`
 
 export const workingSection: PdfSection = (doc, d) => {
   const steps = (d.results.working ?? []) as WorkingStep[]
@@ -83,9 +76,9 @@ export const workingSection: PdfSection = (doc, d) => {
     write(doc, s.label, { weight: 'semibold', size: 10.5 })
     write(doc, s.formula, { size: 10, color: '#1f3b4d' })
     write(doc, s.explanation, { size: 9, color: '#3c4a52' })
-    const values = s.inputs.map((v) => `${v.symbol} = ${formatFigure(v.value, v.unit, 4)}`).join(';  ')
+    const values = s.inputs.map((v) => `${v.symbol} = ${formatNumber(v.value, { unit: v.unit, digits: 4 }, prefsOf(d))}`).join(';  ')
     if (values) write(doc, `With ${values}`, { size: 9 })
-    write(doc, `Gives ${s.result.symbol} = ${formatFigure(s.result.value, s.result.unit, 4)}`, { size: 9, weight: 'semibold' })
+    write(doc, `Gives ${s.result.symbol} = ${formatNumber(s.result.value, { unit: s.result.unit, digits: 4 }, prefsOf(d))}`, { size: 9, weight: 'semibold' })
     for (const r of s.references) write(doc, `Ref.: ${refText(r)}`, { size: 8, color: '#5b6b75' })
     doc.moveDown(0.4)
   }
@@ -115,7 +108,7 @@ export const referencesSection: PdfSection = (doc, d) => {
   const refs = issuedReferences((d.results.working ?? []) as WorkingStep[])
   heading(doc, 'References')
   if (!refs.length) write(doc, 'None recorded.')
-  for (const r of refs) write(doc, `• ${r.source} — ${r.basis}`, { size: 9 })
+  for (const r of refs) write(doc, `• ${r.source} — ${labelOf(BASIS_LABELS, r.basis)}`, { size: 9 })
 }
 
 /** The sheet as issued today; later features push their sections onto a copy of this list. */
@@ -124,6 +117,10 @@ export const SHEET_SECTIONS: PdfSection[] = [titleSection, projectSection, packT
 export async function buildSheetPdf(data: SheetPdfData, sections: PdfSection[] = SHEET_SECTIONS): Promise<Buffer> {
   const doc = newDocument({ title: data.title, subject: `Revision ${data.number}` })
   for (const section of sections) section(doc, data)
-  footers(doc, `${data.title} · revision ${data.number} · Lampwright engine ${data.engineVersion}`)
+  frame(doc, {
+    header: `Emergency battery specification · ${data.title}`,
+    headerRight: data.issuer,
+    footer: `Revision ${data.number} · ${data.status === 'issued' ? `issued ${formatDate(data.issuedAt, prefsOf(data))}` : 'not issued'} · Lampwright engine ${data.engineVersion}`,
+  })
   return toBuffer(doc)
 }

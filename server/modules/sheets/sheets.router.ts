@@ -10,6 +10,7 @@ import {
   SheetSaveSchema,
 } from '../../../shared/schemas/sheet.schema'
 import { dataSource } from '../../data-source'
+import { formatPrefsOf } from '../../lib/format-prefs'
 import { Uuid, uuidParams } from '../../lib/parse'
 import { defineRoute, scope, type RouteSpec } from '../../policy/access'
 import { Workspace } from '../workspaces/workspace.entity'
@@ -18,6 +19,7 @@ import { withWattageAudits } from '../audits/audit-pdf-section'
 import { logsForSheet } from '../discharge/discharge.service'
 import { withDischargeLogs } from '../discharge/discharge-pdf-section'
 import { buildSheetPdf, cautionsSection, SHEET_SECTIONS } from './sheet-pdf'
+import * as shareLinks from './share-links.service'
 import * as service from './sheets.service'
 import { NewShareAnswer, RevisionAnswer, RevisionListAnswer, SentAnswer, SharedSheetAnswer, ShareListAnswer, SheetAnswer, SheetAuthorsAnswer, SheetPageAnswer } from '../../../shared/schemas/answers/sheets'
 
@@ -123,7 +125,7 @@ export const sheetRoutes: RouteSpec[] = [
       const audits = await auditsForSheet(s.workspaceId, params.id)
       const dischargeLogs = await logsForSheet(s.workspaceId, params.id)
       const sections = withDischargeLogs(withWattageAudits(SHEET_SECTIONS, audits, cautionsSection), dischargeLogs, cautionsSection)
-      sendPdf(res, await buildSheetPdf({ ...data, issuer: ws?.name }, sections), fileName(data.title, data.number))
+      sendPdf(res, await buildSheetPdf({ ...data, issuer: ws?.name, prefs: formatPrefsOf(req) }, sections), fileName(data.title, data.number))
     },
   }),
   defineRoute({
@@ -131,20 +133,20 @@ export const sheetRoutes: RouteSpec[] = [
     params: SheetParams, body: ShareCreateSchema, status: 201,
     handler: ({ params, body }, req) => {
       const s = scope(req)
-      return service.createShare(s.workspaceId, s.userId, params.id, body.expiresAt ? new Date(body.expiresAt) : null)
+      return shareLinks.createShare(s.workspaceId, s.userId, params.id, body.expiresAt ? new Date(body.expiresAt) : null)
     },
   }),
   defineRoute({
     method: 'get', path: '/api/sheets/:id/shares', response: ShareListAnswer, access: 'viewer', summary: "A sheet's share links",
     params: SheetParams,
-    handler: async ({ params }, req) => ({ shares: await service.listShares(scope(req).workspaceId, params.id) }),
+    handler: async ({ params }, req) => ({ shares: await shareLinks.listShares(scope(req).workspaceId, params.id) }),
   }),
   defineRoute({
     method: 'delete', path: '/api/sheets/:id/shares/:shareId', access: 'designer', summary: 'Revoke a share link',
     params: ShareParams, produces: 'none',
     handler: async ({ params }, req, res) => {
       const s = scope(req)
-      await service.revokeShare(s.workspaceId, s.userId, params.id, params.shareId)
+      await shareLinks.revokeShare(s.workspaceId, s.userId, params.id, params.shareId)
       res.status(204).end()
     },
   }),
@@ -153,7 +155,7 @@ export const sheetRoutes: RouteSpec[] = [
     params: ShareParams, body: ShareEmailSchema, status: 202,
     handler: async ({ params, body }, req) => {
       const s = scope(req)
-      await service.emailShare(s.workspaceId, s.userId, params.id, params.shareId, body)
+      await shareLinks.emailShare(s.workspaceId, s.userId, params.id, params.shareId, body)
       return { sent: true }
     },
   }),
@@ -162,15 +164,15 @@ export const sheetRoutes: RouteSpec[] = [
     params: TokenParams,
     handler: async ({ params }, _req, res) => {
       res.setHeader('Cache-Control', 'no-store')
-      return service.sharedSheet(params.token)
+      return shareLinks.sharedSheet(params.token)
     },
   }),
   defineRoute({
     method: 'get', path: '/api/shared/:token/pdf', access: 'public', summary: 'A shared sheet as a PDF',
     params: TokenParams, produces: 'application/pdf',
-    handler: async ({ params }, _req, res) => {
-      const view = await service.sharedSheet(params.token)
-      sendPdf(res, await buildSheetPdf(view), fileName(view.title, view.number))
+    handler: async ({ params }, req, res) => {
+      const view = await shareLinks.sharedSheet(params.token)
+      sendPdf(res, await buildSheetPdf({ ...view, prefs: formatPrefsOf(req) }), fileName(view.title, view.number))
     },
   }),
 ]

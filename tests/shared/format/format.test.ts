@@ -104,7 +104,7 @@ describe('labels', () => {
     for (const id of CHEMISTRY_IDS) expect(CHEMISTRY_LABELS[id]).toBe(CHEMISTRIES[id].name)
   })
   it('never shows a raw code, even one not in the map', () => {
-    expect(labelOf(ENUMERATIONS.packState, 'replace-now')).toBe('Replace the pack now')
+    expect(labelOf(ENUMERATIONS.packState, 'replace-now')).toBe('Replace now')
     expect(labelOf(ENUMERATIONS.packState, 'replace-later')).toBe('Replace later')
     expect(labelOf(ENUMERATIONS.packState, null)).toBe('—')
     expect(unitLabel('degC')).toBe('°C')

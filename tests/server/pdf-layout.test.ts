@@ -1,0 +1,62 @@
+/**
+ * Every PDF the app makes, for the demo workspace: sheets (with audits and discharge logs), each
+ * site's register and log book. Each must keep its text out of the header and footer bands, never
+ * print text over text, number its pages "n of N", and show words instead of codes.
+ */
+import fs from 'node:fs'
+import nodePath from 'node:path'
+import type { Response } from 'superagent'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { dataSource } from '../../server/data-source'
+import { seedDemo } from '../../server/demo/index'
+import { DEMO_PASSWORD, DEMO_USERS } from '../../server/scripts/demo-users'
+import { codesIn, layoutProblems, pdfLines } from '../helpers/pdf-checks'
+import { closeTestApp, getTestApp, signIn, type Client } from '../helpers/test-app'
+
+function binary(res: Response, done: (err: Error | null, body: Buffer) => void) {
+  const chunks: Buffer[] = []
+  res.on('data', (c: Buffer) => chunks.push(c))
+  res.on('end', () => done(null, Buffer.concat(chunks)))
+}
+
+let owner: Client
+const documents: Array<{ name: string; pdf: Buffer }> = []
+
+beforeAll(async () => {
+  const built = await getTestApp()
+  await seedDemo(dataSource)
+  owner = await signIn(built.app, DEMO_USERS.find((u) => u.role === 'owner')!.email, DEMO_PASSWORD)
+  const fetchPdf = async (name: string, path: string) => {
+    const res = await owner.get(path).buffer(true).parse(binary)
+    expect(res.status, `${name}: ${path}`).toBe(200)
+    documents.push({ name, pdf: res.body as Buffer })
+    // PDF_OUT_DIR=/tmp/pdfs keeps the documents, to render them (pdftoppm) and look at each page.
+    if (process.env.PDF_OUT_DIR) fs.writeFileSync(nodePath.join(process.env.PDF_OUT_DIR, `${documents.length}-${name.replace(/[^\w]+/g, '-').slice(0, 50)}.pdf`), res.body as Buffer)
+  }
+  const sheets = (await owner.get('/api/sheets?pageSize=100')).body.items as Array<{ id: string; title: string }>
+  for (const s of sheets) await fetchPdf(`sheet "${s.title}"`, `/api/sheets/${s.id}/pdf`)
+  const sites = (await owner.get('/api/sites')).body.sites as Array<{ id: string; name: string }>
+  for (const site of sites) {
+    await fetchPdf(`register of ${site.name}`, `/api/sites/${site.id}/export/register.pdf`)
+    await fetchPdf(`log book of ${site.name}`, `/api/sites/${site.id}/export/logbook.pdf`)
+  }
+}, 120_000)
+afterAll(closeTestApp)
+
+describe('every PDF of the demo workspace', () => {
+  it('is made: sheets, registers and log books', () => {
+    expect(documents.filter((d) => d.name.startsWith('sheet')).length).toBeGreaterThanOrEqual(3)
+    expect(documents.filter((d) => d.name.startsWith('register')).length).toBeGreaterThanOrEqual(3)
+    expect(documents.filter((d) => d.name.startsWith('log book')).length).toBeGreaterThanOrEqual(3)
+  })
+
+  it('keeps text out of the header and footer bands, never prints text over text, and numbers its pages', () => {
+    const problems = documents.flatMap((d) => layoutProblems(d.pdf).map((p) => `${d.name}, page ${p.page}: ${p.problem}`))
+    expect(problems).toEqual([])
+  })
+
+  it('shows words, never enumeration codes or engine unit names', () => {
+    const found = documents.flatMap((d) => codesIn(pdfLines(d.pdf)).map((c) => `${d.name}: ${c}`))
+    expect(found).toEqual([])
+  })
+})
