@@ -133,7 +133,7 @@ function packFor(route: RouteNeed, c: TypeCandidate): { pack: PackNeed | null; r
   const parsed = sizeInputSchema.safeParse({
     chemistry: c.chemistry,
     ...(c.cellsInSeries ? { cellsInSeries: c.cellsInSeries } : {}),
-    duration: route.ratedDurationS,
+    duration: `${route.ratedDurationS} s`,
     driver: 'converter',
     load: { power: c.emergencyPowerW, ...(c.inputPowerW > 0 ? { mainsPower: c.inputPowerW } : {}) },
   })
