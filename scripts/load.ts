@@ -23,14 +23,17 @@ const CONNECTIONS = process.env.LOAD_CONNECTIONS ? process.env.LOAD_CONNECTIONS.
  * the ratios need bare. `layers` (not in the default run) serves the compute route through the app's
  * middleware one layer at a time and prints what each costs.
  */
-const SCENARIOS = new Set((process.env.LOAD_SCENARIOS ?? 'bare,reads,compute,lean,mix,sign-in').split(','))
+const SCENARIOS = new Set((process.env.LOAD_SCENARIOS ?? 'bare,reads,compute,lean,mix,sign-in,processes').split(','))
+/** `processes`: the reads through `server/cluster.ts` with 1 and with N app processes (WEB_CONCURRENCY, default one per CPU). */
+const PROCESSES = Number(process.env.WEB_CONCURRENCY ?? Math.max(1, os.availableParallelism()))
 const work = fs.mkdtempSync(path.join(os.tmpdir(), 'lw-load-'))
 fs.chmodSync(work, 0o755)
 const children: ChildProcess[] = []
 let cluster: { url: string; stop(): void } | null = null
 
 async function waitFor(url: string) {
-  for (let i = 0; i < 300; i++) {
+  // Up to two minutes: on a busy machine tsx alone can take most of a minute to start a process.
+  for (let i = 0; i < 1200; i++) {
     try {
       if ((await fetch(url)).ok) return
     } catch {
@@ -80,13 +83,29 @@ function postgresPids(pgDir: string): number[] {
 let pgDir = ''
 
 /** Two seconds of the same load first, not counted, so the figures are of warmed-up code on both sides. */
-async function run(opts: autocannon.Options, server: ChildProcess): Promise<Result> {
+async function run(opts: autocannon.Options, server: ChildProcess | number[]): Promise<Result> {
   await once({ ...opts, duration: 2 })
+  const pids = Array.isArray(server) ? server : [server.pid!]
   const pg = pgDir ? postgresPids(pgDir) : []
-  const before = { app: cpuMs([server.pid!]), pg: cpuMs(pg) }
+  const before = { app: cpuMs(pids), pg: cpuMs(pg) }
   const result = await once(opts)
-  cpuPerRequest.set(result, { app: (cpuMs([server.pid!]) - before.app) / result.requests.total, pg: (cpuMs(pg) - before.pg) / result.requests.total })
+  cpuPerRequest.set(result, { app: (cpuMs(pids) - before.app) / result.requests.total, pg: (cpuMs(pg) - before.pg) / result.requests.total })
   return result
+}
+
+/** `server/cluster.ts` with `count` app processes on a port of its own; the pids of the primary and every process. */
+async function startGroup(env: NodeJS.ProcessEnv, count: number): Promise<{ base: string; pids: number[]; stop: () => Promise<void> }> {
+  const port = await findFreePort(49000 + count * 100)
+  const group = spawn('node', ['--import', 'tsx', 'server/cluster.ts'], { env: { ...env, PORT: String(port), WEB_CONCURRENCY: String(count) }, stdio: ['ignore', 'pipe', 'inherit'] })
+  children.push(group)
+  const pids: number[] = [group.pid!]
+  group.stdout!.setEncoding('utf8').on('data', (chunk: string) => {
+    for (const m of chunk.matchAll(/started \(pid (\d+)\)/g)) pids.push(Number(m[1]))
+  })
+  const base = `http://127.0.0.1:${port}`
+  await waitFor(`${base}/api/health`)
+  while (pids.length < count + 1) await new Promise((r) => setTimeout(r, 100))
+  return { base, pids, stop: () => new Promise((resolve) => (group.once('exit', () => resolve()), group.kill('SIGTERM'))) }
 }
 const cpuPerRequest = new WeakMap<Result, { app: number; pg: number }>()
 
@@ -244,6 +263,36 @@ async function main() {
       ],
     }, app)
     results.push(row(`mix (list, open, compute, save), ${connections} conn`, mix))
+  }
+  if (SCENARIOS.has('processes')) {
+    // The same reads at the largest connection count through 1 and through N processes behind one port.
+    const connections = Math.max(...CONNECTIONS)
+    const side: Array<{ processes: number; r: Result; busy: number; unavailable: number }> = []
+    for (const count of [...new Set([1, PROCESSES])]) {
+      const group = await startGroup(env, count)
+      const counts = { busy: 0, unavailable: 0 }
+      const tally = (status: number, body: string) => {
+        if (status !== 503) return
+        if (body.includes('"busy"')) counts.busy++
+        else counts.unavailable++
+      }
+      const r = await run({
+        url: group.base,
+        connections,
+        headers,
+        requests: [
+          { method: 'GET', path: '/api/sheets?page=1&pageSize=20', onResponse: tally },
+          { method: 'GET', setupRequest: (req) => ({ ...req, path: `/api/sheets/${sheets[Math.floor(Math.random() * sheets.length)].id}` }), onResponse: tally },
+        ],
+      }, group.pids)
+      await group.stop()
+      side.push({ processes: count, r, ...counts })
+      results.push({ ...row(`reads, ${count} app process${count === 1 ? '' : 'es'} (cluster), ${connections} conn`, r), 'server CPU ms/req': `${cpuPerRequest.get(r)!.app.toFixed(2)} (all processes)` })
+    }
+    const one = side[0]
+    console.log('\nreads through server/cluster.ts, side by side:')
+    console.table(side.map((s) => ({ processes: s.processes, 'req/s': Math.round(s.r.requests.average), 'p95 ms': (s.r.latency as unknown as Record<string, number>).p95 ?? (s.r.latency as unknown as Record<string, number>).p97_5, 'p99 ms': s.r.latency.p99, errors: s.r.errors + s.r.timeouts, non2xx: s.r.non2xx, '503 busy': s.busy, '503 other': s.unavailable })))
+    for (const s of side.slice(1)) console.log(`throughput ${s.processes} processes / 1 process: ${(s.r.requests.average / one.r.requests.average).toFixed(2)}`)
   }
   if (SCENARIOS.has('sign-in')) {
     const signIns = await run({ url: `${base}/api/auth/sign-in`, method: 'POST', connections: 4, headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: 'viewer@tallowmere.example', password: DEMO_PASSWORD }) }, app)

@@ -70,7 +70,8 @@ async function main() {
     return
   }
 
-  server = spawn('node', ['--import', 'tsx', 'server/index.ts'], { cwd: ROOT, env, stdio: 'inherit' })
+  // WEB_CONCURRENCY app processes (default: one per CPU) behind the one port; see server/cluster.ts.
+  server = spawn('node', ['--import', 'tsx', 'server/cluster.ts'], { cwd: ROOT, env, stdio: 'inherit' })
   server.on('exit', (code) => {
     if (!stopping) {
       log(`server exited (${code}); stopping`)

@@ -4,6 +4,7 @@
  */
 import crypto from 'node:crypto'
 import fs from 'node:fs'
+import os from 'node:os'
 import path from 'node:path'
 import { z } from 'zod'
 
@@ -32,6 +33,22 @@ const EnvSchema = z.object({
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).optional(),
   /** Run background jobs (reminders) in this process: 1 or 0. */
   JOBS: z.coerce.number().int().min(0).max(1).default(1),
+  /** PostgreSQL connections in this process's main pool (every request's queries). */
+  DB_POOL_MAX: z.coerce.number().int().min(1).max(500).default(10),
+  /** How long a request queues for a free pooled connection before it is answered 503 "busy", ms. */
+  DB_POOL_WAIT_MS: z.coerce.number().int().min(100).max(120_000).default(10_000),
+  /** Connections of the session store's own pool in this process. */
+  SESSION_POOL_MAX: z.coerce.number().int().min(1).max(100).default(4),
+  /** Connections of the job queue (pg-boss) in a process with JOBS=1. */
+  JOBS_POOL_MAX: z.coerce.number().int().min(1).max(50).default(2),
+  /** App processes `npm start` runs behind one port; default the number of CPUs (at least 1). */
+  WEB_CONCURRENCY: z.coerce.number().int().min(1).max(256).optional(),
+  /** Set by server/cluster.ts: which of the app processes this is (0 = the first). */
+  LAMPWRIGHT_WORKER: z.coerce.number().int().min(0).optional(),
+  /** Room per workspace for stored files (discharge logs, photometric files) and uploads waiting to be saved, MB; a workspace row may set its own. */
+  STORAGE_QUOTA_MB: z.coerce.number().min(1).default(1024),
+  /** Room for uploads waiting to be saved across all workspaces (on disk in DATA_DIR/discharge-uploads), MB. */
+  STAGED_UPLOADS_TOTAL_MB: z.coerce.number().min(1).default(4096),
 })
 
 export type Env = z.infer<typeof EnvSchema>
@@ -69,11 +86,15 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env) {
     https,
     trustProxy: e.TRUST_PROXY,
     dataDir,
-    db: { url: e.DATABASE_URL },
+    db: { url: e.DATABASE_URL, poolMax: e.DB_POOL_MAX, poolWaitMs: e.DB_POOL_WAIT_MS, sessionPoolMax: e.SESSION_POOL_MAX, jobsPoolMax: e.JOBS_POOL_MAX },
+    webConcurrency: e.WEB_CONCURRENCY ?? Math.max(1, os.availableParallelism()),
+    /** Index of this process among those server/cluster.ts runs; null when started on its own. */
+    workerSlot: e.LAMPWRIGHT_WORKER ?? null,
     session: { secret: loadSessionSecret(dataDir, e.SESSION_SECRET), cookieName: 'lw.sid' },
     mail: { smtpUrl: e.SMTP_URL, catcherPort: e.SMTP_CATCHER_PORT, catcherDir: path.join(dataDir, 'mail'), from: 'Lampwright <no-reply@lampwright.invalid>' },
     logLevel: e.LOG_LEVEL ?? (e.NODE_ENV === 'test' ? 'silent' : 'info'),
     jobs: e.JOBS === 1,
+    storage: { quotaBytes: Math.round(e.STORAGE_QUOTA_MB * 1024 * 1024), stagedTotalBytes: Math.round(e.STAGED_UPLOADS_TOTAL_MB * 1024 * 1024), stagedForMs: 3600 * 1000 },
     version: APP_VERSION,
   }
 }

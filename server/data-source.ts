@@ -12,6 +12,7 @@ export const dataSource = new DataSource({
   migrations,
   synchronize: false,
   migrationsTransactionMode: 'each',
-  // A small pool that gives up quickly when the database is away, so requests fail with 503 instead of hanging.
-  extra: { max: 10, connectionTimeoutMillis: 3000, idleTimeoutMillis: 10000 },
+  // Sized from config (DB_POOL_MAX). A request queues up to DB_POOL_WAIT_MS for a free connection;
+  // past that it is answered 503 "busy" (server/lib/pools.ts tells a full pool from a database that is away).
+  extra: { max: config().db.poolMax, connectionTimeoutMillis: config().db.poolWaitMs, idleTimeoutMillis: 10000 },
 })

@@ -3,8 +3,10 @@ import { createApp } from './app'
 import { config } from './config'
 import { dataSource } from './data-source'
 import { logger } from './lib/logger'
+import { budgetWarning, connectionBudget } from './lib/pools'
 import { startMailCatcher, type MailCatcher } from './modules/mail/mail-catcher'
 import { useCatcherPort } from './modules/mail/mail.service'
+import { sweepStagedUploads } from './modules/discharge/discharge.service'
 import { startReminderJobs, type JobRunner } from './modules/register/reminder-jobs'
 import { DEMO_PASSWORD, DEMO_USERS } from './scripts/demo-users'
 
@@ -31,6 +33,10 @@ async function initializeDatabase() {
 }
 
 await initializeDatabase()
+const budget = connectionBudget(cfg)
+logger.info({ connections: budget }, 'PostgreSQL connections this process may hold')
+const tooMany = await budgetWarning(budget).catch(() => null)
+if (tooMany) logger.warn(tooMany)
 let catcher: MailCatcher | null = null
 if (!cfg.mail.smtpUrl) {
   catcher = await startMailCatcher(cfg.mail.catcherDir, cfg.mail.catcherPort)
@@ -38,8 +44,13 @@ if (!cfg.mail.smtpUrl) {
 }
 // Background jobs (daily test reminders) only where JOBS=1; any number of processes may run them.
 const jobs: JobRunner | null = cfg.jobs ? await startReminderJobs() : null
+// Uploads nobody saved within the hour are removed even when no one uploads anything new.
+const sweep = setInterval(() => void sweepStagedUploads().catch((err) => logger.warn({ err }, 'staged upload sweep failed')), 10 * 60 * 1000)
+sweep.unref()
 const { app, close } = createApp()
 const server = app.listen(cfg.port, cfg.host, () => {
+  // Several processes behind one port: the first one greets.
+  if (cfg.workerSlot !== null && cfg.workerSlot > 0) return
   const lines = [
     '',
     `  Lampwright ${cfg.version} is running at ${cfg.origin}`,

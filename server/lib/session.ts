@@ -4,12 +4,14 @@ import session from 'express-session'
 import pg from 'pg'
 import type { AppConfig } from '../config'
 import { hotCache } from './hot-cache'
+import { registerPool } from './pools'
 
 export function createSessionMiddleware(cfg: AppConfig) {
   const PgStore = connectPgSimple(session)
-  const pool = new pg.Pool({ connectionString: cfg.db.url, max: 5, connectionTimeoutMillis: 3000 })
+  const pool = new pg.Pool({ connectionString: cfg.db.url, max: cfg.db.sessionPoolMax, connectionTimeoutMillis: cfg.db.poolWaitMs })
   // A dropped connection must not crash the process; the next query reconnects.
   pool.on('error', () => undefined)
+  const unregister = registerPool(pool)
   const store = new PgStore({ pool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: 60 * 15, disableTouch: true })
   store.on?.('error', () => undefined)
   cacheSessions(store)
@@ -24,7 +26,7 @@ export function createSessionMiddleware(cfg: AppConfig) {
     proxy: cfg.trustProxy > 0,
     cookie: { httpOnly: true, sameSite: 'lax', secure: cfg.https, maxAge: 1000 * 60 * 60 * 24 * 14 },
   })
-  return { middleware, close: () => { (store as unknown as { close?: () => void }).close?.(); return pool.end() } }
+  return { middleware, close: () => { (store as unknown as { close?: () => void }).close?.(); unregister(); return pool.end() } }
 }
 
 type Callback = (err?: unknown, value?: unknown) => void

@@ -6,6 +6,7 @@ import type { ErrorRequestHandler, RequestHandler } from 'express'
 import { ZodError } from 'zod'
 import { AppError } from '../errors/app-error'
 import { logger } from '../lib/logger'
+import { appPoolIsFull, isPoolWaitTimeout } from '../lib/pools'
 
 const DB_DOWN_CODES = new Set(['ECONNREFUSED', 'ECONNRESET', 'ETIMEDOUT', 'EPIPE', '57P01', '57P02', '57P03', '08006', '08001', '08003'])
 
@@ -51,11 +52,28 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
     res.status(status).json({ error: e.type === 'charset.unsupported' || e.type === 'encoding.unsupported' ? 'Unsupported body encoding.' : (e.message ?? 'Bad request.'), code: 'bad_request' })
     return
   }
+  if (isPoolWaitTimeout(err) && appPoolIsFull()) {
+    // Every connection is in use: the database is fine, this process is busy. Come back shortly.
+    res.status(503).set('Retry-After', '2').json({ error: 'The server is busy right now; try again in a couple of seconds.', code: 'busy' })
+    return
+  }
   if (isDatabaseDown(err)) {
     res.status(503).set('Retry-After', '5').json({ error: 'The database is not answering; try again in a few seconds.', code: 'unavailable' })
     return
   }
   const pgCode = (err as { driverError?: { code?: string } })?.driverError?.code
+  if (pgCode === '23503') {
+    // Ids are checked before a handler runs; this is the race where the record went in between.
+    const detail = String((err as { driverError?: { detail?: string } }).driverError?.detail ?? '')
+    if (/still referenced/.test(detail)) {
+      res.status(409).json({ error: 'Other records still refer to this one; remove or change them first.', code: 'conflict' })
+      return
+    }
+    const column = /^Key \(([a-z_]+)\)=/.exec(detail)?.[1]
+    const field = column?.replace(/_([a-z])/g, (_m, c: string) => c.toUpperCase())
+    res.status(404).json({ error: 'A record this refers to was not found in this workspace.', code: 'not_found', ...(field ? { fields: [{ path: field, message: 'was not found in this workspace' }] } : {}) })
+    return
+  }
   if (pgCode === '22P02' || pgCode === '22003' || pgCode === '22021') {
     res.status(400).json({ error: 'A value in the request is not valid for its field.', code: 'bad_request' })
     return

@@ -9,6 +9,7 @@ import type { z, ZodTypeAny } from 'zod'
 import { ZodError } from 'zod'
 import type { Role } from '../../shared/schemas/roles'
 import { NotFoundError } from '../errors/app-error'
+import { referenceCheck } from '../lib/references'
 
 /** public: anyone; signed-in: any signed-in user; a role: that role or higher in the current workspace. */
 export type Access = 'public' | 'signed-in' | Role
@@ -143,9 +144,13 @@ export function runHandler(route: RouteSpec): RequestHandler {
   }
 }
 
-/** The Express handler chain of a route after access: its own middleware, validation, the handler. */
+/**
+ * The Express handler chain of a route after access: its own middleware, validation, the check that
+ * every id in the body names a record of the caller's workspace (server/lib/references.ts), the handler.
+ */
 export function routeChain(route: RouteSpec): RequestHandler[] {
-  return [...(route.before ?? []), validateRequest(route), runHandler(route)]
+  const references = route.body ? referenceCheck(route.body as ZodTypeAny) : null
+  return [...(route.before ?? []), validateRequest(route), ...(references ? [references] : []), runHandler(route)]
 }
 
 /** Routes whose method carries a body must say what body they take (a schema, or false for none). */

@@ -4,6 +4,7 @@
  * log is attached, and the list query. Used by the server routes and the client's mapping form.
  */
 import { z } from 'zod'
+import { referenceId, type ReferenceKind } from './reference'
 import { dischargeInput } from '../engine/discharge'
 import { isIsoDate } from '../engine/due'
 
@@ -11,6 +12,7 @@ export { CURRENT_UNITS, perCellVolts, TIME_UNITS, VOLTAGE_UNITS } from '../engin
 
 const text = (max: number) => z.string({ invalid_type_error: 'must be text' }).trim().max(max, `must be at most ${max} characters`)
 const id = (what: string) => z.string({ invalid_type_error: `must be the id of ${what}` }).uuid(`must be the id of ${what}`)
+const ref = (kind: ReferenceKind, what: string) => referenceId(kind, `must be the id of ${what}`, { invalidType: `must be the id of ${what}` })
 
 /** Largest log file accepted, bytes. A million rows of time, voltage and current is about 25 MB. */
 export const MAX_LOG_BYTES = 50 * 1024 * 1024
@@ -90,8 +92,8 @@ export function engineOptions(raw: DischargeOptionsInput) {
 /** Analyse an uploaded (or already stored) file; store it unless `dryRun`. */
 export const DischargeAnalyseSchema = z
   .object({
-    uploadId: id('an upload').optional(),
-    fileId: id('a stored log file').optional(),
+    uploadId: ref('stagedUpload', 'an upload').optional(),
+    fileId: ref('dischargeFile', 'a stored log file').optional(),
     title: text(200).default(''),
     notes: text(2000).default(''),
     mapping: ColumnMappingSchema,
@@ -100,10 +102,10 @@ export const DischargeAnalyseSchema = z
     acceptBadRows: z.boolean({ invalid_type_error: 'must be true or false' }).default(false),
     /** Analyse and answer, store nothing. */
     dryRun: z.boolean({ invalid_type_error: 'must be true or false' }).default(false),
-    specSheetId: id('a specification sheet').nullable().optional(),
-    testRecordId: id('a test record').nullable().optional(),
+    specSheetId: ref('specSheet', 'a specification sheet').nullable().optional(),
+    testRecordId: ref('testRecord', 'a test record').nullable().optional(),
     /** The luminaire whose pack was tested: saving records (or updates) its full-duration test from the log. */
-    luminaireId: id('a luminaire').nullable().optional(),
+    luminaireId: ref('luminaire', 'a luminaire').nullable().optional(),
     /** Day of the test, for the record made from the log (today when left out). */
     testedOn: z.string({ invalid_type_error: 'must be a date (YYYY-MM-DD)' }).trim().refine(isIsoDate, 'must be a real date written YYYY-MM-DD').optional(),
     /** Why the runtime typed in the attached record differs from the log. */

@@ -1,5 +1,6 @@
 /** A luminaire in a site's register, its battery pack, and one row of an imported schedule. */
 import { z } from 'zod'
+import { referenceId } from './reference'
 import { CHEMISTRY_IDS } from '../engine/chemistries'
 import { isIsoDate } from '../engine/due'
 
@@ -39,16 +40,16 @@ export const PackSchema = z.object({
 export const LuminaireSchema = z.object({
   tag: z.string({ required_error: 'is required' }).trim().min(1, 'is required').max(40, 'must be at most 40 characters'),
   location: z.string().trim().max(200, 'must be at most 200 characters').default(''),
-  areaId: z.string().uuid('is not an area id').nullable().default(null),
+  areaId: referenceId('area', 'is not an area id').nullable().default(null),
   typeLabel: z.string().trim().max(80, 'must be at most 80 characters').default(''),
   purpose: PurposeSchema,
   mode: ModeSchema,
   ratedDurationH: numberIn('hours', 0.5, 24, { positive: true }),
   ...PackSchema.shape,
   /** Optional link to a specification sheet. */
-  specSheetId: z.string().uuid('is not a specification sheet id').nullable().default(null),
+  specSheetId: referenceId('specSheet', 'is not a specification sheet id').nullable().default(null),
   /** Optional link to a luminaire type. */
-  luminaireTypeId: z.string().uuid('is not a luminaire type id').nullable().default(null),
+  luminaireTypeId: referenceId('luminaireType', 'is not a luminaire type id').nullable().default(null),
 })
 export type LuminaireInput = z.input<typeof LuminaireSchema>
 export type Luminaire = z.output<typeof LuminaireSchema>

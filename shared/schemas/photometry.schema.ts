@@ -3,6 +3,7 @@
  * server checks requests with and the client's forms use.
  */
 import { z } from 'zod'
+import { referenceId } from './reference'
 import { finiteNumber, fraction, quantity } from '../engine/fields'
 import { ChemistrySchema, ModeSchema } from './luminaire.schema'
 
@@ -30,7 +31,7 @@ const HOUR = 3600
 /** A luminaire type in the workspace's catalogue. */
 export const LuminaireTypeSchema = z.object({
   name: text(120).min(1, 'is required'),
-  photometricFileId: z.string({ invalid_type_error: 'must be a photometric file id' }).uuid('is not a photometric file id').nullable().default(null),
+  photometricFileId: referenceId('photometricFile', 'is not a photometric file id', { invalidType: 'must be a photometric file id' }).nullable().default(null),
   /** Light output on battery as a share of the output the photometric file describes. */
   emergencyOutputFactor: fraction(),
   /** Rated duration: a bare number is seconds, or "3 h". */
@@ -79,11 +80,11 @@ export type RouteNeedInput = z.output<typeof RouteNeedSchema>
 
 /** Put a chosen type on a specification sheet: a new draft, or a new revision of an existing sheet. */
 export const PickSchema = z.object({
-  typeId: z.string({ required_error: 'is required' }).uuid('is not a luminaire type id'),
+  typeId: referenceId('luminaireType', 'is not a luminaire type id', { required: 'is required' }),
   route: RouteNeedSchema,
   title: text(200).optional(),
   /** The sheet to update; without it a new draft sheet is made. */
-  sheetId: z.string().uuid('is not a sheet id').optional(),
+  sheetId: referenceId('specSheet', 'is not a sheet id').optional(),
   /** The sheet version the designer started from (needed with sheetId). */
   version: z.number({ invalid_type_error: 'must be the version number you started from' }).int('must be a whole number').min(1).optional(),
 }).superRefine((v, ctx) => {

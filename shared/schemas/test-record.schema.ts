@@ -1,5 +1,6 @@
 /** One routine test of one luminaire, as a technician records it (in a round or one at a time). */
 import { z } from 'zod'
+import { referenceId } from './reference'
 import { IsoDateSchema } from './luminaire.schema'
 
 export const TEST_KINDS = ['functional', 'duration'] as const
@@ -45,7 +46,7 @@ export const TestRecordSchema = z
   .object({
     /** Made by the client for each record, so a retried send never creates a second record. */
     clientId: z.string({ required_error: 'is required' }).uuid('must be a UUID made by the client'),
-    luminaireId: z.string({ required_error: 'is required' }).uuid('is not a luminaire id'),
+    luminaireId: referenceId('luminaire', 'is not a luminaire id', { required: 'is required' }),
     kind: TestKindSchema,
     testedOn: IsoDateSchema,
     passed: z.boolean({ required_error: 'is required (pass or fail)', invalid_type_error: 'must be true (pass) or false (fail)' }),
@@ -53,7 +54,7 @@ export const TestRecordSchema = z
     achievedDurationH: z.number({ invalid_type_error: 'must be a number of hours' }).finite('must be a finite number').min(0, 'cannot be negative').max(48, 'must be at most 48 hours').nullable().default(null),
     faults: z.string().trim().max(1000, 'must be at most 1000 characters').default(''),
     remedialAction: z.string().trim().max(1000, 'must be at most 1000 characters').default(''),
-    dischargeLogId: z.string().uuid('is not a discharge log id').nullable().default(null),
+    dischargeLogId: referenceId('dischargeLog', 'is not a discharge log id').nullable().default(null),
     /** Why a typed runtime differs from its discharge log by more than RUNTIME_TOLERANCE_MIN minutes. */
     runtimeNote: z.string().trim().max(500, 'must be at most 500 characters').default(''),
     /** The checklist for the test kind, as ticked: item id → fine (true) or found wrong (false). */
@@ -76,3 +77,12 @@ export type TestRecordData = z.output<typeof TestRecordSchema>
 export const TestBatchSchema = z.object({
   records: z.array(TestRecordSchema, { required_error: 'is required' }).min(1, 'give at least one record').max(500, 'at most 500 records at once'),
 })
+
+/** The end of a round: signed off by name and date; its records carry the same round id. */
+export const RoundSignOffSchema = z.object({
+  clientId: z.string({ required_error: 'is required' }).uuid('must be a UUID made by the client'),
+  signedOffByName: z.string({ required_error: 'is required' }).trim().min(1, 'is required: the name of the person signing off').max(120, 'must be at most 120 characters'),
+  signedOffOn: IsoDateSchema,
+  notes: z.string().trim().max(2000, 'must be at most 2000 characters').default(''),
+})
+export type RoundSignOff = z.output<typeof RoundSignOffSchema>

@@ -5,12 +5,13 @@
  * engine would refuse.
  */
 import { z } from 'zod'
+import { referenceId, type ReferenceKind } from './reference'
 import { auditInput } from '../engine/audit'
 
 export * from './wattage-audit-text'
 
 const text = (max: number) => z.string({ invalid_type_error: 'must be text' }).trim().max(max, `must be at most ${max} characters`)
-const optionalId = (what: string) => z.string({ invalid_type_error: `must be the id of a ${what}` }).uuid(`must be the id of a ${what}`).nullable()
+const optionalId = (kind: ReferenceKind, what: string) => referenceId(kind, `must be the id of a ${what}`, { invalidType: `must be the id of a ${what}` }).nullable()
 
 /** Keys the audit tool knows; anything else in saved readings is dropped rather than stored. */
 export const AUDIT_INPUT_KEYS: string[] = Object.keys((auditInput as unknown as z.ZodEffects<z.AnyZodObject>).innerType().shape)
@@ -27,8 +28,8 @@ export const AuditReadingsSchema = z
 
 /** Where an audit hangs: a sheet, a luminaire, both or neither (null detaches). */
 export const AuditLinksSchema = z.object({
-  specSheetId: optionalId('specification sheet').optional(),
-  luminaireId: optionalId('luminaire').optional(),
+  specSheetId: optionalId('specSheet', 'specification sheet').optional(),
+  luminaireId: optionalId('luminaire', 'luminaire').optional(),
 })
 
 export const AuditCreateSchema = AuditLinksSchema.extend({

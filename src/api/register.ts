@@ -94,6 +94,11 @@ export interface LogBookEntry {
   achievedDurationH: number | null
   faults: string
   remedialAction: string
+  dischargeLogId: string | null
+  checklist: Record<string, boolean>
+  verdictOverrideReason: string
+  runtimeNote: string
+  roundClientId: string | null
   recordedByName: string | null
   recordedAt: string
 }
@@ -106,9 +111,13 @@ export interface ImportIssue {
 
 export interface ImportPreview {
   columns: string[]
+  /** The first rows only; totalRows counts them all. */
   rows: Array<{ row: number; values: Record<string, unknown> | null }>
+  /** The first problems only; errorCount counts them all. */
   errors: ImportIssue[]
+  errorCount?: number
   validRows: number
+  totalRows?: number
   newAreas: string[]
 }
 

@@ -185,11 +185,11 @@ describe('attaching', () => {
     const { luminaire: foreignLuminaire } = await siteWithLuminaire(other.workspaceId)
     const foreign = await tech.post(`/api/audits/${a.id}/attach`, { specSheetId: foreignSheet.id, luminaireId: foreignLuminaire.id })
     const missing = await tech.post(`/api/audits/${a.id}/attach`, { specSheetId: '00000000-0000-4000-8000-000000000001', luminaireId: '00000000-0000-4000-8000-000000000002' })
-    expect(foreign.status).toBe(400)
+    expect(foreign.status).toBe(404)
     expect(foreign.body).toEqual(missing.body)
     expect(foreign.body.fields.map((f: { path: string }) => f.path)).toEqual(['specSheetId', 'luminaireId'])
     const onCreate = await tech.post('/api/audits', auditBody({ specSheetId: foreignSheet.id }))
-    expect(onCreate.status).toBe(400)
+    expect(onCreate.status).toBe(404)
   })
 
   it('needs a target and lets no viewer attach', async () => {

@@ -192,7 +192,7 @@ describe('bad files and bad rows', () => {
     expect(bad.status).toBe(422)
     const foreignSheet = await sheetIn(team)
     const wrongLink = await client.post('/api/discharge/logs', { uploadId: up.body.uploadId, title: 'Refused', mapping: COMMA_MAPPING, options: NICD_3H, acceptBadRows: true, specSheetId: foreignSheet.id })
-    expect(wrongLink.status).toBe(400)
+    expect(wrongLink.status).toBe(404)
     expect(wrongLink.body.fields).toEqual([{ path: 'specSheetId', message: 'is not a specification sheet of this workspace' }])
     const badOptions = await client.post('/api/discharge/logs', { uploadId: up.body.uploadId, title: 'Refused', mapping: COMMA_MAPPING, options: { ...NICD_3H, ratedDuration: '3 kg' } })
     expect(badOptions.status).toBe(400)

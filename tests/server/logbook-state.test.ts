@@ -152,4 +152,19 @@ describe('failures stay open until put right', () => {
     expect((await detail(old.id)).due.duration).toMatchObject({ reason: 'commissioning', nextDueOn: today })
     void owner
   })
+
+  it('a round is signed off by name and date and answers with the failures recorded on it', async () => {
+    const site = await siteIn(team.workspaceId)
+    const l = await testedLuminaire(site.id, 'R-1')
+    const round = crypto.randomUUID()
+    const rec = await technician.post('/api/tests', { records: [{ clientId: crypto.randomUUID(), luminaireId: l.id, kind: 'duration', testedOn: today, passed: false, achievedDurationH: 2.5, faults: 'Dark at 2 h 30 min', remedialAction: 'New pack ordered', roundClientId: round, checklist: { 'lamp-lit': true, 'lit-full-duration': false } }] })
+    expect(rec.status, JSON.stringify(rec.body)).toBe(201)
+    const signed = await technician.post(`/api/sites/${site.id}/rounds`, { clientId: round, signedOffByName: 'Invented Tester', signedOffOn: today })
+    expect(signed.status, JSON.stringify(signed.body)).toBe(201)
+    expect(signed.body).toMatchObject({ records: 1, failures: [{ tag: 'R-1', kind: 'duration', faults: 'Dark at 2 h 30 min', remedialAction: 'New pack ordered' }] })
+    expect((await technician.post(`/api/sites/${site.id}/rounds`, { clientId: round, signedOffByName: 'Invented Tester', signedOffOn: today })).status).toBe(200)
+    expect((await technician.post(`/api/sites/${site.id}/rounds`, { clientId: crypto.randomUUID(), signedOffByName: ' ', signedOffOn: today })).body.fields[0].path).toBe('signedOffByName')
+    const stored = (await viewer.get(`/api/luminaires/${l.id}/tests`)).body.tests[0]
+    expect(stored.checklist).toEqual({ 'lamp-lit': true, 'lit-full-duration': false })
+  })
 })

@@ -208,7 +208,7 @@ describe('luminaire types', () => {
     expect((await designer.post('/api/luminaire-types', { ...body, name: body.name.toUpperCase() })).status).toBe(409)
     const foreignFile = await photometryIn(other)
     const res = await designer.post('/api/luminaire-types', typeBody(foreignFile.id))
-    expect(res.status).toBe(400)
+    expect(res.status).toBe(404)
     expect(res.body.fields).toEqual([{ path: 'photometricFileId', message: 'is not a photometric file of this workspace' }])
   })
 

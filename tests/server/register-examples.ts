@@ -51,6 +51,11 @@ export const registerRouteExamples: Record<string, ExampleFn> = {
       foreignPath: `/api/tests/${await testIn(other.workspaceId, theirs.luminaire.id, { kind: 'functional', testedOn: '2025-01-01' })}`,
     }
   },
+  'post /api/sites/:id/rounds': async ({ team, other }) => ({
+    path: `/api/sites/${await siteId(team.workspaceId)}/rounds`,
+    body: { clientId: crypto.randomUUID(), signedOffByName: 'Example Tester', signedOffOn: '2025-03-01' },
+    foreignPath: `/api/sites/${await siteId(other.workspaceId)}/rounds`,
+  }),
   'get /api/sites/:id/tests': async ({ team, other }) => ({ path: `/api/sites/${await siteId(team.workspaceId)}/tests`, foreignPath: `/api/sites/${await siteId(other.workspaceId)}/tests` }),
   'post /api/sites/:id/import/preview': async ({ team, other }) => ({ path: `/api/sites/${await siteId(team.workspaceId)}/import/preview`, body: { csv: CSV_OK }, foreignPath: `/api/sites/${await siteId(other.workspaceId)}/import/preview` }),
   'post /api/sites/:id/import': async ({ team, other }) => ({ path: `/api/sites/${await siteId(team.workspaceId)}/import`, body: { csv: CSV_OK }, foreignPath: `/api/sites/${await siteId(other.workspaceId)}/import` }),

@@ -99,7 +99,7 @@ describe('sites, areas and luminaires', () => {
       ratedDurationH: expect.stringMatching(/greater than zero|at least/),
     })
     const foreignArea = await designer.post(`/api/sites/${site.id}/luminaires`, luminaire({ areaId: crypto.randomUUID() }))
-    expect(foreignArea.status).toBe(400)
+    expect(foreignArea.status).toBe(404)
     expect(foreignArea.body.fields[0].path).toBe('areaId')
   })
 

@@ -122,6 +122,7 @@ export const routeExamples: Record<string, ExampleFn> = {
     return { path: `/api/invitations/${token}/accept` }
   },
   'get /api/outbox': async () => ({ path: '/api/outbox' }),
+  'get /api/workspace/storage': async () => ({ path: '/api/workspace/storage' }),
   'get /api/calc': async () => ({ path: '/api/calc' }),
   'get /api/tokens': async () => ({ path: '/api/tokens' }),
   'post /api/tokens': async () => ({ path: '/api/tokens', body: { name: 'script', role: 'viewer' } }),

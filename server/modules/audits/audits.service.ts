@@ -95,24 +95,9 @@ async function findAudit(workspaceId: string, id: string, m: EntityManager = dat
   return a
 }
 
-/** Sheet and luminaire links must point inside the workspace; a foreign id reads like a missing one. */
-async function checkLinks(m: EntityManager, workspaceId: string, v: { specSheetId?: string | null; luminaireId?: string | null }) {
-  const fields: Array<{ path: string; message: string }> = []
-  if (v.specSheetId) {
-    const rows: unknown[] = await m.query('SELECT 1 FROM spec_sheets WHERE id = $1 AND workspace_id = $2', [v.specSheetId, workspaceId])
-    if (!rows.length) fields.push({ path: 'specSheetId', message: 'is not a specification sheet of this workspace' })
-  }
-  if (v.luminaireId) {
-    const rows: unknown[] = await m.query('SELECT 1 FROM luminaires WHERE id = $1 AND workspace_id = $2', [v.luminaireId, workspaceId])
-    if (!rows.length) fields.push({ path: 'luminaireId', message: 'is not a luminaire of this workspace' })
-  }
-  if (fields.length) throw new BadRequestError('The audit can only be attached to a sheet or luminaire of this workspace.', fields)
-}
-
 export async function createAudit(workspaceId: string, userId: string, input: AuditCreate) {
   const { results, claimedPowerW } = evaluate(input.inputs)
   return dataSource.transaction(async (m) => {
-    await checkLinks(m, workspaceId, input)
     const a = await audits(m).save(
       audits(m).create({
         workspaceId,
@@ -164,7 +149,6 @@ export async function listAudits(workspaceId: string, q: AuditListQuery) {
 export async function attachAudit(workspaceId: string, userId: string, id: string, body: AuditAttach) {
   return dataSource.transaction(async (m) => {
     const a = await findAudit(workspaceId, id, m)
-    await checkLinks(m, workspaceId, body)
     const before = { specSheetId: a.specSheetId, luminaireId: a.luminaireId }
     if (body.specSheetId !== undefined) a.specSheetId = body.specSheetId
     if (body.luminaireId !== undefined) a.luminaireId = body.luminaireId

@@ -6,6 +6,7 @@ import { DischargeAnalyseSchema, DischargeCompareQuerySchema, DischargeListQuery
 import { AppError } from '../../errors/app-error'
 import { IdParams } from '../../lib/parse'
 import { defineRoute, scope, type RouteSpec } from '../../policy/access'
+import { assertRoomFor } from '../storage/storage.service'
 import * as service from './discharge.service'
 
 
@@ -20,7 +21,23 @@ const upload = multer({
 
 const LIMIT_MB = Math.round(MAX_LOG_BYTES / (1024 * 1024))
 
-function receive(req: Request, res: Response, next: NextFunction) {
+/** Room for the body the client announces, checked before a byte of it is read (the exact size is checked again once it is on disk). */
+async function roomFirst(req: Request) {
+  const announced = Number(req.headers['content-length'] ?? 0)
+  // A multipart envelope adds well under 64 KB to the file itself.
+  const fileAtLeast = Number.isFinite(announced) ? Math.max(0, Math.min(announced, MAX_LOG_BYTES) - 64 * 1024) : 0
+  await assertRoomFor(scope(req).workspaceId, fileAtLeast)
+}
+
+async function receive(req: Request, res: Response, next: NextFunction) {
+  try {
+    await roomFirst(req)
+  } catch (err) {
+    // Answer without reading the body; close the connection so the client stops sending it.
+    res.setHeader('Connection', 'close')
+    next(err)
+    return
+  }
   upload.single('file')(req, res, (err: unknown) => {
     if ((err as { code?: string } | undefined)?.code === 'LIMIT_FILE_SIZE') {
       next(new AppError(413, 'too_large', `The file is larger than ${LIMIT_MB} MB, the most a discharge log may be. Log less often (every few seconds is plenty for a 3 h test) or split the file.`, [{ path: 'file', message: `is larger than ${LIMIT_MB} MB` }]))

@@ -1,9 +1,11 @@
 /**
- * Discharge-test logs. An upload is first staged on disk (never in the database) and answered with
- * a preview and guesses; the analysis reads the staged (or an already stored) file with the chosen
+ * Discharge-test logs. An upload is first staged in a folder every app process shares (its bytes
+ * never in the database) and answered with a preview and guesses; the analysis reads the staged (or an already stored) file with the chosen
  * mapping, runs the engine, and only a successful save stores the raw file (once per SHA-256) and
- * the log in one transaction. A refused or abandoned upload leaves no row behind; staged files
- * expire after a day. Every query is scoped by workspace; another workspace's ids read as missing.
+ * the log in one transaction. A refused or abandoned upload leaves no log behind; staged uploads
+ * (a row in staged_uploads, the bytes in the shared staging folder) expire after an hour and count
+ * against the workspace's storage quota until saved or expired. Every query is scoped by
+ * workspace; another workspace's ids read as missing.
  */
 import crypto from 'node:crypto'
 import fs from 'node:fs'
@@ -20,52 +22,63 @@ import { config } from '../../config'
 import { dataSource } from '../../data-source'
 import { AppError, BadRequestError, NotFoundError } from '../../errors/app-error'
 import { recordAudit } from '../audit/audit.service'
+import { admitBytes } from '../storage/storage.service'
 import { User } from '../users/user.entity'
 import { DischargeFile } from './discharge-file.entity'
 import { DischargeLog } from './discharge-log.entity'
 import { fingerprint, lookAtSample, parseLog, type BadRow } from './log-parser'
 
-const STAGED_FOR_MS = 24 * 3600 * 1000
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/
 
 const logs = (m: EntityManager = dataSource.manager) => m.getRepository(DischargeLog)
 const files = (m: EntityManager = dataSource.manager) => m.getRepository(DischargeFile)
 
+/** The folder every app process stages uploads in (shared: any process may save what another received). */
 export function stagingDir(): string {
   const dir = path.join(config().dataDir, 'discharge-uploads')
-  fs.mkdirSync(dir, { recursive: true })
+  fs.mkdirSync(dir, { recursive: true, mode: 0o700 })
   return dir
 }
 
-interface StagedMeta {
+interface StagedUpload {
+  id: string
   workspaceId: string
-  userId: string
   originalName: string
   sha256: string
   size: number
-  createdAt: string
+  expiresAt: Date
 }
 
 const stagedFile = (uploadId: string) => path.join(stagingDir(), `${uploadId}.upload`)
-const stagedMeta = (uploadId: string) => path.join(stagingDir(), `${uploadId}.json`)
 
-function discardStaged(uploadId: string) {
+function removeStagedFile(uploadId: string) {
   fs.rmSync(stagedFile(uploadId), { force: true })
-  fs.rmSync(stagedMeta(uploadId), { force: true })
 }
 
-/** Removes staged uploads older than a day (called on each upload; cheap for a small folder). */
-function sweepStaging() {
+const NOT_STAGED = 'That upload (uploads wait an hour to be saved; upload the file again)'
+
+/**
+ * Removes uploads nobody saved within the hour: their rows, their files, and files no row claims
+ * (an upload cut off half-way). Runs on each upload and every few minutes in each process; two
+ * processes sweeping at once each delete what they find.
+ */
+export async function sweepStagedUploads(now = Date.now()): Promise<number> {
+  // TypeORM answers a DELETE … RETURNING with [rows, count].
+  const [expired] = (await dataSource.query('DELETE FROM staged_uploads WHERE expires_at <= now() RETURNING id', [])) as [Array<{ id: string }>, number]
+  for (const r of expired) removeStagedFile(r.id)
   const dir = stagingDir()
-  const now = Date.now()
+  const old: string[] = []
   for (const name of fs.readdirSync(dir)) {
-    const full = path.join(dir, name)
     try {
-      if (now - fs.statSync(full).mtimeMs > STAGED_FOR_MS) fs.rmSync(full, { force: true })
+      if (now - fs.statSync(path.join(dir, name)).mtimeMs > config().storage.stagedForMs) old.push(name)
     } catch {
       // Another process removed it first.
     }
   }
+  const ids = old.map((n) => n.replace(/\.upload$/, '')).filter((id) => UUID.test(id))
+  const claimed = new Set(ids.length ? ((await dataSource.query('SELECT id FROM staged_uploads WHERE id = ANY($1::uuid[])', [ids])) as Array<{ id: string }>).map((r) => r.id) : [])
+  for (const name of old) if (!claimed.has(name.replace(/\.upload$/, ''))) fs.rmSync(path.join(dir, name), { force: true })
+  return expired.length
 }
 
 /** A new staging path for an upload written by the caller (multer or a JSON body). */
@@ -78,17 +91,23 @@ export function newStagingPath(): { uploadId: string; file: string } {
 export async function stageUpload(workspaceId: string, userId: string, file: string, originalName: string) {
   const uploadId = path.basename(file).replace(/\.upload$/, '')
   try {
-    sweepStaging()
+    await sweepStagedUploads()
     const { sha256, size, sample } = await fingerprint(file)
     const look = lookAtSample(sample, size <= sample.length)
-    const meta: StagedMeta = { workspaceId, userId, originalName: originalName.slice(0, 200), sha256, size, createdAt: new Date().toISOString() }
-    fs.writeFileSync(stagedMeta(uploadId), JSON.stringify(meta))
+    const name = originalName.slice(0, 200)
+    const expiresAt = new Date(Date.now() + config().storage.stagedForMs)
+    await dataSource.transaction(async (m) => {
+      await admitBytes(m, workspaceId, size, { staged: true })
+      await m.query('INSERT INTO staged_uploads (id, workspace_id, user_id, original_name, sha256, size, expires_at) VALUES ($1, $2, $3, $4, $5, $6, $7)', [uploadId, workspaceId, userId, name, sha256, size, expiresAt])
+    })
     const stored = await files().findOne({ where: { workspaceId, sha256 }, select: { id: true } })
     return {
       uploadId,
       sha256,
       size,
-      name: meta.originalName,
+      name,
+      /** Save it before then; an upload nobody saves is deleted after an hour. */
+      expiresAt: expiresAt.toISOString(),
       /** The same file is already stored in this workspace (it will not be stored twice). */
       storedFileId: stored?.id ?? null,
       delimiter: look.delimiter,
@@ -100,21 +119,21 @@ export async function stageUpload(workspaceId: string, userId: string, file: str
       guess: look.guess,
     }
   } catch (err) {
-    discardStaged(uploadId)
+    removeStagedFile(uploadId)
     throw err
   }
 }
 
-function readStaged(workspaceId: string, uploadId: string): { meta: StagedMeta; file: string } {
-  if (!UUID.test(uploadId)) throw new NotFoundError('That upload')
-  let meta: StagedMeta
-  try {
-    meta = JSON.parse(fs.readFileSync(stagedMeta(uploadId), 'utf8')) as StagedMeta
-  } catch {
-    throw new NotFoundError('That upload (uploads are kept for a day; upload the file again)')
-  }
-  if (meta.workspaceId !== workspaceId) throw new NotFoundError('That upload (uploads are kept for a day; upload the file again)')
-  return { meta, file: stagedFile(uploadId) }
+async function readStaged(workspaceId: string, uploadId: string): Promise<{ meta: StagedUpload; file: string }> {
+  if (!UUID.test(uploadId)) throw new NotFoundError(NOT_STAGED)
+  const rows: Array<{ id: string; original_name: string; sha256: string; size: string; expires_at: Date }> = await dataSource.query(
+    'SELECT id, original_name, sha256, size, expires_at FROM staged_uploads WHERE id = $1 AND workspace_id = $2 AND expires_at > now()',
+    [uploadId, workspaceId],
+  )
+  const file = stagedFile(uploadId)
+  if (!rows.length || !fs.existsSync(file)) throw new NotFoundError(NOT_STAGED)
+  const r = rows[0]
+  return { meta: { id: r.id, workspaceId, originalName: r.original_name, sha256: r.sha256, size: Number(r.size), expiresAt: r.expires_at }, file }
 }
 
 /** Column names for the mapping's header line, from the first bytes of the file. */
@@ -196,19 +215,14 @@ async function sampleOf(file: string): Promise<Buffer> {
 // ---------------------------------------------------------------------------------------------
 // Links and views
 
-/** Sheet and test-record links must point inside the workspace; a foreign id reads like a missing one. */
-async function checkLinks(m: EntityManager, workspaceId: string, v: { specSheetId?: string | null; testRecordId?: string | null }) {
-  const fields: Array<{ path: string; message: string }> = []
-  if (v.specSheetId) {
-    const rows: unknown[] = await m.query('SELECT 1 FROM spec_sheets WHERE id = $1 AND workspace_id = $2', [v.specSheetId, workspaceId])
-    if (!rows.length) fields.push({ path: 'specSheetId', message: 'is not a specification sheet of this workspace' })
+/** A log backs a full-duration test only (that the ids are of this workspace is checked before the handler, server/lib/references.ts). */
+async function checkLinks(m: EntityManager, workspaceId: string, v: { testRecordId?: string | null }) {
+  if (!v.testRecordId) return
+  const rows: Array<{ kind: string }> = await m.query('SELECT kind FROM test_records WHERE id = $1 AND workspace_id = $2', [v.testRecordId, workspaceId])
+  if (!rows.length) throw new NotFoundError('That test record')
+  if (rows[0].kind !== 'duration') {
+    throw new BadRequestError('A log can only be attached to a full-duration test.', [{ path: 'testRecordId', message: 'is a functional test; attach a discharge log to a full-duration test' }])
   }
-  if (v.testRecordId) {
-    const rows: Array<{ kind: string }> = await m.query('SELECT kind FROM test_records WHERE id = $1 AND workspace_id = $2', [v.testRecordId, workspaceId])
-    if (!rows.length) fields.push({ path: 'testRecordId', message: 'is not a test record of this workspace' })
-    else if (rows[0].kind !== 'duration') fields.push({ path: 'testRecordId', message: 'is a functional test; attach a discharge log to a full-duration test' })
-  }
-  if (fields.length) throw new BadRequestError('A log can only be attached to a sheet or a full-duration test of this workspace.', fields)
 }
 
 interface Links {
@@ -361,10 +375,10 @@ export async function analyseAndMaybeSave(workspaceId: string, userId: string, b
   let input: Readable
   let sample: Buffer
   let size: number
-  let staged: { meta: StagedMeta; file: string } | null = null
+  let staged: { meta: StagedUpload; file: string } | null = null
   let storedFileId: string | null = null
   if (body.uploadId) {
-    staged = readStaged(workspaceId, body.uploadId)
+    staged = await readStaged(workspaceId, body.uploadId)
     size = staged.meta.size
     sample = await sampleOf(staged.file)
     input = fs.createReadStream(staged.file, { highWaterMark: 64 * 1024 })
@@ -393,6 +407,8 @@ export async function analyseAndMaybeSave(workspaceId: string, userId: string, b
         [workspaceId, staged.meta.sha256, staged.meta.originalName, bytes, staged.meta.size, userId],
       )
       fileId = inserted[0].id
+      // Saved: the upload no longer waits (its file goes after the commit).
+      await m.query('DELETE FROM staged_uploads WHERE id = $1 AND workspace_id = $2', [staged.meta.id, workspaceId])
     }
     const log = await logs(m).save(
       logs(m).create({
@@ -429,7 +445,7 @@ export async function analyseAndMaybeSave(workspaceId: string, userId: string, b
     )
     return view(log, true, m)
   })
-  if (staged && body.uploadId) discardStaged(body.uploadId)
+  if (staged) removeStagedFile(staged.meta.id)
   return { saved: true as const, columns: analysis.columns, ...saved }
 }
 

@@ -11,6 +11,7 @@ import { CRITERIA_LABELS, type LuminaireTypeInput, type LuminaireTypePatch, type
 import { dataSource } from '../../data-source'
 import { BadRequestError, ConflictError, NotFoundError } from '../../errors/app-error'
 import { recordAudit } from '../audit/audit.service'
+import { admitBytes } from '../storage/storage.service'
 import { contentOf, createSheet, getSheet, saveSheet } from '../sheets/sheets.service'
 import { User } from '../users/user.entity'
 import { LuminaireType } from './luminaire-type.entity'
@@ -111,6 +112,7 @@ export async function createFile(workspaceId: string, userId: string, name: stri
   const finalName = (name?.trim() || fallback).slice(0, 120)
   try {
     return await dataSource.transaction(async (m) => {
+      await admitBytes(m, workspaceId, Buffer.byteLength(text, 'utf8'))
       const f = await files(m).save(files(m).create({ workspaceId, name: finalName, rawText: text, sha256, parsed, createdBy: userId }))
       await recordAudit({ workspaceId, actorId: userId, action: 'photometry.uploaded', entityType: 'photometric_file', entityId: f.id, data: { name: f.name, sha256 } }, m)
       return getFileIn(m, f)
@@ -171,13 +173,6 @@ async function findType(workspaceId: string, id: string, m?: EntityManager): Pro
   return t
 }
 
-/** A type may only name a photometric file of its own workspace; another's reads like a missing one. */
-async function checkFile(m: EntityManager, workspaceId: string, fileId: string | null | undefined) {
-  if (!fileId) return
-  const found = await files(m).exists({ where: { id: fileId, workspaceId } })
-  if (!found) throw new BadRequestError('The photometric file was not found in this workspace.', [{ path: 'photometricFileId', message: 'is not a photometric file of this workspace' }])
-}
-
 function applyType(t: LuminaireType, v: Partial<LuminaireTypeInput>) {
   if (v.name !== undefined) t.name = v.name
   if (v.photometricFileId !== undefined) t.photometricFileId = v.photometricFileId
@@ -208,7 +203,6 @@ export async function getType(workspaceId: string, id: string) {
 export async function createType(workspaceId: string, userId: string, input: LuminaireTypeInput) {
   try {
     return await dataSource.transaction(async (m) => {
-      await checkFile(m, workspaceId, input.photometricFileId)
       const t = types(m).create({ workspaceId, createdBy: userId })
       applyType(t, input)
       await types(m).save(t)
@@ -225,7 +219,6 @@ export async function updateType(workspaceId: string, userId: string, id: string
   try {
     return await dataSource.transaction(async (m) => {
       const t = await findType(workspaceId, id, m)
-      await checkFile(m, workspaceId, patch.photometricFileId)
       applyType(t, patch)
       await types(m).save(t)
       await recordAudit({ workspaceId, actorId: userId, action: 'luminaire-type.changed', entityType: 'luminaire_type', entityId: t.id, data: { fields: Object.keys(patch) } }, m)

@@ -1,6 +1,8 @@
 /**
  * Bulk import of a luminaire schedule from CSV: a preview with a report per row (row, column,
- * reason), then an all-or-nothing commit in one transaction. Rows are numbered as a spreadsheet
+ * reason), then an all-or-nothing commit in one transaction. The file is read a chunk at a time
+ * (papaparse), yielding to the event loop between chunks, at most two files at once per process;
+ * the answer lists the first rows and problems and counts them all, so its size stays bounded. Rows are numbered as a spreadsheet
  * shows them: the header is row 1, the first luminaire row 2.
  */
 import Papa from 'papaparse'
@@ -20,9 +22,15 @@ export interface ImportIssue {
 
 export interface ImportPreview {
   columns: string[]
+  /** The first LISTED_IMPORT_ROWS rows with their values (null when the row has a problem). */
   rows: Array<{ row: number; values: ImportRow | null }>
+  /** The first LISTED_IMPORT_ERRORS problems. */
   errors: ImportIssue[]
+  /** Every problem found, listed or not. */
+  errorCount: number
   validRows: number
+  /** Luminaire rows in the file. */
+  totalRows: number
   newAreas: string[]
 }
 
@@ -38,79 +46,172 @@ function normaliseHeader(h: string): string {
     .replace(/^_|_$/g, '')
 }
 
-export async function previewImport(workspaceId: string, siteId: string, csv: string): Promise<ImportPreview> {
-  await findSite(workspaceId, siteId)
-  // Rows may have fewer or more cells than the header (they are checked cell by cell below); a
-  // quote left open is the file's fault, and the whole file is refused naming the row.
-  const parsed = Papa.parse<string[]>(csv, { delimiter: ',', skipEmptyLines: true, transform: (v) => v.trim() })
-  const broken = parsed.errors.find((e) => e.type !== 'FieldMismatch')
-  if (broken) {
-    return { columns: [], rows: [], errors: [{ row: (broken.row ?? 0) + 1, column: '(file)', reason: `the file is not valid CSV: ${broken.message}` }], validRows: 0, newAreas: [] }
-  }
-  const records = parsed.data
-  const errors: ImportIssue[] = []
-  if (records.length === 0) return { columns: [], rows: [], errors: [{ row: 1, column: '(file)', reason: 'the file is empty' }], validRows: 0, newAreas: [] }
+/** Rows of the preview's answer listed with their values (all are checked and counted). */
+export const LISTED_IMPORT_ROWS = 100
+/** Problems listed by row (all are counted in errorCount). */
+export const LISTED_IMPORT_ERRORS = 500
+/** Schedules parsed at once in one process; more wait their turn, so memory stays bounded. */
+const PARSES_AT_ONCE = 2
+/** Characters handed to the parser at a time; the event loop turns between chunks. */
+const CHUNK_CHARS = 64 * 1024
 
-  const header = records[0].map(normaliseHeader)
-  const known = new Set<string>(IMPORT_COLUMNS)
-  header.forEach((h, i) => {
-    if (!known.has(h)) errors.push({ row: 1, column: records[0][i] || `(column ${i + 1})`, reason: `is not a column this import knows; use: ${IMPORT_COLUMNS.join(', ')}` })
+let parsing = 0
+const waiting: Array<() => void> = []
+async function parseSlot<T>(work: () => Promise<T>): Promise<T> {
+  if (parsing >= PARSES_AT_ONCE) await new Promise<void>((resolve) => waiting.push(resolve))
+  parsing++
+  try {
+    return await work()
+  } finally {
+    parsing--
+    waiting.shift()?.()
+  }
+}
+
+/**
+ * Reads CSV records a chunk at a time, yielding to the event loop between chunks so other requests
+ * are served while a large schedule is read. Each record goes to `onRecord` and is not kept here.
+ */
+function streamRecords(csv: string, onRecord: (cells: string[]) => void): Promise<void> {
+  return new Promise((resolve, reject) => {
+    let failed = false
+    Papa.parse<string[]>(csv.replace(/^\uFEFF/, ''), {
+      delimiter: ',',
+      skipEmptyLines: 'greedy',
+      chunkSize: CHUNK_CHARS,
+      chunk: (results: Papa.ParseResult<string[]>, parser: Papa.Parser) => {
+        // Rows may have fewer or more cells than the header (checked cell by cell); anything else
+        // (a quote left open) is the file's fault, and the whole file is refused naming the row.
+        const quote = results.errors.find((e) => e.type !== 'FieldMismatch')
+        if (quote) {
+          failed = true
+          parser.abort()
+          reject(Object.assign(new Error(`${quote.message} (row ${(quote.row ?? 0) + 1})`), { lines: (quote.row ?? 0) + 1 }))
+          return
+        }
+        for (const cells of results.data) onRecord(cells.map((c: string) => c.trim()))
+        parser.pause()
+        setImmediate(() => parser.resume())
+      },
+      complete: () => {
+        if (!failed) resolve()
+      },
+      error: (err: Error) => reject(err),
+    })
   })
-  const seenHeader = new Set<string>()
-  for (const h of header) {
-    if (seenHeader.has(h)) errors.push({ row: 1, column: h, reason: 'appears twice in the header' })
-    seenHeader.add(h)
-  }
-  for (const required of REQUIRED_IMPORT_COLUMNS) {
-    if (!header.includes(required)) errors.push({ row: 1, column: required, reason: 'is missing from the header' })
-  }
-  if (errors.length) return { columns: header, rows: [], errors, validRows: 0, newAreas: [] }
-  if (records.length === 1) return { columns: header, rows: [], errors: [{ row: 2, column: '(file)', reason: 'has no luminaire rows under the header' }], validRows: 0, newAreas: [] }
+}
 
+export async function previewImport(workspaceId: string, siteId: string, csv: string): Promise<ImportPreview> {
+  const { values: _values, ...preview } = await checkSchedule(workspaceId, siteId, csv)
+  return preview
+}
+
+/** The preview and, when the file is clean, the values of every row (for the commit). */
+async function checkSchedule(workspaceId: string, siteId: string, csv: string) {
+  await findSite(workspaceId, siteId)
   const existingTags = new Set(
     (await dataSource.getRepository(LuminaireEntity).find({ where: { workspaceId, siteId }, select: { tag: true } })).map((l) => l.tag.toLowerCase()),
   )
   const existingAreas = new Set((await dataSource.getRepository(AreaEntity).find({ where: { workspaceId, siteId } })).map((a) => a.name.toLowerCase()))
+  return parseSlot(() => checkRows(csv, existingTags, existingAreas))
+}
+
+async function checkRows(csv: string, existingTags: Set<string>, existingAreas: Set<string>): Promise<ImportPreview & { values?: ImportRow[] }> {
+  const errors: ImportIssue[] = []
+  let errorCount = 0
+  const badRows = new Set<number>()
+  const problem = (issue: ImportIssue) => {
+    errorCount++
+    badRows.add(issue.row)
+    if (errors.length < LISTED_IMPORT_ERRORS) errors.push(issue)
+  }
+  const answer = (extra: Partial<ImportPreview> = {}): ImportPreview => ({ columns: [], rows: [], errors, errorCount, validRows: 0, totalRows: 0, newAreas: [], ...extra })
+
+  let header: string[] | null = null
+  let rawHeader: string[] = []
+  let headerBad = false
   const tagRow = new Map<string, number>()
   const newAreas = new Map<string, string>()
   const rows: ImportPreview['rows'] = []
+  const values: ImportRow[] = []
+  let row = 1
+  let totalRows = 0
 
-  records.slice(1).forEach((cells, i) => {
-    const row = i + 2
-    if (cells.length > header.length) errors.push({ row, column: `(column ${header.length + 1})`, reason: `has ${cells.length} cells but the header has ${header.length}` })
+  const onRecord = (cells: string[]) => {
+    if (!header) {
+      rawHeader = cells
+      header = cells.map(normaliseHeader)
+      const known = new Set<string>(IMPORT_COLUMNS)
+      header.forEach((h, i) => {
+        if (!known.has(h)) problem({ row: 1, column: rawHeader[i] || `(column ${i + 1})`, reason: `is not a column this import knows; use: ${IMPORT_COLUMNS.join(', ')}` })
+      })
+      const seenHeader = new Set<string>()
+      for (const h of header) {
+        if (seenHeader.has(h)) problem({ row: 1, column: h, reason: 'appears twice in the header' })
+        seenHeader.add(h)
+      }
+      for (const required of REQUIRED_IMPORT_COLUMNS) {
+        if (!header.includes(required)) problem({ row: 1, column: required, reason: 'is missing from the header' })
+      }
+      headerBad = errorCount > 0
+      return
+    }
+    if (headerBad) return
+    row++
+    totalRows++
+    const h = header
+    if (cells.length > h.length) problem({ row, column: `(column ${h.length + 1})`, reason: `has ${cells.length} cells but the header has ${h.length}` })
     const raw: Record<string, string> = {}
-    header.forEach((h, c) => {
+    h.forEach((name, c) => {
       const cell = cells[c]
-      if (cell !== undefined && cell !== '') raw[h] = cell
+      if (cell !== undefined && cell !== '') raw[name] = cell
     })
     const parsed = ImportRowSchema.safeParse(raw)
     if (!parsed.success) {
-      for (const issue of parsed.error.issues) errors.push({ row, column: String(issue.path[0] ?? '(row)'), reason: issue.message })
-      rows.push({ row, values: null })
+      for (const issue of parsed.error.issues) problem({ row, column: String(issue.path[0] ?? '(row)'), reason: issue.message })
+      if (rows.length < LISTED_IMPORT_ROWS) rows.push({ row, values: null })
       return
     }
     const v = parsed.data
     const key = v.tag.toLowerCase()
-    if (existingTags.has(key)) errors.push({ row, column: 'tag', reason: `"${v.tag}" is already in this site's register` })
-    else if (tagRow.has(key)) errors.push({ row, column: 'tag', reason: `"${v.tag}" repeats the tag of row ${tagRow.get(key)}` })
+    if (existingTags.has(key)) problem({ row, column: 'tag', reason: `"${v.tag}" is already in this site's register` })
+    else if (tagRow.has(key)) problem({ row, column: 'tag', reason: `"${v.tag}" repeats the tag of row ${tagRow.get(key)}` })
     tagRow.set(key, tagRow.get(key) ?? row)
     if (v.area && !existingAreas.has(v.area.toLowerCase()) && !newAreas.has(v.area.toLowerCase())) newAreas.set(v.area.toLowerCase(), v.area)
-    rows.push({ row, values: v })
-  })
-  const badRows = new Set(errors.map((e) => e.row))
-  return { columns: header, rows, errors, validRows: rows.filter((r) => r.values && !badRows.has(r.row)).length, newAreas: [...newAreas.values()] }
+    if (rows.length < LISTED_IMPORT_ROWS) rows.push({ row, values: v })
+    if (!badRows.has(row)) values.push(v)
+  }
+
+  try {
+    await streamRecords(csv, onRecord)
+  } catch (err) {
+    const e = err as { message?: string; lines?: number }
+    problem({ row: e.lines ?? 1, column: '(file)', reason: `the file is not valid CSV: ${e.message ?? 'parse error'}` })
+    return answer()
+  }
+  if (!header) {
+    problem({ row: 1, column: '(file)', reason: 'the file is empty' })
+    return answer()
+  }
+  if (headerBad) return answer({ columns: header })
+  if (totalRows === 0) {
+    problem({ row: 2, column: '(file)', reason: 'has no luminaire rows under the header' })
+    return answer({ columns: header })
+  }
+  // Every problem of a row is found before its values are kept, so `values` holds the valid rows only.
+  return { ...answer({ columns: header, rows, validRows: values.length, totalRows, newAreas: [...newAreas.values()] }), values }
 }
 
 /** Stores every row or none: any issue answers 400 with the report, and the insert runs in one transaction. */
 export async function commitImport(workspaceId: string, actorId: string, siteId: string, csv: string) {
-  const preview = await previewImport(workspaceId, siteId, csv)
-  if (preview.errors.length) {
+  const preview = await checkSchedule(workspaceId, siteId, csv)
+  if (preview.errorCount) {
     throw new AppError(
       400,
       'import_invalid',
-      `Nothing was imported: ${preview.errors.length} problem${preview.errors.length === 1 ? '' : 's'} in the file (first: row ${preview.errors[0].row}, ${preview.errors[0].column} ${preview.errors[0].reason}).`,
+      `Nothing was imported: ${preview.errorCount} problem${preview.errorCount === 1 ? '' : 's'} in the file (first: row ${preview.errors[0].row}, ${preview.errors[0].column} ${preview.errors[0].reason}).`,
       preview.errors.map((e) => ({ path: `row ${e.row}.${e.column}`, message: e.reason })),
-      { errors: preview.errors },
+      { errors: preview.errors, errorCount: preview.errorCount },
     )
   }
   return dataSource.transaction(async (m) => {
@@ -123,8 +224,7 @@ export async function commitImport(workspaceId: string, actorId: string, siteId:
       await recordAudit({ workspaceId, actorId, action: 'area.created', entityType: 'area', entityId: area.id, data: { siteId, name, source: 'import' } }, m)
     }
     const created: string[] = []
-    for (const { values: v } of preview.rows) {
-      if (!v) continue
+    for (const v of preview.values ?? []) {
       const l = await m.getRepository(LuminaireEntity).save(
         m.getRepository(LuminaireEntity).create({
           workspaceId,

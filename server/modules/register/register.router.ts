@@ -3,7 +3,7 @@ import multer from 'multer'
 import { z } from 'zod'
 import { ImportRequestSchema, LuminairePatchSchema, LuminaireSchema, PackReplacementSchema } from '../../../shared/schemas/luminaire.schema'
 import { AreaPatchSchema, AreaSchema, RegisterSettingsPatchSchema, SitePatchSchema, SiteSchema } from '../../../shared/schemas/site.schema'
-import { TestBatchSchema } from '../../../shared/schemas/test-record.schema'
+import { RoundSignOffSchema, TestBatchSchema } from '../../../shared/schemas/test-record.schema'
 import { IdParams, Uuid } from '../../lib/parse'
 import { defineRoute, scope, type RouteSpec } from '../../policy/access'
 import { EXPORT_FILES, exportFile } from './export.service'
@@ -168,6 +168,16 @@ export const registerRoutes: RouteSpec[] = [
     method: 'get', path: '/api/sites/:id/tests', access: 'viewer', summary: "A site's log book, newest first",
     params: IdParams,
     handler: async ({ params }, req) => ({ tests: await tests.siteLogBook(scope(req).workspaceId, params.id) }),
+  }),
+  defineRoute({
+    method: 'post', path: '/api/sites/:id/rounds', access: 'technician', summary: 'Sign off a round by name and date; answers with the failures recorded on it',
+    params: IdParams, body: RoundSignOffSchema,
+    handler: async ({ params, body }, req, res) => {
+      const s = scope(req)
+      const out = await tests.signOffRound(s.workspaceId, s.userId, params.id, body)
+      res.status(out.created ? 201 : 200)
+      return out
+    },
   }),
   // import and export
   defineRoute({

@@ -192,15 +192,11 @@ export async function findLuminaire(workspaceId: string, id: string, m: EntityMa
 
 const tagTaken = (tag: string) => new AppError(409, 'conflict', `A luminaire tagged "${tag}" is already in this site's register.`, [{ path: 'tag', message: 'is already used on this site' }])
 
-/** Links must point inside the workspace (and the area inside the site). */
-async function checkLinks(m: EntityManager, workspaceId: string, siteId: string, v: { areaId?: string | null; specSheetId?: string | null }) {
+/** The area must lie in the luminaire's site (that every id is of this workspace is checked before the handler, server/lib/references.ts). */
+async function checkArea(m: EntityManager, workspaceId: string, siteId: string, v: { areaId?: string | null }) {
   if (v.areaId) {
     const area = await m.getRepository(AreaEntity).findOne({ where: { id: v.areaId, workspaceId, siteId } })
     if (!area) throw new BadRequestError('The area is not part of this site.', [{ path: 'areaId', message: 'is not an area of this site' }])
-  }
-  if (v.specSheetId) {
-    const rows: unknown[] = await m.query('SELECT 1 FROM spec_sheets WHERE id = $1 AND workspace_id = $2', [v.specSheetId, workspaceId])
-    if (!rows.length) throw new BadRequestError('The specification sheet was not found in this workspace.', [{ path: 'specSheetId', message: 'is not a sheet of this workspace' }])
   }
 }
 
@@ -213,7 +209,7 @@ export async function createLuminaire(workspaceId: string, actorId: string, site
   return dataSource
     .transaction(async (m) => {
       await findSite(workspaceId, siteId, m)
-      await checkLinks(m, workspaceId, siteId, input)
+      await checkArea(m, workspaceId, siteId, input)
       const l = await m.getRepository(LuminaireEntity).save(m.getRepository(LuminaireEntity).create({ ...input, siteId, workspaceId }))
       await recordAudit({ workspaceId, actorId, action: 'luminaire.created', entityType: 'luminaire', entityId: l.id, data: { siteId, tag: l.tag } }, m)
       return luminaireDto(l, await areaNameOf(m, l.areaId))
@@ -229,7 +225,7 @@ export async function updateLuminaire(workspaceId: string, actorId: string, id: 
   return dataSource
     .transaction(async (m) => {
       const l = await findLuminaire(workspaceId, id, m)
-      await checkLinks(m, workspaceId, l.siteId, patch)
+      await checkArea(m, workspaceId, l.siteId, patch)
       const changes = changedFields(l as unknown as Record<string, unknown>, patch)
       Object.assign(l, patch)
       await m.getRepository(LuminaireEntity).save(l)

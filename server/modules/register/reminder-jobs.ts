@@ -18,7 +18,7 @@ export interface JobRunner {
 }
 
 export async function startReminderJobs(): Promise<JobRunner> {
-  const boss = new PgBoss({ connectionString: config().db.url, max: 3 })
+  const boss = new PgBoss({ connectionString: config().db.url, max: config().db.jobsPoolMax })
   boss.on('error', (err) => logger.error({ err }, 'job queue error'))
   await boss.start()
   await boss.createQueue(REMINDER_QUEUE)

@@ -3,7 +3,7 @@
  * client-made UUID; the server upserts on (workspace, clientId), so a retried send never adds a row.
  */
 import type { EntityManager } from 'typeorm'
-import { durationVerdict, runtimeMismatch, type TestRecordData } from '../../../shared/schemas/test-record.schema'
+import { durationVerdict, runtimeMismatch, type RoundSignOff, type TestRecordData } from '../../../shared/schemas/test-record.schema'
 import { dataSource } from '../../data-source'
 import { BadRequestError, ConflictError, NotFoundError } from '../../errors/app-error'
 import { recordAudit } from '../audit/audit.service'
@@ -138,5 +138,30 @@ export async function deleteTest(workspaceId: string, actorId: string, id: strin
     if (!rows.length) throw new NotFoundError('That test record')
     await m.query('DELETE FROM test_records WHERE workspace_id = $1 AND id = $2', [workspaceId, id])
     await recordAudit({ workspaceId, actorId, action: 'test.deleted', entityType: 'test', entityId: id, data: { ...rows[0] } }, m)
+  })
+}
+
+/** Signs off a round (retries with the same clientId answer the same row); lists its records' failures. */
+export async function signOffRound(workspaceId: string, actorId: string, siteId: string, input: RoundSignOff) {
+  await findSite(workspaceId, siteId)
+  return dataSource.transaction(async (m) => {
+    const rows: Array<{ id: string; inserted: boolean }> = await m.query(
+      `INSERT INTO test_rounds (workspace_id, site_id, client_id, signed_off_by_name, signed_off_on, notes, recorded_by, recorded_at)
+       VALUES ($1, $2, $3, $4, $5, $6, $7, now())
+       ON CONFLICT (workspace_id, client_id) DO UPDATE SET signed_off_by_name = EXCLUDED.signed_off_by_name, signed_off_on = EXCLUDED.signed_off_on, notes = EXCLUDED.notes
+       WHERE test_rounds.site_id = EXCLUDED.site_id
+       RETURNING id, (xmax = 0) AS inserted`,
+      [workspaceId, siteId, input.clientId, input.signedOffByName, input.signedOffOn, input.notes, actorId],
+    )
+    if (!rows.length) throw new ConflictError(`The round ${input.clientId} was signed off for another site.`)
+    const records: LogBookEntry[] = await m.query(`${LOG_SELECT} WHERE t.workspace_id = $1 AND t.round_client_id = $2 ORDER BY l.tag`, [workspaceId, input.clientId])
+    await recordAudit({ workspaceId, actorId, action: 'round.signed-off', entityType: 'site', entityId: siteId, data: { roundId: rows[0].id, ...input, records: records.length } }, m)
+    return {
+      id: rows[0].id,
+      created: rows[0].inserted,
+      ...input,
+      records: records.length,
+      failures: records.filter((r) => !r.passed).map((r) => ({ tag: r.tag, kind: r.kind, faults: r.faults, remedialAction: r.remedialAction })),
+    }
   })
 }

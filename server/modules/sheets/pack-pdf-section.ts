@@ -7,7 +7,7 @@ import type { EngineWarning } from '../../../shared/engine/types'
 import { CHARGER_FIT_LABELS, CHARGER_TYPE_LABELS, CHEMISTRY_LABELS, DRIVER_LABELS, labelOf, MODE_LABELS, SEVERITY_LABELS, VOLTAGE_BASIS_LABELS } from '../../../shared/labels'
 import { formatFigure } from '../../../shared/schemas/sheet-text'
 import { ensureSpace, heading, pair, write } from '../../lib/pdf/pdf-kit'
-import type { PdfSection } from './sheet-pdf'
+import type { PdfSection } from './sheet-pdf-data'
 
 /** Words for an input whose value is a code (mode, charger type…); other inputs are shown as typed. */
 export function inputValueText(path: string, value: string): string {

@@ -7,16 +7,11 @@ import { CHEMISTRIES } from '../../../shared/engine/chemistries'
 import type { ChemistryId } from '../../../shared/engine/chemistries/types'
 import type { EngineWarning, Reference, WorkingStep } from '../../../shared/engine/types'
 import { flattenInputs, formatFigure, PACK_INPUT_LABELS, PACK_RESULT_FIGURES, SHEET_CAUTIONS } from '../../../shared/schemas/sheet.schema'
-import type { RevisionView } from './sheets.service'
-import { ensureSpace, footers, heading, newDocument, pair, toBuffer, write, type PdfSection as GenericPdfSection } from '../../lib/pdf/pdf-kit'
+import { ensureSpace, footers, heading, newDocument, pair, toBuffer, write } from '../../lib/pdf/pdf-kit'
 import { chargerCheckSection, inputValueText, packToOrderSection } from './pack-pdf-section'
+import type { PdfSection, SheetPdfData } from './sheet-pdf-data'
 
-export interface SheetPdfData extends RevisionView {
-  /** Shown at the top right; the workspace that issued the sheet. */
-  issuer?: string
-}
-
-export type PdfSection<D = SheetPdfData> = GenericPdfSection<D>
+export type { PdfSection, SheetPdfData } from './sheet-pdf-data'
 
 const date = (d: Date | string | null | undefined) => (d ? new Date(d).toISOString().slice(0, 10) : '—')
 const chemistryName = (id: unknown) => CHEMISTRIES[id as ChemistryId]?.name ?? String(id)

@@ -126,7 +126,8 @@ describe('discharge: synthetic logs with known answers', () => {
     const r = ok(big, { ...nicd5, ratedDuration: 999_999 })
     expect(r.deliveredAh).toBeCloseTo((0.36 * 999_999) / 3600, 9)
     expect(r.samplesUsed).toBe(1_000_000)
-  }, 60_000) // a time limit for a loaded machine, not a speed assertion (speed: npm run bench)
+    // A time limit for a loaded machine, not a speed target (that is in npm run bench).
+  }, 60_000)
 })
 
 describe('discharge: sample issues are reported, not silently used', () => {
