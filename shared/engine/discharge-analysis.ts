@@ -139,8 +139,9 @@ export function analyseDischarge(samples: DischargeArrays, options: DischargeOpt
   const safeLimitPerCell = deepDischargeLimitCellV(chemistry, dischargeRateC)
 
   // Load off: from the current when it is logged, from the voltage alone otherwise.
-  const smooth = runningMedian5(v, m)
-  const noise = voltageNoise(v, smooth, m)
+  // The running median and the noise serve the voltage-only rules; a current log does not need them.
+  const smooth = useCurrent ? v : runningMedian5(v, m)
+  const noise = useCurrent ? 0 : voltageNoise(v, smooth, m)
   const rise = Math.max(RECOVERY_PER_CELL_V * cells, NOISE_FACTOR * noise)
   const tooNoisy = !useCurrent && NOISE_FACTOR * noise > TOO_NOISY_PER_CELL_V * cells
   const loadOff: LoadOff = useCurrent && cur ? currentDropout(t, cur, m, typicalCurrent) : voltageDropout(t, v, smooth, m, rise)
