@@ -32,6 +32,12 @@ export async function getTestApp(): Promise<BuiltApp> {
   return built
 }
 
+/** The port of this test file's mail catcher (to point the mail layer back at it). */
+export function catcherPortInUse(): number {
+  if (!catcher) throw new Error('no mail catcher started')
+  return catcher.port
+}
+
 export async function closeTestApp() {
   await built?.close()
   built = null
@@ -56,7 +62,7 @@ export async function makeTeam(name = 'Test team'): Promise<TestTeam> {
   const users = {} as TestTeam['users']
   for (const role of ['viewer', 'technician', 'designer', 'owner'] as Role[]) {
     const email = uniqueEmail(role)
-    const user = await dataSource.getRepository(User).save(dataSource.getRepository(User).create({ email, name: `${role} person`, passwordHash }))
+    const user = await dataSource.getRepository(User).save(dataSource.getRepository(User).create({ email, name: `${role} person`, passwordHash, emailConfirmedAt: new Date() }))
     await dataSource.getRepository(Membership).insert({ workspaceId: ws.id, userId: user.id, role })
     users[role] = { id: user.id, email }
   }

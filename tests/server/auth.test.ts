@@ -22,15 +22,20 @@ async function waitForMail(address: string) {
 }
 
 describe('sign-up and sign-in', () => {
-  it('creates an account with its own workspace, hashes the password with bcrypt cost 12, and signs in', async () => {
+  it('creates an account with its own workspace, hashes the password with bcrypt cost 12, and signs in once confirmed', async () => {
     const email = uniqueEmail('signup')
-    const agent = supertest.agent(built.app)
-    const res = await agent.post('/api/auth/sign-up').send({ email, password: 'a sentence as a password', name: 'Ada Example', workspaceName: 'Example crew' })
-    expect(res.status).toBe(201)
-    expect(res.body).toMatchObject({ user: { email }, role: 'owner', workspace: { name: 'Example crew' } })
+    const res = await supertest(built.app).post('/api/auth/sign-up').send({ email, password: 'a sentence as a password', name: 'Ada Example', workspaceName: 'Example crew' })
+    expect(res.status).toBe(202)
     const stored = await dataSource.getRepository(User).findOneByOrFail({ email })
     expect(stored.passwordHash).toMatch(/^\$2[aby]\$12\$/)
-    expect(res.headers['set-cookie']?.[0]).toMatch(/lw\.sid=.*HttpOnly.*SameSite=Lax/i)
+    const [mail] = await waitForMail(email)
+    const token = decodeURIComponent(/confirm-email\?token=([\w%-]+)/.exec(mail.text)![1])
+    expect((await supertest(built.app).post('/api/auth/confirm-email').send({ token })).status).toBe(200)
+    const agent = supertest.agent(built.app)
+    const signedIn = await agent.post('/api/auth/sign-in').send({ email, password: 'a sentence as a password' })
+    expect(signedIn.status).toBe(200)
+    expect(signedIn.body).toMatchObject({ user: { email }, role: 'owner', workspace: { name: 'Example crew' } })
+    expect(signedIn.headers['set-cookie']?.[0]).toMatch(/lw\.sid=.*HttpOnly.*SameSite=Lax/i)
     const me = await agent.get('/api/auth/me')
     expect(me.status).toBe(200)
   })

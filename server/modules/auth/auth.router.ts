@@ -5,6 +5,7 @@ import { PostgresHitStore } from '../../lib/rate-limit-store'
 import passport from 'passport'
 import {
   ChangePasswordSchema,
+  ConfirmEmailSchema,
   ForgotPasswordSchema,
   ResetPasswordSchema,
   SignInSchema,
@@ -15,7 +16,8 @@ import { AppError, UnauthorizedError } from '../../errors/app-error'
 import { defineRoute, type RouteSpec } from '../../policy/access'
 import type { User } from '../users/user.entity'
 import { forgetUser, users } from '../users/users.repository'
-import { changePassword, requestPasswordReset, resetPassword, signUp } from './auth.service'
+import { changePassword, confirmEmail, mailConfirmationLink, requestPasswordReset, resetPassword, SIGN_UP_ANSWER, signUp, signUpWithInvitation } from './auth.service'
+import { afterAnswer } from '../../lib/after-answer'
 import { ensureCsrfToken, meResponse } from './me.service'
 
 function login(req: Request, user: User): Promise<void> {
@@ -62,11 +64,26 @@ export function authRoutes(opts: { signInWindowMs: number }): RouteSpec[] {
   return [
     defineRoute({
       method: 'post', path: '/api/auth/sign-up', access: 'public', summary: 'Create an account (and a workspace, or accept an invitation)',
-      body: SignUpSchema, status: 201,
-      handler: async ({ body }, req) => {
-        const user = await signUp(body)
-        await login(req, user)
-        return meResponse(req)
+      body: SignUpSchema,
+      handler: async ({ body }, req, res) => {
+        if (body.invitation) {
+          // The invitation proves the address: confirmed, joined and signed in at once.
+          const user = await signUpWithInvitation({ ...body, invitation: body.invitation })
+          await login(req, user)
+          res.status(201).json(await meResponse(req))
+          return
+        }
+        // New or taken address alike: 202 and a mail; the account can sign in once confirmed.
+        await signUp(body)
+        res.status(202).json(SIGN_UP_ANSWER)
+      },
+    }),
+    defineRoute({
+      method: 'post', path: '/api/auth/confirm-email', access: 'public', summary: 'Confirm an e-mail address with the link from the mail',
+      body: ConfirmEmailSchema,
+      handler: async ({ body }) => {
+        await confirmEmail(body.token)
+        return { message: 'Your e-mail address is confirmed. You can sign in now.' }
       },
     }),
     defineRoute({
@@ -78,6 +95,11 @@ export function authRoutes(opts: { signInWindowMs: number }): RouteSpec[] {
         passport.authenticate('local', { session: false }, (err: unknown, user: User | false) => {
           if (err) return next(err)
           if (!user) return next(new AppError(401, 'bad_credentials', 'E-mail or password is wrong.'))
+          if (!user.emailConfirmedAt) {
+            // Only someone who knows the password learns the account is waiting: send a fresh link.
+            afterAnswer('confirmation mail', () => mailConfirmationLink(user))
+            return next(new AppError(403, 'email_unconfirmed', 'Confirm your e-mail address first: we have sent a new link to it.'))
+          }
           login(req, user)
             .then(async () => {
               req.session.workspaceId = undefined
@@ -136,7 +158,8 @@ export function authRoutes(opts: { signInWindowMs: number }): RouteSpec[] {
       method: 'post', path: '/api/auth/forgot-password', access: 'public', summary: 'E-mail a single-use password reset link',
       body: ForgotPasswordSchema, status: 202,
       handler: async ({ body }) => {
-        await requestPasswordReset(body.email)
+        // Answered before any work, so a known and an unknown address take the same time.
+        afterAnswer('password reset', () => requestPasswordReset(body.email))
         return { message: 'If an account uses this e-mail, a reset link is on its way. It works once, for one hour.' }
       },
     }),

@@ -148,7 +148,7 @@ export async function revokeInvitation(workspaceId: string, actorId: string, id:
   await recordAudit({ workspaceId, actorId, action: 'invitation.revoked', entityType: 'invitation', entityId: id })
 }
 
-async function usableInvitation(token: string) {
+export async function usableInvitation(token: string) {
   const inv = await dataSource.getRepository(Invitation).findOne({ where: { tokenHash: hashToken(token) } })
   if (!inv) throw new BadRequestError('This invitation link is not valid.', [{ path: 'token', message: 'is not valid' }])
   if (inv.acceptedAt) throw new BadRequestError('This invitation has already been used.', [{ path: 'token', message: 'has already been used' }])
