@@ -29,6 +29,7 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
     return
   }
   if (err instanceof AppError) {
+    if (err.status === 429 && typeof err.details?.retryAfterSeconds === 'number') res.set('Retry-After', String(err.details.retryAfterSeconds))
     res.status(err.status).json({ error: err.message, code: err.code, ...(err.fields ? { fields: err.fields } : {}), ...(err.details ?? {}) })
     return
   }

@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { dataSource } from '../../server/data-source'
 import { createApp, type BuiltApp } from '../../server/app'
 import { User } from '../../server/modules/users/user.entity'
-import { anonymous, closeTestApp, getTestApp, mailTo, makeTeam, signIn, SIGN_IN_WINDOW_MS, TEST_PASSWORD, uniqueEmail } from '../helpers/test-app'
+import { anonymous, closeTestApp, ROOMY_LIMITS, getTestApp, mailTo, makeTeam, signIn, SIGN_IN_WINDOW_MS, TEST_PASSWORD, uniqueEmail } from '../helpers/test-app'
 
 let built: BuiltApp
 beforeAll(async () => {
@@ -89,7 +89,7 @@ describe('failed sign-in limit', () => {
     const team = await makeTeam()
     const email = team.users.viewer.email
     // A second app on the same database, as a second process behind a load balancer would be.
-    const second = createApp({ signInWindowMs: 60_000, clientDir: null })
+    const second = createApp({ signInWindowMs: 60_000, clientDir: null, limits: ROOMY_LIMITS })
     try {
       const statuses: number[] = []
       for (let i = 0; i < 9; i++) {

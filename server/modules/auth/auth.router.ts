@@ -18,6 +18,7 @@ import type { User } from '../users/user.entity'
 import { forgetUser, users } from '../users/users.repository'
 import { changePassword, confirmEmail, mailConfirmationLink, requestPasswordReset, resetPassword, SIGN_UP_ANSWER, signUp, signUpWithInvitation } from './auth.service'
 import { afterAnswer } from '../../lib/after-answer'
+import { perAddress, perEmail, type Limits } from '../../lib/limits'
 import { ensureCsrfToken, meResponse } from './me.service'
 
 function login(req: Request, user: User): Promise<void> {
@@ -60,10 +61,13 @@ export function signInLimiter(windowMs: number): RequestHandler {
   })
 }
 
-export function authRoutes(opts: { signInWindowMs: number }): RouteSpec[] {
+export function authRoutes(opts: { signInWindowMs: number; limits: Limits }): RouteSpec[] {
+  const L = opts.limits
+  const linkLimit = perAddress('link', L.linkPerAddress, 'Too many link attempts from your network.')
   return [
     defineRoute({
       method: 'post', path: '/api/auth/sign-up', access: 'public', summary: 'Create an account (and a workspace, or accept an invitation)',
+      before: [perAddress('sign-up', L.signUpPerAddress, 'Too many sign-ups from your network.'), perEmail('sign-up-email', L.signUpPerEmail, 'Too many sign-ups for this e-mail address.')],
       body: SignUpSchema,
       handler: async ({ body }, req, res) => {
         if (body.invitation) {
@@ -80,7 +84,7 @@ export function authRoutes(opts: { signInWindowMs: number }): RouteSpec[] {
     }),
     defineRoute({
       method: 'post', path: '/api/auth/confirm-email', access: 'public', summary: 'Confirm an e-mail address with the link from the mail',
-      body: ConfirmEmailSchema,
+      before: [linkLimit], body: ConfirmEmailSchema,
       handler: async ({ body }) => {
         await confirmEmail(body.token)
         return { message: 'Your e-mail address is confirmed. You can sign in now.' }
@@ -156,6 +160,7 @@ export function authRoutes(opts: { signInWindowMs: number }): RouteSpec[] {
     }),
     defineRoute({
       method: 'post', path: '/api/auth/forgot-password', access: 'public', summary: 'E-mail a single-use password reset link',
+      before: [perAddress('forgot', L.forgotPerAddress, 'Too many reset requests from your network.'), perEmail('forgot-email', L.forgotPerEmail, 'Too many reset requests for this e-mail address.')],
       body: ForgotPasswordSchema, status: 202,
       handler: async ({ body }) => {
         // Answered before any work, so a known and an unknown address take the same time.
@@ -165,6 +170,7 @@ export function authRoutes(opts: { signInWindowMs: number }): RouteSpec[] {
     }),
     defineRoute({
       method: 'post', path: '/api/auth/reset-password', access: 'public', summary: 'Set a new password with a reset token',
+      before: [linkLimit],
       body: ResetPasswordSchema,
       handler: async ({ body }) => {
         await resetPassword(body.token, body.password)

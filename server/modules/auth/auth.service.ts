@@ -1,5 +1,5 @@
 /** Sign-up, e-mail confirmation, password checks, password reset and change. */
-import bcrypt from 'bcryptjs'
+import { bcryptHash, bcryptVerify } from '../../lib/password-hash'
 import { IsNull, MoreThan } from 'typeorm'
 import type { z } from 'zod'
 import type { SignUpSchema } from '../../../shared/schemas/auth.schema'
@@ -23,8 +23,9 @@ import { PasswordReset } from './password-reset.entity'
 export const BCRYPT_COST = 12
 const RESET_TTL_MS = 60 * 60 * 1000
 
+/** bcrypt at cost 12, on the thread pool (see server/lib/password-hash.ts). */
 export function hashPassword(password: string) {
-  return bcrypt.hash(password, BCRYPT_COST)
+  return bcryptHash(password, BCRYPT_COST)
 }
 
 /**
@@ -34,7 +35,7 @@ export function hashPassword(password: string) {
 export const UNKNOWN_USER_HASH = '$2b$12$kwm2FufxfoJbbmTnf.e1sOEbjM.5H8JcybOjDRlF.KAFiJjyL5C12'
 
 export function verifyPassword(password: string, hash: string) {
-  return bcrypt.compare(password, hash)
+  return bcryptVerify(password, hash)
 }
 
 export async function verifyCredentials(email: string, password: string): Promise<User | null> {
