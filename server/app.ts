@@ -95,7 +95,7 @@ export function createApp(opts: AppOptions = {}): BuiltApp {
       groups.set(prefix, group)
       app.use(prefix, group)
     }
-    group[route.method](route.path.slice(prefix.length) || '/', authorize(route.access), ...routeChain(route))
+    group[route.method](route.path.slice(prefix.length) || '/', authorize(route.access, { tokens: route.tokens }), ...routeChain(route))
   }
   app.use('/api', notFoundApi)
 

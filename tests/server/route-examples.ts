@@ -136,6 +136,11 @@ export const routeExamples: Record<string, ExampleFn> = {
     path: `/api/tokens/${await tokenFor(team, role ?? 'viewer')}`,
     foreignPath: `/api/tokens/${await tokenFor(other, 'viewer')}`,
   }),
+  'get /api/workspace/tokens': async () => ({ path: '/api/workspace/tokens' }),
+  'delete /api/workspace/tokens/:id': async ({ team, other }) => ({
+    path: `/api/workspace/tokens/${await tokenFor(team, 'viewer')}`,
+    foreignPath: `/api/workspace/tokens/${await tokenFor(other, 'viewer')}`,
+  }),
   'post /api/calc/:tool': async () => ({ path: '/api/calc/size', body: SIZE_EXAMPLE }),
   ...sheetRouteExamples,
   ...registerRouteExamples,

@@ -128,6 +128,8 @@ export function authRoutes(opts: { signInWindowMs: number; limits: Limits }): Ro
     }),
     defineRoute({
       method: 'get', path: '/api/auth/me', access: 'signed-in', summary: 'The user, the current workspace and role',
+      // A token sees itself: its user, its one workspace and its role.
+      tokens: true,
       handler: (_input, req) => {
         if (!req.user && !req.ctx?.viaToken) throw new UnauthorizedError()
         return meResponse(req)
