@@ -5,6 +5,7 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express'
 import { ZodError } from 'zod'
 import { AppError } from '../errors/app-error'
+import { errorForLog, loggablePath } from '../lib/log-redact'
 import { logger } from '../lib/logger'
 
 const DB_DOWN_CODES = new Set(['ECONNREFUSED', 'ECONNRESET', 'ETIMEDOUT', 'EPIPE', '57P01', '57P02', '57P03', '08006', '08001', '08003'])
@@ -61,6 +62,6 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
     res.status(400).json({ error: 'A value in the request is not valid for its field.', code: 'bad_request' })
     return
   }
-  logger.error({ err, path: req.path }, 'unhandled error')
+  logger.error({ err: errorForLog(err), path: loggablePath(req.originalUrl ?? req.path) }, 'unhandled error')
   res.status(500).json({ error: 'Something went wrong on our side. It has been logged.', code: 'internal' })
 }
