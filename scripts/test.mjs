@@ -60,6 +60,8 @@ try {
   else failed++
   if (step('lint (eslint)', 'npx', ['eslint', '.'], env)) passed++
   else failed++
+  if (step('import cycles (dpdm over server/ and shared/)', 'npm', ['run', '-s', 'check:cycles'], env)) passed++
+  else failed++
   if (!step('client build (vite)', 'npx', ['vite', 'build', '--logLevel', 'warn'], env)) failed++
 
   const report = path.join(workDir, 'vitest.json')

@@ -1,199 +1,28 @@
 /**
  * Wattage audit: a luminaire's claimed power against bench readings. Works out apparent power,
  * power factor, what the claim most likely describes, LED and charging power, the emergency output
- * ratio, driver efficiency and a year's energy and cost, and flags readings that cannot all be right.
+ * ratio, driver efficiency and a year's energy and cost, and flags readings that cannot all be right
+ * or that no luminaire gives (audit-plausibility.ts). Formulas: audit-formulas.ts; input: audit-input.ts.
  */
-import { z } from 'zod'
-import { finiteNumber, quantity } from './fields'
 import { defineTool } from './tool'
-import { sortWarnings, workingValue, type EngineWarning, type Reference, type WorkingStep } from './types'
+import { sortWarnings, workingValue, type EngineWarning, type WorkingStep } from './types'
 import { significantText } from './round'
+import {
+  CLAIM_TOLERANCE,
+  DC_POWER,
+  ENERGY_DEFINITION,
+  IEEE_1459,
+  IEV_POWER_FACTOR,
+  annualEnergyKWh,
+  apparentPower,
+  euMinimumDisplacementFactor,
+  powerFactorOf,
+} from './audit-formulas'
+import { auditInput, type AuditInput } from './audit-input'
+import { mainsPlausibility } from './audit-plausibility'
 
-// ---------------------------------------------------------------------------------------------
-// Sources
-// ---------------------------------------------------------------------------------------------
-
-const IEEE_1459: Reference = {
-  source: 'IEEE Std 1459-2010, single-phase definitions: S = V·I (rms), power factor = P/S',
-  basis: 'published',
-}
-const IEV_POWER_FACTOR: Reference = {
-  source: 'IEC 60050-131, IEV 131-11-46 "power factor" (ratio of active to apparent power)',
-  basis: 'from memory',
-  note: 'entry number recalled, not checked against the vocabulary',
-}
-/** Source of `truePowerFactor`, for screens that show it. */
-export const TRUE_POWER_FACTOR_REFERENCE: Reference = {
-  source: 'IEEE Std 1459-2010: power factor = cos φ1 / √(1 + THD_I²) when the voltage is undistorted',
-  basis: 'published',
-}
-const DC_POWER: Reference = { source: 'Joule’s law for d.c.: P = V·I', basis: 'published' }
-const ENERGY_DEFINITION: Reference = {
-  source: 'Energy = power × time; 1 kWh = 3.6 MJ; year taken as 365 d = 8760 h',
-  basis: 'derived',
-}
-const CLAIM_TOLERANCE: Reference = {
-  source: 'Tolerance of 10 % between a declared and a measured power',
-  basis: 'common practice',
-  note: 'market-surveillance tolerances in Regulation (EU) 2019/2020 Annex IV are of this size (from memory)',
-}
-/** Source of `euMinimumDisplacementFactor`. */
-export const EU_DISPLACEMENT_REFERENCE: Reference = {
-  source: 'Regulation (EU) 2019/2020, Annex II: minimum displacement factor of mains LED light sources by power band',
-  basis: 'from memory',
-  note: 'bands taken from a secondary summary; whether emergency-lighting products are exempt is not confirmed',
-}
-
-// ---------------------------------------------------------------------------------------------
-// Pure formulas
-// ---------------------------------------------------------------------------------------------
-
-/** Apparent power S = V_rms · I_rms (VA). IEEE Std 1459-2010. */
-export function apparentPower(voltageV: number, currentA: number): number {
-  return voltageV * currentA
-}
-
-/** Power factor λ = P / S. IEEE Std 1459-2010; IEC 60050-131. */
-export function powerFactorOf(realPowerW: number, apparentPowerVA: number): number {
-  return realPowerW / apparentPowerVA
-}
-
-/**
- * True power factor of a load with a distorted current on an undistorted voltage:
- * λ = cos φ1 × 1/√(1 + THD²) (displacement × distortion factor), IEEE Std 1459-2010.
- * `thd` is a fraction (0.8 for 80 %).
- */
-export function truePowerFactor(displacementFactor: number, thd: number): number {
-  if (!(displacementFactor >= 0 && displacementFactor <= 1)) throw new RangeError('displacement factor must be within 0..1')
-  if (!(thd >= 0) || !Number.isFinite(thd)) throw new RangeError('THD must be a finite fraction ≥ 0')
-  return displacementFactor * distortionFactor(thd)
-}
-
-/** Distortion factor I1/I = 1/√(1 + THD²), IEEE Std 1459-2010. */
-export function distortionFactor(thd: number): number {
-  return 1 / Math.sqrt(1 + thd * thd)
-}
-
-export const HOURS_PER_YEAR = 8760
-
-export type LuminaireMode = 'maintained' | 'non-maintained'
-
-export interface AnnualEnergyModel {
-  mode: LuminaireMode
-  /** Mains input power with the lamp lit (maintained) or on charge with the lamp off (non-maintained), W. */
-  measuredPowerW: number
-  /** Lit hours per day (maintained only). */
-  hoursPerDay: number
-  /** Power drawn during the unlit hours of a maintained luminaire, W (null when unknown → counted as 0). */
-  standbyPowerW: number | null
-}
-
-/**
- * A year's mains energy in kWh.
- * Maintained: lit hours at the measured power plus the other hours of the day at the standby
- * (charging) power. Non-maintained: the light is off on mains, so the measured (charging) power
- * is drawn all day, every day. Energy drawn in mains failures and tests is ignored.
- */
-export function annualEnergyKWh(model: AnnualEnergyModel): number {
-  if (model.mode === 'non-maintained') return (model.measuredPowerW * HOURS_PER_YEAR) / 1000
-  const days = HOURS_PER_YEAR / 24
-  const standby = model.standbyPowerW ?? 0
-  return ((model.measuredPowerW * model.hoursPerDay + standby * (24 - model.hoursPerDay)) * days) / 1000
-}
-
-/** Minimum displacement factor by power band, Regulation (EU) 2019/2020 (from memory, secondary); null = no requirement. */
-export function euMinimumDisplacementFactor(powerW: number): number | null {
-  if (powerW <= 5) return null
-  if (powerW <= 10) return 0.5
-  if (powerW <= 25) return 0.7
-  return 0.9
-}
-
-// ---------------------------------------------------------------------------------------------
-// Input
-// ---------------------------------------------------------------------------------------------
-
-const powerFactorField = () =>
-  finiteNumber()
-    .refine((v) => v > 0, 'power factor must be greater than 0')
-    .refine((v) => v <= 1, 'power factor cannot be greater than 1')
-
-/** Readings that only make sense together. */
-const PAIRS: Array<[string, string]> = [
-  ['ledVoltageMains', 'ledCurrentMains'],
-  ['ledVoltageBattery', 'ledCurrentBattery'],
-  ['batteryVoltage', 'batteryChargeCurrent'],
-]
-
-export const auditInput = z
-  .object({
-    /** The power the maker declares, W. */
-    claimedPower: quantity('power', { positive: true }),
-    /** The apparent power the maker declares, if any, VA. */
-    claimedApparentPower: quantity('apparentPower', { positive: true }).optional(),
-    supplyVoltage: quantity('voltage', { positive: true }),
-    supplyFrequency: quantity('frequency', { positive: true }).optional(),
-    /** Real power from a power meter, W. */
-    measuredPower: quantity('power', { positive: true }).optional(),
-    /** rms current on the mains side, A. */
-    measuredCurrent: quantity('current', { positive: true }).optional(),
-    /** Power factor shown by the meter, if it shows one. */
-    powerFactor: powerFactorField().optional(),
-    /** Apparent power shown by the meter, if it shows one, VA. */
-    apparentPower: quantity('apparentPower', { positive: true }).optional(),
-    /** The meter's lowest reliable current and power; readings below are flagged. */
-    meterMinCurrent: quantity('current', { min: 0 }).optional(),
-    meterMinPower: quantity('power', { min: 0 }).optional(),
-    /** d.c. voltage and current at the LEDs, lit from mains. */
-    ledVoltageMains: quantity('voltage', { min: 0 }).optional(),
-    ledCurrentMains: quantity('current', { min: 0 }).optional(),
-    /** d.c. voltage and current at the LEDs, lit from the battery. */
-    ledVoltageBattery: quantity('voltage', { min: 0 }).optional(),
-    ledCurrentBattery: quantity('current', { min: 0 }).optional(),
-    /** Battery voltage and charging current, on mains with the light off. */
-    batteryVoltage: quantity('voltage', { min: 0 }).optional(),
-    batteryChargeCurrent: quantity('current', { min: 0 }).optional(),
-    mode: z.enum(['maintained', 'non-maintained'], {
-      errorMap: () => ({ message: 'must be "maintained" or "non-maintained"' }),
-    }),
-    hoursPerDay: finiteNumber({ min: 0, max: 24 }),
-    tariffPerKWh: finiteNumber({ min: 0 }),
-    currency: z.string().trim().min(1, 'must not be empty').max(8, 'must be a short code such as "EUR"').optional(),
-    /** How far (±%) the measured power may be from the claim and still count as agreeing. */
-    claimTolerancePct: finiteNumber({ min: 0, max: 100 }).default(10),
-  })
-  .superRefine((input, ctx) => {
-    const hasP = input.measuredPower !== undefined
-    const hasS = input.measuredCurrent !== undefined || input.apparentPower !== undefined
-    const hasPf = input.powerFactor !== undefined
-    if (!hasP && !(hasS && hasPf)) {
-      ctx.addIssue({
-        code: z.ZodIssueCode.custom,
-        path: ['measuredPower'],
-        message: 'give the measured power, or the current (or apparent power) together with the power factor',
-      })
-    } else if (hasP && !hasS && !hasPf) {
-      ctx.addIssue({
-        code: z.ZodIssueCode.custom,
-        path: ['measuredCurrent'],
-        message: 'give the measured current (or the apparent power or power factor) so the power factor can be found',
-      })
-    }
-    const record = input as Record<string, unknown>
-    for (const [a, b] of PAIRS) {
-      const hasA = record[a] !== undefined
-      const hasB = record[b] !== undefined
-      if (hasA !== hasB) {
-        ctx.addIssue({
-          code: z.ZodIssueCode.custom,
-          path: [hasA ? b : a],
-          message: `needed together with ${hasA ? a : b}`,
-        })
-      }
-    }
-  })
-
-export type AuditInput = z.output<typeof auditInput>
+export * from './audit-formulas'
+export * from './audit-input'
 
 // ---------------------------------------------------------------------------------------------
 // Result
@@ -351,6 +180,9 @@ export function computeAudit(input: AuditInput): AuditResult {
       message: `measuredPower (${fmt(input.measuredPower)} W) is below the meter's lowest reliable power (${fmt(input.meterMinPower)} W); do not rely on it, on the claim check or on the energy figures.`,
     })
   }
+
+  // --- Readings no luminaire gives.
+  for (const w of mainsPlausibility(input, P, PF)) warnings.push(w)
 
   // --- The claim.
   const claimed = input.claimedPower

@@ -5,7 +5,7 @@
  */
 import { z } from 'zod'
 import { batteryDraw, chemistryIdSchema, loadFields, loadIssues } from './battery-inputs'
-import { floatCellVoltage } from './battery-models'
+import { deepDischargeLimitCellV, floatCellVoltage } from './battery-models'
 import { CHEMISTRIES } from './chemistries'
 import { REF } from './chemistries/references'
 import type { ChemistryId, Range } from './chemistries/types'
@@ -185,6 +185,17 @@ export function checkCharge(input: ChargeInput, options: { explain?: boolean } =
     })
   }
 
+  // Lithium in the cold: the makers cut the charge current between 0 °C and about 10 °C.
+  const cold = chemistry.coldCharge
+  if (cold && input.ambient >= 0 && input.ambient < cold.belowC && chargeC > cold.maxRateC.value + tol) {
+    warnings.push({
+      code: 'charge-current-cold',
+      severity: 'warning',
+      field: 'chargeCurrent',
+      message: `At ${input.ambient} °C ${chemistry.name} should be charged at no more than ${cold.maxRateC.value} C (${round(cold.maxRateC.value * capacityAh)} A here); ${round(chargeC)} C risks lithium plating. Use a charger that reduces its current in the cold, or keep the pack above ${cold.belowC} °C.`,
+    })
+  }
+
   // Float voltage.
   let floatVoltageCheck: FloatCheck | null = null
   if (chemistry.float) {
@@ -220,12 +231,13 @@ export function checkCharge(input: ChargeInput, options: { explain?: boolean } =
       field: 'floatVoltage',
       message: `${chemistry.name} is charged at constant current, not floated at a voltage; the float voltage was not used.`,
     })
-  } else if (chemistry.family === 'lithium' && input.floatVoltage !== undefined && perCell(input.floatVoltage) > chemistry.fullChargeCellVoltage.value + 0.005) {
+  } else if (chemistry.family === 'lithium' && input.floatVoltage !== undefined && perCell(input.floatVoltage) > (chemistry.maxChargeCellVoltage ?? chemistry.fullChargeCellVoltage).value + 0.005) {
+    const limit = (chemistry.maxChargeCellVoltage ?? chemistry.fullChargeCellVoltage).value
     warnings.push({
       code: 'lithium-overvoltage',
       severity: 'critical',
       field: 'floatVoltage',
-      message: `${round(perCell(input.floatVoltage), 3)} V per cell is above the ${chemistry.fullChargeCellVoltage.value} V full-charge limit of ${chemistry.name}: overcharge is a fire risk.`,
+      message: `${round(perCell(input.floatVoltage), 3)} V per cell is above the ${limit} V highest charge voltage of ${chemistry.name}: overcharge is a fire risk.`,
     })
   }
 
@@ -243,13 +255,15 @@ export function checkCharge(input: ChargeInput, options: { explain?: boolean } =
   let deepDischarge: boolean | null = null
   if (input.cutoffVoltage !== undefined) {
     const cutCell = perCell(input.cutoffVoltage)
-    deepDischarge = cutCell < chemistry.minSafeCellVoltage.value - tol
+    // The same rule as the sizing: the makers' final voltage at this discharge rate where they tabulate it.
+    const safeCell = deepDischargeLimitCellV(chemistry, draw.currentA / capacityAh)
+    deepDischarge = cutCell < safeCell - tol
     if (deepDischarge) {
       warnings.push({
         code: 'deep-discharge',
         severity: 'critical',
         field: 'cutoffVoltage',
-        message: `The cut-off of ${round(cutCell, 3)} V per cell is below the safe minimum of ${chemistry.minSafeCellVoltage.value} V for ${chemistry.name}: the pack is deep-discharged on every duration test.`,
+        message: `The cut-off of ${round(cutCell, 3)} V per cell is below the safe minimum of ${safeCell} V for ${chemistry.name}${chemistry.cutoffByDischargeRate ? ` at ${round(draw.currentA / capacityAh, 2)} C` : ''}: the pack is deep-discharged on every duration test.`,
       })
     }
   } else {
@@ -257,7 +271,7 @@ export function checkCharge(input: ChargeInput, options: { explain?: boolean } =
       code: 'deep-discharge-protection',
       severity: 'info',
       field: 'cutoffVoltage',
-      message: `Give the luminaire's deep-discharge cut-off to check it; ${chemistry.name} should stop at or above ${chemistry.minSafeCellVoltage.value} V per cell.`,
+      message: `Give the luminaire's deep-discharge cut-off to check it; ${chemistry.name} should stop at or above ${deepDischargeLimitCellV(chemistry, draw.currentA / capacityAh)} V per cell at this rate.`,
     })
   }
   addChemistryNotes(chemistry, warnings)

@@ -6,7 +6,7 @@ import { z } from 'zod'
 import { chemistryIdSchema, designFields, loadFields, loadIssues } from './battery-inputs'
 import { CHEMISTRIES, CHEMISTRY_IDS } from './chemistries'
 import { REF } from './chemistries/references'
-import type { ChemistryId, Range } from './chemistries/types'
+import type { Chemistry, ChemistryId, Range } from './chemistries/types'
 import { ambientTemperature, finiteNumber, quantity } from './fields'
 import { packIssues } from './pack-rules'
 import { sizePack, type SizeInput, type SizeResult } from './size'
@@ -78,6 +78,8 @@ export interface CompareResult {
 }
 
 const CRITICAL_PENALTY = 0.5
+/** A pack that cannot be charged at the site's lowest temperature is not full when needed: the same halving. */
+const COLD_CHARGE_PENALTY = 0.5
 const round = roundToSignificant
 const CRITERION_WORDS = {
   life: 'service life',
@@ -120,6 +122,9 @@ export function sizeInputFor(chemistry: ChemistryId, input: Luminaire): SizeInpu
     nominalVoltage: input.nominalVoltage,
   }
 }
+
+/** The site's lowest ambient is below the chemistry's charging range (a nickel pack then stays partly charged). */
+const chargesBelowRange = (chemistry: Chemistry, ambientMinC: number) => ambientMinC < chemistry.chargeTemperatureC.value.min
 
 const hasCritical = (warnings: EngineWarning[]) => {
   for (const w of warnings) if (w.severity === 'critical') return true
@@ -171,7 +176,7 @@ export function compareChemistries(input: CompareInput, options: CompareOptions 
       volumeL: r.volumeL,
       serviceLifeYears: r.serviceLifeYears,
       scores,
-      score: hasCritical(r.warnings) ? weighted * CRITICAL_PENALTY : weighted,
+      score: hasCritical(r.warnings) ? weighted * CRITICAL_PENALTY : chargesBelowRange(chemistry, input.ambientMin) ? weighted * COLD_CHARGE_PENALTY : weighted,
       rank: 0,
       verdict: '',
       warnings: r.warnings,
@@ -212,9 +217,9 @@ export function compareChemistries(input: CompareInput, options: CompareOptions 
   const working: WorkingStep[] = rows.map((row) => ({
     id: `score.${row.chemistry}`,
     label: `Score: ${row.name}`,
-    formula: 'S = (w_L·s_L + w_T·s_T + w_S·s_S + w_R·s_R) / Σw  (× 0.5 with a critical warning)',
+    formula: 'S = (w_L·s_L + w_T·s_T + w_S·s_S + w_R·s_R) / Σw  (× 0.5 with a critical warning; × 0.5 when it cannot be charged at the lowest ambient)',
     explanation:
-      's_L = life / longest life; s_T = tolerance of permanent charge; s_S = smallest mid-range volume / this volume; s_R = 1 − restriction burden.',
+      `s_L = life / longest life; s_T = tolerance of permanent charge; s_S = smallest mid-range volume / this volume; s_R = 1 − restriction burden.${chargesBelowRange(CHEMISTRIES[row.chemistry], input.ambientMin) ? ` Halved: ${row.name} is charged from ${CHEMISTRIES[row.chemistry].chargeTemperatureC.value.min} °C and the site goes down to ${input.ambientMin} °C.` : ''}`,
     inputs: [
       { symbol: 's_L', label: 'Life score', value: row.scores.life, unit: '' },
       { symbol: 's_T', label: 'Permanent-charge score', value: row.scores.trickle, unit: '' },
@@ -246,10 +251,13 @@ function verdictFor(row: CompareRow, input: CompareInput, w: Weights): string {
   const best = keys.reduce((a, b) => (row.scores[b] > row.scores[a] ? b : a), keys[0])
   const worst = keys.reduce((a, b) => (row.scores[b] < row.scores[a] ? b : a), keys[0])
   const critical = row.warnings.find((x) => x.severity === 'critical')
+  const cold = chargesBelowRange(CHEMISTRIES[row.chemistry], input.ambientMin)
   const pack = `${round(row.selectedCapacityAh)} Ah × ${row.cellsInSeries} cell${row.cellsInSeries === 1 ? '' : 's'} (${round(row.massKg.min, 2)}–${round(row.massKg.max, 2)} kg)`
   const life = `about ${round(row.serviceLifeYears, 2)} years at ${input.ambientMax} °C`
   const trail = critical
     ? `but ${CRITICAL_WORDS[critical.code] ?? 'a critical check fails (see its warnings)'}`
+    : cold
+      ? `but it cannot be charged at ${input.ambientMin} °C, so it is not full when needed`
     : best === worst
       ? `even on every criterion`
       : `strongest on ${CRITERION_WORDS[best]}, weakest on ${CRITERION_WORDS[worst]}`

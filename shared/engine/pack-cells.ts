@@ -39,7 +39,12 @@ export const sameNominalVoltage = (a: number, b: number) => Math.abs(a - b) <= S
 
 const GIVEN_CELLS_REF = REF.commonPractice('Cells in series as given by the user')
 const VOLTAGE_CELLS_REF = REF.commonPractice('A replacement pack keeps the nominal voltage the luminaire is marked for', 'IEC 60598-2-22 marking: battery type, nominal voltage and capacity (from memory).')
-const DIRECT_CELLS_REF = REF.commonPractice('Direct drive: pack voltage at cut-off must reach the LED forward voltage')
+const DIRECT_CELLS_REF = REF.commonPractice('Direct drive: pack voltage at cut-off must reach the LED forward voltage plus the current limiter’s headroom')
+/** Volts a direct-drive current limiter (series resistor or linear regulator) needs above the LED string to hold its current. */
+export const DIRECT_DRIVE_HEADROOM_V = 0.3
+export const DIRECT_DRIVE_HEADROOM_REF = REF.commonPractice(
+  'Linear constant-current limiters need about 0.3–0.5 V across them to regulate; a series resistor needs a share of the supply to set the current',
+)
 const WINDOW_CELLS_REF = REF.commonPractice('Converter drive: the pack must stay inside the converter input window')
 
 /** Fewest cells that keep the load working to the end-of-discharge voltage, or the given count, or the count for the nominal voltage. */
@@ -56,7 +61,7 @@ export function chooseCellsInSeries(
   if (nominalVoltage !== undefined) return { cells: cellsForVoltage(chemistry, nominalVoltage).cells, rule: 'voltage' }
   if (driver === 'direct' && load?.ledVoltage !== undefined) {
     // Tiny tolerance so 3 × 1.0 V exactly reaching 3.0 V does not ask for a 4th cell.
-    return { cells: Math.max(1, Math.ceil(load.ledVoltage / cutoffCellVoltage - 1e-9)), rule: 'direct' }
+    return { cells: Math.max(1, Math.ceil((load.ledVoltage + DIRECT_DRIVE_HEADROOM_V) / cutoffCellVoltage - 1e-9)), rule: 'direct' }
   }
   if (window?.min !== undefined) {
     return { cells: Math.max(1, Math.ceil(window.min / cutoffCellVoltage - 1e-9)), rule: 'window-min' }
@@ -88,7 +93,7 @@ export function describeCellChoice(
       }
     case 'direct':
       return {
-        explanation: `Fewest cells whose end-of-discharge voltage (n × ${cutoffCellVoltage} V) still reaches the LED string voltage ${round(load?.ledVoltage as number)} V, so the string stays lit to the cut-off.`,
+        explanation: `Fewest cells whose end-of-discharge voltage (n × ${cutoffCellVoltage} V) still reaches the LED string voltage ${round(load?.ledVoltage as number)} V plus ${DIRECT_DRIVE_HEADROOM_V} V for the current limiter, so the string stays lit at its current to the cut-off.`,
         reference: DIRECT_CELLS_REF,
       }
     case 'window-min':

@@ -11,13 +11,6 @@ export const CHARGER_TYPES = ['nickel-constant-current', 'lithium-cc-cv', 'lead-
 export type ChargerType = (typeof CHARGER_TYPES)[number]
 export const chargerTypeSchema = z.enum(CHARGER_TYPES, { errorMap: () => ({ message: `must be one of ${CHARGER_TYPES.join(', ')}` }) })
 
-export const CHARGER_TYPE_LABELS: Record<ChargerType, string> = {
-  'nickel-constant-current': 'Nickel charger (constant current, left on)',
-  'lithium-cc-cv': 'Lithium charger (constant current, then constant voltage; stops when full)',
-  'lead-acid-float': 'Lead-acid float charger (constant voltage)',
-  unknown: 'Not known',
-}
-
 export type ChargerVerdict = 'yes' | 'conditional' | 'no'
 
 /** The charger type a luminaire was most likely built with, from the chemistry of the pack it came with. */

@@ -11,6 +11,7 @@ import { auditTool } from './audit'
 import { retrofitTool } from './retrofit'
 import { dischargeTool } from './discharge'
 import { spacingTool } from './spacing'
+import { replaceTool } from './replace'
 
 /** A tool with its own schema and result types, widened for the by-name table (run's input type makes EngineTool invariant in S). */
 const asTool = <S extends z.ZodTypeAny, R extends ToolResultBase>(tool: EngineTool<S, R>): EngineTool => tool as unknown as EngineTool
@@ -24,6 +25,7 @@ export const tools: Record<string, EngineTool> = {
   retrofit: asTool(retrofitTool),
   discharge: asTool(dischargeTool),
   spacing: asTool(spacingTool),
+  replace: asTool(replaceTool),
 }
 
 export type ToolName = keyof typeof tools

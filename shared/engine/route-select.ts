@@ -2,9 +2,13 @@
  * Choosing a luminaire type for an escape route: for each candidate type, the spacing and the
  * number of luminaires its photometry needs on the route, the standby power of that many, and
  * the battery pack each one needs for the route's rated duration (the `size` tool).
+ *
+ * The spacing calculator and this selector build the spacing tool's input with the same
+ * function (`spacingRequestFor`) and read the light's verdict with the same one
+ * (`lightVerdict`), so for the same route and type they agree.
  */
 import { sizeInputSchema, sizePack } from './size'
-import { computeSpacing, spacingInput, type CriteriaId } from './spacing'
+import { computeSpacing, spacingInput, type CriteriaId, type RouteLayout, type SpacingResult } from './spacing'
 import type { IntensityTable } from './lm63'
 import type { ChemistryId } from './chemistries/types'
 import type { EngineWarning } from './types'
@@ -19,6 +23,18 @@ export interface RouteNeed {
   ratedDurationS: number
   maintenanceFactor: number
   normalIlluminanceLx?: number
+  /** Typed by the designer: overrides each type's own emergency output factor. */
+  emergencyOutputFactor?: number
+  /** NFPA 101: share of the initial output left at the end of the rated duration (default 1). */
+  endOfDurationFactor?: number
+}
+
+/** Where an input value came from: the luminaire type, or typed by the designer over it. */
+export interface TakenValue {
+  value: number
+  from: 'type' | 'typed'
+  /** The type's own value, when the designer typed another. */
+  typeValue?: number
 }
 
 export interface TypeCandidate {
@@ -50,12 +66,23 @@ export interface PackNeed {
   runtimeEndOfLifeH: number
 }
 
+export type SelectionVerdict = 'meets' | 'light' | 'pack' | 'both'
+
 export interface TypeSelection {
   id: string
   name: string
   meets: boolean
-  /** Why the type does not meet the route (empty when it does). */
+  /** What fails: nothing ('meets'), the light, the pack (duration), or both. */
+  verdict: SelectionVerdict
+  /** Why the type does not meet the route (empty when it does): the light's reasons, then the pack's. */
   reasons: string[]
+  lightReasons: string[]
+  packReasons: string[]
+  /** One sentence for the table: the verdict and its main reason. */
+  summary: string
+  /** The even layout on the route (null when none passes or there is no photometry). */
+  layout: RouteLayout | null
+  emergencyOutputFactor: TakenValue
   luminairesNeeded: number | null
   maxSpacingM: number | null
   maxEndSpacingM: number | null
@@ -68,6 +95,39 @@ export interface TypeSelection {
 }
 
 const round = (v: number, digits = 4) => Number(v.toFixed(digits))
+/** Three significant figures, as every result screen shows them. */
+const sig = (v: number) => String(Number(v.toPrecision(3)))
+
+/** The emergency output factor used for a type on a route, and where it came from. */
+export function takenOutputFactor(route: RouteNeed, typeFactor: number): TakenValue {
+  if (route.emergencyOutputFactor === undefined || route.emergencyOutputFactor === typeFactor) return { value: typeFactor, from: 'type' }
+  return { value: route.emergencyOutputFactor, from: 'typed', typeValue: typeFactor }
+}
+
+/**
+ * The spacing tool's input for one type on a route: the one path both the spacing calculator
+ * and the type selector take. Values are SI; the calculator adds its table of heights.
+ */
+export function spacingRequestFor(route: RouteNeed, type: { table: IntensityTable; emergencyOutputFactor: number }): Record<string, unknown> {
+  return {
+    photometry: type.table,
+    mountingHeight: route.mountingHeightM,
+    emergencyOutputFactor: takenOutputFactor(route, type.emergencyOutputFactor).value,
+    maintenanceFactor: route.maintenanceFactor,
+    criteria: route.criteria,
+    routeWidth: route.routeWidthM,
+    routeLength: route.routeLengthM,
+    ...(route.normalIlluminanceLx !== undefined ? { normalIlluminance: route.normalIlluminanceLx } : {}),
+    ...(route.endOfDurationFactor !== undefined ? { endOfDurationFactor: route.endOfDurationFactor } : {}),
+  }
+}
+
+/** Whether the light meets the route, and why not: read the same way by the calculator and the selector. */
+export function lightVerdict(result: Pick<SpacingResult, 'maxSpacingM' | 'layout'>): { meets: boolean; reasons: string[] } {
+  if (result.maxSpacingM === null) return { meets: false, reasons: ['no spacing meets the levels at this mounting height'] }
+  if (!result.layout) return { meets: false, reasons: ['no even row passes the check over the whole route'] }
+  return { meets: true, reasons: [] }
+}
 
 function packFor(route: RouteNeed, c: TypeCandidate): { pack: PackNeed | null; reason: string | null; warnings: EngineWarning[] } {
   const parsed = sizeInputSchema.safeParse({
@@ -104,7 +164,13 @@ export function assessType(route: RouteNeed, c: TypeCandidate): TypeSelection {
     id: c.id,
     name: c.name,
     meets: false,
+    verdict: 'both',
     reasons: [],
+    lightReasons: [],
+    packReasons: [],
+    summary: '',
+    layout: null,
+    emergencyOutputFactor: takenOutputFactor(route, c.emergencyOutputFactor),
     luminairesNeeded: null,
     maxSpacingM: null,
     maxEndSpacingM: null,
@@ -114,47 +180,51 @@ export function assessType(route: RouteNeed, c: TypeCandidate): TypeSelection {
     pack: null,
     warnings: [],
   }
+  const hours = (s: number) => `${sig(s / SECONDS_PER_HOUR)} h`
   if (c.ratedDurationS < route.ratedDurationS * (1 - 1e-9)) {
-    out.reasons.push(`rated duration ${round(c.ratedDurationS / SECONDS_PER_HOUR, 2)} h is shorter than the ${round(route.ratedDurationS / SECONDS_PER_HOUR, 2)} h the route needs`)
+    out.packReasons.push(`rated for ${hours(c.ratedDurationS)}, shorter than the ${hours(route.ratedDurationS)} the route needs`)
   }
-  if (!c.table) {
-    out.reasons.push('has no photometric file')
-    return out
+  if (!c.table) out.lightReasons.push('has no photometric file')
+  else {
+    const input = spacingInput.safeParse(spacingRequestFor(route, { table: c.table, emergencyOutputFactor: c.emergencyOutputFactor }))
+    if (!input.success) {
+      const first = input.error.issues[0]
+      out.lightReasons.push(`spacing cannot be worked out: ${first.path.join('.')} ${first.message}`)
+    } else {
+      const spacing = computeSpacing(input.data)
+      out.maxSpacingM = spacing.maxSpacingM
+      out.maxEndSpacingM = spacing.maxEndSpacingM
+      out.minIlluminanceLx = spacing.minIlluminanceLx
+      out.uniformityRatio = spacing.uniformityRatio
+      out.layout = spacing.layout ?? null
+      out.luminairesNeeded = spacing.luminairesNeeded ?? null
+      out.warnings.push(...spacing.warnings.filter((w) => w.severity !== 'info'))
+      out.lightReasons.push(...lightVerdict(spacing).reasons)
+      if (out.luminairesNeeded !== null) out.totalStandbyPowerW = round(out.luminairesNeeded * c.inputPowerW, 3)
+    }
   }
-  const input = spacingInput.safeParse({
-    photometry: c.table,
-    mountingHeight: route.mountingHeightM,
-    emergencyOutputFactor: c.emergencyOutputFactor,
-    maintenanceFactor: route.maintenanceFactor,
-    criteria: route.criteria,
-    routeWidth: route.routeWidthM,
-    routeLength: route.routeLengthM,
-    ...(route.normalIlluminanceLx !== undefined ? { normalIlluminance: route.normalIlluminanceLx } : {}),
-  })
-  if (!input.success) {
-    const first = input.error.issues[0]
-    out.reasons.push(`spacing cannot be computed: ${first.path.join('.')} ${first.message}`)
-    return out
-  }
-  const spacing = computeSpacing(input.data)
-  out.maxSpacingM = spacing.maxSpacingM
-  out.maxEndSpacingM = spacing.maxEndSpacingM
-  out.minIlluminanceLx = spacing.minIlluminanceLx
-  out.uniformityRatio = spacing.uniformityRatio
-  out.luminairesNeeded = spacing.luminairesNeeded ?? null
-  out.warnings.push(...spacing.warnings.filter((w) => w.severity !== 'info'))
-  if (spacing.maxSpacingM === null) out.reasons.push('no spacing meets the levels at this mounting height')
-  else if (out.luminairesNeeded === null) out.reasons.push('no even row passed the check over the whole route')
-  if (out.luminairesNeeded !== null) out.totalStandbyPowerW = round(out.luminairesNeeded * c.inputPowerW, 3)
 
   const pack = packFor(route, c)
   out.pack = pack.pack
   out.warnings.push(...pack.warnings)
-  if (pack.reason) out.reasons.push(pack.reason)
+  if (pack.reason) out.packReasons.push(pack.reason)
   if (pack.pack?.fittedPackEnough === false) {
-    out.reasons.push(`fitted ${pack.pack.fittedCapacityAh} Ah pack is below the ${pack.pack.requiredCapacityAh} Ah needed for the route's duration`)
+    out.packReasons.push(`the fitted ${sig(pack.pack.fittedCapacityAh!)} Ah pack is below the ${sig(pack.pack.requiredCapacityAh)} Ah needed for ${hours(route.ratedDurationS)} (the next pack step is ${sig(pack.pack.selectedCapacityAh)} Ah)`)
   }
-  out.meets = out.reasons.length === 0
+  out.reasons = [...out.lightReasons, ...out.packReasons]
+  const lightOk = out.lightReasons.length === 0
+  const packOk = out.packReasons.length === 0
+  out.meets = lightOk && packOk
+  out.verdict = out.meets ? 'meets' : lightOk ? 'pack' : packOk ? 'light' : 'both'
+  const row = out.layout ? `${out.layout.count} luminaire${out.layout.count === 1 ? '' : 's'}${out.layout.spacingM !== null ? ` ${sig(out.layout.spacingM)} m apart` : ''}` : ''
+  out.summary =
+    out.verdict === 'meets'
+      ? `Meets the route: ${row}, ${out.pack?.fittedPackEnough ? 'and the fitted pack lasts the duration' : `with a ${out.pack ? sig(out.pack.selectedCapacityAh) + ' Ah ' : ''}pack for the duration (no fitted pack stated)`}.`
+      : out.verdict === 'pack'
+        ? `Meets the light with ${row}, but not the duration: ${out.packReasons.join('; ')}.`
+        : out.verdict === 'light'
+          ? `The pack lasts the duration, but the light does not meet the route: ${out.lightReasons.join('; ')}.`
+          : `Neither the light nor the pack meets the route: ${out.reasons.join('; ')}.`
   return out
 }
 

@@ -71,5 +71,7 @@ export function checkPackCharger(s: SizedPack, charger: PackCharger, explain: bo
     reasons: fit.reasons,
     warnings,
   }
-  return { check, working: working.map((w) => ({ ...w, id: `charger.${w.id}`, label: `Charger: ${w.label}` })) }
+  // With a measured current the discharge is the sizing's own; its step is not repeated.
+  const steps = input.dischargeCurrent !== undefined ? working.filter((w) => w.id !== 'averageCurrentA') : working
+  return { check, working: steps.map((w) => ({ ...w, id: `charger.${w.id}`, label: `Charger: ${w.label}` })) }
 }

@@ -3,6 +3,8 @@
  * nominal voltage, temperatures, service life, deep discharge, the LED string, the converter window.
  * Each rule and its source: docs/method.md, "Battery packs".
  */
+import { deepDischargeLimitCellV } from './battery-models'
+import { DIRECT_DRIVE_HEADROOM_V } from './pack-cells'
 import { roundToSignificant as round } from './round'
 import type { SizedPack } from './size-steps'
 import type { EngineWarning } from './types'
@@ -106,12 +108,15 @@ export function packChecks(s: SizedPack, warnings: EngineWarning[]): void {
       message: 'Emergency-luminaire batteries are designed for at least 4 years of normal operation (IEC 60598-2-22 Annex A, IEC 61347-2-7).',
     })
   }
-  if (cutoffCell < chemistry.minSafeCellVoltage.value) {
+  // One deep-discharge rule with the makers' rate table where there is one (the same table chose the default cut-off).
+  const rateC = currentA / selectedAh
+  const safeCell = deepDischargeLimitCellV(chemistry, rateC)
+  if (cutoffCell < safeCell - 1e-9) {
     warnings.push({
       code: 'deep-discharge',
       severity: 'critical',
       field: 'cutoffCellVoltage',
-      message: `An end-of-discharge voltage of ${cutoffCell} V per cell is below the safe minimum of ${chemistry.minSafeCellVoltage.value} V for ${chemistry.name}: deep discharge damages the cells.`,
+      message: `An end-of-discharge voltage of ${cutoffCell} V per cell is below the safe minimum of ${safeCell} V for ${chemistry.name}${chemistry.cutoffByDischargeRate ? ` at ${round(rateC, 2)} C` : ''}: deep discharge damages the cells.`,
     })
   }
   if (input.driver === 'direct' && input.load?.ledVoltage !== undefined) {
@@ -122,6 +127,13 @@ export function packChecks(s: SizedPack, warnings: EngineWarning[]): void {
         severity: choice.rule === 'given' ? 'critical' : 'warning',
         field: 'cellsInSeries',
         message: `At the end-of-discharge voltage the pack gives ${round(packCutoffV)} V, below the LED string's ${round(input.load?.ledVoltage)} V: the light fades out before the pack is used up.`,
+      })
+    } else if (packCutoffV - input.load.ledVoltage < DIRECT_DRIVE_HEADROOM_V - 1e-9) {
+      warnings.push({
+        code: 'direct-drive-headroom',
+        severity: 'warning',
+        field: 'cellsInSeries',
+        message: `At the end-of-discharge voltage the pack gives ${round(packCutoffV)} V, only ${round(packCutoffV - input.load.ledVoltage, 2)} V above the LED string's ${round(input.load.ledVoltage)} V; the current limiter needs about ${DIRECT_DRIVE_HEADROOM_V} V, so the LED current (and the light) falls before the cut-off. Add a cell or use a converter.`,
       })
     }
   }

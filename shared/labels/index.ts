@@ -178,6 +178,19 @@ export const SIZE_RULE_LABELS = {
   usual: 'the usual capacity for this duty',
 } as const
 
+export const CHARGER_TYPE_LABELS = {
+  'nickel-constant-current': 'Nickel charger (constant current, left on)',
+  'lithium-cc-cv': 'Lithium charger (constant current then constant voltage, stops when full)',
+  'lead-acid-float': 'Lead-acid float charger (constant voltage)',
+  unknown: 'Not known',
+} as const
+
+export const CHARGER_FIT_LABELS = {
+  yes: 'Suits this charger',
+  conditional: 'Suits this charger only on conditions',
+  no: 'Must not go on this charger',
+} as const
+
 /**
  * Unit symbols as people write them: the engine's mathjs names ("degC", "ohm") become the usual
  * symbols. Symbols that are already right need no entry.
@@ -218,6 +231,8 @@ export const ENUMERATIONS = {
   unitSystem: UNIT_SYSTEM_LABELS,
   claimVerdict: CLAIM_VERDICT_LABELS,
   sizeRule: SIZE_RULE_LABELS,
+  chargerType: CHARGER_TYPE_LABELS,
+  chargerFit: CHARGER_FIT_LABELS,
 } as const
 
 export type EnumerationName = keyof typeof ENUMERATIONS

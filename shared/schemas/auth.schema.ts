@@ -1,5 +1,6 @@
 /** Accounts: the one zod schema per concept, used by the server's checks and the client's forms. */
 import { z } from 'zod'
+import { MeAnswer } from './answers/accounts'
 import { RoleSchema } from './roles'
 
 /** A few passwords too common to allow whatever their length (screened, as current guidance asks). */
@@ -57,10 +58,5 @@ export const ChangeRoleSchema = z.object({ role: RoleSchema })
 export const SwitchWorkspaceSchema = z.object({ workspaceId: z.string().uuid('is not a workspace id') })
 export const CreateWorkspaceSchema = z.object({ name: z.string().trim().min(1, 'is required').max(120, 'is too long') })
 
-export interface MeResponse {
-  user: { id: string; email: string; name: string; units: 'si' | 'us' }
-  workspace: { id: string; name: string } | null
-  role: z.infer<typeof RoleSchema> | null
-  workspaces: Array<{ id: string; name: string; role: z.infer<typeof RoleSchema> }>
-  csrfToken: string
-}
+/** The answer to "who am I" (sign-in, sign-up, /api/auth/me, switching workspace). */
+export type MeResponse = z.output<typeof MeAnswer>

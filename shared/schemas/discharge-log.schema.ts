@@ -5,6 +5,7 @@
  */
 import { z } from 'zod'
 import { dischargeInput } from '../engine/discharge'
+import { isIsoDate } from '../engine/due'
 
 export { CURRENT_UNITS, perCellVolts, TIME_UNITS, VOLTAGE_UNITS } from '../engine/discharge-log'
 
@@ -101,6 +102,12 @@ export const DischargeAnalyseSchema = z
     dryRun: z.boolean({ invalid_type_error: 'must be true or false' }).default(false),
     specSheetId: id('a specification sheet').nullable().optional(),
     testRecordId: id('a test record').nullable().optional(),
+    /** The luminaire whose pack was tested: saving records (or updates) its full-duration test from the log. */
+    luminaireId: id('a luminaire').nullable().optional(),
+    /** Day of the test, for the record made from the log (today when left out). */
+    testedOn: z.string({ invalid_type_error: 'must be a date (YYYY-MM-DD)' }).trim().refine(isIsoDate, 'must be a real date written YYYY-MM-DD').optional(),
+    /** Why the runtime typed in the attached record differs from the log. */
+    runtimeNote: text(500).default(''),
   })
   .superRefine((v, ctx) => {
     if (!v.uploadId === !v.fileId) ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['uploadId'], message: 'give either uploadId (a new upload) or fileId (a stored file)' })

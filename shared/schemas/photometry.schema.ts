@@ -65,6 +65,10 @@ export const RouteNeedSchema = z
     ratedDuration: quantity('time', { min: 0.5 * HOUR, max: 24 * HOUR, display: { unit: 'h', factor: 1 / HOUR } }),
     maintenanceFactor: fraction().default(0.8),
     normalIlluminance: quantity('illuminance', { positive: true, max: 100000 }).optional(),
+    /** Typed by the designer: used for every type instead of the type's own emergency output factor. */
+    emergencyOutputFactor: fraction().optional(),
+    /** NFPA 101: share of the initial emergency output left at the end of the rated duration. */
+    endOfDurationFactor: fraction().optional(),
   })
   .superRefine((v, ctx) => {
     if (v.criteria === 'en1838-high-risk' && v.normalIlluminance === undefined) {

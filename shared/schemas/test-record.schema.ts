@@ -5,6 +5,42 @@ import { IsoDateSchema } from './luminaire.schema'
 export const TEST_KINDS = ['functional', 'duration'] as const
 export const TestKindSchema = z.enum(TEST_KINDS, { errorMap: () => ({ message: 'must be functional or duration' }) })
 
+/**
+ * The checks made at each luminaire on a round (common practice for the monthly and annual routine
+ * tests of EN 50172 / BS 5266-1, from memory): stored with the record, shown in words.
+ */
+export const CHECKLIST_ITEMS = [
+  { id: 'lamp-lit', label: 'Lamp lit on the simulated supply failure', kinds: ['functional', 'duration'] },
+  { id: 'charge-indicator', label: 'Charge indicator lit again when the supply came back', kinds: ['functional', 'duration'] },
+  { id: 'sign-legible', label: 'Sign or diffuser clean and legible', kinds: ['functional', 'duration'] },
+  { id: 'test-switch', label: 'Test switch or key works', kinds: ['functional', 'duration'] },
+  { id: 'no-damage', label: 'No damage, no missing parts', kinds: ['functional', 'duration'] },
+  { id: 'lit-full-duration', label: 'Stayed lit to the end of the rated duration', kinds: ['duration'] },
+] as const
+export const CHECKLIST_ITEM_IDS = CHECKLIST_ITEMS.map((i) => i.id) as unknown as readonly [(typeof CHECKLIST_ITEMS)[number]['id'], ...Array<(typeof CHECKLIST_ITEMS)[number]['id']>]
+export type ChecklistItemId = (typeof CHECKLIST_ITEMS)[number]['id']
+export const checklistFor = (kind: (typeof TEST_KINDS)[number]) => CHECKLIST_ITEMS.filter((i) => (i.kinds as readonly string[]).includes(kind))
+
+/** A typed runtime and its discharge log may differ by this many minutes (reading a stopwatch) before a reason is asked for. Common practice. */
+export const RUNTIME_TOLERANCE_MIN = 5
+
+const hoursText = (h: number) => String(Number(h.toFixed(2)))
+/** The reason a typed runtime needs a note, or null when it agrees with the log. */
+export function runtimeMismatch(typedH: number | null, logH: number): string | null {
+  if (typedH === null) return null
+  const minutes = Math.abs(typedH - logH) * 60
+  if (minutes <= RUNTIME_TOLERANCE_MIN) return null
+  return `the record says ${hoursText(typedH)} h, the log ${hoursText(logH)} h (${Math.round(minutes)} min apart): say why they differ`
+}
+
+/**
+ * The pass or fail a full-duration runtime gives against the rated duration (EN 50172 / BS 5266-1:
+ * the luminaire must stay lit for its full rated duration, from memory); null when no runtime was typed.
+ */
+export function durationVerdict(achievedH: number | null, ratedH: number): boolean | null {
+  return achievedH === null ? null : achievedH >= ratedH
+}
+
 export const TestRecordSchema = z
   .object({
     /** Made by the client for each record, so a retried send never creates a second record. */
@@ -18,6 +54,14 @@ export const TestRecordSchema = z
     faults: z.string().trim().max(1000, 'must be at most 1000 characters').default(''),
     remedialAction: z.string().trim().max(1000, 'must be at most 1000 characters').default(''),
     dischargeLogId: z.string().uuid('is not a discharge log id').nullable().default(null),
+    /** Why a typed runtime differs from its discharge log by more than RUNTIME_TOLERANCE_MIN minutes. */
+    runtimeNote: z.string().trim().max(500, 'must be at most 500 characters').default(''),
+    /** The checklist for the test kind, as ticked: item id → fine (true) or found wrong (false). */
+    checklist: z.record(z.enum(CHECKLIST_ITEM_IDS, { errorMap: () => ({ message: `must be one of ${CHECKLIST_ITEM_IDS.join(', ')}` }) }), z.boolean({ invalid_type_error: 'must be true (fine) or false (found wrong)' })).default({}),
+    /** Why a full-duration verdict differs from what the runtime against the rated duration says. */
+    verdictOverrideReason: z.string().trim().max(500, 'must be at most 500 characters').default(''),
+    /** The round it belongs to (the round's client id), when recorded on a round. */
+    roundClientId: z.string().uuid('is not a round id').nullable().default(null),
   })
   .superRefine((v, ctx) => {
     if (!v.passed && !v.faults) ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['faults'], message: 'say what failed' })

@@ -83,6 +83,11 @@ export interface AnalyseBody {
   dryRun?: boolean
   specSheetId?: string | null
   testRecordId?: string | null
+  /** The luminaire whose pack was tested: saving records (or updates) its full-duration test. */
+  luminaireId?: string | null
+  testedOn?: string
+  /** Why the runtime typed in the attached record differs from the log. */
+  runtimeNote?: string
 }
 
 export interface SavedLog {
@@ -100,6 +105,8 @@ export interface SavedLog {
   testRecordId: string | null
   specSheet: { id: string; title: string } | null
   testRecord: { id: string; testedOn: string; luminaireId: string; luminaireTag: string } | null
+  luminaireId: string | null
+  luminaire: { id: string; tag: string; siteId: string } | null
   createdAt: string
 }
 

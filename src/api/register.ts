@@ -1,17 +1,11 @@
 /** The site register and log book API. */
-import type { LuminaireDue, PackForecast, RegimeRules } from '@shared/engine/due'
+import type { DueCounts, DueItem, LuminaireDue, PackForecast, RegimeRules } from '@shared/engine/due'
 import type { LuminaireInput } from '@shared/schemas/luminaire.schema'
 import type { SiteInput, TestRegimeId } from '@shared/schemas/site.schema'
 import type { TestRecordInput } from '@shared/schemas/test-record.schema'
 import { http } from './http'
 
-export interface DueCounts {
-  luminaires: number
-  failed: number
-  overdue: number
-  dueSoon: number
-  ok: number
-}
+export type { DueCounts } from '@shared/engine/due'
 
 export interface Site {
   id: string
@@ -38,6 +32,20 @@ export interface UpcomingTest {
   daysUntilDue: number
 }
 
+/** A test due now or overdue across the workspace (retest, commissioning, routine past its day). */
+export interface AttentionItem extends UpcomingTest {
+  reason: DueItem['reason']
+  state: 'overdue' | 'due-now'
+  overdueAfter: string
+  failedOn: string | null
+  faults: string
+  remedialAction: string
+}
+
+export interface RegisterSettings {
+  repairWindowDays: number
+}
+
 export interface Luminaire {
   id: string
   siteId: string
@@ -53,6 +61,9 @@ export interface Luminaire {
   cellsInSeries: number
   capacityAh: number
   packFittedOn: string
+  walkOrder: number | null
+  circuit: string
+  rechargeH: number | null
   specSheetId: string | null
   luminaireTypeId: string | null
 }
@@ -66,6 +77,7 @@ export interface SiteStatus {
   today: string
   site: Site
   regime: { label: string; references: RegimeRules['references'] }
+  settings: RegisterSettings
   areas: Array<{ id: string; name: string }>
   counts: DueCounts
   luminaires: LuminaireStatus[]
@@ -82,6 +94,11 @@ export interface LogBookEntry {
   achievedDurationH: number | null
   faults: string
   remedialAction: string
+  dischargeLogId: string | null
+  checklist: Record<string, boolean>
+  verdictOverrideReason: string
+  runtimeNote: string
+  roundClientId: string | null
   recordedByName: string | null
   recordedAt: string
 }
@@ -100,7 +117,10 @@ export interface ImportPreview {
   newAreas: string[]
 }
 
-export const fetchOverview = (days = 60) => http.get<{ today: string; days: number; sites: SiteSummary[]; upcoming: UpcomingTest[] }>('/sites', { days })
+export const fetchOverview = (days = 60) =>
+  http.get<{ today: string; days: number; settings: RegisterSettings; sites: SiteSummary[]; attention: AttentionItem[]; upcoming: UpcomingTest[] }>('/sites', { days })
+export const fetchRegisterSettings = () => http.get<RegisterSettings>('/register/settings')
+export const updateRegisterSettings = (body: Partial<RegisterSettings>) => http.patch<RegisterSettings>('/register/settings', body)
 export const createSite = (body: SiteInput) => http.post<Site>('/sites', body)
 export const updateSite = (id: string, body: Partial<SiteInput>) => http.patch<Site>(`/sites/${id}`, body)
 export const deleteSite = (id: string) => http.del<void>(`/sites/${id}`)

@@ -1,17 +1,11 @@
+import type { ApiTokenAnswer, ApiTokenListAnswer, NewApiTokenAnswer } from '@shared/schemas/answers/accounts'
+import type { Answer } from '@shared/schemas/answers/common'
 import type { Role } from '@shared/schemas/roles'
 import { http } from './http'
 
-export interface ApiTokenInfo {
-  id: string
-  name: string
-  role: Role
-  prefix: string
-  createdAt: string
-  lastUsedAt: string | null
-  revokedAt: string | null
-}
-export const fetchTokens = () => http.get<{ tokens: ApiTokenInfo[] }>('/tokens')
-export const createToken = (name: string, role: Role) => http.post<ApiTokenInfo & { token: string }>('/tokens', { name, role })
+export type ApiTokenInfo = Answer<typeof ApiTokenAnswer>
+export const fetchTokens = () => http.get<Answer<typeof ApiTokenListAnswer>>('/tokens')
+export const createToken = (name: string, role: Role) => http.post<Answer<typeof NewApiTokenAnswer>>('/tokens', { name, role })
 export const revokeToken = (id: string) => http.del<void>(`/tokens/${id}`)
 
 /** A member's token as its workspace's owners see it (never the secret). */

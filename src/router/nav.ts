@@ -18,6 +18,7 @@ export const NAV: NavGroup[] = [
   {
     label: 'Design',
     items: [
+      { route: 'replace-pack', label: 'Replace a pack', role: 'viewer' },
       { route: 'pack-bench', label: 'Pack bench', role: 'viewer' },
       { route: 'charger-check', label: 'Charger check', role: 'viewer' },
       { route: 'retrofit-planner', label: 'Retrofit planner', role: 'viewer' },

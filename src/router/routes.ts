@@ -35,6 +35,7 @@ export const routes: RouteRecordRaw[] = [
   { path: '/luminaires/:id', name: 'luminaire', component: () => import('@/views/LuminaireView.vue'), meta: { role: 'viewer', title: 'Luminaire' } },
   { path: '/outbox', name: 'outbox', component: () => import('@/views/OutboxView.vue'), meta: { role: 'owner', title: 'Outbox' } },
   { path: '/pack-bench', name: 'pack-bench', component: () => import('@/views/PackBenchView.vue'), meta: { role: 'viewer', title: 'Pack bench' } },
+  { path: '/replace-pack', name: 'replace-pack', component: () => import('@/views/ReplacePackView.vue'), meta: { role: 'viewer', title: 'Replace a pack' } },
   { path: '/charger-check', name: 'charger-check', component: () => import('@/views/ChargerCheckView.vue'), meta: { role: 'viewer', title: 'Charger check' } },
   { path: '/charger-check/retrofit', name: 'retrofit-planner', component: () => import('@/views/RetrofitPlannerView.vue'), meta: { role: 'viewer', title: 'Retrofit planner' } },
   { path: '/route-spacing', name: 'route-spacing', component: () => import('@/views/RouteSpacingView.vue'), meta: { role: 'viewer', title: 'Spacing calculator' } },

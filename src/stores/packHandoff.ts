@@ -10,6 +10,8 @@ export interface PackHandoff {
   cellsInSeries: number
   /** Title of the sheet it came from, if any, for the banner. */
   from?: string
+  /** The sheet it came from, if saved: the charger check can be added to it. */
+  sheetId?: string
 }
 
 export const usePackHandoffStore = defineStore('packHandoff', () => {

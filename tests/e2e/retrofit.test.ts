@@ -35,6 +35,7 @@ describe('retrofit planner', () => {
       await page.locator('[data-test="value-selectedCapacityAh"]').waitFor()
       const packAh = ((await page.locator('[data-test="value-selectedCapacityAh"]').textContent()) ?? '').trim()
       await page.locator('[data-test="check-charger"]').click()
+      await page.locator('#f-chargeCurrent').fill('400 mA')
       await page.locator('[data-test="recharge-verdict"]').waitFor()
       await page.locator('[data-test="plan-retrofit"]').click()
       await page.waitForURL(/\/charger-check\/retrofit\?/)

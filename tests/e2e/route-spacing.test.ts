@@ -66,6 +66,8 @@ describe('route spacing: photometry to a specification sheet', () => {
       expect(await page.locator('[data-test="sp-maxSpacing"]').textContent()).toBe(formatDisplay('length', 'si', expected.maxSpacingM as number))
       expect(await page.locator('[data-test="sp-endSpacing"]').textContent()).toBe(formatDisplay('length', 'si', expected.maxEndSpacingM as number))
       expect(await page.locator('[data-test="sp-luminaires"]').textContent()).toBe(String(expected.luminairesNeeded))
+      expect(await page.locator('[data-test="sp-layoutSpacing"]').textContent()).toBe(formatDisplay('length', 'si', expected.layout!.spacingM as number))
+      expect(await page.locator('[data-test="sp-routeAverage"]').textContent()).toBe(formatDisplay('illuminance', 'si', expected.layout!.averageLx))
       expect(await page.locator('[data-test="diagram-luminaire"]').count()).toBe(expected.luminairesNeeded)
       await page.locator('[data-test="profile-chart"] canvas').waitFor()
       expect(await page.locator('[data-test="sp-height-table"] tbody tr').count()).toBe(9)
@@ -85,7 +87,8 @@ describe('route spacing: photometry to a specification sheet', () => {
       await page.locator('[data-test="pick-confirm"]').click()
       await page.waitForURL(/\/sheets\/[0-9a-f-]{36}$/)
       // The sheet page shows the pick: the count in its luminaire description.
-      await expect.poll(() => page.locator('#main').textContent()).toContain(`${expected.luminairesNeeded} luminaires at up to`)
+      await expect.poll(() => page.locator('#main').textContent()).toContain(`${expected.luminairesNeeded} luminaires evenly spaced`)
+      expect(await page.locator('#main').textContent()).toContain('emergency output factor 0.5 (taken from the type)')
       expect(await page.locator('#main').textContent()).toContain(`Picked ${typeName}`)
       await screenshot(page, 'route-spacing-sheet')
     } finally {
@@ -126,6 +129,42 @@ describe('route spacing: photometry to a specification sheet', () => {
       await page.locator('[data-test="selector-table"] tbody tr').first().waitFor()
       expect(await page.locator('[data-test="sel-pick"]').count()).toBe(0)
       await screenshot(page, 'route-spacing-selector-375')
+    } finally {
+      await b.close()
+    }
+  })
+
+  it('NFPA 101 in US units: a 100 ft route at 10 ft shows feet, foot-candles and the average beside the minimum', async () => {
+    const b = await newBrowser()
+    try {
+      const { page } = b
+      await signInThroughForm(page, app.url, team.users.viewer.email, TEST_PASSWORD)
+      const set = await page.evaluate(async () => {
+        const csrf = ((await (await fetch('/api/auth/csrf')).json()) as { csrfToken: string }).csrfToken
+        return (await fetch('/api/auth/me', { method: 'PATCH', headers: { 'Content-Type': 'application/json', 'X-CSRF-Token': csrf }, body: JSON.stringify({ units: 'us' }) })).status
+      })
+      expect(set).toBe(200)
+      await page.goto(`${app.url}/route-spacing`)
+      await expect.poll(() => page.locator('[data-test="sp-source"]').textContent(), { timeout: 30_000 }).toContain(typeName)
+      await chooseOption(page, '[data-test="sp-criteria"]', 'NFPA 101')
+      expect(await page.locator('label[for="sp-length"]').textContent()).toContain('(ft)')
+      await page.locator('#sp-length').fill('100')
+      await page.locator('#sp-height').fill('10')
+      await page.locator('#sp-height').blur()
+      await page.locator('[data-test="sp-calculate"]').click()
+      await page.locator('[data-test="sp-routeAverage"]').waitFor()
+      // The engine's answer for the same route in SI: 100 ft = 30.48 m, 10 ft = 3.048 m, the 2 m default width.
+      const expected = computeSpacing(spacingInput.parse({ photometry: lm63, mountingHeight: 3.048, emergencyOutputFactor: 0.5, maintenanceFactor: 0.8, criteria: 'nfpa101', routeWidth: 2, routeLength: 30.48, endOfDurationFactor: 1 }))
+      const layout = expected.layout!
+      expect(await page.locator('[data-test="sp-luminaires"]').textContent()).toBe(String(layout.count))
+      expect(await page.locator('[data-test="sp-layoutSpacing"]').textContent()).toBe(formatDisplay('length', 'us', layout.spacingM as number))
+      expect(await page.locator('[data-test="sp-layoutSpacing"]').textContent()).toMatch(/ ft$/)
+      expect(await page.locator('[data-test="sp-routeAverage"]').textContent()).toBe(formatDisplay('illuminance', 'us', layout.averageLx))
+      expect(await page.locator('[data-test="sp-routeAverage"]').textContent()).toMatch(/ fc$/)
+      expect(await page.locator('[data-test="sp-routeMin"]').textContent()).toBe(formatDisplay('illuminance', 'us', layout.minLx))
+      expect(await page.locator('[data-test="sp-endAverage"]').textContent()).toMatch(/ fc$/)
+      expect(await page.locator('[data-test="sp-requiredAverage"]').textContent()).toBe(formatDisplay('illuminance', 'us', 10.8))
+      await screenshot(page, 'route-spacing-nfpa-us')
     } finally {
       await b.close()
     }

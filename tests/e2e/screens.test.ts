@@ -70,7 +70,7 @@ describe('main screens', () => {
             ? await firstId(b.page, `/api/sites/${siteId}`, (body) => (body.luminaires as Array<{ id: string }> | undefined)?.[0]?.id)
             : undefined
           const screens = [
-            '/home', '/pack-bench', '/charger-check', '/charger-check/retrofit', '/claim-check', '/sheets', sheetId ? `/sheets/${sheetId}` : null,
+            '/home', '/replace-pack', '/pack-bench', '/charger-check', '/charger-check/retrofit', '/claim-check', '/sheets', sheetId ? `/sheets/${sheetId}` : null,
             '/sites', siteId ? `/sites/${siteId}` : null, siteId ? `/sites/${siteId}/round` : null, '/rounds', '/team', '/account', '/glossary', '/cautions', '/api-docs',
             luminaireId ? `/luminaires/${luminaireId}` : null,
             '/discharge', '/discharge/new', logId ? `/discharge/${logId}` : null, otherLogId ? `/discharge/compare?a=${logId}&b=${otherLogId}` : null,

@@ -102,6 +102,7 @@ export async function savedLogIn(team: TestTeam, log: LineLog = PASSING, extra: 
     acceptBadRows: false,
     dryRun: false,
     specSheetId: extra.specSheetId ?? null,
+    runtimeNote: '',
   })
   if (!out.saved) throw new Error('not saved')
   return out

@@ -268,10 +268,16 @@ describe('choosing a type for a route', () => {
 
     const s = results.find((r) => r.id === short.id)!
     expect(s.meets).toBe(false)
-    expect(s.reasons.join(' ')).toMatch(/rated duration 1 h is shorter than the 3 h/)
+    expect(s.reasons.join(' ')).toMatch(/rated for 1 h, shorter than the 3 h/)
+    // Meets the light, not the duration: said up front, with the layout it would have.
+    expect(s.verdict).toBe('pack')
+    expect(s.summary).toMatch(/^Meets the light with \d+ luminaires .* but not the duration: rated for 1 h/)
+    expect(g.verdict).toBe('meets')
+    expect(g.layout).toEqual(spacing.layout)
     const d = results.find((r) => r.id === dark.id)!
     expect(d.meets).toBe(false)
     expect(d.reasons).toContain('has no photometric file')
+    expect(d.verdict).toBe('light')
     // Types that meet the route come first.
     expect(results.findIndex((r) => r.id === good.id)).toBeLessThan(results.findIndex((r) => r.id === dark.id))
   })
@@ -307,6 +313,9 @@ describe('choosing a type for a route', () => {
     expect(sheet.inputs).toMatchObject({ chemistry: 'nicd', cellsInSeries: 4, duration: '3 h', load: { power: '1.6 W', mainsPower: '1.2 W' } })
     expect(sheet.luminaire).toContain(`${res.body.selection.luminairesNeeded} luminaires`)
     expect(sheet.luminaire).toContain(t.name)
+    // The sheet says where the output factor came from.
+    expect(sheet.luminaire).toContain('emergency output factor 0.5 (taken from the type)')
+    expect(sheet.luminaire).toMatch(/luminaires evenly spaced [\d.]+ m apart, [\d.]+ m from each end; over the route minimum [\d.]+ lx, average [\d.]+ lx/)
     expect(sheet.results.selectedCapacityAh).toBe(res.body.selection.pack.selectedCapacityAh)
     const read = await viewer.get(`/api/sheets/${sheet.id}`)
     expect(read.status).toBe(200)
@@ -316,6 +325,10 @@ describe('choosing a type for a route', () => {
     expect(again.body.sheet.id).toBe(sheet.id)
     expect(again.body.sheet.currentRevision).toBe(2)
     expect(again.body.sheet.luminaire).toContain('60 m long')
+    const typed = await designer.post('/api/route-spacing/pick', { typeId: t.id, route: { ...ROUTE_EXAMPLE, emergencyOutputFactor: 0.7 } })
+    expect(typed.status, JSON.stringify(typed.body)).toBe(201)
+    expect(typed.body.sheet.luminaire).toContain("emergency output factor 0.7 (typed by the designer over the type's 0.5)")
+    expect(typed.body.selection.emergencyOutputFactor).toEqual({ value: 0.7, from: 'typed', typeValue: 0.5 })
     // A stale version is refused like any sheet save.
     const stale = await designer.post('/api/route-spacing/pick', { typeId: t.id, route: ROUTE_EXAMPLE, sheetId: sheet.id, version: sheet.version })
     expect(stale.status).toBe(409)

@@ -359,6 +359,21 @@ describe('the PDF', () => {
     expect(text).toContain('IEC 60598-2-22, Annex A')
   })
 
+  it('shows the pack to order (voltage, format) and the charger check when the sheet carries the charger', async () => {
+    const inputs = { chemistry: 'nicd-ht', cellsInSeries: 4, capacity: '1.6 Ah', cellFormat: 'sub-C', duration: '3 h', mode: 'non-maintained', dischargeCurrent: '0.4 A', charger: { type: 'nickel-constant-current', chargeCurrent: '120 mA' } }
+    const sheet = await createSheet(designer, { title: 'Pack and charger sheet', inputs })
+    expect(sheet.results.chargerCheck.compatible).toBe('yes')
+    const res = await viewer.get(`/api/sheets/${sheet.id}/pdf`).buffer(true).parse(binary)
+    const text = pdfText(res.body as Buffer).replace(/\s+/g, ' ')
+    expect(text).toContain('Pack to order')
+    expect(text).toContain('Nominal pack voltage: 4.8 V')
+    expect(text).toContain('Cell format: sub-C')
+    expect(text).toContain('Charger check')
+    expect(text).toContain('Charger: Nickel charger (constant current, left on)')
+    expect(text).toContain('Recharge after a full test')
+    expect(text).not.toContain('nickel-constant-current')
+  })
+
   it('is served for a shared link without sign-in', async () => {
     const sheet = await createSheet(designer, { title: 'Public PDF sheet' })
     await designer.post(`/api/sheets/${sheet.id}/issue`, { version: 1 })

@@ -3,6 +3,7 @@ import type { Request, RequestHandler } from 'express'
 import { ipKeyGenerator, rateLimit } from 'express-rate-limit'
 import { PostgresHitStore } from '../../lib/rate-limit-store'
 import passport from 'passport'
+import { z } from 'zod'
 import {
   ChangePasswordSchema,
   ConfirmEmailSchema,
@@ -20,6 +21,8 @@ import { changePassword, confirmEmail, mailConfirmationLink, requestPasswordRese
 import { afterAnswer } from '../../lib/after-answer'
 import { perAddress, perEmail, type Limits } from '../../lib/limits'
 import { ensureCsrfToken, meResponse } from './me.service'
+import { CsrfAnswer, MeAnswer } from '../../../shared/schemas/answers/accounts'
+import { MessageSchema } from '../../../shared/schemas/answers/common'
 
 function login(req: Request, user: User): Promise<void> {
   // passport ≥ 0.6 regenerates the session id on login (no fixation).
@@ -66,7 +69,7 @@ export function authRoutes(opts: { signInWindowMs: number; limits: Limits }): Ro
   const linkLimit = perAddress('link', L.linkPerAddress, 'Too many link attempts from your network.')
   return [
     defineRoute({
-      method: 'post', path: '/api/auth/sign-up', access: 'public', summary: 'Create an account (and a workspace, or accept an invitation)',
+      method: 'post', path: '/api/auth/sign-up', response: z.union([MeAnswer, MessageSchema]), access: 'public', summary: 'Create an account (and a workspace, or accept an invitation)',
       before: [perAddress('sign-up', L.signUpPerAddress, 'Too many sign-ups from your network.'), perEmail('sign-up-email', L.signUpPerEmail, 'Too many sign-ups for this e-mail address.')],
       body: SignUpSchema,
       handler: async ({ body }, req, res) => {
@@ -83,7 +86,7 @@ export function authRoutes(opts: { signInWindowMs: number; limits: Limits }): Ro
       },
     }),
     defineRoute({
-      method: 'post', path: '/api/auth/confirm-email', access: 'public', summary: 'Confirm an e-mail address with the link from the mail',
+      method: 'post', path: '/api/auth/confirm-email', response: MessageSchema, access: 'public', summary: 'Confirm an e-mail address with the link from the mail',
       before: [linkLimit], body: ConfirmEmailSchema,
       handler: async ({ body }) => {
         await confirmEmail(body.token)
@@ -91,7 +94,7 @@ export function authRoutes(opts: { signInWindowMs: number; limits: Limits }): Ro
       },
     }),
     defineRoute({
-      method: 'post', path: '/api/auth/sign-in', access: 'public', summary: 'Sign in with e-mail and password',
+      method: 'post', path: '/api/auth/sign-in', response: MeAnswer, access: 'public', summary: 'Sign in with e-mail and password',
       // The limiter counts failed attempts, including bodies that fail the schema.
       before: [signInLimiter(opts.signInWindowMs)], body: SignInSchema,
       handler: (_input, req, res, next) => {
@@ -127,7 +130,7 @@ export function authRoutes(opts: { signInWindowMs: number; limits: Limits }): Ro
       },
     }),
     defineRoute({
-      method: 'get', path: '/api/auth/me', access: 'signed-in', summary: 'The user, the current workspace and role',
+      method: 'get', path: '/api/auth/me', response: MeAnswer, access: 'signed-in', summary: 'The user, the current workspace and role',
       // A token sees itself: its user, its one workspace and its role.
       tokens: true,
       handler: (_input, req) => {
@@ -136,7 +139,7 @@ export function authRoutes(opts: { signInWindowMs: number; limits: Limits }): Ro
       },
     }),
     defineRoute({
-      method: 'patch', path: '/api/auth/me', access: 'signed-in', summary: 'Change name or unit preference',
+      method: 'patch', path: '/api/auth/me', response: MeAnswer, access: 'signed-in', summary: 'Change name or unit preference',
       body: UpdateProfileSchema,
       handler: async ({ body }, req) => {
         const user = req.user as User
@@ -147,7 +150,7 @@ export function authRoutes(opts: { signInWindowMs: number; limits: Limits }): Ro
       },
     }),
     defineRoute({
-      method: 'post', path: '/api/auth/password', access: 'signed-in', summary: 'Change my password (ends my other sessions)',
+      method: 'post', path: '/api/auth/password', response: MessageSchema, access: 'signed-in', summary: 'Change my password (ends my other sessions)',
       body: ChangePasswordSchema,
       handler: async ({ body }, req) => {
         await changePassword((req.user as User).id, body.currentPassword, body.newPassword, req.sessionID)
@@ -157,11 +160,11 @@ export function authRoutes(opts: { signInWindowMs: number; limits: Limits }): Ro
       },
     }),
     defineRoute({
-      method: 'get', path: '/api/auth/csrf', access: 'public', summary: 'A CSRF token for the X-CSRF-Token header',
+      method: 'get', path: '/api/auth/csrf', response: CsrfAnswer, access: 'public', summary: 'A CSRF token for the X-CSRF-Token header',
       handler: (_input, req) => ({ csrfToken: ensureCsrfToken(req) }),
     }),
     defineRoute({
-      method: 'post', path: '/api/auth/forgot-password', access: 'public', summary: 'E-mail a single-use password reset link',
+      method: 'post', path: '/api/auth/forgot-password', response: MessageSchema, access: 'public', summary: 'E-mail a single-use password reset link',
       before: [perAddress('forgot', L.forgotPerAddress, 'Too many reset requests from your network.'), perEmail('forgot-email', L.forgotPerEmail, 'Too many reset requests for this e-mail address.')],
       body: ForgotPasswordSchema, status: 202,
       handler: async ({ body }) => {
@@ -171,7 +174,7 @@ export function authRoutes(opts: { signInWindowMs: number; limits: Limits }): Ro
       },
     }),
     defineRoute({
-      method: 'post', path: '/api/auth/reset-password', access: 'public', summary: 'Set a new password with a reset token',
+      method: 'post', path: '/api/auth/reset-password', response: MessageSchema, access: 'public', summary: 'Set a new password with a reset token',
       before: [linkLimit],
       body: ResetPasswordSchema,
       handler: async ({ body }) => {

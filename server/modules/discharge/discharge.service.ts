@@ -15,6 +15,7 @@ import { splitLine } from '../../../shared/engine/discharge-log'
 import { lttbIndices } from '../../../shared/engine/lttb'
 import { ENGINE_VERSION } from '../../../shared/engine/version'
 import { CURVE_POINTS, engineOptions, type ColumnMapping, type DischargeAnalyse, type DischargeListQuery } from '../../../shared/schemas/discharge-log.schema'
+import { runtimeMismatch } from '../../../shared/schemas/test-record.schema'
 import { config } from '../../config'
 import { dataSource } from '../../data-source'
 import { AppError, BadRequestError, NotFoundError } from '../../errors/app-error'
@@ -213,6 +214,7 @@ async function checkLinks(m: EntityManager, workspaceId: string, v: { specSheetI
 interface Links {
   specSheet: { id: string; title: string } | null
   testRecord: { id: string; testedOn: string; luminaireId: string; luminaireTag: string } | null
+  luminaire: { id: string; tag: string; siteId: string } | null
 }
 
 async function linksOf(rows: DischargeLog[], m: EntityManager = dataSource.manager): Promise<Map<string, Links>> {
@@ -228,7 +230,21 @@ async function linksOf(rows: DischargeLog[], m: EntityManager = dataSource.manag
     )
     for (const t of found) tests.set(t.id, { id: t.id, testedOn: t.tested_on, luminaireId: t.luminaire_id, luminaireTag: t.tag })
   }
-  return new Map(rows.map((r) => [r.id, { specSheet: r.specSheetId ? (sheets.get(r.specSheetId) ?? null) : null, testRecord: r.testRecordId ? (tests.get(r.testRecordId) ?? null) : null }]))
+  const luminaireIds = [...new Set(rows.map((r) => r.luminaireId).filter((x): x is string => !!x))]
+  const luminaires = new Map<string, { id: string; tag: string; siteId: string }>()
+  if (luminaireIds.length) {
+    for (const l of (await m.query('SELECT id, tag, site_id AS "siteId" FROM luminaires WHERE id = ANY($1::uuid[])', [luminaireIds])) as Array<{ id: string; tag: string; siteId: string }>) luminaires.set(l.id, l)
+  }
+  return new Map(
+    rows.map((r) => [
+      r.id,
+      {
+        specSheet: r.specSheetId ? (sheets.get(r.specSheetId) ?? null) : null,
+        testRecord: r.testRecordId ? (tests.get(r.testRecordId) ?? null) : null,
+        luminaire: r.luminaireId ? (luminaires.get(r.luminaireId) ?? null) : null,
+      },
+    ]),
+  )
 }
 
 async function names(ids: Array<string | null>, m: EntityManager = dataSource.manager): Promise<Map<string, string>> {
@@ -254,8 +270,10 @@ function dto(log: DischargeLog, people: Map<string, string>, links: Links | unde
     author: log.createdBy ? { id: log.createdBy, name: people.get(log.createdBy) ?? 'former member' } : null,
     specSheetId: log.specSheetId,
     testRecordId: log.testRecordId,
+    luminaireId: log.luminaireId,
     specSheet: links?.specSheet ?? null,
     testRecord: links?.testRecord ?? null,
+    luminaire: links?.luminaire ?? null,
     createdAt: log.createdAt,
   }
 }
@@ -269,6 +287,71 @@ async function findLog(workspaceId: string, id: string, m: EntityManager = dataS
   const log = await logs(m).findOne({ where: { id, workspaceId } })
   if (!log) throw new NotFoundError('That discharge log')
   return log
+}
+
+// ---------------------------------------------------------------------------------------------
+// The log and the log book agree
+
+interface RecordTarget {
+  luminaireId: string
+  ratedDurationH: number
+  /** The record the log is attached to, or null to make one. */
+  record: { id: string; achievedH: number | null; faults: string } | null
+  mismatch: string | null
+}
+
+const hoursText = (h: number) => String(Number(h.toFixed(2)))
+
+/** Which luminaire and record a log being saved belongs to; refuses a mismatched runtime without a reason. */
+async function recordTarget(m: EntityManager, workspaceId: string, body: DischargeAnalyse, r: DischargeResult): Promise<RecordTarget | null> {
+  let luminaireId = body.luminaireId ?? null
+  let record: RecordTarget['record'] = null
+  if (body.testRecordId) {
+    const rows: Array<{ id: string; luminaire_id: string; achieved_duration_h: number | null; faults: string }> = await m.query(
+      'SELECT id, luminaire_id, achieved_duration_h, faults FROM test_records WHERE id = $1 AND workspace_id = $2',
+      [body.testRecordId, workspaceId],
+    )
+    const row = rows[0]
+    if (luminaireId && row.luminaire_id !== luminaireId) throw new BadRequestError('The log and the test record name different luminaires.', [{ path: 'luminaireId', message: 'is not the luminaire of that test record' }])
+    luminaireId = row.luminaire_id
+    record = { id: row.id, achievedH: row.achieved_duration_h, faults: row.faults }
+  }
+  if (!luminaireId) return null
+  const found: Array<{ rated_duration_h: number }> = await m.query('SELECT rated_duration_h FROM luminaires WHERE id = $1 AND workspace_id = $2', [luminaireId, workspaceId])
+  if (!found.length) throw new BadRequestError('The luminaire was not found in this workspace.', [{ path: 'luminaireId', message: 'is not a luminaire of this workspace' }])
+  if (r.pass === null) {
+    throw new BadRequestError('The log stops before both the rated duration and the cut-off, so it cannot decide a full-duration test.', [
+      { path: record ? 'testRecordId' : 'luminaireId', message: 'the log is too short to record a pass or fail; save it without a luminaire or log the whole test' },
+    ])
+  }
+  const mismatch = record ? runtimeMismatch(record.achievedH, r.runtimeH) : null
+  if (mismatch && !body.runtimeNote) throw new BadRequestError(`The runtime typed in the test record and the log disagree: ${mismatch}.`, [{ path: 'runtimeNote', message: mismatch }])
+  return { luminaireId, ratedDurationH: found[0].rated_duration_h, record, mismatch }
+}
+
+/** Records the full-duration test from the log (runtime, verdict, day), or updates the attached record; returns its id. */
+async function recordFromLog(m: EntityManager, workspaceId: string, userId: string, logId: string, target: RecordTarget, r: DischargeResult, body: DischargeAnalyse): Promise<string> {
+  const passed = r.pass === true
+  const shortfall = `Stayed lit ${hoursText(r.runtimeH)} h of the rated ${hoursText(target.ratedDurationH)} h (discharge log)`
+  if (target.record) {
+    const note = target.mismatch ? `Typed ${hoursText(target.record.achievedH ?? 0)} h, the log ${hoursText(r.runtimeH)} h: ${body.runtimeNote}` : ''
+    const faults = !passed && !target.record.faults ? shortfall : target.record.faults
+    await m.query(
+      `UPDATE test_records SET discharge_log_id = $1, achieved_duration_h = $2, passed = $3, faults = $4, runtime_note = CASE WHEN $5 = '' THEN runtime_note ELSE $5 END, updated_at = now()
+        WHERE id = $6 AND workspace_id = $7`,
+      [logId, r.runtimeH, passed, faults, note, target.record.id, workspaceId],
+    )
+    await recordAudit({ workspaceId, actorId: userId, action: 'test.updated', entityType: 'test', entityId: target.record.id, data: { fromDischargeLog: logId, achievedDurationH: r.runtimeH, passed, runtimeNote: note } }, m)
+    return target.record.id
+  }
+  const testedOn = body.testedOn ?? new Date().toISOString().slice(0, 10)
+  const rows: Array<{ id: string }> = await m.query(
+    `INSERT INTO test_records (workspace_id, luminaire_id, client_id, kind, tested_on, passed, achieved_duration_h, faults, discharge_log_id, recorded_by)
+     VALUES ($1, $2, gen_random_uuid(), 'duration', $3, $4, $5, $6, $7, $8) RETURNING id`,
+    [workspaceId, target.luminaireId, testedOn, passed, r.runtimeH, passed ? '' : shortfall, logId, userId],
+  )
+  await recordAudit({ workspaceId, actorId: userId, action: 'test.recorded', entityType: 'test', entityId: rows[0].id, data: { luminaireId: target.luminaireId, kind: 'duration', testedOn, passed, achievedDurationH: r.runtimeH, fromDischargeLog: logId } }, m)
+  return rows[0].id
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -299,6 +382,7 @@ export async function analyseAndMaybeSave(workspaceId: string, userId: string, b
 
   const saved = await dataSource.transaction(async (m) => {
     await checkLinks(m, workspaceId, body)
+    const target = await recordTarget(m, workspaceId, body, analysis.result)
     let fileId = storedFileId
     if (staged) {
       const bytes = await fs.promises.readFile(staged.file)
@@ -324,10 +408,12 @@ export async function analyseAndMaybeSave(workspaceId: string, userId: string, b
         createdBy: userId,
         specSheetId: body.specSheetId ?? null,
         testRecordId: body.testRecordId ?? null,
+        luminaireId: target?.luminaireId ?? null,
       }),
     )
-    if (log.testRecordId) {
-      await m.query('UPDATE test_records SET discharge_log_id = $1, updated_at = now() WHERE id = $2 AND workspace_id = $3', [log.id, log.testRecordId, workspaceId])
+    if (target) {
+      log.testRecordId = await recordFromLog(m, workspaceId, userId, log.id, target, analysis.result, body)
+      await logs(m).update({ id: log.id }, { testRecordId: log.testRecordId })
     }
     const r = analysis.result
     await recordAudit(
@@ -337,7 +423,7 @@ export async function analyseAndMaybeSave(workspaceId: string, userId: string, b
         action: 'discharge-log.saved',
         entityType: 'discharge_log',
         entityId: log.id,
-        data: { title: log.title, fileId, runtimeH: r.runtimeH, pass: r.pass, deliveredAh: r.deliveredAh, badRows: analysis.read.badRows.count, specSheetId: log.specSheetId, testRecordId: log.testRecordId },
+        data: { title: log.title, fileId, runtimeH: r.runtimeH, pass: r.pass, deliveredAh: r.deliveredAh, badRows: analysis.read.badRows.count, specSheetId: log.specSheetId, testRecordId: log.testRecordId, luminaireId: log.luminaireId },
       },
       m,
     )
@@ -355,7 +441,7 @@ export async function listLogs(workspaceId: string, q: DischargeListQuery) {
   const qb = logs().createQueryBuilder('d').where('d.workspace_id = :workspaceId', { workspaceId })
   if (q.sheetId) qb.andWhere('d.spec_sheet_id = :sheetId', { sheetId: q.sheetId })
   if (q.testRecordId) qb.andWhere('d.test_record_id = :testRecordId', { testRecordId: q.testRecordId })
-  if (q.luminaireId) qb.andWhere('d.test_record_id IN (SELECT id FROM test_records WHERE luminaire_id = :luminaireId AND workspace_id = :workspaceId)', { luminaireId: q.luminaireId })
+  if (q.luminaireId) qb.andWhere('d.luminaire_id = :luminaireId', { luminaireId: q.luminaireId })
   qb.orderBy('d.created_at', 'DESC').addOrderBy('d.id', 'ASC').take(q.limit)
   const [rows, total] = await qb.getManyAndCount()
   const people = await names(rows.map((r) => r.createdBy))

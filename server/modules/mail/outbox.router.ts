@@ -9,6 +9,7 @@ import { NotFoundError } from '../../errors/app-error'
 import { defineRoute, scope, type RouteSpec } from '../../policy/access'
 import type { User } from '../users/user.entity'
 import { readCaughtMail, visibleMail } from './mail-catcher'
+import { OutboxAnswer } from '../../../shared/schemas/answers/accounts'
 
 function outbox(req: Request) {
   if (config().mail.smtpUrl) throw new NotFoundError('The outbox (mail goes to a real server)')
@@ -19,5 +20,5 @@ function outbox(req: Request) {
 }
 
 export const outboxRoutes: RouteSpec[] = [
-  defineRoute({ method: 'get', path: '/api/outbox', access: 'owner', summary: 'Mail caught by the local SMTP catcher', handler: (_input, req) => outbox(req) }),
+  defineRoute({ method: 'get', path: '/api/outbox', response: OutboxAnswer, access: 'owner', summary: 'Mail caught by the local SMTP catcher', handler: (_input, req) => outbox(req) }),
 ]

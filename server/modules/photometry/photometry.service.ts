@@ -256,6 +256,8 @@ const routeNeed = (r: RouteNeedInput): RouteNeed => ({
   ratedDurationS: r.ratedDuration,
   maintenanceFactor: r.maintenanceFactor,
   ...(r.normalIlluminance !== undefined ? { normalIlluminanceLx: r.normalIlluminance } : {}),
+  ...(r.emergencyOutputFactor !== undefined ? { emergencyOutputFactor: r.emergencyOutputFactor } : {}),
+  ...(r.endOfDurationFactor !== undefined ? { endOfDurationFactor: r.endOfDurationFactor } : {}),
 })
 
 async function candidatesOf(workspaceId: string, rows: LuminaireType[]): Promise<TypeCandidate[]> {
@@ -298,9 +300,12 @@ export async function pickIntoSheet(workspaceId: string, userId: string, input: 
   }
   const fileName = t.photometricFileId ? (await fileNamesOf(workspaceId, [t.photometricFileId])).get(t.photometricFileId) : undefined
   const description = [
-    `${t.name} (${t.modes.join(' / ')}, rated ${hoursText(t.ratedDurationS)}), emergency output factor ${t.emergencyOutputFactor}.`,
+    `${t.name} (${t.modes.join(' / ')}, rated ${hoursText(t.ratedDurationS)}), emergency output factor ${a.emergencyOutputFactor.value} (${a.emergencyOutputFactor.from === 'type' ? 'taken from the type' : `typed by the designer over the type's ${a.emergencyOutputFactor.typeValue}`}).`,
     `Route ${fig(need.routeLengthM, 'm')} long, ${fig(need.routeWidthM, 'm')} wide, mounted at ${fig(need.mountingHeightM, 'm')}; ${CRITERIA_LABELS[need.criteria]}, maintenance factor ${need.maintenanceFactor}.`,
-    `${a.luminairesNeeded} luminaires at up to ${fig(a.maxSpacingM, 'm')} spacing, at most ${fig(a.maxEndSpacingM, 'm')} from each end; minimum ${fig(a.minIlluminanceLx, 'lx')}, max:min ${fig(a.uniformityRatio, '')}.`.replace(' .', '.'),
+    a.layout
+      ? `${a.layout.count} luminaires evenly spaced ${fig(a.layout.spacingM, 'm')} apart, ${fig(a.layout.endDistanceM, 'm')} from each end; over the route minimum ${fig(a.layout.minLx, 'lx')}, average ${fig(a.layout.averageLx, 'lx')}, max:min ${fig(a.layout.maxToMin, '')}.`.replace(' .', '.')
+      : '',
+    a.layout?.endOfDuration ? `At the end of the rated duration (output × ${a.layout.endOfDuration.factor}): minimum ${fig(a.layout.endOfDuration.minLx, 'lx')}, average ${fig(a.layout.endOfDuration.averageLx, 'lx')}.` : '',
     `Standby power of the row ${fig(a.totalStandbyPowerW, 'W')}.`,
     fileName ? `Photometry: ${fileName}.` : '',
   ]

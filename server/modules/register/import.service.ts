@@ -3,7 +3,7 @@
  * reason), then an all-or-nothing commit in one transaction. Rows are numbered as a spreadsheet
  * shows them: the header is row 1, the first luminaire row 2.
  */
-import { parse as parseCsv } from 'csv-parse/sync'
+import Papa from 'papaparse'
 import { IMPORT_COLUMNS, ImportRowSchema, REQUIRED_IMPORT_COLUMNS, type ImportRow } from '../../../shared/schemas/luminaire.schema'
 import { dataSource } from '../../data-source'
 import { AppError } from '../../errors/app-error'
@@ -40,13 +40,14 @@ function normaliseHeader(h: string): string {
 
 export async function previewImport(workspaceId: string, siteId: string, csv: string): Promise<ImportPreview> {
   await findSite(workspaceId, siteId)
-  let records: string[][]
-  try {
-    records = parseCsv(csv, { bom: true, relax_column_count: true, skip_empty_lines: true, trim: true })
-  } catch (err) {
-    const e = err as { message?: string; lines?: number }
-    return { columns: [], rows: [], errors: [{ row: e.lines ?? 1, column: '(file)', reason: `the file is not valid CSV: ${e.message ?? 'parse error'}` }], validRows: 0, newAreas: [] }
+  // Rows may have fewer or more cells than the header (they are checked cell by cell below); a
+  // quote left open is the file's fault, and the whole file is refused naming the row.
+  const parsed = Papa.parse<string[]>(csv, { delimiter: ',', skipEmptyLines: true, transform: (v) => v.trim() })
+  const broken = parsed.errors.find((e) => e.type !== 'FieldMismatch')
+  if (broken) {
+    return { columns: [], rows: [], errors: [{ row: (broken.row ?? 0) + 1, column: '(file)', reason: `the file is not valid CSV: ${broken.message}` }], validRows: 0, newAreas: [] }
   }
+  const records = parsed.data
   const errors: ImportIssue[] = []
   if (records.length === 0) return { columns: [], rows: [], errors: [{ row: 1, column: '(file)', reason: 'the file is empty' }], validRows: 0, newAreas: [] }
 

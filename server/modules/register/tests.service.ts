@@ -3,9 +3,9 @@
  * client-made UUID; the server upserts on (workspace, clientId), so a retried send never adds a row.
  */
 import type { EntityManager } from 'typeorm'
-import type { TestRecordData } from '../../../shared/schemas/test-record.schema'
+import { durationVerdict, runtimeMismatch, type TestRecordData } from '../../../shared/schemas/test-record.schema'
 import { dataSource } from '../../data-source'
-import { ConflictError, NotFoundError } from '../../errors/app-error'
+import { BadRequestError, ConflictError, NotFoundError } from '../../errors/app-error'
 import { recordAudit } from '../audit/audit.service'
 import { findLuminaire, findSite } from './register.service'
 
@@ -24,6 +24,10 @@ export interface LogBookEntry {
   faults: string
   remedialAction: string
   dischargeLogId: string | null
+  checklist: Record<string, boolean>
+  verdictOverrideReason: string
+  runtimeNote: string
+  roundClientId: string | null
   recordedBy: string | null
   recordedByName: string | null
   recordedAt: string
@@ -32,17 +36,23 @@ export interface LogBookEntry {
 async function upsertOne(m: EntityManager, workspaceId: string, actorId: string, r: TestRecordData): Promise<{ id: string; outcome: SaveOutcome }> {
   // Insert, or update the same client record when something in it changed; an identical retry touches nothing.
   const rows: Array<{ id: string; inserted: boolean }> = await m.query(
-    `INSERT INTO test_records (workspace_id, luminaire_id, client_id, kind, tested_on, passed, achieved_duration_h, faults, remedial_action, discharge_log_id, recorded_by)
-     VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11)
+    `INSERT INTO test_records (workspace_id, luminaire_id, client_id, kind, tested_on, passed, achieved_duration_h, faults, remedial_action, discharge_log_id, recorded_by,
+       checklist, verdict_override_reason, runtime_note, round_client_id)
+     VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12, $13, $14, $15)
      ON CONFLICT (workspace_id, client_id) DO UPDATE SET
        kind = EXCLUDED.kind, tested_on = EXCLUDED.tested_on, passed = EXCLUDED.passed,
        achieved_duration_h = EXCLUDED.achieved_duration_h, faults = EXCLUDED.faults,
-       remedial_action = EXCLUDED.remedial_action, discharge_log_id = EXCLUDED.discharge_log_id, updated_at = now()
+       remedial_action = EXCLUDED.remedial_action, discharge_log_id = EXCLUDED.discharge_log_id,
+       checklist = EXCLUDED.checklist, verdict_override_reason = EXCLUDED.verdict_override_reason, runtime_note = EXCLUDED.runtime_note,
+       round_client_id = EXCLUDED.round_client_id, updated_at = now()
      WHERE test_records.luminaire_id = EXCLUDED.luminaire_id
-       AND (test_records.kind, test_records.tested_on, test_records.passed, test_records.achieved_duration_h, test_records.faults, test_records.remedial_action, test_records.discharge_log_id)
-           IS DISTINCT FROM (EXCLUDED.kind, EXCLUDED.tested_on, EXCLUDED.passed, EXCLUDED.achieved_duration_h, EXCLUDED.faults, EXCLUDED.remedial_action, EXCLUDED.discharge_log_id)
+       AND (test_records.kind, test_records.tested_on, test_records.passed, test_records.achieved_duration_h, test_records.faults, test_records.remedial_action, test_records.discharge_log_id,
+            test_records.checklist, test_records.verdict_override_reason, test_records.runtime_note, test_records.round_client_id)
+           IS DISTINCT FROM (EXCLUDED.kind, EXCLUDED.tested_on, EXCLUDED.passed, EXCLUDED.achieved_duration_h, EXCLUDED.faults, EXCLUDED.remedial_action, EXCLUDED.discharge_log_id,
+            EXCLUDED.checklist, EXCLUDED.verdict_override_reason, EXCLUDED.runtime_note, EXCLUDED.round_client_id)
      RETURNING id, (xmax = 0) AS inserted`,
-    [workspaceId, r.luminaireId, r.clientId, r.kind, r.testedOn, r.passed, r.achievedDurationH, r.faults, r.remedialAction, r.dischargeLogId, actorId],
+    [workspaceId, r.luminaireId, r.clientId, r.kind, r.testedOn, r.passed, r.achievedDurationH, r.faults, r.remedialAction, r.dischargeLogId, actorId,
+      JSON.stringify(r.checklist), r.verdictOverrideReason, r.runtimeNote, r.roundClientId],
   )
   const data = { luminaireId: r.luminaireId, kind: r.kind, testedOn: r.testedOn, passed: r.passed, achievedDurationH: r.achievedDurationH, faults: r.faults, remedialAction: r.remedialAction }
   if (rows.length) {
@@ -57,12 +67,46 @@ async function upsertOne(m: EntityManager, workspaceId: string, actorId: string,
   return { id: existing[0].id, outcome: 'unchanged' }
 }
 
+/**
+ * The rules a record must meet before it is saved: a full-duration verdict follows from the runtime
+ * against the rated duration unless a reason is given, and a typed runtime agrees with its discharge
+ * log within a few minutes unless a reason is given. Every broken rule is listed by field.
+ */
+async function checkAgainstRules(m: EntityManager, workspaceId: string, records: TestRecordData[], ratedById: Map<string, number>) {
+  const logIds = [...new Set(records.map((r) => r.dischargeLogId).filter((x): x is string => !!x))]
+  const runtimes = new Map<string, number>()
+  if (logIds.length) {
+    const rows: Array<{ id: string; runtime: number | null }> = await m.query(`SELECT id, (summary->>'runtimeH')::float8 AS runtime FROM discharge_logs WHERE workspace_id = $1 AND id = ANY($2::uuid[])`, [workspaceId, logIds])
+    for (const row of rows) if (row.runtime !== null) runtimes.set(row.id, row.runtime)
+  }
+  const fields: Array<{ path: string; message: string }> = []
+  records.forEach((r, i) => {
+    if (r.dischargeLogId) {
+      const logH = runtimes.get(r.dischargeLogId)
+      if (logH === undefined) fields.push({ path: `records.${i}.dischargeLogId`, message: 'is not a discharge log of this workspace' })
+      else if (r.kind === 'duration') {
+        const mismatch = runtimeMismatch(r.achievedDurationH, logH)
+        if (mismatch && !r.runtimeNote) fields.push({ path: `records.${i}.runtimeNote`, message: mismatch })
+      }
+    }
+    if (r.kind === 'duration') {
+      const rated = ratedById.get(r.luminaireId)!
+      const verdict = durationVerdict(r.achievedDurationH, rated)
+      if (verdict !== null && verdict !== r.passed && !r.verdictOverrideReason) {
+        fields.push({ path: `records.${i}.verdictOverrideReason`, message: `${r.achievedDurationH} h against the rated ${rated} h is a ${verdict ? 'pass' : 'fail'}: give a reason to record a ${r.passed ? 'pass' : 'fail'}` })
+      }
+    }
+  })
+  if (fields.length) throw new BadRequestError('Some records break a log-book rule; see the fields.', fields)
+}
+
 /** Saves a batch in one transaction: all records or none. */
 export async function recordTests(workspaceId: string, actorId: string, records: TestRecordData[]) {
   return dataSource.transaction(async (m) => {
     const ids = [...new Set(records.map((r) => r.luminaireId))]
-    const found: Array<{ id: string }> = await m.query('SELECT id FROM luminaires WHERE workspace_id = $1 AND id = ANY($2::uuid[])', [workspaceId, ids])
+    const found: Array<{ id: string; rated_duration_h: number }> = await m.query('SELECT id, rated_duration_h FROM luminaires WHERE workspace_id = $1 AND id = ANY($2::uuid[])', [workspaceId, ids])
     if (found.length !== ids.length) throw new NotFoundError('A luminaire in these records')
+    await checkAgainstRules(m, workspaceId, records, new Map(found.map((f) => [f.id, f.rated_duration_h])))
     const saved: Array<{ clientId: string; id: string; outcome: SaveOutcome }> = []
     for (const r of records) saved.push({ clientId: r.clientId, ...(await upsertOne(m, workspaceId, actorId, r)) })
     return saved
@@ -71,7 +115,8 @@ export async function recordTests(workspaceId: string, actorId: string, records:
 
 const LOG_SELECT = `SELECT t.id, t.client_id AS "clientId", t.luminaire_id AS "luminaireId", l.tag, l.site_id AS "siteId", t.kind,
     t.tested_on::text AS "testedOn", t.passed, t.achieved_duration_h AS "achievedDurationH", t.faults, t.remedial_action AS "remedialAction",
-    t.discharge_log_id AS "dischargeLogId", t.recorded_by AS "recordedBy", u.name AS "recordedByName", t.recorded_at AS "recordedAt"
+    t.discharge_log_id AS "dischargeLogId", t.checklist, t.verdict_override_reason AS "verdictOverrideReason", t.runtime_note AS "runtimeNote", t.round_client_id AS "roundClientId",
+    t.recorded_by AS "recordedBy", u.name AS "recordedByName", t.recorded_at AS "recordedAt"
   FROM test_records t JOIN luminaires l ON l.id = t.luminaire_id LEFT JOIN users u ON u.id = t.recorded_by`
 
 /** A site's log book, newest first. */

@@ -9,6 +9,7 @@ import type { EngineWarning, Reference, WorkingStep } from '../../../shared/engi
 import { flattenInputs, formatFigure, PACK_INPUT_LABELS, PACK_RESULT_FIGURES, SHEET_CAUTIONS } from '../../../shared/schemas/sheet.schema'
 import type { RevisionView } from './sheets.service'
 import { ensureSpace, footers, heading, newDocument, pair, toBuffer, write, type PdfSection as GenericPdfSection } from '../../lib/pdf/pdf-kit'
+import { chargerCheckSection, inputValueText, packToOrderSection } from './pack-pdf-section'
 
 export interface SheetPdfData extends RevisionView {
   /** Shown at the top right; the workspace that issued the sheet. */
@@ -45,7 +46,7 @@ export const projectSection: PdfSection = (doc, d) => {
 export const inputsSection: PdfSection = (doc, d) => {
   heading(doc, 'Inputs (as entered)')
   for (const { path, value } of flattenInputs(d.inputs)) {
-    pair(doc, PACK_INPUT_LABELS[path] ?? path, path === 'chemistry' ? chemistryName(value) : value)
+    pair(doc, PACK_INPUT_LABELS[path] ?? path, path === 'chemistry' ? chemistryName(value) : inputValueText(path, value))
   }
 }
 
@@ -100,17 +101,25 @@ export const cautionsSection: PdfSection = (doc) => {
   }
 }
 
-export const referencesSection: PdfSection = (doc, d) => {
-  const steps = (d.results.working ?? []) as WorkingStep[]
+/**
+ * The references of a sheet's working, each once per source and basis: one source cited both as
+ * published and from memory is listed twice, so a from-memory value never appears without its mark.
+ */
+export function issuedReferences(steps: WorkingStep[]): Reference[] {
   const seen = new Map<string, Reference>()
-  for (const s of steps) for (const r of s.references) seen.set(r.source, seen.get(r.source) ?? r)
+  for (const s of steps) for (const r of s.references) if (!seen.has(`${r.source}|${r.basis}`)) seen.set(`${r.source}|${r.basis}`, r)
+  return [...seen.values()]
+}
+
+export const referencesSection: PdfSection = (doc, d) => {
+  const refs = issuedReferences((d.results.working ?? []) as WorkingStep[])
   heading(doc, 'References')
-  if (!seen.size) write(doc, 'None recorded.')
-  for (const r of seen.values()) write(doc, `• ${r.source} — ${r.basis}`, { size: 9 })
+  if (!refs.length) write(doc, 'None recorded.')
+  for (const r of refs) write(doc, `• ${r.source} — ${r.basis}`, { size: 9 })
 }
 
 /** The sheet as issued today; later features push their sections onto a copy of this list. */
-export const SHEET_SECTIONS: PdfSection[] = [titleSection, projectSection, inputsSection, resultsSection, warningsSection, workingSection, cautionsSection, referencesSection]
+export const SHEET_SECTIONS: PdfSection[] = [titleSection, projectSection, packToOrderSection, inputsSection, resultsSection, chargerCheckSection, warningsSection, workingSection, cautionsSection, referencesSection]
 
 export async function buildSheetPdf(data: SheetPdfData, sections: PdfSection[] = SHEET_SECTIONS): Promise<Buffer> {
   const doc = newDocument({ title: data.title, subject: `Revision ${data.number}` })

@@ -19,6 +19,7 @@ import { logsForSheet } from '../discharge/discharge.service'
 import { withDischargeLogs } from '../discharge/discharge-pdf-section'
 import { buildSheetPdf, cautionsSection, SHEET_SECTIONS } from './sheet-pdf'
 import * as service from './sheets.service'
+import { NewShareAnswer, RevisionAnswer, RevisionListAnswer, SentAnswer, SharedSheetAnswer, ShareListAnswer, SheetAnswer, SheetAuthorsAnswer, SheetPageAnswer } from '../../../shared/schemas/answers/sheets'
 
 const RevisionNumber = z.coerce.number().int().min(1).max(1_000_000)
 const SheetParams = uuidParams('id')
@@ -38,16 +39,16 @@ function sendPdf(res: Response, pdf: Buffer, name: string) {
 
 export const sheetRoutes: RouteSpec[] = [
   defineRoute({
-    method: 'get', path: '/api/sheets', access: 'viewer', summary: 'Specification sheets (paginated, sortable, searchable, filtered)',
+    method: 'get', path: '/api/sheets', response: SheetPageAnswer, access: 'viewer', summary: 'Specification sheets (paginated, sortable, searchable, filtered)',
     query: SheetListQuerySchema,
     handler: ({ query }, req) => service.listSheets(scope(req).workspaceId, query),
   }),
   defineRoute({
-    method: 'get', path: '/api/sheets/authors', access: 'viewer', summary: 'People who wrote sheets (for the author filter)',
+    method: 'get', path: '/api/sheets/authors', response: SheetAuthorsAnswer, access: 'viewer', summary: 'People who wrote sheets (for the author filter)',
     handler: async (_input, req) => ({ authors: await service.sheetAuthors(scope(req).workspaceId) }),
   }),
   defineRoute({
-    method: 'post', path: '/api/sheets', access: 'designer', summary: 'Create a sheet (revision 1, draft)',
+    method: 'post', path: '/api/sheets', response: SheetAnswer, access: 'designer', summary: 'Create a sheet (revision 1, draft)',
     body: SheetContentSchema, status: 201,
     handler: ({ body }, req) => {
       const s = scope(req)
@@ -55,7 +56,7 @@ export const sheetRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'get', path: '/api/sheets/:id', access: 'viewer', summary: 'A sheet with its current content and results',
+    method: 'get', path: '/api/sheets/:id', response: SheetAnswer, access: 'viewer', summary: 'A sheet with its current content and results',
     params: SheetParams,
     // Stored JSON goes out as stored text, unparsed.
     handler: async ({ params }, req, res) => {
@@ -63,7 +64,7 @@ export const sheetRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'put', path: '/api/sheets/:id', access: 'designer', summary: 'Save a sheet: a new revision; 409 when the version is stale',
+    method: 'put', path: '/api/sheets/:id', response: SheetAnswer, access: 'designer', summary: 'Save a sheet: a new revision; 409 when the version is stale',
     params: SheetParams, body: SheetSaveSchema,
     handler: ({ params, body }, req) => {
       const s = scope(req)
@@ -71,17 +72,17 @@ export const sheetRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'get', path: '/api/sheets/:id/revisions', access: 'viewer', summary: "A sheet's revisions, newest first",
+    method: 'get', path: '/api/sheets/:id/revisions', response: RevisionListAnswer, access: 'viewer', summary: "A sheet's revisions, newest first",
     params: SheetParams,
     handler: async ({ params }, req) => ({ revisions: await service.listRevisions(scope(req).workspaceId, params.id) }),
   }),
   defineRoute({
-    method: 'get', path: '/api/sheets/:id/revisions/:n', access: 'viewer', summary: 'One revision, as saved',
+    method: 'get', path: '/api/sheets/:id/revisions/:n', response: RevisionAnswer, access: 'viewer', summary: 'One revision, as saved',
     params: RevisionParams,
     handler: ({ params }, req) => service.getRevision(scope(req).workspaceId, params.id, params.n),
   }),
   defineRoute({
-    method: 'post', path: '/api/sheets/:id/issue', access: 'designer', summary: 'Issue the latest revision (supersedes the previous issue)',
+    method: 'post', path: '/api/sheets/:id/issue', response: SheetAnswer, access: 'designer', summary: 'Issue the latest revision (supersedes the previous issue)',
     params: SheetParams, body: IssueSchema,
     handler: ({ params, body }, req) => {
       const s = scope(req)
@@ -89,7 +90,7 @@ export const sheetRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'post', path: '/api/sheets/:id/clone', access: 'designer', summary: 'Copy a sheet into a new draft',
+    method: 'post', path: '/api/sheets/:id/clone', response: SheetAnswer, access: 'designer', summary: 'Copy a sheet into a new draft',
     params: SheetParams, body: false, status: 201,
     handler: ({ params }, req) => {
       const s = scope(req)
@@ -97,7 +98,7 @@ export const sheetRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'post', path: '/api/sheets/:id/archive', access: 'designer', summary: 'Archive a sheet (restorable)',
+    method: 'post', path: '/api/sheets/:id/archive', response: SheetAnswer, access: 'designer', summary: 'Archive a sheet (restorable)',
     params: SheetParams, body: false,
     handler: ({ params }, req) => {
       const s = scope(req)
@@ -105,7 +106,7 @@ export const sheetRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'post', path: '/api/sheets/:id/restore', access: 'designer', summary: 'Restore an archived sheet',
+    method: 'post', path: '/api/sheets/:id/restore', response: SheetAnswer, access: 'designer', summary: 'Restore an archived sheet',
     params: SheetParams, body: false,
     handler: ({ params }, req) => {
       const s = scope(req)
@@ -126,7 +127,7 @@ export const sheetRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'post', path: '/api/sheets/:id/shares', access: 'designer', summary: 'Make a read-only share link (token shown once)',
+    method: 'post', path: '/api/sheets/:id/shares', response: NewShareAnswer, access: 'designer', summary: 'Make a read-only share link (token shown once)',
     params: SheetParams, body: ShareCreateSchema, status: 201,
     handler: ({ params, body }, req) => {
       const s = scope(req)
@@ -134,7 +135,7 @@ export const sheetRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'get', path: '/api/sheets/:id/shares', access: 'viewer', summary: "A sheet's share links",
+    method: 'get', path: '/api/sheets/:id/shares', response: ShareListAnswer, access: 'viewer', summary: "A sheet's share links",
     params: SheetParams,
     handler: async ({ params }, req) => ({ shares: await service.listShares(scope(req).workspaceId, params.id) }),
   }),
@@ -148,7 +149,7 @@ export const sheetRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'post', path: '/api/sheets/:id/shares/:shareId/email', access: 'designer', summary: 'E-mail a share link with a message',
+    method: 'post', path: '/api/sheets/:id/shares/:shareId/email', response: SentAnswer, access: 'designer', summary: 'E-mail a share link with a message',
     params: ShareParams, body: ShareEmailSchema, status: 202,
     handler: async ({ params, body }, req) => {
       const s = scope(req)
@@ -157,7 +158,7 @@ export const sheetRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'get', path: '/api/shared/:token', access: 'public', summary: 'A shared sheet (issued revision, read-only)',
+    method: 'get', path: '/api/shared/:token', response: SharedSheetAnswer, access: 'public', summary: 'A shared sheet (issued revision, read-only)',
     params: TokenParams,
     handler: async ({ params }, _req, res) => {
       res.setHeader('Cache-Control', 'no-store')

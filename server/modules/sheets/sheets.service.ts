@@ -304,7 +304,7 @@ ORDER BY ${order('page')}`
     pageSize: q.pageSize,
     total: Number(rows[0]?.total ?? 0),
     items: rows
-      .filter((s) => s.id !== null)
+      .filter((s): s is SheetListRow & { id: string } => s.id !== null)
       .map((s) => ({
         id: s.id,
         title: s.title,

@@ -5,6 +5,7 @@ import { ForbiddenError } from '../../errors/app-error'
 import { IdParams } from '../../lib/parse'
 import { defineRoute, scope, type RouteSpec } from '../../policy/access'
 import { createToken, listTokens, revokeMemberToken, revokeToken, workspaceTokens } from './tokens.service'
+import { ApiTokenListAnswer, MemberTokenListAnswer, NewApiTokenAnswer } from '../../../shared/schemas/answers/accounts'
 
 const SESSION_ONLY = 'API tokens cannot manage API tokens; sign in.'
 
@@ -14,14 +15,14 @@ function sessionOnly(req: Request) {
 
 export const tokenRoutes: RouteSpec[] = [
   defineRoute({
-    method: 'get', path: '/api/tokens', access: 'viewer', summary: 'My API tokens in this workspace',
+    method: 'get', path: '/api/tokens', response: ApiTokenListAnswer, access: 'viewer', summary: 'My API tokens in this workspace',
     handler: async (_input, req) => {
       const s = scope(req)
       return { tokens: await listTokens(s.userId, s.workspaceId) }
     },
   }),
   defineRoute({
-    method: 'post', path: '/api/tokens', access: 'viewer', summary: 'Make an API token (role at most mine); the secret is shown once',
+    method: 'post', path: '/api/tokens', response: NewApiTokenAnswer, access: 'viewer', summary: 'Make an API token (role at most mine); the secret is shown once',
     body: CreateApiTokenSchema, status: 201,
     handler: ({ body }, req) => {
       sessionOnly(req)
@@ -41,7 +42,7 @@ export const tokenRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'get', path: '/api/workspace/tokens', access: 'owner', summary: "Every member's API tokens in this workspace (owners)",
+    method: 'get', path: '/api/workspace/tokens', response: MemberTokenListAnswer, access: 'owner', summary: "Every member's API tokens in this workspace (owners)",
     handler: async (_input, req) => ({ tokens: await workspaceTokens(scope(req).workspaceId) }),
   }),
   defineRoute({

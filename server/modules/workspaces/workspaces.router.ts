@@ -8,16 +8,17 @@ import type { User } from '../users/user.entity'
 import { meResponse } from '../auth/me.service'
 import * as service from './workspaces.service'
 import { findMembership } from './workspaces.repository'
+import { InvitationAnswer, InvitationListAnswer, InvitationPreviewAnswer, MeAnswer, MemberListAnswer, MemberRoleAnswer, WorkspaceAnswer, WorkspaceListAnswer, WorkspaceNameAnswer } from '../../../shared/schemas/answers/accounts'
 
 const TokenParams = z.object({ token: z.string().min(10, 'is not a valid token').max(200) })
 
 export const workspaceRoutes: RouteSpec[] = [
   defineRoute({
-    method: 'get', path: '/api/workspaces', access: 'signed-in', summary: 'My workspaces and my role in each',
+    method: 'get', path: '/api/workspaces', response: WorkspaceListAnswer, access: 'signed-in', summary: 'My workspaces and my role in each',
     handler: async (_input, req) => ({ workspaces: await service.myWorkspaces(req.ctx!.userId) }),
   }),
   defineRoute({
-    method: 'post', path: '/api/workspaces', access: 'signed-in', summary: 'Create a team workspace (you become its owner)',
+    method: 'post', path: '/api/workspaces', response: WorkspaceAnswer, access: 'signed-in', summary: 'Create a team workspace (you become its owner)',
     body: CreateWorkspaceSchema, status: 201,
     handler: async ({ body }, req) => {
       const ws = await service.createWorkspace(req.ctx!.userId, body.name)
@@ -26,7 +27,7 @@ export const workspaceRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'post', path: '/api/workspaces/switch', access: 'signed-in', summary: 'Switch the current workspace',
+    method: 'post', path: '/api/workspaces/switch', response: MeAnswer, access: 'signed-in', summary: 'Switch the current workspace',
     body: SwitchWorkspaceSchema,
     handler: async ({ body }, req) => {
       const m = await findMembership(body.workspaceId, req.ctx!.userId)
@@ -36,7 +37,7 @@ export const workspaceRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'patch', path: '/api/workspace', access: 'owner', summary: 'Rename the current workspace',
+    method: 'patch', path: '/api/workspace', response: WorkspaceNameAnswer, access: 'owner', summary: 'Rename the current workspace',
     body: CreateWorkspaceSchema,
     handler: async ({ body }, req) => {
       const s = scope(req)
@@ -45,11 +46,11 @@ export const workspaceRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'get', path: '/api/workspace/members', access: 'viewer', summary: 'Members of the current workspace',
+    method: 'get', path: '/api/workspace/members', response: MemberListAnswer, access: 'viewer', summary: 'Members of the current workspace',
     handler: async (_input, req) => ({ members: await service.members(scope(req).workspaceId) }),
   }),
   defineRoute({
-    method: 'patch', path: '/api/workspace/members/:id', access: 'owner', summary: "Change a member's role",
+    method: 'patch', path: '/api/workspace/members/:id', response: MemberRoleAnswer, access: 'owner', summary: "Change a member's role",
     params: IdParams, body: ChangeRoleSchema,
     handler: async ({ params, body }, req) => {
       const s = scope(req)
@@ -77,11 +78,11 @@ export const workspaceRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'get', path: '/api/workspace/invitations', access: 'owner', summary: 'Pending invitations',
+    method: 'get', path: '/api/workspace/invitations', response: InvitationListAnswer, access: 'owner', summary: 'Pending invitations',
     handler: async (_input, req) => ({ invitations: await service.pendingInvitations(scope(req).workspaceId) }),
   }),
   defineRoute({
-    method: 'post', path: '/api/workspace/invitations', access: 'owner', summary: 'Invite someone by e-mail',
+    method: 'post', path: '/api/workspace/invitations', response: InvitationAnswer, access: 'owner', summary: 'Invite someone by e-mail',
     body: InviteSchema, status: 201,
     handler: ({ body }, req) => {
       const s = scope(req)
@@ -99,12 +100,12 @@ export const workspaceRoutes: RouteSpec[] = [
   }),
   // A malformed invitation token is a mistake in a link someone was sent: say so (400), not 404.
   defineRoute({
-    method: 'get', path: '/api/invitations/:token', access: 'public', summary: 'What an invitation link is for',
+    method: 'get', path: '/api/invitations/:token', response: InvitationPreviewAnswer, access: 'public', summary: 'What an invitation link is for',
     params: TokenParams, invalid: { params: 400 },
     handler: ({ params }) => service.previewInvitation(params.token),
   }),
   defineRoute({
-    method: 'post', path: '/api/invitations/:token/accept', access: 'signed-in', summary: 'Accept an invitation',
+    method: 'post', path: '/api/invitations/:token/accept', response: MeAnswer, access: 'signed-in', summary: 'Accept an invitation',
     params: TokenParams, invalid: { params: 400 }, body: false,
     handler: async ({ params }, req) => {
       const result = await service.acceptInvitation(params.token, req.user as User)

@@ -25,6 +25,11 @@ export const LIFEPO4: Chemistry = {
   cutoffCellVoltage: s(2.5, 'V', REF.lithiumMakerManual('published', 'Some makers allow 2.0–2.8 V.')),
   minSafeCellVoltage: s(2.0, 'V', REF.lithiumMakerManual('published')),
   fullChargeCellVoltage: s(3.6, 'V', REF.lithiumMakerManual('published', 'Charge voltage 3.6–3.65 V per cell.')),
+  maxChargeCellVoltage: s(3.65, 'V', REF.lithiumMakerManual('published', 'Constant-voltage stage at 3.60–3.65 V per cell; 3.65 V is the top of the band, not an overvoltage.')),
+  coldCharge: {
+    belowC: 10,
+    maxRateC: s(0.1, 'C', REF.lithiumMakerManual('published', 'LiFePO4 pack makers’ operation manuals: no charge below 0 °C, at most 0.1 C from 0 to 5 °C and 0.1–0.2 C from 5 to 10 °C; 0.1 C is taken for the whole 0–10 °C band.')),
+  },
   standardChargeRateC: s(0.5, 'C', REF.lithiumMakerManual()),
   chargeFactor: s(1.05, 'Ah/Ah', REF.commonPractice('Lithium coulombic efficiency is close to 100 %; 5 % covers the taper phase')),
   continuousChargeRangeC: s({ min: 0, max: 0 }, 'C', REF.iec62133('common practice', 'No trickle at full voltage: the charger stops and recharges on a voltage drop.')),

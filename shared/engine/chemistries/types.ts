@@ -41,6 +41,10 @@ export interface Chemistry {
     /** Compensation is held constant outside this ambient range, °C. */
     compensationLimitsC?: Range
   }
+  /** Highest charge (hold) voltage per cell a charger may apply, where it differs from the full-charge voltage, volts. */
+  maxChargeCellVoltage?: Sourced<number>
+  /** Charge current limit in the cold: at ambients from 0 °C up to `belowC`, at most `maxRateC` (lithium). */
+  coldCharge?: { belowC: number; maxRateC: Sourced<number> }
   /** Maximum charge current, in C. */
   maxChargeRateC: Sourced<number>
   chargeTemperatureC: Sourced<Range>

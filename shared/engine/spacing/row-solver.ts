@@ -6,6 +6,10 @@ import { intensityAt, type IntensityTable } from '../lm63'
 import type { EvaluationLine, RowCriteria } from './criteria'
 import { DEG, horizontalIlluminance } from './illuminance'
 
+// Held here once: the hottest loops call these millions of times.
+const lookUpIntensity = intensityAt
+const pointIlluminance = horizontalIlluminance
+
 /** Whether the light is the same either side of the vertical plane along the row. */
 function symmetricAboutRow(table: IntensityTable, cPlane: number): boolean {
   const first = table.horizontalAngles[0]
@@ -61,6 +65,20 @@ export interface RowStatistics {
 }
 
 export type PointFn = (line: number, dx: number) => number
+
+/** Running sums of a row's distant luminaires for one spacing and line (see RowSolver.tails). */
+interface RowTails {
+  /** Luminaires within K spacings are summed one by one. */
+  nearK: number
+  /** Number of spacings within reach (sums beyond are zero). */
+  count: number
+  nodes: Float64Array
+  weights: Float64Array
+  /** [k·m + i]: Σ_{k' ≥ k} g(u_i + k'·S), towards +x. */
+  ahead: Float64Array
+  /** [k·m + i]: Σ_{k' ≥ k} g(−(u_i + k'·S)), towards −x. */
+  behind: Float64Array
+}
 
 const SAMPLES = 32
 const GOLDEN = (Math.sqrt(5) - 1) / 2
@@ -232,7 +250,7 @@ export class RowSolver {
     const r = Math.hypot(dx, y)
     const gamma = Math.atan2(r, this.o.mountingHeight) * DEG
     const c = this.o.cPlane + (r === 0 ? 0 : Math.atan2(y, dx) * DEG)
-    return this.o.factor * horizontalIlluminance(intensityAt(this.o.table, c, gamma), this.o.mountingHeight, r)
+    return this.o.factor * pointIlluminance(lookUpIntensity(this.o.table, c, gamma), this.o.mountingHeight, r)
   }
 
   /** Interpolated from the precomputed table (fast; for the scan). */
@@ -247,14 +265,92 @@ export class RowSolver {
   /** Exact for nearby luminaires, table for distant ones (their share is small and smooth). */
   exact: PointFn = (j, dx) => (Math.abs(dx) <= this.near ? this.direct(j, dx) : this.tabled(j, dx))
 
-  /** Illuminance at x on line j with luminaires at k·S (all of them, or the two either side in 'pair' mode). */
+  /**
+   * Illuminance at x on line j with luminaires at k·S (all of them, or the two either side in
+   * 'pair' mode). The row repeats every S, so x is taken into [0, S). The nearby luminaires are
+   * summed one by one; the distant ones come from sums made once per spacing (see `tails`).
+   */
   rowAt(j: number, x: number, spacing: number, fn: PointFn): number {
     if (this.mode === 'pair') return fn(j, x) + fn(j, x - spacing)
+    const tails = this.tails(j, spacing)
+    if (!tails) {
+      let total = 0
+      const kMin = Math.ceil((x - this.reach) / spacing)
+      const kMax = Math.floor((x + this.reach) / spacing)
+      for (let k = kMin; k <= kMax; k++) total += fn(j, x - k * spacing)
+      return total
+    }
+    const u = x - Math.floor(x / spacing) * spacing
+    const nearK = tails.nearK
     let total = 0
-    const kMin = Math.ceil((x - this.reach) / spacing)
-    const kMax = Math.floor((x + this.reach) / spacing)
-    for (let k = kMin; k <= kMax; k++) total += fn(j, x - k * spacing)
-    return total
+    for (let k = -nearK; k <= nearK + 1; k++) total += fn(j, u - k * spacing)
+    // Beyond: luminaires at u + k·S (k > K) on one side, at −((S − u) + k·S) (k > K) on the other.
+    return total + this.tailAt(tails, tails.ahead, u, nearK + 1) + this.tailAt(tails, tails.behind, spacing - u, nearK + 1)
+  }
+
+  /** Chebyshev points across one spacing at which the distant luminaires are summed. */
+  private static readonly TAIL_NODES = 7
+  private tailCache = new Map<number, Array<RowTails | null | undefined>>()
+
+  /**
+   * Distant luminaires of a row at spacing S, summed once per spacing and line: at each of a few
+   * points u across one spacing, the sums Σ_{k' ≥ k} g(±(u + k'·S)) for every k (running sums
+   * from the far end), taken from the fast table. Luminaires at least K·S away, K·S being the
+   * larger of 2S and the distance beyond the last vertical angle the table bends at (where
+   * the light is smooth), add a smooth function of u, so a polynomial through the points gives
+   * it anywhere in the spacing (from the fast table, within 0.01 % of the exact look-up).
+   * Null when the row is too short for this to pay.
+   */
+  private tails(j: number, spacing: number): RowTails | null {
+    let perLine = this.tailCache.get(spacing)
+    if (!perLine) {
+      if (this.tailCache.size > 8) this.tailCache.clear()
+      perLine = []
+      this.tailCache.set(spacing, perLine)
+    }
+    const cached = perLine[j]
+    if (cached !== undefined) return cached
+    const kinks = this.kinks[j]
+    const smoothFrom = Math.max(2 * spacing, (kinks.length ? kinks[kinks.length - 1] : 0) + spacing)
+    const nearK = Math.ceil(smoothFrom / spacing)
+    const count = Math.ceil(this.reach / spacing) + 2
+    if (nearK + 2 >= count) {
+      perLine[j] = null
+      return null
+    }
+    const m = RowSolver.TAIL_NODES
+    const nodes = new Float64Array(m)
+    const weights = new Float64Array(m)
+    for (let i = 0; i < m; i++) {
+      nodes[i] = (spacing / 2) * (1 - Math.cos(((2 * i + 1) * Math.PI) / (2 * m)))
+      weights[i] = (i % 2 === 0 ? 1 : -1) * Math.sin(((2 * i + 1) * Math.PI) / (2 * m))
+    }
+    const running = (sign: 1 | -1) => {
+      const sums = new Float64Array((count + 1) * m)
+      for (let i = 0; i < m; i++) {
+        for (let k = count - 1; k >= 0; k--) sums[k * m + i] = sums[(k + 1) * m + i] + this.tabled(j, sign * (nodes[i] + k * spacing))
+      }
+      return sums
+    }
+    const tails: RowTails = { nearK, count, nodes, weights, ahead: running(1), behind: running(-1) }
+    perLine[j] = tails
+    return tails
+  }
+
+  /** Σ_{k' ≥ k} of the distant luminaires at u in [0, S], interpolated between the points (barycentric form). */
+  private tailAt(t: RowTails, sums: Float64Array, u: number, k: number): number {
+    if (k >= t.count) return 0
+    const m = t.nodes.length
+    let num = 0
+    let den = 0
+    for (let i = 0; i < m; i++) {
+      const d = u - t.nodes[i]
+      if (d === 0) return sums[k * m + i]
+      const w = t.weights[i] / d
+      num += w * sums[k * m + i]
+      den += w
+    }
+    return num / den
   }
 
   /** Minimum per line, max and average over one spacing (x from one luminaire to the next). */
@@ -384,9 +480,17 @@ export class RowSolver {
   /** Illuminance at distance x beyond the end luminaire (direction +1 or −1 along the row). */
   endAt(j: number, x: number, spacing: number, direction: 1 | -1, fn: PointFn = this.exact): number {
     if (this.mode === 'pair') return fn(j, direction * x)
+    const tails = this.tails(j, spacing)
     let total = 0
-    for (let k = 0; k * spacing <= this.reach + x; k++) total += fn(j, direction * (x + k * spacing))
-    return total
+    if (!tails) {
+      for (let k = 0; k * spacing <= this.reach + x; k++) total += fn(j, direction * (x + k * spacing))
+      return total
+    }
+    // x = m·S + u: the first K luminaires one by one, the rest from the running sums.
+    const m = Math.floor(x / spacing)
+    const u = x - m * spacing
+    for (let k = 0; k < tails.nearK; k++) total += fn(j, direction * (x + k * spacing))
+    return total + this.tailAt(tails, direction === 1 ? tails.ahead : tails.behind, u, m + tails.nearK)
   }
 
   /**

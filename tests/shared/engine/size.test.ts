@@ -179,11 +179,13 @@ describe('service life', () => {
 
 describe('cell count', () => {
   test.each<[string, string, number]>([
-    ['nicd', '3.0 V', 3], // 3 × 1.0 V reaches 3.0 V exactly
-    ['nicd', '3.1 V', 4],
-    ['lead-acid', '5 V', 3], // 3 × 1.75 = 5.25 V
+    // n · V_cut ≥ V_LED + 0.3 V for the current limiter.
+    ['nicd', '2.7 V', 3], // 3 × 1.0 V reaches 2.7 + 0.3 V exactly
+    ['nicd', '3.0 V', 4], // 3 × 1.0 V would leave the limiter nothing
+    ['lead-acid', '4.95 V', 3], // 3 × 1.75 = 5.25 V
+    ['lead-acid', '5 V', 4],
     ['lifepo4', '2.9 V', 2],
-  ])('direct %s with a %s LED string → %d cells (string lit to the cut-off; common practice)', (chemistry, ledVoltage, cells) => {
+  ])('direct %s with a %s LED string → %d cells (string lit at its current to the cut-off; common practice)', (chemistry, ledVoltage, cells) => {
     const r = size({ chemistry, duration: '1 h', driver: 'direct', load: { ledVoltage, ledCurrent: '200 mA' } })
     expect(r.cellsInSeries).toBe(cells)
     expect(r.averageCurrentA).toBeCloseTo(0.2, 12)
@@ -223,7 +225,7 @@ describe('checking an existing pack', () => {
     expect(r.capacityGiven).toBe(true)
   })
   test('a big enough pack passes quietly and runs past the duration at end of life', () => {
-    const r = size({ chemistry: 'nicd', capacity: '4.5 Ah', duration: '1 h', driver: 'direct', cellsInSeries: 3, load: { ledVoltage: '3 V', ledCurrent: '1.1 A' }, ambientMin: 20 })
+    const r = size({ chemistry: 'nicd', capacity: '4.5 Ah', duration: '1 h', driver: 'direct', cellsInSeries: 3, load: { ledVoltage: '2.7 V', ledCurrent: '1.1 A' }, ambientMin: 20 })
     expect(r.warnings.filter((w) => w.severity !== 'info' && w.code !== 'cadmium-restricted')).toEqual([])
     expect(r.runtimeEndOfLifeH).toBeGreaterThan(1)
   })
