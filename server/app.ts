@@ -13,11 +13,15 @@ import { authorize, type RouteSpec } from './policy/access'
 import { routeChain } from './policy/route'
 import { configurePassport } from './modules/auth/passport'
 import { buildRouteTable } from './routes'
+import { DEFAULT_LIMITS, type Limits } from './lib/limits'
+import { setMailLimit } from './modules/mail/mail.service'
 import { createSessionMiddleware } from './lib/session'
 
 export interface AppOptions {
   /** Window of the failed sign-in limit (15 minutes by default; tests shorten it). */
   signInWindowMs?: number
+  /** Limits on sign-up, reset, mail sends and failed sign-ins per address (server/lib/limits.ts). */
+  limits?: Partial<Limits>
   /** Folder of the built client; served with a fallback to index.html for client routes. */
   clientDir?: string | null
 }
@@ -77,7 +81,9 @@ export function createApp(opts: AppOptions = {}): BuiltApp {
   app.use('/api', passport.initialize({ compat: false }), passport.session(), apiTokenAuth)
   app.use('/api', csrfProtection(cfg.session.cookieName, cfg.origin))
 
-  const routeTable = buildRouteTable({ signInWindowMs: opts.signInWindowMs ?? 15 * 60 * 1000 })
+  const limits: Limits = { ...DEFAULT_LIMITS, ...opts.limits }
+  setMailLimit(limits.mailPerRecipient)
+  const routeTable = buildRouteTable({ signInWindowMs: opts.signInWindowMs ?? 15 * 60 * 1000, limits })
   // One router per resource (/api/sheets, /api/calc, …): a request is matched against its own
   // group's routes, not against every route of the API in turn.
   const groups = new Map<string, Router>()
@@ -89,7 +95,7 @@ export function createApp(opts: AppOptions = {}): BuiltApp {
       groups.set(prefix, group)
       app.use(prefix, group)
     }
-    group[route.method](route.path.slice(prefix.length) || '/', authorize(route.access), ...routeChain(route))
+    group[route.method](route.path.slice(prefix.length) || '/', authorize(route.access, { tokens: route.tokens }), ...routeChain(route))
   }
   app.use('/api', notFoundApi)
 

@@ -2,6 +2,7 @@
 import { createApp } from './app'
 import { config } from './config'
 import { dataSource } from './data-source'
+import { errorForLog } from './lib/log-redact'
 import { logger } from './lib/logger'
 import { budgetWarning, connectionBudget } from './lib/pools'
 import { startMailCatcher, type MailCatcher } from './modules/mail/mail-catcher'
@@ -10,9 +11,11 @@ import { sweepStagedUploads } from './modules/discharge/discharge.service'
 import { startReminderJobs, type JobRunner } from './modules/register/reminder-jobs'
 import { DEMO_PASSWORD, DEMO_USERS } from './scripts/demo-users'
 
+// Files the app writes (caught mail, uploads, anything logged to a file) are for its own user only.
+process.umask(0o077)
 const cfg = config()
 
-process.on('unhandledRejection', (reason) => logger.error({ err: reason }, 'unhandled rejection'))
+process.on('unhandledRejection', (reason) => logger.error({ err: errorForLog(reason) }, 'unhandled rejection'))
 process.on('uncaughtException', (err) => {
   logger.fatal({ err }, 'uncaught exception')
   process.exit(1)

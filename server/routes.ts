@@ -3,6 +3,7 @@
  * and the access-control tests walk this same list, so a route cannot escape the checks.
  */
 import type { RouteSpec } from './policy/access'
+import type { Limits } from './lib/limits'
 import { auditRoutes } from './modules/audits/audits.router'
 import { authRoutes } from './modules/auth/auth.router'
 import { calcRoutes } from './modules/calc/calc.router'
@@ -19,6 +20,7 @@ import { workspaceRoutes } from './modules/workspaces/workspaces.router'
 
 export interface RouteTableOptions {
   signInWindowMs: number
+  limits: Limits
 }
 
 export function buildRouteTable(opts: RouteTableOptions): RouteSpec[] {

@@ -19,7 +19,9 @@ export async function seedAccounts(m: EntityManager): Promise<DemoContext> {
   const users: Record<string, string> = {}
   for (const u of DEMO_USERS) {
     let user = await m.getRepository(User).findOne({ where: { email: u.email } })
-    user ??= await m.getRepository(User).save(m.getRepository(User).create({ email: u.email, name: u.name, passwordHash: hash }))
+    user ??= await m.getRepository(User).save(m.getRepository(User).create({ email: u.email, name: u.name, passwordHash: hash, emailConfirmedAt: new Date() }))
+    // The demo users are confirmed, so anyone can sign in with them straight away.
+    if (!user.emailConfirmedAt) await m.getRepository(User).update({ id: user.id }, { emailConfirmedAt: new Date() })
     users[u.role] = user.id
     const member = await m.getRepository(Membership).findOne({ where: { workspaceId: ws.id, userId: user.id } })
     if (!member) await m.getRepository(Membership).insert({ workspaceId: ws.id, userId: user.id, role: u.role })

@@ -5,6 +5,7 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express'
 import { ZodError } from 'zod'
 import { AppError } from '../errors/app-error'
+import { errorForLog, loggablePath } from '../lib/log-redact'
 import { logger } from '../lib/logger'
 import { appPoolIsFull, isPoolWaitTimeout } from '../lib/pools'
 
@@ -30,6 +31,7 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
     return
   }
   if (err instanceof AppError) {
+    if (err.status === 429 && typeof err.details?.retryAfterSeconds === 'number') res.set('Retry-After', String(err.details.retryAfterSeconds))
     res.status(err.status).json({ error: err.message, code: err.code, ...(err.fields ? { fields: err.fields } : {}), ...(err.details ?? {}) })
     return
   }
@@ -78,6 +80,6 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
     res.status(400).json({ error: 'A value in the request is not valid for its field.', code: 'bad_request' })
     return
   }
-  logger.error({ err, path: req.path }, 'unhandled error')
+  logger.error({ err: errorForLog(err), path: loggablePath(req.originalUrl ?? req.path) }, 'unhandled error')
   res.status(500).json({ error: 'Something went wrong on our side. It has been logged.', code: 'internal' })
 }

@@ -40,12 +40,15 @@ function currentUserId(req: Request): string | null {
   return u?.id ?? null
 }
 
-export function authorize(access: Access): RequestHandler {
+/** `opts.tokens`: an API token may call this `signed-in` route (account-level routes refuse tokens). */
+export function authorize(access: Access, opts: { tokens?: boolean } = {}): RequestHandler {
   return async (req: Request, _res: Response, next: NextFunction) => {
     if (access === 'public') return next()
     const userId = currentUserId(req)
     if (!userId) return next(new UnauthorizedError())
     if (req.ctx?.viaToken) {
+      // API tokens act only inside their workspace and role: account-level actions need a session.
+      if (access === 'signed-in' && !opts.tokens) return next(new ForbiddenError('API tokens act only inside their workspace; sign in for account actions.'))
       // API tokens carry their own workspace and role, fixed when the token was made.
       if (access !== 'signed-in' && (!req.ctx.role || !roleAtLeast(req.ctx.role, access))) return next(new ForbiddenError())
       return next()

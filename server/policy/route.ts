@@ -63,6 +63,11 @@ export interface RouteDefinition<P extends Schema, Q extends Schema, B extends S
   invalid?: { params?: 400 | 404; query?: 400 | 404 }
   /** Names the record in that 404 ("That discharge log"); a function sees the raw path parameters. */
   notFound?: string | ((params: Record<string, string>) => string)
+  /**
+   * An API token may call this `signed-in` route. Other `signed-in` routes are account-level
+   * (profile, password, workspaces, invitations) and refuse tokens: they need a signed-in session.
+   */
+  tokens?: boolean
   /** Express middleware run before validation (uploads, rate limits). */
   before?: RequestHandler[]
   handler: (input: RouteInput<P, Q, B>, req: Request, res: Response, next: NextFunction) => Answer<R> | void | Promise<Answer<R> | void>

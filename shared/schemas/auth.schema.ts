@@ -38,6 +38,10 @@ export const ResetPasswordSchema = z.object({
   password: PasswordSchema,
 })
 
+export const ConfirmEmailSchema = z.object({
+  token: z.string({ required_error: 'is required' }).min(10, 'is not a valid confirmation token').max(200),
+})
+
 export const ChangePasswordSchema = z.object({
   currentPassword: z.string({ required_error: 'is required' }).min(1, 'is required').max(128, 'is too long'),
   newPassword: PasswordSchema,

@@ -20,7 +20,9 @@ type Message = Answer<typeof MessageSchema>
 
 export const fetchMe = () => request<MeResponse>('/auth/me', { quiet401: true })
 export const signIn = (body: SignIn) => http.post<MeResponse>('/auth/sign-in', body, { quiet401: true })
-export const signUp = (body: SignUp) => http.post<MeResponse>('/auth/sign-up', body)
+/** With an invitation: signed in at once (the user and workspace). Without: a message to confirm the e-mail address first. */
+export const signUp = (body: SignUp) => http.post<MeResponse | { message: string }>('/auth/sign-up', body)
+export const confirmEmail = (token: string) => http.post<{ message: string }>('/auth/confirm-email', { token })
 export const signOut = () => http.post<void>('/auth/sign-out')
 export const forgotPassword = (email: string) => http.post<Message>('/auth/forgot-password', { email })
 export const resetPassword = (token: string, password: string) => http.post<Message>('/auth/reset-password', { token, password })

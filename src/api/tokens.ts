@@ -7,3 +7,12 @@ export type ApiTokenInfo = Answer<typeof ApiTokenAnswer>
 export const fetchTokens = () => http.get<Answer<typeof ApiTokenListAnswer>>('/tokens')
 export const createToken = (name: string, role: Role) => http.post<Answer<typeof NewApiTokenAnswer>>('/tokens', { name, role })
 export const revokeToken = (id: string) => http.del<void>(`/tokens/${id}`)
+
+/** A member's token as its workspace's owners see it (never the secret). */
+export interface MemberTokenInfo extends ApiTokenInfo {
+  userId: string
+  userName: string
+  userEmail: string
+}
+export const fetchMemberTokens = () => http.get<{ tokens: MemberTokenInfo[] }>('/workspace/tokens')
+export const revokeMemberToken = (id: string) => http.del<void>(`/workspace/tokens/${id}`)

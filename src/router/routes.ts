@@ -22,6 +22,7 @@ export const routes: RouteRecordRaw[] = [
   { path: '/sign-in', name: 'sign-in', component: () => import('@/views/SignInView.vue'), meta: { public: true, guestOnly: true, bare: true, title: 'Sign in' } },
   { path: '/sign-up', name: 'sign-up', component: () => import('@/views/SignUpView.vue'), meta: { public: true, guestOnly: true, bare: true, title: 'Create an account' } },
   { path: '/forgot-password', name: 'forgot-password', component: () => import('@/views/ForgotPasswordView.vue'), meta: { public: true, bare: true, title: 'Forgotten password' } },
+  { path: '/confirm-email', name: 'confirm-email', component: () => import('@/views/ConfirmEmailView.vue'), meta: { public: true, bare: true, title: 'Confirm your e-mail address' } },
   { path: '/reset-password', name: 'reset-password', component: () => import('@/views/ResetPasswordView.vue'), meta: { public: true, bare: true, title: 'Choose a new password' } },
   { path: '/invitation', name: 'invitation', component: () => import('@/views/InvitationView.vue'), meta: { public: true, bare: true, title: 'Invitation' } },
   { path: '/home', name: 'home', component: () => import('@/views/HomeView.vue'), meta: { role: 'viewer', title: 'Home' } },

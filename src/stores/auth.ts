@@ -43,8 +43,12 @@ export const useAuthStore = defineStore('auth', () => {
     apply(await api.signIn({ email, password }))
   }
 
-  async function signUp(input: Parameters<typeof api.signUp>[0]) {
-    apply(await api.signUp(input))
+  /** Signs in when an invitation came with the sign-up; otherwise returns the message asking to confirm the e-mail. */
+  async function signUp(input: Parameters<typeof api.signUp>[0]): Promise<string | null> {
+    const answer = await api.signUp(input)
+    if ('message' in answer) return answer.message
+    apply(answer)
+    return null
   }
 
   async function signOut() {

@@ -1,6 +1,6 @@
 /** A brand-new user completes the guided job (size, save, check the charger, issue and share) by following only the hints. */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { closeTestApp, uniqueEmail } from '../helpers/test-app'
+import { closeTestApp, mailTo, uniqueEmail } from '../helpers/test-app'
 import { newBrowser, screenshot, startE2eApp, type RunningApp } from '../helpers/browser'
 
 let app: RunningApp
@@ -19,10 +19,23 @@ describe('onboarding', () => {
     try {
       await page.goto(`${app.url}/sign-up`)
       await page.locator('#sign-up-name').fill('Nia Newcomer')
-      await page.locator('#sign-up-email').fill(uniqueEmail('newcomer'))
+      const email = uniqueEmail('newcomer')
+      await page.locator('#sign-up-email').fill(email)
       await page.locator('#sign-up-password').fill('my first emergency job')
       await page.locator('#sign-up-workspace').fill('Newcomer Electrical')
       await page.getByRole('button', { name: 'Create account' }).click()
+      // The account confirms its e-mail address first: follow the link from the caught mail.
+      await page.locator('[data-test="sign-up-sent"]').waitFor()
+      await screenshot(page, 'onboarding-0-check-mail')
+      let link: string | undefined
+      await expect.poll(() => (link = mailTo(email).map((m) => /(\/confirm-email\?token=[\w%-]+)/.exec(m.text)?.[1]).find(Boolean))).toBeTruthy()
+      await page.goto(`${app.url}${link}`)
+      await page.locator('[data-test="confirm-done"]').waitFor()
+      await screenshot(page, 'onboarding-0-confirmed')
+      await page.goto(`${app.url}/sign-in`)
+      await page.locator('#sign-in-email').fill(email)
+      await page.locator('#sign-in-password').fill('my first emergency job')
+      await page.locator('[data-test="sign-in-submit"]').click()
       await page.waitForURL(/\/home/)
 
       await page.locator('[data-test="onboarding-start"]').click()

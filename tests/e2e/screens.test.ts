@@ -51,7 +51,7 @@ describe('main screens', () => {
         const b = await newBrowser(viewport)
         try {
           await b.context.addInitScript((t) => localStorage.setItem('lw-theme', t), theme)
-          const publicScreens = ['/', '/sign-in', '/sign-up', '/forgot-password', '/reset-password?token=invented-token-for-the-screen']
+          const publicScreens = ['/', '/sign-in', '/sign-up', '/forgot-password', '/reset-password?token=invented-token-for-the-screen', '/confirm-email?token=invented-token-for-the-screen']
           for (const path of publicScreens) {
             await b.page.goto(`${app.url}${path}`)
             await b.page.locator('h1, .n-card-header').first().waitFor()

@@ -6,7 +6,7 @@ import type { Server } from 'node:http'
 import { chromium, type BrowserContext, type Page } from 'playwright-core'
 import { createApp } from '../../server/app'
 import { dataSource } from '../../server/data-source'
-import { getTestApp } from './test-app'
+import { getTestApp, ROOMY_LIMITS } from './test-app'
 
 export const ARTIFACTS = path.resolve('test-artifacts')
 
@@ -18,7 +18,7 @@ export interface RunningApp {
 /** Serves the built client and the API on 127.0.0.1 with a free port. */
 export async function startE2eApp(): Promise<RunningApp> {
   await getTestApp()
-  const built = createApp({ clientDir: path.resolve('dist'), signInWindowMs: 60_000 })
+  const built = createApp({ clientDir: path.resolve('dist'), signInWindowMs: 60_000, limits: ROOMY_LIMITS })
   const server: Server = await new Promise((resolve) => {
     const s = built.app.listen(0, '127.0.0.1', () => resolve(s))
   })

@@ -5,6 +5,7 @@ import supertest from 'supertest'
 import type { Express } from 'express'
 import { createApp, type BuiltApp } from '../../server/app'
 import { config } from '../../server/config'
+import { DEFAULT_LIMITS, type Limits } from '../../server/lib/limits'
 import { dataSource } from '../../server/data-source'
 import { readCaughtMail, startMailCatcher, type MailCatcher } from '../../server/modules/mail/mail-catcher'
 import { useCatcherPort } from '../../server/modules/mail/mail.service'
@@ -22,14 +23,28 @@ let passwordHash: string | null = null
 /** Short sign-in window so the lock-out test can wait it out. */
 export const SIGN_IN_WINDOW_MS = 2000
 
+/**
+ * Limits high enough that the many sign-ups and reset requests of a test run (all from 127.0.0.1,
+ * counted in one database) never trip them; tests/server/limits.test.ts checks the limits themselves.
+ */
+export const ROOMY_LIMITS: Partial<Limits> = Object.fromEntries(
+  Object.entries(DEFAULT_LIMITS).filter(([name]) => name !== 'signInFailuresPerAddress').map(([name, l]) => [name, { ...l, max: 100_000 }]),
+)
+
 export async function getTestApp(): Promise<BuiltApp> {
   if (!dataSource.isInitialized) await dataSource.initialize()
   if (!catcher) {
     catcher = await startMailCatcher(config().mail.catcherDir, 0)
     useCatcherPort(catcher.port)
   }
-  built ??= createApp({ signInWindowMs: SIGN_IN_WINDOW_MS, clientDir: null })
+  built ??= createApp({ signInWindowMs: SIGN_IN_WINDOW_MS, clientDir: null, limits: ROOMY_LIMITS })
   return built
+}
+
+/** The port of this test file's mail catcher (to point the mail layer back at it). */
+export function catcherPortInUse(): number {
+  if (!catcher) throw new Error('no mail catcher started')
+  return catcher.port
 }
 
 export async function closeTestApp() {
@@ -56,7 +71,7 @@ export async function makeTeam(name = 'Test team'): Promise<TestTeam> {
   const users = {} as TestTeam['users']
   for (const role of ['viewer', 'technician', 'designer', 'owner'] as Role[]) {
     const email = uniqueEmail(role)
-    const user = await dataSource.getRepository(User).save(dataSource.getRepository(User).create({ email, name: `${role} person`, passwordHash }))
+    const user = await dataSource.getRepository(User).save(dataSource.getRepository(User).create({ email, name: `${role} person`, passwordHash, emailConfirmedAt: new Date() }))
     await dataSource.getRepository(Membership).insert({ workspaceId: ws.id, userId: user.id, role })
     users[role] = { id: user.id, email }
   }

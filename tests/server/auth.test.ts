@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { dataSource } from '../../server/data-source'
 import { createApp, type BuiltApp } from '../../server/app'
 import { User } from '../../server/modules/users/user.entity'
-import { anonymous, closeTestApp, getTestApp, mailTo, makeTeam, signIn, SIGN_IN_WINDOW_MS, TEST_PASSWORD, uniqueEmail } from '../helpers/test-app'
+import { anonymous, closeTestApp, ROOMY_LIMITS, getTestApp, mailTo, makeTeam, signIn, SIGN_IN_WINDOW_MS, TEST_PASSWORD, uniqueEmail } from '../helpers/test-app'
 
 let built: BuiltApp
 beforeAll(async () => {
@@ -22,15 +22,20 @@ async function waitForMail(address: string) {
 }
 
 describe('sign-up and sign-in', () => {
-  it('creates an account with its own workspace, hashes the password with bcrypt cost 12, and signs in', async () => {
+  it('creates an account with its own workspace, hashes the password with bcrypt cost 12, and signs in once confirmed', async () => {
     const email = uniqueEmail('signup')
-    const agent = supertest.agent(built.app)
-    const res = await agent.post('/api/auth/sign-up').send({ email, password: 'a sentence as a password', name: 'Ada Example', workspaceName: 'Example crew' })
-    expect(res.status).toBe(201)
-    expect(res.body).toMatchObject({ user: { email }, role: 'owner', workspace: { name: 'Example crew' } })
+    const res = await supertest(built.app).post('/api/auth/sign-up').send({ email, password: 'a sentence as a password', name: 'Ada Example', workspaceName: 'Example crew' })
+    expect(res.status).toBe(202)
     const stored = await dataSource.getRepository(User).findOneByOrFail({ email })
     expect(stored.passwordHash).toMatch(/^\$2[aby]\$12\$/)
-    expect(res.headers['set-cookie']?.[0]).toMatch(/lw\.sid=.*HttpOnly.*SameSite=Lax/i)
+    const [mail] = await waitForMail(email)
+    const token = decodeURIComponent(/confirm-email\?token=([\w%-]+)/.exec(mail.text)![1])
+    expect((await supertest(built.app).post('/api/auth/confirm-email').send({ token })).status).toBe(200)
+    const agent = supertest.agent(built.app)
+    const signedIn = await agent.post('/api/auth/sign-in').send({ email, password: 'a sentence as a password' })
+    expect(signedIn.status).toBe(200)
+    expect(signedIn.body).toMatchObject({ user: { email }, role: 'owner', workspace: { name: 'Example crew' } })
+    expect(signedIn.headers['set-cookie']?.[0]).toMatch(/lw\.sid=.*HttpOnly.*SameSite=Lax/i)
     const me = await agent.get('/api/auth/me')
     expect(me.status).toBe(200)
   })
@@ -84,7 +89,7 @@ describe('failed sign-in limit', () => {
     const team = await makeTeam()
     const email = team.users.viewer.email
     // A second app on the same database, as a second process behind a load balancer would be.
-    const second = createApp({ signInWindowMs: 60_000, clientDir: null })
+    const second = createApp({ signInWindowMs: 60_000, clientDir: null, limits: ROOMY_LIMITS })
     try {
       const statuses: number[] = []
       for (let i = 0; i < 9; i++) {

@@ -47,8 +47,23 @@ async function signUp(port: number, email: string): Promise<Session> {
     headers: { 'Content-Type': 'application/json' },
     body: JSON.stringify({ email, password: 'a fault tolerant passphrase', name: 'Fault Tester', workspaceName: 'Faults' }),
   })
-  expect(res.status).toBe(201)
-  return { cookie: res.headers.get('set-cookie')!.split(';')[0], csrf: (await res.json()).csrfToken }
+  expect(res.status).toBe(202)
+  // The new account confirms its address with the link the app's mail catcher caught.
+  const mailDir = path.join(work, 'data', 'mail')
+  let token: string | undefined
+  for (let i = 0; i < 100 && !token; i++) {
+    for (const f of fs.existsSync(mailDir) ? fs.readdirSync(mailDir) : []) {
+      const mail = JSON.parse(fs.readFileSync(path.join(mailDir, f), 'utf8')) as { to: string[]; text: string }
+      const m = mail.to.includes(email) ? /confirm-email\?token=([\w%-]+)/.exec(mail.text) : null
+      if (m) token = decodeURIComponent(m[1])
+    }
+    if (!token) await new Promise((r) => setTimeout(r, 100))
+  }
+  const post = (p: string, body: unknown) => fetch(`http://127.0.0.1:${port}${p}`, { method: 'POST', headers: { 'Content-Type': 'application/json' }, body: JSON.stringify(body) })
+  expect((await post('/api/auth/confirm-email', { token })).status).toBe(200)
+  const signedIn = await post('/api/auth/sign-in', { email, password: 'a fault tolerant passphrase' })
+  expect(signedIn.status).toBe(200)
+  return { cookie: signedIn.headers.get('set-cookie')!.split(';')[0], csrf: (await signedIn.json()).csrfToken }
 }
 
 function pgCtl(action: 'stop' | 'start') {

@@ -7,6 +7,7 @@ import { dataSource } from '../../server/data-source'
 import { newToken } from '../../server/lib/tokens'
 import { ApiToken } from '../../server/modules/tokens/api-token.entity'
 import { PasswordReset } from '../../server/modules/auth/password-reset.entity'
+import { EmailConfirmation } from '../../server/modules/auth/email-confirmation.entity'
 import { Invitation } from '../../server/modules/workspaces/invitation.entity'
 import { Membership } from '../../server/modules/workspaces/membership.entity'
 import { Workspace } from '../../server/modules/workspaces/workspace.entity'
@@ -76,6 +77,12 @@ export const routeExamples: Record<string, ExampleFn> = {
   'get /api/health': async () => ({ path: '/api/health' }),
   'get /api/openapi.json': async () => ({ path: '/api/openapi.json' }),
   'post /api/auth/sign-up': async () => ({ path: '/api/auth/sign-up', body: { email: uniqueEmail('new'), password: 'a long enough passphrase', name: 'New Person', workspaceName: 'New team' } }),
+  'post /api/auth/confirm-email': async () => {
+    const stranger = await makeTeam('stranger')
+    const { token, hash } = newToken()
+    await dataSource.getRepository(EmailConfirmation).insert({ userId: stranger.users.viewer.id, tokenHash: hash, expiresAt: new Date(Date.now() + 3600_000), usedAt: null })
+    return { path: '/api/auth/confirm-email', body: { token } }
+  },
   'post /api/auth/sign-in': async ({ team }) => ({ path: '/api/auth/sign-in', body: { email: team.users.viewer.email, password: 'correct-horse-lamp-42' } }),
   'post /api/auth/sign-out': async () => ({ path: '/api/auth/sign-out' }),
   'get /api/auth/me': async () => ({ path: '/api/auth/me' }),
@@ -129,6 +136,11 @@ export const routeExamples: Record<string, ExampleFn> = {
   'delete /api/tokens/:id': async ({ team, other, role }) => ({
     path: `/api/tokens/${await tokenFor(team, role ?? 'viewer')}`,
     foreignPath: `/api/tokens/${await tokenFor(other, 'viewer')}`,
+  }),
+  'get /api/workspace/tokens': async () => ({ path: '/api/workspace/tokens' }),
+  'delete /api/workspace/tokens/:id': async ({ team, other }) => ({
+    path: `/api/workspace/tokens/${await tokenFor(team, 'viewer')}`,
+    foreignPath: `/api/workspace/tokens/${await tokenFor(other, 'viewer')}`,
   }),
   'post /api/calc/:tool': async () => ({ path: '/api/calc/size', body: SIZE_EXAMPLE }),
   ...sheetRouteExamples,

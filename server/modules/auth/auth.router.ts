@@ -3,8 +3,10 @@ import type { Request, RequestHandler } from 'express'
 import { ipKeyGenerator, rateLimit } from 'express-rate-limit'
 import { PostgresHitStore } from '../../lib/rate-limit-store'
 import passport from 'passport'
+import { z } from 'zod'
 import {
   ChangePasswordSchema,
+  ConfirmEmailSchema,
   ForgotPasswordSchema,
   ResetPasswordSchema,
   SignInSchema,
@@ -15,7 +17,9 @@ import { AppError, UnauthorizedError } from '../../errors/app-error'
 import { defineRoute, type RouteSpec } from '../../policy/access'
 import type { User } from '../users/user.entity'
 import { forgetUser, users } from '../users/users.repository'
-import { changePassword, requestPasswordReset, resetPassword, signUp } from './auth.service'
+import { changePassword, confirmEmail, mailConfirmationLink, requestPasswordReset, resetPassword, SIGN_UP_ANSWER, signUp, signUpWithInvitation } from './auth.service'
+import { afterAnswer } from '../../lib/after-answer'
+import { perAddress, perEmail, type Limits } from '../../lib/limits'
 import { ensureCsrfToken, meResponse } from './me.service'
 import { CsrfAnswer, MeAnswer } from '../../../shared/schemas/answers/accounts'
 import { MessageSchema } from '../../../shared/schemas/answers/common'
@@ -60,15 +64,33 @@ export function signInLimiter(windowMs: number): RequestHandler {
   })
 }
 
-export function authRoutes(opts: { signInWindowMs: number }): RouteSpec[] {
+export function authRoutes(opts: { signInWindowMs: number; limits: Limits }): RouteSpec[] {
+  const L = opts.limits
+  const linkLimit = perAddress('link', L.linkPerAddress, 'Too many link attempts from your network.')
   return [
     defineRoute({
-      method: 'post', path: '/api/auth/sign-up', response: MeAnswer, access: 'public', summary: 'Create an account (and a workspace, or accept an invitation)',
-      body: SignUpSchema, status: 201,
-      handler: async ({ body }, req) => {
-        const user = await signUp(body)
-        await login(req, user)
-        return meResponse(req)
+      method: 'post', path: '/api/auth/sign-up', response: z.union([MeAnswer, MessageSchema]), access: 'public', summary: 'Create an account (and a workspace, or accept an invitation)',
+      before: [perAddress('sign-up', L.signUpPerAddress, 'Too many sign-ups from your network.'), perEmail('sign-up-email', L.signUpPerEmail, 'Too many sign-ups for this e-mail address.')],
+      body: SignUpSchema,
+      handler: async ({ body }, req, res) => {
+        if (body.invitation) {
+          // The invitation proves the address: confirmed, joined and signed in at once.
+          const user = await signUpWithInvitation({ ...body, invitation: body.invitation })
+          await login(req, user)
+          res.status(201).json(await meResponse(req))
+          return
+        }
+        // New or taken address alike: 202 and a mail; the account can sign in once confirmed.
+        await signUp(body)
+        res.status(202).json(SIGN_UP_ANSWER)
+      },
+    }),
+    defineRoute({
+      method: 'post', path: '/api/auth/confirm-email', response: MessageSchema, access: 'public', summary: 'Confirm an e-mail address with the link from the mail',
+      before: [linkLimit], body: ConfirmEmailSchema,
+      handler: async ({ body }) => {
+        await confirmEmail(body.token)
+        return { message: 'Your e-mail address is confirmed. You can sign in now.' }
       },
     }),
     defineRoute({
@@ -80,6 +102,11 @@ export function authRoutes(opts: { signInWindowMs: number }): RouteSpec[] {
         passport.authenticate('local', { session: false }, (err: unknown, user: User | false) => {
           if (err) return next(err)
           if (!user) return next(new AppError(401, 'bad_credentials', 'E-mail or password is wrong.'))
+          if (!user.emailConfirmedAt) {
+            // Only someone who knows the password learns the account is waiting: send a fresh link.
+            afterAnswer('confirmation mail', () => mailConfirmationLink(user))
+            return next(new AppError(403, 'email_unconfirmed', 'Confirm your e-mail address first: we have sent a new link to it.'))
+          }
           login(req, user)
             .then(async () => {
               req.session.workspaceId = undefined
@@ -104,6 +131,8 @@ export function authRoutes(opts: { signInWindowMs: number }): RouteSpec[] {
     }),
     defineRoute({
       method: 'get', path: '/api/auth/me', response: MeAnswer, access: 'signed-in', summary: 'The user, the current workspace and role',
+      // A token sees itself: its user, its one workspace and its role.
+      tokens: true,
       handler: (_input, req) => {
         if (!req.user && !req.ctx?.viaToken) throw new UnauthorizedError()
         return meResponse(req)
@@ -136,14 +165,17 @@ export function authRoutes(opts: { signInWindowMs: number }): RouteSpec[] {
     }),
     defineRoute({
       method: 'post', path: '/api/auth/forgot-password', response: MessageSchema, access: 'public', summary: 'E-mail a single-use password reset link',
+      before: [perAddress('forgot', L.forgotPerAddress, 'Too many reset requests from your network.'), perEmail('forgot-email', L.forgotPerEmail, 'Too many reset requests for this e-mail address.')],
       body: ForgotPasswordSchema, status: 202,
       handler: async ({ body }) => {
-        await requestPasswordReset(body.email)
+        // Answered before any work, so a known and an unknown address take the same time.
+        afterAnswer('password reset', () => requestPasswordReset(body.email))
         return { message: 'If an account uses this e-mail, a reset link is on its way. It works once, for one hour.' }
       },
     }),
     defineRoute({
       method: 'post', path: '/api/auth/reset-password', response: MessageSchema, access: 'public', summary: 'Set a new password with a reset token',
+      before: [linkLimit],
       body: ResetPasswordSchema,
       handler: async ({ body }) => {
         await resetPassword(body.token, body.password)

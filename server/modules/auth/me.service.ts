@@ -24,7 +24,8 @@ export async function meResponse(req: Request): Promise<MeResponse> {
     user: { id: user.id, email: user.email, name: user.name, units: user.units === 'us' ? 'us' : 'si' },
     workspace: current ? { id: current.id, name: current.name } : null,
     role: req.ctx?.viaToken ? req.ctx.role : (current?.role ?? null),
-    workspaces,
+    // A token knows only its own workspace.
+    workspaces: req.ctx?.viaToken ? (current ? [current] : []) : workspaces,
     csrfToken: req.ctx?.viaToken ? '' : ensureCsrfToken(req),
   }
 }

@@ -17,13 +17,14 @@ const ToolParams = z.object({ tool: z.string().refine(hasTool) })
  */
 export const ToolInputBody = z.unknown()
 
+// Calculations touch no account or workspace data: API tokens may use them.
 export const calcRoutes: RouteSpec[] = [
   defineRoute({
-    method: 'get', path: '/api/calc', access: 'signed-in', summary: 'The engine tools',
+    method: 'get', path: '/api/calc', access: 'signed-in', tokens: true, summary: 'The engine tools',
     handler: () => ({ engineVersion: ENGINE_VERSION, tools: Object.values(tools).map((t) => ({ name: t.name, summary: t.summary })) }),
   }),
   defineRoute({
-    method: 'post', path: '/api/calc/:tool', access: 'signed-in', summary: 'Run an engine tool (size, charge, compare, …); ?working=false leaves out the working steps',
+    method: 'post', path: '/api/calc/:tool', access: 'signed-in', tokens: true, summary: 'Run an engine tool (size, charge, compare, …); ?working=false leaves out the working steps',
     params: ToolParams, notFound: (raw) => `The engine tool "${raw.tool}"`, query: CalcQuerySchema, body: ToolInputBody,
     handler: ({ params, query, body }) => {
       const name = params.tool

@@ -1,6 +1,7 @@
 /** The one way Lampwright sends mail: nodemailer to SMTP_URL, or to the local catcher. */
 import nodemailer, { type Transporter } from 'nodemailer'
 import { config } from '../../config'
+import { DEFAULT_LIMITS, spend, type Limit } from '../../lib/limits'
 
 let transport: Transporter | null = null
 let catcherPort: number | null = null
@@ -44,7 +45,17 @@ export interface MailOrigin {
 export const KIND_HEADER = 'x-lampwright-kind'
 export const WORKSPACE_HEADER = 'x-lampwright-workspace'
 
+let mailLimit: Limit = DEFAULT_LIMITS.mailPerRecipient
+/** Set by createApp: how many mails one recipient may get per window (reminders not counted). */
+export function setMailLimit(limit: Limit) {
+  mailLimit = limit
+}
+
 export async function sendMail(mail: OutgoingMail, origin: MailOrigin): Promise<void> {
+  // One address cannot be flooded through us (invitations, shares, resets, confirmations); daily reminders are bounded by their own schedule.
+  if (origin.kind !== 'reminder') {
+    for (const to of Array.isArray(mail.to) ? mail.to : [mail.to]) await spend('mail-to', to.trim().toLowerCase(), mailLimit, `Too many mails to ${to} in a short time.`)
+  }
   const headers = config().mail.smtpUrl ? undefined : { [KIND_HEADER]: origin.kind, [WORKSPACE_HEADER]: origin.workspaceId ?? '' }
   await getTransport().sendMail({ from: config().mail.from, ...mail, headers })
 }

@@ -4,8 +4,8 @@ import { CreateApiTokenSchema } from '../../../shared/schemas/token.schema'
 import { ForbiddenError } from '../../errors/app-error'
 import { IdParams } from '../../lib/parse'
 import { defineRoute, scope, type RouteSpec } from '../../policy/access'
-import { createToken, listTokens, revokeToken } from './tokens.service'
-import { ApiTokenListAnswer, NewApiTokenAnswer } from '../../../shared/schemas/answers/accounts'
+import { createToken, listTokens, revokeMemberToken, revokeToken, workspaceTokens } from './tokens.service'
+import { ApiTokenListAnswer, MemberTokenListAnswer, NewApiTokenAnswer } from '../../../shared/schemas/answers/accounts'
 
 const SESSION_ONLY = 'API tokens cannot manage API tokens; sign in.'
 
@@ -38,6 +38,20 @@ export const tokenRoutes: RouteSpec[] = [
     handler: async ({ params }, req, res) => {
       const s = scope(req)
       await revokeToken(s.userId, s.workspaceId, params.id)
+      res.status(204).end()
+    },
+  }),
+  defineRoute({
+    method: 'get', path: '/api/workspace/tokens', response: MemberTokenListAnswer, access: 'owner', summary: "Every member's API tokens in this workspace (owners)",
+    handler: async (_input, req) => ({ tokens: await workspaceTokens(scope(req).workspaceId) }),
+  }),
+  defineRoute({
+    method: 'delete', path: '/api/workspace/tokens/:id', access: 'owner', summary: "Revoke a member's API token (owners)",
+    before: [(req, _res, next) => next(req.ctx?.viaToken ? new ForbiddenError(SESSION_ONLY) : undefined)],
+    params: IdParams, notFound: 'That token', produces: 'none',
+    handler: async ({ params }, req, res) => {
+      const s = scope(req)
+      await revokeMemberToken(s.workspaceId, s.userId, params.id)
       res.status(204).end()
     },
   }),

@@ -46,3 +46,21 @@ export async function authenticateToken(secret: string) {
   void tokens().update({ id: row.id }, { lastUsedAt: new Date() }).catch(() => undefined)
   return { user, ctx: { userId: user.id, workspaceId: row.workspaceId, role, viaToken: true } }
 }
+
+/** Every member's tokens in a workspace, for its owners (never the secrets). */
+export async function workspaceTokens(workspaceId: string) {
+  const rows: Array<{ id: string; user_id: string; user_name: string; user_email: string; name: string; role: Role; prefix: string; created_at: Date; last_used_at: Date | null; revoked_at: Date | null }> = await dataSource.query(
+    `SELECT t.id, t.user_id, u.name AS user_name, u.email AS user_email, t.name, t.role, t.prefix, t.created_at, t.last_used_at, t.revoked_at
+       FROM api_tokens t JOIN users u ON u.id = t.user_id
+      WHERE t.workspace_id = $1 ORDER BY t.revoked_at IS NOT NULL, t.created_at DESC`,
+    [workspaceId],
+  )
+  return rows.map((t) => ({ id: t.id, userId: t.user_id, userName: t.user_name, userEmail: t.user_email, name: t.name, role: t.role, prefix: t.prefix, createdAt: t.created_at, lastUsedAt: t.last_used_at, revokedAt: t.revoked_at }))
+}
+
+/** An owner revokes any member's token in their workspace; another workspace's token is not found. */
+export async function revokeMemberToken(workspaceId: string, actorId: string, id: string) {
+  const res = await tokens().update({ id, workspaceId, revokedAt: IsNull() }, { revokedAt: new Date() })
+  if (!res.affected) throw new NotFoundError('That token')
+  await recordAudit({ workspaceId, actorId, action: 'token.revoked-by-owner', entityType: 'api_token', entityId: id })
+}

@@ -19,6 +19,10 @@ export class User {
   @Column({ type: 'varchar', length: 8, default: 'si' })
   units!: string
 
+  /** When the owner of the address confirmed it (a link by mail, an invitation, a reset); null: cannot sign in yet. */
+  @Column({ type: 'timestamptz', name: 'email_confirmed_at', nullable: true })
+  emailConfirmedAt!: Date | null
+
   /** Sessions signed in before this moment are no longer valid (set by a reset, a password change, a removal). */
   @Column({ type: 'timestamptz', name: 'sessions_valid_after', nullable: true })
   sessionsValidAfter!: Date | null

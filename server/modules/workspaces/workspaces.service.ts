@@ -121,16 +121,20 @@ export async function invite(workspaceId: string, actorId: string, email: string
   )
   if (already.length) throw new ConflictError(`${email} is already a member of this workspace.`)
   const { token, hash } = newToken()
-  const inv = await dataSource.getRepository(Invitation).save(
-    dataSource.getRepository(Invitation).create({ workspaceId, email, role, tokenHash: hash, invitedBy: actorId, expiresAt: new Date(Date.now() + INVITE_TTL_MS), acceptedAt: null }),
-  )
   const inviter = await findUserById(actorId)
   const url = `${config().origin}/invitation?token=${encodeURIComponent(token)}`
   const body = composeMail(
     [`${inviter?.name ?? 'A colleague'} invites you to the Lampwright workspace "${ws.name}" as ${role}.`, 'The link works once and expires in seven days. Sign up or sign in to accept.'],
     { label: 'Accept the invitation', url },
   )
-  await sendMail({ to: email, subject: `Join "${ws.name}" on Lampwright`, ...body }, { kind: 'invitation', workspaceId })
+  // Saved only when the mail goes out (a refused send, e.g. too many mails to that address, leaves no invitation).
+  const inv = await dataSource.transaction(async (m) => {
+    const saved = await m.getRepository(Invitation).save(
+      m.getRepository(Invitation).create({ workspaceId, email, role, tokenHash: hash, invitedBy: actorId, expiresAt: new Date(Date.now() + INVITE_TTL_MS), acceptedAt: null }),
+    )
+    await sendMail({ to: email, subject: `Join "${ws.name}" on Lampwright`, ...body }, { kind: 'invitation', workspaceId })
+    return saved
+  })
   await recordAudit({ workspaceId, actorId, action: 'member.invited', entityType: 'invitation', entityId: inv.id, data: { email, role } })
   return { id: inv.id, email, role, expiresAt: inv.expiresAt }
 }
@@ -148,7 +152,7 @@ export async function revokeInvitation(workspaceId: string, actorId: string, id:
   await recordAudit({ workspaceId, actorId, action: 'invitation.revoked', entityType: 'invitation', entityId: id })
 }
 
-async function usableInvitation(token: string) {
+export async function usableInvitation(token: string) {
   const inv = await dataSource.getRepository(Invitation).findOne({ where: { tokenHash: hashToken(token) } })
   if (!inv) throw new BadRequestError('This invitation link is not valid.', [{ path: 'token', message: 'is not valid' }])
   if (inv.acceptedAt) throw new BadRequestError('This invitation has already been used.', [{ path: 'token', message: 'has already been used' }])

@@ -37,6 +37,10 @@ export const ApiTokenAnswer = z.object({
   revokedAt: Timestamp.nullable(),
 })
 export const ApiTokenListAnswer = z.object({ tokens: z.array(ApiTokenAnswer) })
+/** Every member's tokens in a workspace, as its owners see them (never the secret). */
+export const MemberTokenListAnswer = z.object({
+  tokens: z.array(ApiTokenAnswer.extend({ userId: z.string().uuid(), userName: z.string(), userEmail: z.string() })),
+})
 /** A new API token: the secret is shown this once. */
 export const NewApiTokenAnswer = ApiTokenAnswer.pick({ id: true, name: true, role: true, prefix: true, createdAt: true }).extend({ token: z.string() })
 
