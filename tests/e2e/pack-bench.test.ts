@@ -139,7 +139,7 @@ describe('pack bench to shared sheet', () => {
       expect(await page.locator('[data-test="sheet-title"]').textContent()).toBe(title)
       expect(await page.locator('[data-test="sheet-revision"]').textContent()).toBe('1')
       expect(await page.locator('[data-test="sheet-status"]').textContent()).toBe('Issued')
-      expect(await page.locator('[data-test="sheet-document"]').textContent()).toMatch(/issued \d{4}-\d\d-\d\d/)
+      expect(await page.locator('[data-test="sheet-document"]').textContent()).toMatch(/issued (\d{1,2} [A-Z][a-z]+ \d{4}|[A-Z][a-z]+ \d{1,2}, \d{4})/)
       expect(await page.locator('[data-test="sheet-actions"], [data-test="edit-sheet"], [data-test="share-panel"], input, textarea').count()).toBe(0)
       expect(await page.locator(`[data-test="value-requiredCapacityAh"]`).textContent()).toBe(required)
       await page.locator('[data-test="cautions"]').waitFor()
