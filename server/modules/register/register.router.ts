@@ -1,4 +1,5 @@
 /** /api/sites, /api/areas, /api/luminaires, /api/tests: the site register and its test log book. */
+import { RoundSignOffAnswer } from '../../../shared/schemas/answers/register'
 import multer from 'multer'
 import { z } from 'zod'
 import { ImportRequestSchema, LuminairePatchSchema, LuminaireSchema, PackReplacementSchema } from '../../../shared/schemas/luminaire.schema'
@@ -172,7 +173,7 @@ export const registerRoutes: RouteSpec[] = [
   }),
   defineRoute({
     method: 'post', path: '/api/sites/:id/rounds', access: 'technician', summary: 'Sign off a round by name and date; answers with the failures recorded on it',
-    params: IdParams, body: RoundSignOffSchema,
+    params: IdParams, body: RoundSignOffSchema, response: RoundSignOffAnswer,
     handler: async ({ params, body }, req, res) => {
       const s = scope(req)
       const out = await tests.signOffRound(s.workspaceId, s.userId, params.id, body)
