@@ -1,7 +1,8 @@
 /** The spacing tool's input (zod) and result shapes. */
 import { z } from 'zod'
 import { finiteNumber, fraction, quantity } from '../fields'
-import { checkIntensityTable, parseLm63, type IntensityTable } from '../lm63'
+import { checkIntensityTable, type IntensityTable } from '../lm63'
+import { parsePhotometricFile, PHOTOMETRIC_FORMAT_NAMES } from '../photometric-file'
 import type { EngineWarning, WorkingStep } from '../types'
 import type { Requirement } from './criteria'
 import type { RouteLayout } from './layout'
@@ -14,13 +15,13 @@ const intensityTableInput = z.object({
 
 const photometryInput = z
   .union([z.string(), intensityTableInput], {
-    errorMap: () => ({ message: 'must be the text of an LM-63 (.ies) file or { verticalAngles, horizontalAngles, candela }' }),
+    errorMap: () => ({ message: 'must be the text of an LM-63 (.ies) or EULUMDAT (.ldt) file, or { verticalAngles, horizontalAngles, candela }' }),
   })
   .transform((raw, ctx): { table: IntensityTable; absolute: boolean | null; name: string | null } => {
     if (typeof raw === 'string') {
-      const parsed = parseLm63(raw)
+      const parsed = parsePhotometricFile(raw)
       if (!parsed.ok) {
-        ctx.addIssue({ code: z.ZodIssueCode.custom, message: `LM-63 file, line ${parsed.error.line}: ${parsed.error.message}` })
+        ctx.addIssue({ code: z.ZodIssueCode.custom, message: `${PHOTOMETRIC_FORMAT_NAMES[parsed.format]}, line ${parsed.error.line}: ${parsed.error.message}` })
         return z.NEVER
       }
       return { table: parsed.value, absolute: parsed.value.absolute, name: parsed.value.keywords.LUMINAIRE ?? null }
