@@ -17,6 +17,23 @@ export const EMPHASIS_KINDS = [
 export type EmphasisKind = (typeof EMPHASIS_KINDS)[number]
 
 /**
+ * What to look for on a route, one reminder per kind (the usual siting practice of BS 5266-1 and
+ * EN 1838 4.1 as summarised in trade guidance; common practice where a standard's wording is not held).
+ */
+export const EMPHASIS_HINTS: Record<EmphasisKind, string> = {
+  'exit-door': 'every door meant for use in an emergency',
+  'final-exit': 'outside each final exit, to a place of safety',
+  'change-of-direction': 'each corner or turn of the route',
+  intersection: 'where corridors meet',
+  stairs: 'each flight, so every tread gets direct light',
+  'change-of-level': 'ramps and steps within a floor',
+  'fire-fighting-equipment': 'extinguishers, hose reels and fire panels',
+  'call-point': 'each manual call point of the fire alarm',
+  'first-aid-point': 'first-aid boxes and stations',
+  'safety-sign': 'exit and safety signs that need lighting',
+}
+
+/**
  * Largest horizontal distance from a point of emphasis to a luminaire: 2 m (EN 1838 4.1 and
  * BS 5266-1 siting guidance; the clause number is from memory, the 2 m is found in secondary
  * summaries of BS 5266-1:2016: check the standard).

@@ -5,7 +5,8 @@
  */
 import { evenRowPositions } from '../row-layout'
 import type { PointServed } from './emphasis-points'
-import { goldenExtreme, type PointFn, type RowSolver } from './row-solver'
+import type { PointFn, RowSolver } from './row-solver'
+import { goldenExtreme } from './row-symmetry'
 
 export interface RouteLayout {
   count: number

@@ -246,7 +246,8 @@ export function computeSpacing(input: SpacingInput): SpacingResult {
         references: [POINT_METHOD],
       },
     )
-    if (input.routeLength !== undefined && main.layout?.pointsServed) {
+    const served = main.layout?.pointsServed
+    if (input.routeLength !== undefined && main.layout && served) {
       const l = main.layout
       working.push({
         id: 'points',
@@ -254,9 +255,9 @@ export function computeSpacing(input: SpacingInput): SpacingResult {
         formula: `|x_point − x_luminaire| ≤ ${EMPHASIS_REACH_M} m for every marked point`,
         explanation:
           l.even === false
-            ? `The even row left a marked point more than ${EMPHASIS_REACH_M} m from a luminaire, so a luminaire stands at the middle of each group of points (one luminaire serves points up to ${2 * EMPHASIS_REACH_M} m apart) and each stretch between is filled with the fewest evenly spaced luminaires for which the whole route still passes.`
+            ? `The even row left a marked point more than ${EMPHASIS_REACH_M} m from a luminaire, so a luminaire stands within reach of each group of points, as near an even row's place as it can (one luminaire serves points up to ${2 * EMPHASIS_REACH_M} m apart) and each stretch between is filled with the fewest evenly spaced luminaires for which the whole route still passes.`
             : `The even row already has a luminaire within ${EMPHASIS_REACH_M} m of every marked point.`,
-        inputs: l.pointsServed.map((p) => ({ symbol: `d${p.point + 1}`, label: `point ${p.point + 1} at ${round(p.atM, 3)} m to luminaire ${p.luminaire + 1}`, value: round(p.distanceM), unit: 'm' })),
+        inputs: served.map((p) => ({ symbol: `d${p.point + 1}`, label: `point ${p.point + 1} at ${round(p.atM, 3)} m to luminaire ${p.luminaire + 1}`, value: round(p.distanceM), unit: 'm' })),
         result: { symbol: 'n', label: 'luminaires', value: l.count, unit: '' },
         references: [{ source: 'EN 1838 4.1 and BS 5266-1 siting of luminaires near points of emphasis (2 m from secondary summaries; clause from memory: check the standard)', basis: 'from memory' }],
       })
