@@ -61,6 +61,20 @@ export const CRITERIA_LABELS = {
   nfpa101: 'NFPA 101 egress path',
 } as const
 
+/** Points along a route that need a luminaire near them. */
+export const EMPHASIS_POINT_LABELS = {
+  'exit-door': 'Exit door',
+  'final-exit': 'Outside a final exit',
+  'change-of-direction': 'Change of direction',
+  intersection: 'Corridor intersection',
+  stairs: 'Stairs',
+  'change-of-level': 'Change of floor level',
+  'fire-fighting-equipment': 'Fire-fighting equipment',
+  'call-point': 'Fire alarm call point',
+  'first-aid-point': 'First-aid point',
+  'safety-sign': 'Exit or safety sign',
+} as const
+
 export const ROLE_NAMES = {
   viewer: 'Viewer',
   technician: 'Technician',
@@ -247,6 +261,7 @@ export const ENUMERATIONS = {
   purpose: PURPOSE_LABELS,
   regime: REGIME_LABELS,
   criteria: CRITERIA_LABELS,
+  emphasisPoint: EMPHASIS_POINT_LABELS,
   role: ROLE_NAMES,
   testKind: TEST_KIND_LABELS,
   sheetStatus: SHEET_STATUS_LABELS,
