@@ -14,6 +14,7 @@ import { healthRoutes } from './modules/health/health.router'
 import { outboxRoutes } from './modules/mail/outbox.router'
 import { photometryRoutes } from './modules/photometry/photometry.router'
 import { registerRoutes } from './modules/register/register.router'
+import { portfolioRoutes } from './modules/register/portfolio.router'
 import { sheetRoutes } from './modules/sheets/sheets.router'
 import { storageRoutes } from './modules/storage/storage.router'
 import { tokenRoutes } from './modules/tokens/tokens.router'
@@ -35,6 +36,7 @@ export function buildRouteTable(opts: RouteTableOptions): RouteSpec[] {
     ...tokenRoutes,
     ...sheetRoutes,
     ...registerRoutes,
+    ...portfolioRoutes,
     ...auditRoutes,
     ...dischargeRoutes,
     ...photometryRoutes,
