@@ -1,7 +1,8 @@
 /**
  * Rules of the source tree that a reviewer would otherwise have to remember: no source file over
- * 500 lines (migrations and generated files aside), and every PostgreSQL pool opened through
- * server/lib/pools.ts so the connection budget it computes is the whole truth.
+ * 500 lines (migrations and generated files aside), every PostgreSQL pool opened through
+ * server/lib/pools.ts so the connection budget it computes is the whole truth, and ECharts set up in
+ * one client module.
  */
 import fs from 'node:fs'
 import path from 'node:path'
@@ -54,5 +55,10 @@ describe('source layout', () => {
     const opening = /new\s+(pg\.)?Pool\s*\(|new\s+PgBoss\s*\(|new\s+DataSource\s*\(/
     const openers = files.filter((f) => f.startsWith('server/') && opening.test(fs.readFileSync(path.join(ROOT, f), 'utf8')))
     expect(openers.sort()).toEqual(['server/data-source.ts', 'server/lib/pools.ts'])
+  })
+
+  it('registers ECharts in src/lib/echarts.ts only (charts import VChart from there)', () => {
+    const registering = files.filter((f) => f.startsWith('src/') && /from ['"]echarts\/core['"]|from ['"]vue-echarts['"]/.test(fs.readFileSync(path.join(ROOT, f), 'utf8')))
+    expect(registering).toEqual(['src/lib/echarts.ts'])
   })
 })
