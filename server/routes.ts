@@ -13,6 +13,7 @@ import { healthRoutes } from './modules/health/health.router'
 import { outboxRoutes } from './modules/mail/outbox.router'
 import { photometryRoutes } from './modules/photometry/photometry.router'
 import { registerRoutes } from './modules/register/register.router'
+import { collectionRoutes } from './modules/register/collections.router'
 import { sheetRoutes } from './modules/sheets/sheets.router'
 import { storageRoutes } from './modules/storage/storage.router'
 import { tokenRoutes } from './modules/tokens/tokens.router'
@@ -34,6 +35,7 @@ export function buildRouteTable(opts: RouteTableOptions): RouteSpec[] {
     ...tokenRoutes,
     ...sheetRoutes,
     ...registerRoutes,
+    ...collectionRoutes,
     ...auditRoutes,
     ...dischargeRoutes,
     ...photometryRoutes,
