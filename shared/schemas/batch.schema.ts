@@ -5,6 +5,7 @@
  */
 import { z } from 'zod'
 import { referenceId } from './reference'
+import { LuminaireAnswer } from './answers/register-lists'
 
 /** Items in one batch: enough for a large site's register, small enough to answer in about a second. */
 export const MAX_BATCH_ITEMS = 1000
@@ -78,5 +79,5 @@ export const LuminaireBulkSchema = z.object({
 export const LuminaireBulkAnswer = z.object({
   count: z.number().int(),
   failed: z.number().int(),
-  results: z.array(ItemAnswerBase.extend({ id: z.string(), luminaire: z.record(z.unknown()).optional() })),
+  results: z.array(ItemAnswerBase.extend({ id: z.string(), luminaire: LuminaireAnswer.optional() })),
 })

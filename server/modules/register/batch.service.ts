@@ -14,7 +14,7 @@ import { referencesIn } from '../../../shared/schemas/reference'
 import { dataSource } from '../../data-source'
 import { AppError } from '../../errors/app-error'
 import { checkReferences } from '../../lib/references'
-import { LuminaireTypeEntity } from '../photometry/luminaire-type.entity'
+import { LuminaireType } from '../photometry/luminaire-type.entity'
 import { LuminaireEntity } from './luminaire.entity'
 import { updateLuminaire } from './register.service'
 import { SiteEntity } from './site.entity'
@@ -34,7 +34,7 @@ function pointerOf(prefix: Array<string | number>, dotted: string): string {
  * rated duration and mode, its site's ceiling temperature as the highest ambient, and its type's
  * emergency power as the load. Quantities carry their units, as the engine asks.
  */
-function sizeInputOf(l: LuminaireEntity, site: SiteEntity | undefined, type: LuminaireTypeEntity | undefined): Record<string, unknown> {
+function sizeInputOf(l: LuminaireEntity, site: SiteEntity | undefined, type: LuminaireType | undefined): Record<string, unknown> {
   return {
     chemistry: l.chemistry,
     cellsInSeries: l.cellsInSeries,
@@ -55,7 +55,7 @@ export async function sizeBatch(workspaceId: string, batch: SizeBatch) {
   const siteIds = [...new Set(luminaires.map((l) => l.siteId))]
   const typeIds = [...new Set(luminaires.flatMap((l) => (l.luminaireTypeId ? [l.luminaireTypeId] : [])))]
   const sites = siteIds.length ? await dataSource.getRepository(SiteEntity).createQueryBuilder('s').where('s.workspace_id = :workspaceId AND s.id IN (:...siteIds)', { workspaceId, siteIds }).getMany() : []
-  const types = typeIds.length ? await dataSource.getRepository(LuminaireTypeEntity).createQueryBuilder('t').where('t.workspace_id = :workspaceId AND t.id IN (:...typeIds)', { workspaceId, typeIds }).getMany() : []
+  const types = typeIds.length ? await dataSource.getRepository(LuminaireType).createQueryBuilder('t').where('t.workspace_id = :workspaceId AND t.id IN (:...typeIds)', { workspaceId, typeIds }).getMany() : []
   const byId = new Map(luminaires.map((l) => [l.id, l]))
   const siteById = new Map(sites.map((s) => [s.id, s]))
   const typeById = new Map(types.map((t) => [t.id, t]))
@@ -99,7 +99,7 @@ export async function updateLuminaires(workspaceId: string, actorId: string, bat
     try {
       await checkReferences(workspaceId, referencesIn(LuminairePatchSchema, parsed.data))
       const luminaire = await updateLuminaire(workspaceId, actorId, item.id, parsed.data)
-      results.push({ ...head, status: 200, ok: true, luminaire: luminaire as unknown as Record<string, unknown> })
+      results.push({ ...head, status: 200, ok: true, luminaire })
     } catch (err) {
       if (!(err instanceof AppError) || err.status >= 500) throw err
       results.push({ ...head, status: err.status, ok: false, errors: appErrorsOf(err, index) })

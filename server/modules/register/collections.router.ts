@@ -4,6 +4,7 @@
  */
 import { LuminaireBulkAnswer, LuminaireBulkSchema, SizeBatchAnswer, SizeBatchSchema } from '../../../shared/schemas/batch.schema'
 import { LuminaireListQuery, TestListQuery } from '../../../shared/schemas/list.schema'
+import { LuminaireListAnswer, TestListAnswer } from '../../../shared/schemas/answers/register-lists'
 import { linkNext } from '../../lib/list-page'
 import { defineRoute, scope, type RouteSpec } from '../../policy/access'
 import { sizeBatch, updateLuminaires } from './batch.service'
@@ -12,7 +13,7 @@ import { listLuminaires, listTests } from './lists.service'
 export const collectionRoutes: RouteSpec[] = [
   defineRoute({
     method: 'get', path: '/api/luminaires', access: 'viewer', summary: 'Luminaires across sites with their due state; ?state=overdue,failed,due-soon, siteId, updatedSince; paged by cursor (Link rel="next")',
-    query: LuminaireListQuery,
+    query: LuminaireListQuery, response: LuminaireListAnswer,
     handler: async ({ query }, req, res) => {
       const page = await listLuminaires(scope(req).workspaceId, query)
       linkNext(req, res, page.nextCursor)
@@ -21,7 +22,7 @@ export const collectionRoutes: RouteSpec[] = [
   }),
   defineRoute({
     method: 'get', path: '/api/tests', access: 'viewer', summary: 'The log book across sites, oldest first; from/to (days, both included), siteId, luminaireId, updatedSince; paged by cursor (Link rel="next")',
-    query: TestListQuery,
+    query: TestListQuery, response: TestListAnswer,
     handler: async ({ query }, req, res) => {
       const page = await listTests(scope(req).workspaceId, query)
       linkNext(req, res, page.nextCursor)
