@@ -10,6 +10,7 @@ import { PhotometricFile } from './modules/photometry/photometric-file.entity'
 import { AreaEntity } from './modules/register/area.entity'
 import { LuminaireEntity } from './modules/register/luminaire.entity'
 import { RegisterSettingsEntity } from './modules/register/register-settings.entity'
+import { PackPriceEntity } from './modules/register/pack-price.entity'
 import { ReminderSendEntity } from './modules/register/reminder-send.entity'
 import { SiteEntity } from './modules/register/site.entity'
 import { TestPlanEntity } from './modules/register/test-plan.entity'
@@ -24,4 +25,4 @@ import { Invitation } from './modules/workspaces/invitation.entity'
 import { Membership } from './modules/workspaces/membership.entity'
 import { Workspace } from './modules/workspaces/workspace.entity'
 
-export const entities = [User, Workspace, Membership, Invitation, PasswordReset, EmailConfirmation, AuditEvent, ApiToken, SpecSheet, SpecRevision, ShareLink, SiteEntity, AreaEntity, LuminaireEntity, TestRecordEntity, ReminderSendEntity, RegisterSettingsEntity, TestRoundEntity, TestPlanEntity, WattageAudit, PhotometricFile, LuminaireType, DischargeFile, DischargeLog]
+export const entities = [User, Workspace, Membership, Invitation, PasswordReset, EmailConfirmation, AuditEvent, ApiToken, SpecSheet, SpecRevision, ShareLink, SiteEntity, AreaEntity, LuminaireEntity, TestRecordEntity, ReminderSendEntity, RegisterSettingsEntity, PackPriceEntity, TestRoundEntity, TestPlanEntity, WattageAudit, PhotometricFile, LuminaireType, DischargeFile, DischargeLog]

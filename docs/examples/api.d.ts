@@ -1292,6 +1292,70 @@ export interface paths {
         patch?: never;
         trace?: never;
     };
+    "/api/portfolio": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * Luminaires failed, overdue or due soon across every site (filter by state and site)
+         * @description Role viewer or higher in the current workspace. State-changing requests with a session cookie need the X-CSRF-Token header (or a same-origin Origin).
+         */
+        get: operations["getApiPortfolio"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/portfolio/pack-budget": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * Replacement packs to buy in the next 12 months, counted and costed per site
+         * @description Role viewer or higher in the current workspace. State-changing requests with a session cookie need the X-CSRF-Token header (or a same-origin Origin).
+         */
+        get: operations["getApiPortfolioPackBudget"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/portfolio/pack-prices": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * The workspace's price of a replacement pack per luminaire type
+         * @description Role viewer or higher in the current workspace. State-changing requests with a session cookie need the X-CSRF-Token header (or a same-origin Origin).
+         */
+        get: operations["getApiPortfolioPackPrices"];
+        /**
+         * Set the price list of replacement packs (a type left out loses its price)
+         * @description Role owner of the current workspace. State-changing requests with a session cookie need the X-CSRF-Token header (or a same-origin Origin).
+         */
+        put: operations["putApiPortfolioPackPrices"];
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
     "/api/audits": {
         parameters: {
             query?: never;
@@ -1646,7 +1710,9 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": Record<string, never>;
+                    "application/json": {
+                        [key: string]: unknown;
+                    };
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */
@@ -1684,7 +1750,14 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": Record<string, never>;
+                    "application/json": {
+                        /** @enum {string} */
+                        status: "ok" | "busy" | "degraded";
+                        version: string;
+                        engineVersion: string;
+                        /** @enum {string} */
+                        database: "reachable" | "unreachable" | "busy";
+                    };
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */
@@ -3208,7 +3281,13 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": Record<string, never>;
+                    "application/json": {
+                        engineVersion: string;
+                        tools: {
+                            name: string;
+                            summary: string;
+                        }[];
+                    };
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */
@@ -3492,6 +3571,12 @@ export interface operations {
                     heights?: unknown[];
                     /** @default 1 */
                     endOfDurationFactor?: number;
+                    points?: {
+                        /** @enum {string} */
+                        kind: "exit-door" | "final-exit" | "change-of-direction" | "intersection" | "stairs" | "change-of-level" | "fire-fighting-equipment" | "call-point" | "first-aid-point" | "safety-sign";
+                        at: unknown;
+                        name?: string;
+                    }[];
                 } | {
                     oldPack: {
                         /** @enum {string} */
@@ -3546,7 +3631,10 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": Record<string, never>;
+                    "application/json": {
+                        tool: string;
+                        engineVersion: string;
+                    };
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */
@@ -5343,7 +5431,9 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": Record<string, never>;
+                    "application/json": {
+                        repairWindowDays: number;
+                    };
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */
@@ -5405,7 +5495,9 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": Record<string, never>;
+                    "application/json": {
+                        repairWindowDays: number;
+                    };
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */
@@ -5475,7 +5567,8 @@ export interface operations {
                             address: string;
                             responsibleName: string;
                             responsibleEmail: string;
-                            regime: string;
+                            /** @enum {string} */
+                            regime: "en50172" | "nfpa101";
                             ceilingTemperatureC: number;
                             createdAt: string;
                             updatedAt: string;
@@ -5599,7 +5692,8 @@ export interface operations {
                         address: string;
                         responsibleName: string;
                         responsibleEmail: string;
-                        regime: string;
+                        /** @enum {string} */
+                        regime: "en50172" | "nfpa101";
                         ceilingTemperatureC: number;
                         createdAt: string;
                         updatedAt: string;
@@ -5661,7 +5755,143 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": Record<string, never>;
+                    "application/json": {
+                        today: string;
+                        site: {
+                            id: string;
+                            name: string;
+                            address: string;
+                            responsibleName: string;
+                            responsibleEmail: string;
+                            /** @enum {string} */
+                            regime: "en50172" | "nfpa101";
+                            ceilingTemperatureC: number;
+                            createdAt: string;
+                            updatedAt: string;
+                        };
+                        regime: {
+                            label: string;
+                            references: {
+                                source: string;
+                                /** @enum {string} */
+                                basis: "published" | "common practice" | "from memory" | "derived";
+                                note?: string;
+                            }[];
+                        };
+                        settings: {
+                            repairWindowDays: number;
+                        };
+                        areas: {
+                            id: string;
+                            name: string;
+                        }[];
+                        counts: {
+                            luminaires: number;
+                            failed: number;
+                            overdue: number;
+                            dueNow: number;
+                            dueSoon: number;
+                            ok: number;
+                            retestOverdue: number;
+                        };
+                        luminaires: {
+                            id: string;
+                            siteId: string;
+                            areaId: string | null;
+                            areaName: string | null;
+                            tag: string;
+                            location: string;
+                            typeLabel: string;
+                            /** @enum {string} */
+                            purpose: "escape-route" | "open-area" | "high-risk" | "exit-sign";
+                            /** @enum {string} */
+                            mode: "maintained" | "non-maintained";
+                            ratedDurationH: number;
+                            chemistry: string;
+                            cellsInSeries: number;
+                            capacityAh: number;
+                            packFittedOn: string;
+                            walkOrder: number | null;
+                            circuit: string;
+                            rechargeH: number | null;
+                            specSheetId: string | null;
+                            luminaireTypeId: string | null;
+                            externalId: string | null;
+                            lastFunctionalTestOn: string | null;
+                            lastDurationTestOn: string | null;
+                            createdAt: string;
+                            updatedAt: string;
+                            due: {
+                                functional: {
+                                    /** @enum {string} */
+                                    kind: "functional" | "duration";
+                                    lastTestedOn: string | null;
+                                    nextDueOn: string;
+                                    overdueAfter: string;
+                                    daysUntilDue: number;
+                                    /** @enum {string} */
+                                    state: "overdue" | "due-now" | "due-soon" | "scheduled";
+                                    /** @enum {string} */
+                                    reason: "interval" | "retest" | "commissioning";
+                                };
+                                duration: {
+                                    /** @enum {string} */
+                                    kind: "functional" | "duration";
+                                    lastTestedOn: string | null;
+                                    nextDueOn: string;
+                                    overdueAfter: string;
+                                    daysUntilDue: number;
+                                    /** @enum {string} */
+                                    state: "overdue" | "due-now" | "due-soon" | "scheduled";
+                                    /** @enum {string} */
+                                    reason: "interval" | "retest" | "commissioning";
+                                };
+                                failed: boolean;
+                                lastFailure: {
+                                    /** @enum {string} */
+                                    kind: "functional" | "duration";
+                                    testedOn: string;
+                                    faults: string;
+                                    remedialAction: string;
+                                    retestBy: string;
+                                    retestOverdue: boolean;
+                                } | null;
+                                openFailures: {
+                                    /** @enum {string} */
+                                    kind: "functional" | "duration";
+                                    testedOn: string;
+                                    faults: string;
+                                    remedialAction: string;
+                                    retestBy: string;
+                                    retestOverdue: boolean;
+                                }[];
+                                commissioning: boolean;
+                                /** @enum {string} */
+                                state: "failed" | "overdue" | "due-now" | "due-soon" | "ok";
+                            };
+                            forecast: {
+                                serviceLifeYears: number;
+                                ageYears: number;
+                                lifeUsed: number;
+                                endOfLifeOn: string;
+                                trend: {
+                                    points: number;
+                                    slopeHPerYear: number;
+                                    fittedTodayH: number;
+                                    belowRatedOn: string | null;
+                                } | null;
+                                durationTests: number;
+                                /** @enum {string} */
+                                trendStatus: "used" | "not-enough-tests";
+                                latestTestOn: string | null;
+                                replaceBy: string;
+                                /** @enum {string} */
+                                reason: "service-life" | "duration-trend" | "latest-test";
+                                /** @enum {string} */
+                                state: "replace-now" | "replace-soon" | "ok";
+                            };
+                        }[];
+                    };
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */
@@ -5794,7 +6024,18 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": Record<string, never>;
+                    "application/json": {
+                        id: string;
+                        name: string;
+                        address: string;
+                        responsibleName: string;
+                        responsibleEmail: string;
+                        /** @enum {string} */
+                        regime: "en50172" | "nfpa101";
+                        ceilingTemperatureC: number;
+                        createdAt: string;
+                        updatedAt: string;
+                    };
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */
@@ -5860,7 +6101,12 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": Record<string, never>;
+                    "application/json": {
+                        id: string;
+                        siteId: string;
+                        name: string;
+                        notes: string;
+                    };
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */
@@ -5982,7 +6228,12 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": Record<string, never>;
+                    "application/json": {
+                        id: string;
+                        siteId: string;
+                        name: string;
+                        notes: string;
+                    };
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */
@@ -6081,7 +6332,34 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": Record<string, never>;
+                    "application/json": {
+                        id: string;
+                        siteId: string;
+                        areaId: string | null;
+                        areaName: string | null;
+                        tag: string;
+                        location: string;
+                        typeLabel: string;
+                        /** @enum {string} */
+                        purpose: "escape-route" | "open-area" | "high-risk" | "exit-sign";
+                        /** @enum {string} */
+                        mode: "maintained" | "non-maintained";
+                        ratedDurationH: number;
+                        chemistry: string;
+                        cellsInSeries: number;
+                        capacityAh: number;
+                        packFittedOn: string;
+                        walkOrder: number | null;
+                        circuit: string;
+                        rechargeH: number | null;
+                        specSheetId: string | null;
+                        luminaireTypeId: string | null;
+                        externalId: string | null;
+                        lastFunctionalTestOn: string | null;
+                        lastDurationTestOn: string | null;
+                        createdAt: string;
+                        updatedAt: string;
+                    };
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */
@@ -6139,7 +6417,118 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": Record<string, never>;
+                    "application/json": {
+                        today: string;
+                        site: {
+                            id: string;
+                            name: string;
+                            address: string;
+                            responsibleName: string;
+                            responsibleEmail: string;
+                            /** @enum {string} */
+                            regime: "en50172" | "nfpa101";
+                            ceilingTemperatureC: number;
+                            createdAt: string;
+                            updatedAt: string;
+                        };
+                        luminaire: {
+                            id: string;
+                            siteId: string;
+                            areaId: string | null;
+                            areaName: string | null;
+                            tag: string;
+                            location: string;
+                            typeLabel: string;
+                            /** @enum {string} */
+                            purpose: "escape-route" | "open-area" | "high-risk" | "exit-sign";
+                            /** @enum {string} */
+                            mode: "maintained" | "non-maintained";
+                            ratedDurationH: number;
+                            chemistry: string;
+                            cellsInSeries: number;
+                            capacityAh: number;
+                            packFittedOn: string;
+                            walkOrder: number | null;
+                            circuit: string;
+                            rechargeH: number | null;
+                            specSheetId: string | null;
+                            luminaireTypeId: string | null;
+                            externalId: string | null;
+                            lastFunctionalTestOn: string | null;
+                            lastDurationTestOn: string | null;
+                            createdAt: string;
+                            updatedAt: string;
+                            due: {
+                                functional: {
+                                    /** @enum {string} */
+                                    kind: "functional" | "duration";
+                                    lastTestedOn: string | null;
+                                    nextDueOn: string;
+                                    overdueAfter: string;
+                                    daysUntilDue: number;
+                                    /** @enum {string} */
+                                    state: "overdue" | "due-now" | "due-soon" | "scheduled";
+                                    /** @enum {string} */
+                                    reason: "interval" | "retest" | "commissioning";
+                                };
+                                duration: {
+                                    /** @enum {string} */
+                                    kind: "functional" | "duration";
+                                    lastTestedOn: string | null;
+                                    nextDueOn: string;
+                                    overdueAfter: string;
+                                    daysUntilDue: number;
+                                    /** @enum {string} */
+                                    state: "overdue" | "due-now" | "due-soon" | "scheduled";
+                                    /** @enum {string} */
+                                    reason: "interval" | "retest" | "commissioning";
+                                };
+                                failed: boolean;
+                                lastFailure: {
+                                    /** @enum {string} */
+                                    kind: "functional" | "duration";
+                                    testedOn: string;
+                                    faults: string;
+                                    remedialAction: string;
+                                    retestBy: string;
+                                    retestOverdue: boolean;
+                                } | null;
+                                openFailures: {
+                                    /** @enum {string} */
+                                    kind: "functional" | "duration";
+                                    testedOn: string;
+                                    faults: string;
+                                    remedialAction: string;
+                                    retestBy: string;
+                                    retestOverdue: boolean;
+                                }[];
+                                commissioning: boolean;
+                                /** @enum {string} */
+                                state: "failed" | "overdue" | "due-now" | "due-soon" | "ok";
+                            };
+                            forecast: {
+                                serviceLifeYears: number;
+                                ageYears: number;
+                                lifeUsed: number;
+                                endOfLifeOn: string;
+                                trend: {
+                                    points: number;
+                                    slopeHPerYear: number;
+                                    fittedTodayH: number;
+                                    belowRatedOn: string | null;
+                                } | null;
+                                durationTests: number;
+                                /** @enum {string} */
+                                trendStatus: "used" | "not-enough-tests";
+                                latestTestOn: string | null;
+                                replaceBy: string;
+                                /** @enum {string} */
+                                reason: "service-life" | "duration-trend" | "latest-test";
+                                /** @enum {string} */
+                                state: "replace-now" | "replace-soon" | "ok";
+                            };
+                        };
+                    };
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */
@@ -6294,7 +6683,34 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": Record<string, never>;
+                    "application/json": {
+                        id: string;
+                        siteId: string;
+                        areaId: string | null;
+                        areaName: string | null;
+                        tag: string;
+                        location: string;
+                        typeLabel: string;
+                        /** @enum {string} */
+                        purpose: "escape-route" | "open-area" | "high-risk" | "exit-sign";
+                        /** @enum {string} */
+                        mode: "maintained" | "non-maintained";
+                        ratedDurationH: number;
+                        chemistry: string;
+                        cellsInSeries: number;
+                        capacityAh: number;
+                        packFittedOn: string;
+                        walkOrder: number | null;
+                        circuit: string;
+                        rechargeH: number | null;
+                        specSheetId: string | null;
+                        luminaireTypeId: string | null;
+                        externalId: string | null;
+                        lastFunctionalTestOn: string | null;
+                        lastDurationTestOn: string | null;
+                        createdAt: string;
+                        updatedAt: string;
+                    };
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */
@@ -6364,7 +6780,34 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": Record<string, never>;
+                    "application/json": {
+                        id: string;
+                        siteId: string;
+                        areaId: string | null;
+                        areaName: string | null;
+                        tag: string;
+                        location: string;
+                        typeLabel: string;
+                        /** @enum {string} */
+                        purpose: "escape-route" | "open-area" | "high-risk" | "exit-sign";
+                        /** @enum {string} */
+                        mode: "maintained" | "non-maintained";
+                        ratedDurationH: number;
+                        chemistry: string;
+                        cellsInSeries: number;
+                        capacityAh: number;
+                        packFittedOn: string;
+                        walkOrder: number | null;
+                        circuit: string;
+                        rechargeH: number | null;
+                        specSheetId: string | null;
+                        luminaireTypeId: string | null;
+                        externalId: string | null;
+                        lastFunctionalTestOn: string | null;
+                        lastDurationTestOn: string | null;
+                        createdAt: string;
+                        updatedAt: string;
+                    };
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */
@@ -6422,7 +6865,32 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": Record<string, never>;
+                    "application/json": {
+                        tests: {
+                            id: string;
+                            clientId: string;
+                            luminaireId: string;
+                            tag: string;
+                            siteId: string;
+                            /** @enum {string} */
+                            kind: "functional" | "duration";
+                            testedOn: string;
+                            passed: boolean;
+                            achievedDurationH: number | null;
+                            faults: string;
+                            remedialAction: string;
+                            dischargeLogId: string | null;
+                            checklist: {
+                                [key: string]: boolean;
+                            };
+                            verdictOverrideReason: string;
+                            runtimeNote: string;
+                            roundClientId: string | null;
+                            recordedBy: string | null;
+                            recordedByName: string | null;
+                            recordedAt: string;
+                        }[];
+                    };
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */
@@ -6612,7 +7080,14 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": Record<string, never>;
+                    "application/json": {
+                        records: {
+                            clientId: string;
+                            id: string;
+                            /** @enum {string} */
+                            outcome: "created" | "updated" | "unchanged";
+                        }[];
+                    };
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */
@@ -6726,7 +7201,32 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": Record<string, never>;
+                    "application/json": {
+                        tests: {
+                            id: string;
+                            clientId: string;
+                            luminaireId: string;
+                            tag: string;
+                            siteId: string;
+                            /** @enum {string} */
+                            kind: "functional" | "duration";
+                            testedOn: string;
+                            passed: boolean;
+                            achievedDurationH: number | null;
+                            faults: string;
+                            remedialAction: string;
+                            dischargeLogId: string | null;
+                            checklist: {
+                                [key: string]: boolean;
+                            };
+                            verdictOverrideReason: string;
+                            runtimeNote: string;
+                            roundClientId: string | null;
+                            recordedBy: string | null;
+                            recordedByName: string | null;
+                            recordedAt: string;
+                        }[];
+                    };
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */
@@ -6879,7 +7379,27 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": Record<string, never>;
+                    "application/json": {
+                        columns: string[];
+                        rows: {
+                            row: number;
+                            values: {
+                                [key: string]: unknown;
+                            } | null;
+                        }[];
+                        errors: {
+                            row: number;
+                            column: string;
+                            reason: string;
+                        }[];
+                        errorCount: number;
+                        validRows: number;
+                        totalRows: number;
+                        newAreas: string[];
+                        creates: number;
+                        updates: number;
+                        unchanged: number;
+                    };
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */
@@ -7018,7 +7538,13 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": Record<string, never>;
+                    "application/json": {
+                        filename: string;
+                        mediaType: string;
+                        /** @enum {string} */
+                        encoding: "utf8" | "base64";
+                        content: string;
+                    };
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */
@@ -7108,8 +7634,6 @@ export interface operations {
                             lastDurationTestOn: string | null;
                             createdAt: string;
                             updatedAt: string;
-                            siteName: string;
-                            states: ("overdue" | "failed" | "due-soon")[];
                             due: {
                                 functional: {
                                     /** @enum {string} */
@@ -7158,7 +7682,29 @@ export interface operations {
                                 /** @enum {string} */
                                 state: "failed" | "overdue" | "due-now" | "due-soon" | "ok";
                             };
-                            forecast?: unknown;
+                            forecast: {
+                                serviceLifeYears: number;
+                                ageYears: number;
+                                lifeUsed: number;
+                                endOfLifeOn: string;
+                                trend: {
+                                    points: number;
+                                    slopeHPerYear: number;
+                                    fittedTodayH: number;
+                                    belowRatedOn: string | null;
+                                } | null;
+                                durationTests: number;
+                                /** @enum {string} */
+                                trendStatus: "used" | "not-enough-tests";
+                                latestTestOn: string | null;
+                                replaceBy: string;
+                                /** @enum {string} */
+                                reason: "service-life" | "duration-trend" | "latest-test";
+                                /** @enum {string} */
+                                state: "replace-now" | "replace-soon" | "ok";
+                            };
+                            siteName: string;
+                            states: ("overdue" | "failed" | "due-soon")[];
                         }[];
                         nextCursor: string | null;
                     };
@@ -7407,6 +7953,339 @@ export interface operations {
             };
         };
     };
+    getApiPortfolio: {
+        parameters: {
+            query?: {
+                state?: string;
+                site?: string;
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description Luminaires failed, overdue or due soon across every site (filter by state and site) */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        today: string;
+                        states: ("overdue" | "failed" | "due-soon")[];
+                        sites: {
+                            id: string;
+                            name: string;
+                        }[];
+                        counts: {
+                            failed: number;
+                            overdue: number;
+                            dueSoon: number;
+                        };
+                        items: {
+                            siteId: string;
+                            siteName: string;
+                            luminaireId: string;
+                            tag: string;
+                            location: string;
+                            areaName: string | null;
+                            typeLabel: string;
+                            /** @enum {string} */
+                            state: "failed" | "overdue" | "due-soon";
+                            tests: {
+                                /** @enum {string} */
+                                kind: "functional" | "duration";
+                                dueOn: string;
+                                daysOverdue: number;
+                                /** @enum {string} */
+                                reason: "interval" | "retest" | "commissioning";
+                            }[];
+                            failures: {
+                                /** @enum {string} */
+                                kind: "functional" | "duration";
+                                testedOn: string;
+                                faults: string;
+                                remedialAction: string;
+                                retestBy: string;
+                                retestOverdue: boolean;
+                            }[];
+                        }[];
+                    };
+                };
+            };
+            /** @description The request is not valid: `fields` names each field and the reason */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Not signed in */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Your role does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description No such record in this workspace */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+        };
+    };
+    getApiPortfolioPackBudget: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description Replacement packs to buy in the next 12 months, counted and costed per site */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        from: string;
+                        to: string;
+                        months: number;
+                        sites: {
+                            siteId: string;
+                            siteName: string;
+                            count: number;
+                            overdue: number;
+                            lines: {
+                                typeLabel: string;
+                                count: number;
+                                unitPrice: {
+                                    currency: string;
+                                    amount: number;
+                                } | null;
+                                cost: {
+                                    currency: string;
+                                    amount: number;
+                                } | null;
+                            }[];
+                            costs: {
+                                currency: string;
+                                amount: number;
+                            }[];
+                            unpriced: number;
+                        }[];
+                        total: {
+                            count: number;
+                            overdue: number;
+                            costs: {
+                                currency: string;
+                                amount: number;
+                            }[];
+                            unpriced: number;
+                        };
+                        types: {
+                            typeLabel: string;
+                            luminaires: number;
+                            price: {
+                                currency: string;
+                                amount: number;
+                            } | null;
+                        }[];
+                    };
+                };
+            };
+            /** @description The request is not valid: `fields` names each field and the reason */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Not signed in */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Your role does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description No such record in this workspace */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+        };
+    };
+    getApiPortfolioPackPrices: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description The workspace's price of a replacement pack per luminaire type */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        prices: {
+                            typeLabel: string;
+                            price: number;
+                            currency: string;
+                        }[];
+                    };
+                };
+            };
+            /** @description The request is not valid: `fields` names each field and the reason */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Not signed in */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Your role does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description No such record in this workspace */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+        };
+    };
+    putApiPortfolioPackPrices: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": {
+                    prices: {
+                        typeLabel: string;
+                        price: number;
+                        currency: string;
+                    }[];
+                };
+            };
+        };
+        responses: {
+            /** @description Set the price list of replacement packs (a type left out loses its price) */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        prices: {
+                            typeLabel: string;
+                            price: number;
+                            currency: string;
+                        }[];
+                    };
+                };
+            };
+            /** @description The request is not valid: `fields` names each field and the reason */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Not signed in */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Your role does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description No such record in this workspace */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+        };
+    };
     getApiAudits: {
         parameters: {
             query?: {
@@ -7428,7 +8307,41 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": Record<string, never>;
+                    "application/json": {
+                        items: {
+                            id: string;
+                            title: string;
+                            luminaire: string;
+                            inputs: {
+                                [key: string]: unknown;
+                            };
+                            /** @description The engine's audit result as saved */
+                            results: {
+                                [key: string]: unknown;
+                            };
+                            claimedPowerW: number;
+                            engineVersion: string;
+                            author: {
+                                id: string;
+                                name: string;
+                            } | null;
+                            specSheetId: string | null;
+                            luminaireId: string | null;
+                            specSheet: {
+                                id: string;
+                                title: string;
+                            } | null;
+                            luminaireLink: {
+                                id: string;
+                                tag: string;
+                                siteId: string;
+                                siteName: string;
+                            } | null;
+                            createdAt: string;
+                            updatedAt: string;
+                        }[];
+                        total: number;
+                    };
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */
@@ -7499,7 +8412,38 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": Record<string, never>;
+                    "application/json": {
+                        id: string;
+                        title: string;
+                        luminaire: string;
+                        inputs: {
+                            [key: string]: unknown;
+                        };
+                        /** @description The engine's audit result as saved */
+                        results: {
+                            [key: string]: unknown;
+                        };
+                        claimedPowerW: number;
+                        engineVersion: string;
+                        author: {
+                            id: string;
+                            name: string;
+                        } | null;
+                        specSheetId: string | null;
+                        luminaireId: string | null;
+                        specSheet: {
+                            id: string;
+                            title: string;
+                        } | null;
+                        luminaireLink: {
+                            id: string;
+                            tag: string;
+                            siteId: string;
+                            siteName: string;
+                        } | null;
+                        createdAt: string;
+                        updatedAt: string;
+                    };
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */
@@ -7557,7 +8501,38 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": Record<string, never>;
+                    "application/json": {
+                        id: string;
+                        title: string;
+                        luminaire: string;
+                        inputs: {
+                            [key: string]: unknown;
+                        };
+                        /** @description The engine's audit result as saved */
+                        results: {
+                            [key: string]: unknown;
+                        };
+                        claimedPowerW: number;
+                        engineVersion: string;
+                        author: {
+                            id: string;
+                            name: string;
+                        } | null;
+                        specSheetId: string | null;
+                        luminaireId: string | null;
+                        specSheet: {
+                            id: string;
+                            title: string;
+                        } | null;
+                        luminaireLink: {
+                            id: string;
+                            tag: string;
+                            siteId: string;
+                            siteName: string;
+                        } | null;
+                        createdAt: string;
+                        updatedAt: string;
+                    };
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */
@@ -7680,7 +8655,38 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": Record<string, never>;
+                    "application/json": {
+                        id: string;
+                        title: string;
+                        luminaire: string;
+                        inputs: {
+                            [key: string]: unknown;
+                        };
+                        /** @description The engine's audit result as saved */
+                        results: {
+                            [key: string]: unknown;
+                        };
+                        claimedPowerW: number;
+                        engineVersion: string;
+                        author: {
+                            id: string;
+                            name: string;
+                        } | null;
+                        specSheetId: string | null;
+                        luminaireId: string | null;
+                        specSheet: {
+                            id: string;
+                            title: string;
+                        } | null;
+                        luminaireLink: {
+                            id: string;
+                            tag: string;
+                            siteId: string;
+                            siteName: string;
+                        } | null;
+                        createdAt: string;
+                        updatedAt: string;
+                    };
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */
@@ -7748,7 +8754,26 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": Record<string, never>;
+                    "application/json": {
+                        uploadId: string;
+                        sha256: string;
+                        size: number;
+                        name: string;
+                        expiresAt: string;
+                        storedFileId: string | null;
+                        /** @enum {string} */
+                        delimiter: "," | ";" | "\t";
+                        /** @enum {string} */
+                        decimal: "." | ",";
+                        header: boolean;
+                        firstLine: number;
+                        columns: string[];
+                        preview: string[][];
+                        /** @description Which column is time, voltage and current, as guessed (shared/engine/discharge-log) */
+                        guess: {
+                            [key: string]: unknown;
+                        };
+                    };
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */
@@ -7809,7 +8834,56 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": Record<string, never>;
+                    "application/json": {
+                        items: {
+                            id: string;
+                            title: string;
+                            notes: string;
+                            fileId: string;
+                            /** @description The column mapping as sent */
+                            mapping: {
+                                [key: string]: unknown;
+                            };
+                            /** @description The analysis options as typed */
+                            options: {
+                                [key: string]: unknown;
+                            };
+                            /** @description The engine's discharge summary, with how the file was read */
+                            summary: {
+                                [key: string]: unknown;
+                            };
+                            curve?: {
+                                tH: number[];
+                                v: number[];
+                                i: number[] | null;
+                            };
+                            engineVersion: string;
+                            author: {
+                                id: string;
+                                name: string;
+                            } | null;
+                            specSheetId: string | null;
+                            testRecordId: string | null;
+                            luminaireId: string | null;
+                            specSheet: {
+                                id: string;
+                                title: string;
+                            } | null;
+                            testRecord: {
+                                id: string;
+                                testedOn: string;
+                                luminaireId: string;
+                                luminaireTag: string;
+                            } | null;
+                            luminaire: {
+                                id: string;
+                                tag: string;
+                                siteId: string;
+                            } | null;
+                            createdAt: string;
+                        }[];
+                        total: number;
+                    };
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */
@@ -7943,7 +9017,69 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": Record<string, never>;
+                    "application/json": {
+                        /** @enum {boolean} */
+                        saved: false;
+                        columns: string[];
+                        /** @description The engine's discharge summary, with how the file was read */
+                        summary: {
+                            [key: string]: unknown;
+                        };
+                        curve: {
+                            tH: number[];
+                            v: number[];
+                            i: number[] | null;
+                        };
+                    } | {
+                        id: string;
+                        title: string;
+                        notes: string;
+                        fileId: string;
+                        /** @description The column mapping as sent */
+                        mapping: {
+                            [key: string]: unknown;
+                        };
+                        /** @description The analysis options as typed */
+                        options: {
+                            [key: string]: unknown;
+                        };
+                        /** @description The engine's discharge summary, with how the file was read */
+                        summary: {
+                            [key: string]: unknown;
+                        };
+                        curve?: {
+                            tH: number[];
+                            v: number[];
+                            i: number[] | null;
+                        };
+                        engineVersion: string;
+                        author: {
+                            id: string;
+                            name: string;
+                        } | null;
+                        specSheetId: string | null;
+                        testRecordId: string | null;
+                        luminaireId: string | null;
+                        specSheet: {
+                            id: string;
+                            title: string;
+                        } | null;
+                        testRecord: {
+                            id: string;
+                            testedOn: string;
+                            luminaireId: string;
+                            luminaireTag: string;
+                        } | null;
+                        luminaire: {
+                            id: string;
+                            tag: string;
+                            siteId: string;
+                        } | null;
+                        createdAt: string;
+                        /** @enum {boolean} */
+                        saved: true;
+                        columns: string[];
+                    };
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */
@@ -8001,7 +9137,53 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": Record<string, never>;
+                    "application/json": {
+                        id: string;
+                        title: string;
+                        notes: string;
+                        fileId: string;
+                        /** @description The column mapping as sent */
+                        mapping: {
+                            [key: string]: unknown;
+                        };
+                        /** @description The analysis options as typed */
+                        options: {
+                            [key: string]: unknown;
+                        };
+                        /** @description The engine's discharge summary, with how the file was read */
+                        summary: {
+                            [key: string]: unknown;
+                        };
+                        curve?: {
+                            tH: number[];
+                            v: number[];
+                            i: number[] | null;
+                        };
+                        engineVersion: string;
+                        author: {
+                            id: string;
+                            name: string;
+                        } | null;
+                        specSheetId: string | null;
+                        testRecordId: string | null;
+                        luminaireId: string | null;
+                        specSheet: {
+                            id: string;
+                            title: string;
+                        } | null;
+                        testRecord: {
+                            id: string;
+                            testedOn: string;
+                            luminaireId: string;
+                            luminaireTag: string;
+                        } | null;
+                        luminaire: {
+                            id: string;
+                            tag: string;
+                            siteId: string;
+                        } | null;
+                        createdAt: string;
+                    };
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */
@@ -8116,7 +9298,110 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": Record<string, never>;
+                    "application/json": {
+                        a: {
+                            id: string;
+                            title: string;
+                            notes: string;
+                            fileId: string;
+                            /** @description The column mapping as sent */
+                            mapping: {
+                                [key: string]: unknown;
+                            };
+                            /** @description The analysis options as typed */
+                            options: {
+                                [key: string]: unknown;
+                            };
+                            /** @description The engine's discharge summary, with how the file was read */
+                            summary: {
+                                [key: string]: unknown;
+                            };
+                            curve?: {
+                                tH: number[];
+                                v: number[];
+                                i: number[] | null;
+                            };
+                            engineVersion: string;
+                            author: {
+                                id: string;
+                                name: string;
+                            } | null;
+                            specSheetId: string | null;
+                            testRecordId: string | null;
+                            luminaireId: string | null;
+                            specSheet: {
+                                id: string;
+                                title: string;
+                            } | null;
+                            testRecord: {
+                                id: string;
+                                testedOn: string;
+                                luminaireId: string;
+                                luminaireTag: string;
+                            } | null;
+                            luminaire: {
+                                id: string;
+                                tag: string;
+                                siteId: string;
+                            } | null;
+                            createdAt: string;
+                        };
+                        b: {
+                            id: string;
+                            title: string;
+                            notes: string;
+                            fileId: string;
+                            /** @description The column mapping as sent */
+                            mapping: {
+                                [key: string]: unknown;
+                            };
+                            /** @description The analysis options as typed */
+                            options: {
+                                [key: string]: unknown;
+                            };
+                            /** @description The engine's discharge summary, with how the file was read */
+                            summary: {
+                                [key: string]: unknown;
+                            };
+                            curve?: {
+                                tH: number[];
+                                v: number[];
+                                i: number[] | null;
+                            };
+                            engineVersion: string;
+                            author: {
+                                id: string;
+                                name: string;
+                            } | null;
+                            specSheetId: string | null;
+                            testRecordId: string | null;
+                            luminaireId: string | null;
+                            specSheet: {
+                                id: string;
+                                title: string;
+                            } | null;
+                            testRecord: {
+                                id: string;
+                                testedOn: string;
+                                luminaireId: string;
+                                luminaireTag: string;
+                            } | null;
+                            luminaire: {
+                                id: string;
+                                tag: string;
+                                siteId: string;
+                            } | null;
+                            createdAt: string;
+                        };
+                        change: {
+                            runtimeH: number | null;
+                            deliveredAh: number | null;
+                            deliveredWh: number | null;
+                            midpointVoltageV: number | null;
+                            marginH: number | null;
+                            stateOfHealth: number | null;
+                        };
+                    };
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */
@@ -8172,7 +9457,24 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": Record<string, never>;
+                    "application/json": {
+                        files: {
+                            id: string;
+                            name: string;
+                            sha256: string;
+                            edition: string;
+                            luminaire: string | null;
+                            verticalCount: number;
+                            horizontalCount: number;
+                            absolute: boolean;
+                            inputWatts: number;
+                            createdBy: {
+                                id: string;
+                                name: string;
+                            } | null;
+                            createdAt: string;
+                        }[];
+                    };
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */
@@ -8240,7 +9542,49 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": Record<string, never>;
+                    "application/json": {
+                        id: string;
+                        name: string;
+                        sha256: string;
+                        edition: string;
+                        luminaire: string | null;
+                        verticalCount: number;
+                        horizontalCount: number;
+                        absolute: boolean;
+                        inputWatts: number;
+                        createdBy: {
+                            id: string;
+                            name: string;
+                        } | null;
+                        createdAt: string;
+                        parsed: {
+                            verticalAngles: number[];
+                            horizontalAngles: number[];
+                            candela: number[][];
+                            header: {
+                                edition: string;
+                                keywords: {
+                                    [key: string]: string;
+                                };
+                                tilt: string;
+                                lamps: number;
+                                lumensPerLamp: number;
+                                candelaMultiplier: number;
+                                unitsType: 1 | 2;
+                                width: number;
+                                length: number;
+                                height: number;
+                                ballastFactor: number;
+                                inputWatts: number;
+                                absolute: boolean;
+                            };
+                        };
+                        rawText: string;
+                        usedBy: {
+                            id: string;
+                            name: string;
+                        }[];
+                    };
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */
@@ -8298,7 +9642,49 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": Record<string, never>;
+                    "application/json": {
+                        id: string;
+                        name: string;
+                        sha256: string;
+                        edition: string;
+                        luminaire: string | null;
+                        verticalCount: number;
+                        horizontalCount: number;
+                        absolute: boolean;
+                        inputWatts: number;
+                        createdBy: {
+                            id: string;
+                            name: string;
+                        } | null;
+                        createdAt: string;
+                        parsed: {
+                            verticalAngles: number[];
+                            horizontalAngles: number[];
+                            candela: number[][];
+                            header: {
+                                edition: string;
+                                keywords: {
+                                    [key: string]: string;
+                                };
+                                tilt: string;
+                                lamps: number;
+                                lumensPerLamp: number;
+                                candelaMultiplier: number;
+                                unitsType: 1 | 2;
+                                width: number;
+                                length: number;
+                                height: number;
+                                ballastFactor: number;
+                                inputWatts: number;
+                                absolute: boolean;
+                            };
+                        };
+                        rawText: string;
+                        usedBy: {
+                            id: string;
+                            name: string;
+                        }[];
+                    };
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */
@@ -8410,7 +9796,25 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": Record<string, never>;
+                    "application/json": {
+                        types: {
+                            id: string;
+                            name: string;
+                            photometricFileId: string | null;
+                            photometricFileName: string | null;
+                            emergencyOutputFactor: number;
+                            ratedDurationS: number;
+                            modes: ("maintained" | "non-maintained")[];
+                            chemistry: string;
+                            cellsInSeries: number;
+                            capacityAh: number | null;
+                            emergencyPowerW: number;
+                            inputPowerW: number;
+                            notes: string;
+                            createdAt: string;
+                            updatedAt: string;
+                        }[];
+                    };
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */
@@ -8489,7 +9893,23 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": Record<string, never>;
+                    "application/json": {
+                        id: string;
+                        name: string;
+                        photometricFileId: string | null;
+                        photometricFileName: string | null;
+                        emergencyOutputFactor: number;
+                        ratedDurationS: number;
+                        modes: ("maintained" | "non-maintained")[];
+                        chemistry: string;
+                        cellsInSeries: number;
+                        capacityAh: number | null;
+                        emergencyPowerW: number;
+                        inputPowerW: number;
+                        notes: string;
+                        createdAt: string;
+                        updatedAt: string;
+                    };
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */
@@ -8547,7 +9967,23 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": Record<string, never>;
+                    "application/json": {
+                        id: string;
+                        name: string;
+                        photometricFileId: string | null;
+                        photometricFileName: string | null;
+                        emergencyOutputFactor: number;
+                        ratedDurationS: number;
+                        modes: ("maintained" | "non-maintained")[];
+                        chemistry: string;
+                        cellsInSeries: number;
+                        capacityAh: number | null;
+                        emergencyPowerW: number;
+                        inputPowerW: number;
+                        notes: string;
+                        createdAt: string;
+                        updatedAt: string;
+                    };
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */
@@ -8684,7 +10120,23 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": Record<string, never>;
+                    "application/json": {
+                        id: string;
+                        name: string;
+                        photometricFileId: string | null;
+                        photometricFileName: string | null;
+                        emergencyOutputFactor: number;
+                        ratedDurationS: number;
+                        modes: ("maintained" | "non-maintained")[];
+                        chemistry: string;
+                        cellsInSeries: number;
+                        capacityAh: number | null;
+                        emergencyPowerW: number;
+                        inputPowerW: number;
+                        notes: string;
+                        createdAt: string;
+                        updatedAt: string;
+                    };
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */
@@ -8756,7 +10208,15 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": Record<string, never>;
+                    "application/json": {
+                        /** @description The route as the engine read it, in SI units */
+                        route: {
+                            [key: string]: unknown;
+                        };
+                        results: {
+                            [key: string]: unknown;
+                        }[];
+                    };
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */
@@ -8836,7 +10296,44 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": Record<string, never>;
+                    "application/json": {
+                        sheet: {
+                            id: string;
+                            title: string;
+                            reference: string;
+                            client: string;
+                            site: string;
+                            luminaire: string;
+                            inputs: {
+                                [key: string]: unknown;
+                            };
+                            chemistry: string;
+                            results: {
+                                [key: string]: unknown;
+                            };
+                            engineVersion: string;
+                            /** @enum {string} */
+                            status: "draft" | "issued";
+                            currentRevision: number;
+                            issuedRevision: number | null;
+                            version: number;
+                            createdBy: {
+                                id: string;
+                                name: string;
+                            } | null;
+                            updatedBy: {
+                                id: string;
+                                name: string;
+                            } | null;
+                            archivedAt: string | null;
+                            createdAt: string;
+                            updatedAt: string;
+                        };
+                        /** @description One luminaire type assessed against the route: verdict, layout, pack and warnings (shared/engine/route-select) */
+                        selection: {
+                            [key: string]: unknown;
+                        };
+                    };
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */

@@ -5,7 +5,7 @@
  */
 import { z } from 'zod'
 import { referenceId } from './reference'
-import { LuminaireAnswer } from './answers/register-lists'
+import { LuminaireAnswer } from './answers/register'
 
 /** Items in one batch: enough for a large site's register, small enough to answer in about a second. */
 export const MAX_BATCH_ITEMS = 1000

@@ -4,10 +4,11 @@
  * due rules are the engine's (shared/engine/due.ts), applied exactly as on a site's own page.
  */
 import type { LuminaireDue } from '../../../shared/engine/due'
-import type { AttentionState } from '../../../shared/schemas/list.schema'
+import { ATTENTION_STATES, type AttentionState } from '../../../shared/schemas/list.schema'
 import { dataSource } from '../../data-source'
 import { decodeCursor, pageOf } from '../../lib/list-page'
 import { AreaEntity } from './area.entity'
+import { stateOf } from './portfolio.service'
 import { LuminaireEntity } from './luminaire.entity'
 import { registerSettings, statusOf, todayIso, type LuminaireStatus } from './register.service'
 import { SiteEntity } from './site.entity'
@@ -20,15 +21,12 @@ export interface LuminaireListItem extends LuminaireStatus {
 }
 
 /**
- * overdue: a test (routine, retest or commissioning) is past its last day; failed: a failure is
- * open; due-soon: a test falls due within the soon window (or now), none is overdue and no failure
- * is open (the retest a failure calls for is already in "failed").
+ * The state a luminaire is listed under, by the portfolio's rule (one state each, failed first:
+ * failed, then overdue, then due soon), so the list and the portfolio screen never disagree.
  */
 export function attentionStatesOf(due: LuminaireDue): AttentionState[] {
-  const items = [due.functional, due.duration]
-  const overdue = items.some((i) => i.state === 'overdue')
-  const soon = !overdue && !due.failed && items.some((i) => i.state === 'due-now' || i.state === 'due-soon')
-  return [...(overdue ? ['overdue' as const] : []), ...(due.failed ? ['failed' as const] : []), ...(soon ? ['due-soon' as const] : [])]
+  const state = stateOf(due, ATTENTION_STATES)
+  return state ? [state] : []
 }
 
 export interface LuminaireFilter {
