@@ -44,6 +44,12 @@ export interface AttentionItem extends UpcomingTest {
 
 export interface RegisterSettings {
   repairWindowDays: number
+  /** The daily reminder lists tests falling due within this many days. */
+  reminderDaysAhead: number
+  /** Whether each site's responsible person gets the reminder. */
+  remindSiteContact: boolean
+  /** Members with these roles get it. */
+  remindRoles: Array<'owner' | 'designer' | 'technician' | 'viewer'>
 }
 
 export interface Luminaire {
