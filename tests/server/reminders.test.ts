@@ -75,7 +75,8 @@ describe('daily reminders', () => {
     const t = await makeTeam('Unreachable team')
     const site = await siteIn(t.workspaceId, { name: 'Unreachable hall', responsibleEmail: 'not a valid address@@' })
     await luminaireIn(t.workspaceId, site.id, { tag: 'U-1', packFittedOn: '2020-01-01' })
-    await dataSource.query(`DELETE FROM memberships WHERE workspace_id = $1 AND role = 'technician'`, [t.workspaceId])
+    // Only the unreachable address is left to receive it: no technicians, no owners.
+    await dataSource.query(`DELETE FROM memberships WHERE workspace_id = $1 AND role IN ('technician', 'owner')`, [t.workspaceId])
     const run = await runReminders('2025-06-16', { workspaceId: t.workspaceId })
     expect(run.sent).toEqual([])
     expect(run.failed.map((f) => f.siteId)).toEqual([site.id])
