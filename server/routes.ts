@@ -9,6 +9,7 @@ import { authRoutes } from './modules/auth/auth.router'
 import { calcRoutes } from './modules/calc/calc.router'
 import { dischargeRoutes } from './modules/discharge/discharge.router'
 import { docsRoutes } from './modules/docs/docs.router'
+import { handoverRoutes } from './modules/handover/handover.router'
 import { healthRoutes } from './modules/health/health.router'
 import { outboxRoutes } from './modules/mail/outbox.router'
 import { photometryRoutes } from './modules/photometry/photometry.router'
@@ -42,6 +43,7 @@ export function buildRouteTable(opts: RouteTableOptions): RouteSpec[] {
     ...dischargeRoutes,
     ...photometryRoutes,
     ...storageRoutes,
+    ...handoverRoutes,
   ]
   return table
 }

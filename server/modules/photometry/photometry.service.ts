@@ -244,7 +244,7 @@ export async function deleteType(workspaceId: string, userId: string, id: string
 // ---------------------------------------------------------------------------------------------
 // Choosing a type for a route
 
-const routeNeed = (r: RouteNeedInput): RouteNeed => ({
+export const routeNeed = (r: RouteNeedInput): RouteNeed => ({
   routeLengthM: r.routeLength,
   routeWidthM: r.routeWidth,
   mountingHeightM: r.mountingHeight,
@@ -256,7 +256,7 @@ const routeNeed = (r: RouteNeedInput): RouteNeed => ({
   ...(r.endOfDurationFactor !== undefined ? { endOfDurationFactor: r.endOfDurationFactor } : {}),
 })
 
-async function candidatesOf(workspaceId: string, rows: LuminaireType[]): Promise<TypeCandidate[]> {
+export async function candidatesOf(workspaceId: string, rows: LuminaireType[]): Promise<TypeCandidate[]> {
   const ids = [...new Set(rows.map((r) => r.photometricFileId).filter((x): x is string => !!x))]
   const tables = ids.length ? await files().find({ where: { workspaceId, id: In(ids) }, select: { id: true, parsed: true } }) : []
   const byId = new Map(tables.map((f) => [f.id, f.parsed]))
