@@ -4,7 +4,7 @@
  * with them (supply voltage and frequency, currency, paper). Stored and computed values stay SI;
  * this only converts for showing and reading. Conversion factors: docs/method.md.
  */
-import { formatNumber, type FormatPrefs } from '../format'
+import { formatNumber, type FormatPrefs, type PaperSize } from '../format'
 import { convert, withoutConversionNoise } from './quantity'
 
 export type UnitSystem = 'si' | 'us'
@@ -47,8 +47,12 @@ export function fromDisplay(kind: DisplayKind, system: UnitSystem, value: number
 }
 
 /** "12.3 lx" or "1.14 fc": through the one number formatter, so the reader's decimal mark and rounding apply. */
-export function formatDisplay(kind: DisplayKind, system: UnitSystem, value: number, digits = 3, prefs?: FormatPrefs): string {
-  if (!Number.isFinite(value)) return '—'
+export function formatDisplay(kind: DisplayKind, system: UnitSystem, value: number | { min: number; max: number }, digits = 3, prefs?: FormatPrefs): string {
+  if (typeof value === 'object' && value !== null) {
+    const max = formatDisplay(kind, system, value.max, digits, prefs)
+    return `${formatDisplay(kind, system, value.min, digits, prefs).replace(/ \S+$/, '')}–${max}`
+  }
+  if (typeof value !== 'number' || !Number.isFinite(value)) return '—'
   // Temperatures read as whole or tenth degrees whatever their size; three significant digits of 104.5 °F would drop the half.
   const shown = toDisplay(kind, system, value)
   const opts = kind === 'temperature' ? { digits: Math.max(digits, significantFor(shown, 1)), unit: UNITS[kind][system] } : { digits, unit: UNITS[kind][system] }
@@ -76,7 +80,7 @@ export function roundDefault(kind: DisplayKind, system: UnitSystem, si: number):
   return withoutConversionNoise(Math.round(shown / step) * step, shown)
 }
 
-export type PaperSize = 'a4' | 'letter'
+export type { PaperSize }
 
 export interface RegionDefaults {
   /** Typed text for the claim check's supply fields and currency. */
@@ -95,4 +99,9 @@ export function regionDefaults(system: UnitSystem): RegionDefaults {
   return system === 'us'
     ? { supplyVoltage: '120 V', supplyFrequency: '60 Hz', currency: 'USD', paper: 'letter' }
     : { supplyVoltage: '230 V', supplyFrequency: '50 Hz', currency: 'EUR', paper: 'a4' }
+}
+
+/** A temperature difference ("10 °C" or "18 °F"): a step of 1 °C is a step of 1.8 °F, with no offset. */
+export function formatTemperatureStep(system: UnitSystem, stepC: number, prefs?: FormatPrefs): string {
+  return system === 'si' ? formatNumber(stepC, { unit: 'degC' }, prefs) : formatNumber(stepC * 1.8, { unit: 'degF' }, prefs)
 }

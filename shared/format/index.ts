@@ -6,12 +6,23 @@
  */
 import { unitLabel } from '../labels'
 
+export type PaperSize = 'a4' | 'letter'
+
 export interface FormatPrefs {
   /** BCP 47 tag such as "en-GB", "de-DE", "en-US". */
   locale: string
   /** IANA zone for times of day; dates of the calendar (YYYY-MM-DD) never shift. */
   timeZone: string
+  /** Paper a document is laid out on; A4 unless told. */
+  paper?: PaperSize
 }
+
+/** Letter where it is the usual paper (the United States, Canada, Mexico and a few others), A4 elsewhere. */
+export function paperForLocale(locale: string): PaperSize {
+  const region = /^[a-z]{2,3}(?:-[A-Za-z]{4})?-([A-Z]{2})\b/.exec(locale)?.[1]
+  return region && LETTER_REGIONS.has(region) ? 'letter' : 'a4'
+}
+const LETTER_REGIONS = new Set(['US', 'CA', 'MX', 'PH', 'CL', 'CO', 'VE', 'GT', 'PR'])
 
 export const DEFAULT_PREFS: FormatPrefs = { locale: 'en-GB', timeZone: 'UTC' }
 
