@@ -105,3 +105,29 @@ export function regionDefaults(system: UnitSystem): RegionDefaults {
 export function formatTemperatureStep(system: UnitSystem, stepC: number, prefs?: FormatPrefs): string {
   return system === 'si' ? formatNumber(stepC, { unit: 'degC' }, prefs) : formatNumber(stepC * 1.8, { unit: 'degF' }, prefs)
 }
+
+const NUMBER = String.raw`[−-]?\d+(?:[.,]\d+)?`
+const METRIC_IN_TEXT = new RegExp(String.raw`(?<![\w.,])(${NUMBER})(?:(\s?(?:–|−|to|and)\s?)(${NUMBER}))?\s?(°C|kg|L|m|lx)(?![\w²³])`, 'g')
+const TEXT_KIND: Record<string, DisplayKind> = { '°C': 'temperature', kg: 'mass', L: 'volume', m: 'length', lx: 'illuminance' }
+
+/**
+ * The engine writes its sentences in SI ("the site reaches 40 °C", "0.3–0.45 kg"); for a reader in
+ * US customary units every quantity in such a text is rewritten in theirs ("104 °F", "0.66–0.99 lb").
+ * A temperature after "every", "each", "per" or "by" is a step, not a reading: 10 °C is 18 °F.
+ */
+export function inUserUnits(text: string, system: UnitSystem, prefs?: FormatPrefs): string {
+  if (system === 'si' || !text) return text
+  return text.replace(METRIC_IN_TEXT, (whole, a: string, joint: string | undefined, b: string | undefined, unit: string, offset: number, all: string) => {
+    const kind = TEXT_KIND[unit]
+    const read = (x: string) => Number(x.replace('−', '-').replace(',', '.'))
+    const step = kind === 'temperature' && /\b(?:every|each|per|by)\s*$/i.test(all.slice(0, offset))
+    const one = (x: string, withUnit: boolean) => {
+      const v = read(x)
+      if (!Number.isFinite(v)) return x
+      const s = step ? formatTemperatureStep(system, v, prefs) : formatDisplay(kind, system, v, 3, prefs)
+      return withUnit ? s : s.replace(/\s\S+$/, '')
+    }
+    if (b === undefined) return one(a, true)
+    return `${one(a, false)}${joint}${one(b, true)}`
+  })
+}

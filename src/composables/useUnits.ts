@@ -1,5 +1,5 @@
 import { computed } from 'vue'
-import { displayUnit, formatDisplay, formatTemperatureStep, fromDisplay, regionDefaults, roundDefault, toDisplay, unitLabel, type DisplayKind, type UnitSystem } from '@shared/engine/units'
+import { displayUnit, formatDisplay, formatTemperatureStep, inUserUnits, fromDisplay, regionDefaults, roundDefault, toDisplay, unitLabel, type DisplayKind, type UnitSystem } from '@shared/engine/units'
 import { decimalMark, formatDuration } from '@shared/format'
 import { readQuantity, type ReadResult } from '@shared/format/input'
 import { useAuthStore } from '@/stores/auth'
@@ -46,6 +46,8 @@ export function useUnits() {
       readQuantity(typed, kind, { locale: prefs.locale, bareUnit: displayUnit(kind, system.value), expected: `${NOUNS[kind]} such as "${EXAMPLES[kind][system.value]}"` }),
     /** A temperature difference (10 °C is 18 °F). */
     temperatureStep: (stepC: number) => formatTemperatureStep(system.value, stepC, prefs),
+    /** An engine sentence or a figure written in SI, with its quantities in the user's units. */
+    text: (s: string) => inUserUnits(s, system.value, prefs),
     /** Seconds as h:mm. */
     duration: (seconds: number | null | undefined) => formatDuration(seconds, prefs),
   }

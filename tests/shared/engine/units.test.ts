@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import { unit } from 'mathjs'
-import { displayUnit, formatDisplay, fromDisplay, regionDefaults, roundDefault, toDisplay, unitLabel } from '../../../shared/engine/units'
+import { displayUnit, formatDisplay, fromDisplay, inUserUnits, regionDefaults, roundDefault, toDisplay, unitLabel } from '../../../shared/engine/units'
 import { readQuantity } from '../../../shared/format/input'
 
 describe('display units (mathjs as the reference library)', () => {
@@ -83,5 +83,19 @@ describe('regional defaults', () => {
   it('US: 120 V 60 Hz, dollars, Letter (NEC / ANSI C84.1 nominal 120 V, from memory); elsewhere 230 V 50 Hz (IEC 60038), euros, A4', () => {
     expect(regionDefaults('us')).toEqual({ supplyVoltage: '120 V', supplyFrequency: '60 Hz', currency: 'USD', paper: 'letter' })
     expect(regionDefaults('si')).toEqual({ supplyVoltage: '230 V', supplyFrequency: '50 Hz', currency: 'EUR', paper: 'a4' })
+  })
+})
+
+describe('engine sentences in the reader’s units', () => {
+  it.each([
+    ['NiCd should be charged at 40 °C or below; the site reaches 45 °C.', 'NiCd should be charged at 104 °F or below; the site reaches 113 °F.'],
+    ['specified for discharge between −20 and 50 °C', 'specified for discharge between −4 and 122 °F'],
+    ['Rank 1: 5 Ah × 3 cells (0.3–0.45 kg), about 4 years at 25 °C', 'Rank 1: 5 Ah × 3 cells (0.661–0.992 lb), about 4 years at 77 °F'],
+    ['Standby life halves for every 10 °C above 20 °C', 'Standby life halves for every 18 °F above 68 °F'],
+    ['a 30 m route at 2.5 m, 1 lx on the floor, pack of 0.12 L', 'a 98.4 ft route at 8.2 ft, 0.0929 fc on the floor, pack of 7.32 in³'],
+    ['lasts 3 min at 3 mA, 60 Hz; 1.6 Ah', 'lasts 3 min at 3 mA, 60 Hz; 1.6 Ah'],
+  ])('%s', (si, us) => {
+    expect(inUserUnits(si, 'us')).toBe(us)
+    expect(inUserUnits(si, 'si')).toBe(si)
   })
 })
