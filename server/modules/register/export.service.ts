@@ -8,7 +8,7 @@ import { DEFAULT_PREFS, formatDate, formatHours, formatNumber, type FormatPrefs 
 import { frame, heightOf, newDocument, toBuffer, write, writeAt, type Doc, type WriteOptions } from '../../lib/pdf/pdf-kit'
 import { PURPOSE_LABELS } from '../../../shared/schemas/luminaire.schema'
 import { REGIME_LABELS } from '../../../shared/schemas/site.schema'
-import { chemistryName, DUE_REASON_LABELS, FORECAST_STATE_LABELS, LUMINAIRE_STATE_LABELS, MODE_LABELS, testKindWords } from '../../../shared/schemas/logbook-labels'
+import { chemistryName, DUE_REASON_LABELS, PACK_STATE_LABELS, TEST_STATE_LABELS, MODE_LABELS, testKindWords } from '../../../shared/labels'
 import type { LuminaireStatus } from './register.service'
 import { siteStatus, todayIso } from './register.service'
 import { siteLogBook } from './tests.service'
@@ -43,8 +43,14 @@ export async function registerRows(workspaceId: string, siteId: string) {
   return { status, header, rows }
 }
 
-export async function logBookRows(workspaceId: string, siteId: string) {
-  const entries = await siteLogBook(workspaceId, siteId, 100_000)
+/** Days of the log book to include (YYYY-MM-DD, both included); either end may be open. */
+export interface LogBookPeriod {
+  from?: string
+  to?: string
+}
+
+export async function logBookRows(workspaceId: string, siteId: string, period: LogBookPeriod = {}) {
+  const entries = (await siteLogBook(workspaceId, siteId, 100_000)).filter((e) => (!period.from || e.testedOn >= period.from) && (!period.to || e.testedOn <= period.to))
   const header = ['tested_on', 'tag', 'test', 'result', 'achieved_duration_h', 'faults', 'remedial_action', 'recorded_by', 'recorded_at']
   const rows = entries.map((e) => [
     e.testedOn, e.tag, e.kind, e.passed ? 'pass' : 'fail', e.achievedDurationH === null ? null : round(e.achievedDurationH), e.faults, e.remedialAction, e.recordedByName ?? '', new Date(e.recordedAt).toISOString(),
@@ -63,13 +69,15 @@ export interface ExportResult {
 
 const slug = (s: string) => s.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '').slice(0, 60) || 'site'
 
-export async function exportFile(workspaceId: string, siteId: string, file: ExportFile, prefs: FormatPrefs = DEFAULT_PREFS): Promise<ExportResult> {
+/** `period` limits the log book files to the tests between two days (the register files ignore it). */
+export async function exportFile(workspaceId: string, siteId: string, file: ExportFile, prefs: FormatPrefs = DEFAULT_PREFS, period: LogBookPeriod = {}): Promise<ExportResult> {
   const reg = await registerRows(workspaceId, siteId)
-  const base = `${slug(reg.status.site.name)}-${file.startsWith('register') ? 'register' : 'log-book'}-${reg.status.today}`
+  const span = file.startsWith('logbook') && (period.from || period.to) ? `${period.from ?? 'start'}-to-${period.to ?? reg.status.today}` : reg.status.today
+  const base = `${slug(reg.status.site.name)}-${file.startsWith('register') ? 'register' : 'log-book'}-${span}`
   if (file === 'register.csv') return { filename: `${base}.csv`, mediaType: 'text/csv; charset=utf-8', body: Buffer.from(toCsv(reg.header, reg.rows), 'utf8') }
-  const log = await logBookRows(workspaceId, siteId)
+  const log = await logBookRows(workspaceId, siteId, period)
   if (file === 'logbook.csv') return { filename: `${base}.csv`, mediaType: 'text/csv; charset=utf-8', body: Buffer.from(toCsv(log.header, log.rows), 'utf8') }
-  const body = file === 'register.pdf' ? await registerPdf(reg, prefs) : await logBookPdf(reg.status, log.rows, prefs)
+  const body = file === 'register.pdf' ? await registerPdf(reg, prefs) : await logBookPdf(reg.status, log.rows, prefs, period)
   return { filename: `${base}.pdf`, mediaType: 'application/pdf', body }
 }
 
@@ -160,8 +168,8 @@ async function registerPdf(reg: Awaited<ReturnType<typeof registerRows>>, prefs:
     columns,
     s.luminaires.map((l) => [
       l.tag, [l.areaName, l.location].filter(Boolean).join(' — '), PURPOSE_LABELS[l.purpose], MODE_LABELS[l.mode], formatHours(l.ratedDurationH, prefs),
-      `${chemistryName(l.chemistry)}, ${l.cellsInSeries} cells, ${formatNumber(l.capacityAh, { unit: 'Ah' }, prefs)}`, date(l.packFittedOn), dueWords(l.due.functional, prefs), dueWords(l.due.duration, prefs), LUMINAIRE_STATE_LABELS[l.due.state],
-      `${date(l.forecast.replaceBy)} (${FORECAST_STATE_LABELS[l.forecast.state].toLowerCase()})`,
+      `${chemistryName(l.chemistry)}, ${l.cellsInSeries} cells, ${formatNumber(l.capacityAh, { unit: 'Ah' }, prefs)}`, date(l.packFittedOn), dueWords(l.due.functional, prefs), dueWords(l.due.duration, prefs), TEST_STATE_LABELS[l.due.state],
+      `${date(l.forecast.replaceBy)} (${PACK_STATE_LABELS[l.forecast.state].toLowerCase()})`,
     ]),
   )
   const failures = s.luminaires.filter((l) => l.due.openFailures.length)
@@ -182,9 +190,12 @@ async function registerPdf(reg: Awaited<ReturnType<typeof registerRows>>, prefs:
   return toBuffer(doc)
 }
 
-async function logBookPdf(status: SiteStatus, rows: Array<Array<string | number | boolean | null>>, prefs: FormatPrefs): Promise<Buffer> {
+async function logBookPdf(status: SiteStatus, rows: Array<Array<string | number | boolean | null>>, prefs: FormatPrefs, period: LogBookPeriod = {}): Promise<Buffer> {
   const doc = newDoc(`Emergency lighting log book — ${status.site.name}`, prefs)
   heading(doc, 'Emergency lighting log book', status, prefs)
+  if (period.from || period.to) {
+    write(doc, `Tests ${period.from ? `from ${formatDate(period.from, prefs)} ` : ''}${period.to ? `to ${formatDate(period.to, prefs)}` : 'to today'}.`)
+  }
   const columns: Column[] = [
     { title: 'Date', width: 58 }, { title: 'Tag', width: 52 }, { title: 'Test', width: 56 }, { title: 'Result', width: 36 }, { title: 'Lit for', width: 40 },
     { title: 'Faults found', width: 170 }, { title: 'Remedial action', width: 170 }, { title: 'By', width: 90 },
@@ -197,7 +208,7 @@ async function logBookPdf(status: SiteStatus, rows: Array<Array<string | number 
       typeof r[4] === 'number' ? formatHours(r[4], prefs) : '', String(r[5] ?? ''), String(r[6] ?? ''), String(r[7] ?? ''),
     ]),
   )
-  if (!rows.length) write(doc, 'No tests recorded yet.')
+  if (!rows.length) write(doc, period.from || period.to ? 'No tests recorded in this period.' : 'No tests recorded yet.')
   frameSiteDocument(doc, 'Emergency lighting log book', status, prefs)
   return toBuffer(doc)
 }
