@@ -9,10 +9,13 @@ import { authRoutes } from './modules/auth/auth.router'
 import { calcRoutes } from './modules/calc/calc.router'
 import { dischargeRoutes } from './modules/discharge/discharge.router'
 import { docsRoutes } from './modules/docs/docs.router'
+import { handoverRoutes } from './modules/handover/handover.router'
 import { healthRoutes } from './modules/health/health.router'
 import { outboxRoutes } from './modules/mail/outbox.router'
 import { photometryRoutes } from './modules/photometry/photometry.router'
 import { registerRoutes } from './modules/register/register.router'
+import { collectionRoutes } from './modules/register/collections.router'
+import { portfolioRoutes } from './modules/register/portfolio.router'
 import { sheetRoutes } from './modules/sheets/sheets.router'
 import { storageRoutes } from './modules/storage/storage.router'
 import { tokenRoutes } from './modules/tokens/tokens.router'
@@ -34,10 +37,13 @@ export function buildRouteTable(opts: RouteTableOptions): RouteSpec[] {
     ...tokenRoutes,
     ...sheetRoutes,
     ...registerRoutes,
+    ...collectionRoutes,
+    ...portfolioRoutes,
     ...auditRoutes,
     ...dischargeRoutes,
     ...photometryRoutes,
     ...storageRoutes,
+    ...handoverRoutes,
   ]
   return table
 }

@@ -61,6 +61,20 @@ export const CRITERIA_LABELS = {
   nfpa101: 'NFPA 101 egress path',
 } as const
 
+/** Points along a route that need a luminaire near them. */
+export const EMPHASIS_POINT_LABELS = {
+  'exit-door': 'Exit door',
+  'final-exit': 'Outside a final exit',
+  'change-of-direction': 'Change of direction',
+  intersection: 'Corridor intersection',
+  stairs: 'Stairs',
+  'change-of-level': 'Change of floor level',
+  'fire-fighting-equipment': 'Fire-fighting equipment',
+  'call-point': 'Fire alarm call point',
+  'first-aid-point': 'First-aid point',
+  'safety-sign': 'Exit or safety sign',
+} as const
+
 export const ROLE_NAMES = {
   viewer: 'Viewer',
   technician: 'Technician',
@@ -84,6 +98,13 @@ export const SHEET_STATUS_LABELS = {
   draft: 'Draft',
   issued: 'Issued',
   superseded: 'Superseded',
+} as const
+
+/** Whether a read-only link still opens. */
+export const SHARE_STATE_LABELS = {
+  active: 'Active',
+  expired: 'Expired',
+  revoked: 'Revoked',
 } as const
 
 /** When a luminaire's next test falls. */
@@ -237,6 +258,7 @@ export const UNIT_LABELS: Record<string, string> = {
   mohm: 'mΩ',
   uA: 'µA',
   days: 'days',
+  'in^3': 'in³',
 }
 
 /** Every enumeration's map by name; the no-codes checks read this list. */
@@ -247,9 +269,11 @@ export const ENUMERATIONS = {
   purpose: PURPOSE_LABELS,
   regime: REGIME_LABELS,
   criteria: CRITERIA_LABELS,
+  emphasisPoint: EMPHASIS_POINT_LABELS,
   role: ROLE_NAMES,
   testKind: TEST_KIND_LABELS,
   sheetStatus: SHEET_STATUS_LABELS,
+  shareState: SHARE_STATE_LABELS,
   dueState: DUE_STATE_LABELS,
   testState: TEST_STATE_LABELS,
   dueReason: DUE_REASON_LABELS,

@@ -24,6 +24,10 @@ export const registerRouteExamples: Record<string, ExampleFn> = {
   'get /api/sites': async () => ({ path: '/api/sites?days=30' }),
   'get /api/register/settings': async () => ({ path: '/api/register/settings' }),
   'patch /api/register/settings': async () => ({ path: '/api/register/settings', body: { repairWindowDays: 14 } }),
+  'get /api/portfolio': async () => ({ path: '/api/portfolio?state=overdue,failed' }),
+  'get /api/portfolio/pack-budget': async () => ({ path: '/api/portfolio/pack-budget' }),
+  'get /api/portfolio/pack-prices': async () => ({ path: '/api/portfolio/pack-prices' }),
+  'put /api/portfolio/pack-prices': async () => ({ path: '/api/portfolio/pack-prices', body: { prices: [{ typeLabel: 'Bulkhead BK-3', price: 18.5, currency: 'EUR' }] } }),
   'post /api/sites': async () => ({ path: '/api/sites', body: siteBody() }),
   'get /api/sites/:id': async ({ team, other }) => ({ path: `/api/sites/${await siteId(team.workspaceId)}`, foreignPath: `/api/sites/${await siteId(other.workspaceId)}` }),
   'patch /api/sites/:id': async ({ team, other }) => ({ path: `/api/sites/${await siteId(team.workspaceId)}`, body: { ceilingTemperatureC: 30 }, foreignPath: `/api/sites/${await siteId(other.workspaceId)}` }),
@@ -65,4 +69,9 @@ export const registerRouteExamples: Record<string, ExampleFn> = {
     // ?as=json: the same file wrapped in JSON (the plain download is checked in register.test.ts).
     return { path: `/api/sites/${site.id}/export/register.csv?as=json`, foreignPath: `/api/sites/${await siteId(other.workspaceId)}/export/register.csv` }
   },
+  // lists across sites and batches
+  'get /api/luminaires': async () => ({ path: '/api/luminaires?state=overdue,failed&limit=50' }),
+  'get /api/tests': async () => ({ path: '/api/tests?from=2025-01-01&to=2025-12-31' }),
+  'post /api/calc/size/batch': async ({ team }) => ({ path: '/api/calc/size/batch', body: { items: [{ luminaireId: await luminaireId(team.workspaceId), input: { load: { power: '2 W' } } }] } }),
+  'patch /api/luminaires': async ({ team }) => ({ path: '/api/luminaires', body: { items: [{ id: await luminaireId(team.workspaceId), changes: { location: 'Stair 3 landing' } }] } }),
 }

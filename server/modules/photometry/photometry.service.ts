@@ -5,8 +5,9 @@
 import crypto from 'node:crypto'
 import type { EntityManager } from 'typeorm'
 import { In, QueryFailedError } from 'typeorm'
-import { parseLm63 } from '../../../shared/engine/lm63'
+import { parsePhotometricFile, PHOTOMETRIC_FORMAT_NAMES } from '../../../shared/engine/photometric-file'
 import { assessType, selectTypesForRoute, type RouteNeed, type TypeCandidate } from '../../../shared/engine/route-select'
+import { MODE_LABELS } from '../../../shared/labels'
 import { CRITERIA_LABELS, type LuminaireTypeInput, type LuminaireTypePatch, type PickInput, type RouteNeedInput } from '../../../shared/schemas/photometry.schema'
 import { dataSource } from '../../data-source'
 import { BadRequestError, ConflictError, NotFoundError } from '../../errors/app-error'
@@ -22,9 +23,9 @@ const types = (m: EntityManager = dataSource.manager) => m.getRepository(Luminai
 
 const isUniqueViolation = (err: unknown) => err instanceof QueryFailedError && (err as QueryFailedError & { driverError?: { code?: string } }).driverError?.code === '23505'
 
-/** Parses LM-63 text; a malformed file is a 400 naming the line, and nothing is stored. */
+/** Parses LM-63 or EULUMDAT text; a malformed file is a 400 naming the format and the line, and nothing is stored. */
 export function parseUpload(text: string, field = 'text'): ParsedPhotometry {
-  // Control characters other than tab and line ends never belong in an LM-63 file.
+  // Control characters other than tab and line ends never belong in a photometric file.
   const control = /[\u0000-\u0008\u000b\u000c\u000e-\u001f]/.exec(text)
   if (control) {
     const line = text.slice(0, control.index).split(/\r\n|\r|\n/).length
@@ -32,10 +33,11 @@ export function parseUpload(text: string, field = 'text'): ParsedPhotometry {
       { path: field, message: `line ${line}: a control character is not allowed in an LM-63 file` },
     ], { line })
   }
-  const result = parseLm63(text)
+  const result = parsePhotometricFile(text)
   if (!result.ok) {
     const { line, message } = result.error
-    throw new BadRequestError(`LM-63 file, line ${line}: ${message}`, [{ path: field, message: `line ${line}: ${message}` }], { line })
+    const what = PHOTOMETRIC_FORMAT_NAMES[result.format]
+    throw new BadRequestError(`${what}, line ${line}: ${message}`, [{ path: field, message: `line ${line}: ${message}` }], { line })
   }
   const p = result.value
   return {
@@ -147,6 +149,8 @@ function typeView(t: LuminaireType, fileNames: Map<string, string>) {
     photometricFileName: t.photometricFileId ? (fileNames.get(t.photometricFileId) ?? null) : null,
     emergencyOutputFactor: t.emergencyOutputFactor,
     ratedDurationS: t.ratedDurationS,
+    /** The same rated duration in hours, under the name and unit the register uses. */
+    ratedDurationH: t.ratedDurationS / 3600,
     modes: t.modes,
     chemistry: t.chemistry,
     cellsInSeries: t.cellsInSeries,
@@ -241,7 +245,7 @@ export async function deleteType(workspaceId: string, userId: string, id: string
 // ---------------------------------------------------------------------------------------------
 // Choosing a type for a route
 
-const routeNeed = (r: RouteNeedInput): RouteNeed => ({
+export const routeNeed = (r: RouteNeedInput): RouteNeed => ({
   routeLengthM: r.routeLength,
   routeWidthM: r.routeWidth,
   mountingHeightM: r.mountingHeight,
@@ -253,7 +257,7 @@ const routeNeed = (r: RouteNeedInput): RouteNeed => ({
   ...(r.endOfDurationFactor !== undefined ? { endOfDurationFactor: r.endOfDurationFactor } : {}),
 })
 
-async function candidatesOf(workspaceId: string, rows: LuminaireType[]): Promise<TypeCandidate[]> {
+export async function candidatesOf(workspaceId: string, rows: LuminaireType[]): Promise<TypeCandidate[]> {
   const ids = [...new Set(rows.map((r) => r.photometricFileId).filter((x): x is string => !!x))]
   const tables = ids.length ? await files().find({ where: { workspaceId, id: In(ids) }, select: { id: true, parsed: true } }) : []
   const byId = new Map(tables.map((f) => [f.id, f.parsed]))
@@ -293,7 +297,7 @@ export async function pickIntoSheet(workspaceId: string, userId: string, input: 
   }
   const fileName = t.photometricFileId ? (await fileNamesOf(workspaceId, [t.photometricFileId])).get(t.photometricFileId) : undefined
   const description = [
-    `${t.name} (${t.modes.join(' / ')}, rated ${hoursText(t.ratedDurationS)}), emergency output factor ${a.emergencyOutputFactor.value} (${a.emergencyOutputFactor.from === 'type' ? 'taken from the type' : `typed by the designer over the type's ${a.emergencyOutputFactor.typeValue}`}).`,
+    `${t.name} (${t.modes.map((m) => MODE_LABELS[m].toLowerCase()).join(' / ')}, rated ${hoursText(t.ratedDurationS)}; the pack on this sheet is sized for the route's ${hoursText(need.ratedDurationS)}), emergency output factor ${a.emergencyOutputFactor.value} (${a.emergencyOutputFactor.from === 'type' ? 'taken from the type' : `typed by the designer over the type's ${a.emergencyOutputFactor.typeValue}`}).`,
     `Route ${fig(need.routeLengthM, 'm')} long, ${fig(need.routeWidthM, 'm')} wide, mounted at ${fig(need.mountingHeightM, 'm')}; ${CRITERIA_LABELS[need.criteria]}, maintenance factor ${need.maintenanceFactor}.`,
     a.layout
       ? `${a.layout.count} luminaires evenly spaced ${fig(a.layout.spacingM, 'm')} apart, ${fig(a.layout.endDistanceM, 'm')} from each end; over the route minimum ${fig(a.layout.minLx, 'lx')}, average ${fig(a.layout.averageLx, 'lx')}, max:min ${fig(a.layout.maxToMin, '')}.`.replace(' .', '.')
@@ -304,12 +308,16 @@ export async function pickIntoSheet(workspaceId: string, userId: string, input: 
   ]
     .filter(Boolean)
     .join('\n')
+  // The sheet carries the duration the pack was sized for (the route's) and the type's mode; the
+  // maintained-mode mains power belongs only on a luminaire that is lit from the mains.
+  const mode = t.modes.includes('maintained') ? 'maintained' : 'non-maintained'
   const inputs: Record<string, unknown> = {
     chemistry: t.chemistry,
     cellsInSeries: t.cellsInSeries,
     duration: hoursText(need.ratedDurationS),
+    mode,
     driver: 'converter',
-    load: { power: `${t.emergencyPowerW} W`, ...(t.inputPowerW > 0 ? { mainsPower: `${t.inputPowerW} W` } : {}) },
+    load: { power: `${t.emergencyPowerW} W`, ...(mode === 'maintained' && t.inputPowerW > 0 ? { mainsPower: `${t.inputPowerW} W` } : {}) },
   }
   const title = input.title?.trim() || `${t.name}: ${CRITERIA_LABELS[need.criteria]}, ${fig(need.routeLengthM, 'm')}`
   let sheet
