@@ -178,7 +178,7 @@ describe('luminaire types', () => {
     expect((await technician.post('/api/luminaire-types', body)).status).toBe(403)
     const created = await designer.post('/api/luminaire-types', body)
     expect(created.status, JSON.stringify(created.body)).toBe(201)
-    expect(created.body).toMatchObject({ name: body.name, photometricFileId: file.id, photometricFileName: file.name, ratedDurationS: 10800, modes: ['maintained', 'non-maintained'], capacityAh: 1.6, emergencyPowerW: 1.6, inputPowerW: 1.2 })
+    expect(created.body).toMatchObject({ name: body.name, photometricFileId: file.id, photometricFileName: file.name, ratedDurationS: 10800, ratedDurationH: 3, modes: ['maintained', 'non-maintained'], capacityAh: 1.6, emergencyPowerW: 1.6, inputPowerW: 1.2 })
 
     const list = await viewer.get('/api/luminaire-types')
     expect(list.body.types.map((t: { id: string }) => t.id)).toContain(created.body.id)

@@ -149,6 +149,8 @@ function typeView(t: LuminaireType, fileNames: Map<string, string>) {
     photometricFileName: t.photometricFileId ? (fileNames.get(t.photometricFileId) ?? null) : null,
     emergencyOutputFactor: t.emergencyOutputFactor,
     ratedDurationS: t.ratedDurationS,
+    /** The same rated duration in hours, under the name and unit the register uses. */
+    ratedDurationH: t.ratedDurationS / 3600,
     modes: t.modes,
     chemistry: t.chemistry,
     cellsInSeries: t.cellsInSeries,
