@@ -3,6 +3,8 @@ import type { DueCounts, DueItem, LuminaireDue, PackForecast, RegimeRules } from
 import type { LuminaireInput } from '@shared/schemas/luminaire.schema'
 import type { SiteInput, TestRegimeId } from '@shared/schemas/site.schema'
 import type { TestRecordInput } from '@shared/schemas/test-record.schema'
+import type { Answer } from '@shared/schemas/answers/common'
+import type { RoundSignOffAnswer } from '@shared/schemas/answers/register'
 import { http } from './http'
 
 export type { DueCounts } from '@shared/engine/due'
@@ -144,3 +146,9 @@ export const previewImport = (siteId: string, csv: string) => http.post<ImportPr
 export const commitImport = (siteId: string, csv: string) => http.post<{ imported: number; areasCreated: number }>(`/sites/${siteId}/import`, { csv })
 /** A plain link: the browser downloads the file with the session cookie. */
 export const exportUrl = (siteId: string, file: 'register.csv' | 'logbook.csv' | 'register.pdf' | 'logbook.pdf') => `/api/sites/${siteId}/export/${file}`
+
+export type RoundSignOffResult = Answer<typeof RoundSignOffAnswer>
+export const signOffRound = (siteId: string, body: { clientId: string; signedOffByName: string; signedOffOn: string; notes?: string }) =>
+  http.post<RoundSignOffResult>(`/sites/${siteId}/rounds`, body)
+/** The printable record of a signed-off round (a plain link, like the exports). */
+export const roundRecordUrl = (siteId: string, roundId: string) => `/api/sites/${siteId}/rounds/${roundId}/record.pdf`
