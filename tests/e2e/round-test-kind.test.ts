@@ -38,8 +38,9 @@ describe('round on a US site at 375 px', () => {
     const b = await newBrowser({ width: 375, height: 740 })
     try {
       const { page } = b
-      // A fake clock, so the 1½-hour timer can be run forward instead of waited for.
-      await page.clock.install()
+      // A fake clock, so the 1½-hour timer can be run forward instead of waited for; set to the
+      // morning so running it forward never crosses midnight into another test day.
+      await page.clock.install({ time: new Date(`${today}T08:00:00Z`) })
       await signInThroughForm(page, app.url, team.users.technician.email, TEST_PASSWORD)
       await page.goto(`${app.url}/sites/${site.id}/round`)
       const card = page.locator('[data-test="round-card"]')

@@ -25,8 +25,16 @@ export function drawMark(doc: Doc, mark: 'pass' | 'fail', x: number, y: number) 
   doc.restore()
 }
 
+export interface TableOptions {
+  size?: number
+  /** Rows at least this tall, with a rule under each: a sheet to be filled in by hand. */
+  writeIn?: number
+}
+
 /** A plain table that starts a new page (with its header again) when the page is full. */
-export function table(doc: Doc, columns: Column[], rows: Cell[][], size = 8.5) {
+export function table(doc: Doc, columns: Column[], rows: Cell[][], options: TableOptions = {}) {
+  const size = options.size ?? 8.5
+  const tableWidth = columns.reduce((s, c) => s + c.width, 0)
   const left = doc.page.margins.left
   const drawHeader = () => {
     const y = doc.y
@@ -36,14 +44,14 @@ export function table(doc: Doc, columns: Column[], rows: Cell[][], size = 8.5) {
       writeAt(doc, c.title, x, y, { weight: 'semibold', size, width: c.width - 4 })
       x += c.width
     }
-    doc.moveTo(left, y + height + 2).lineTo(left + columns.reduce((s, c) => s + c.width, 0), y + height + 2).lineWidth(0.5).strokeColor('#1b2a33').stroke()
+    doc.moveTo(left, y + height + 2).lineTo(left + tableWidth, y + height + 2).lineWidth(0.5).strokeColor('#1b2a33').stroke()
     doc.x = left
     doc.y = y + height + 5
   }
   drawHeader()
   for (const row of rows) {
     const inner = (cell: Cell, i: number) => columns[i].width - 4 - (markOf(cell) ? MARK_W : 0)
-    const height = Math.max(...row.map((cell, i) => heightOf(doc, textOf(cell), inner(cell, i), { size, weight: typeof cell === 'string' ? 'regular' : cell.weight })))
+    const height = Math.max(options.writeIn ?? 0, ...row.map((cell, i) => heightOf(doc, textOf(cell), inner(cell, i), { size, weight: typeof cell === 'string' ? 'regular' : cell.weight })))
     if (doc.y + height > doc.page.height - doc.page.margins.bottom - 14) {
       doc.addPage()
       drawHeader()
@@ -56,6 +64,7 @@ export function table(doc: Doc, columns: Column[], rows: Cell[][], size = 8.5) {
       writeAt(doc, textOf(cell), x + (mark ? MARK_W : 0), y, { size, width: inner(cell, i), weight: typeof cell === 'string' ? 'regular' : cell.weight })
       x += columns[i].width
     })
+    if (options.writeIn) doc.moveTo(left, y + height + 1).lineTo(left + tableWidth, y + height + 1).lineWidth(0.4).strokeColor('#8a989f').stroke()
     doc.x = left
     doc.y = y + height + 3
   }

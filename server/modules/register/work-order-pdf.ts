@@ -44,7 +44,7 @@ export async function workOrderPdf(workspaceId: string, siteId: string, planId: 
     doc.moveDown(0.3)
     table(doc, [
       { title: 'Tag', width: 80 }, { title: 'Lit at the start', width: 90 }, { title: 'Went out at (or lit to the end)', width: 170 }, { title: 'Pass or fail', width: 90 }, { title: 'Faults and remedial action', width: 330 },
-    ], g.tags.map((t) => [t, '', '', '', '']), 9)
+    ], g.tags.map((t) => [t, '', '', '', '']), { size: 9, writeIn: 20 })
   }
   doc.moveDown(0.8)
   signOffBoxes(doc, [{ role: 'Tests carried out by' }, { role: 'Supply restored and checked by' }])
