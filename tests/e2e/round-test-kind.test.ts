@@ -35,6 +35,8 @@ describe('round on a US site at 375 px', () => {
       await testIn(team.workspaceId, l.id, { kind: 'functional', testedOn: addDays(today, -10), passed: true })
       ids.push(l.id)
     }
+    // The technician reads US customary units.
+    await dataSource.query(`UPDATE users SET units = 'us' WHERE id = $1`, [team.users.technician.id])
     const b = await newBrowser({ width: 375, height: 740 })
     try {
       const { page } = b
@@ -49,6 +51,10 @@ describe('round on a US site at 375 px', () => {
       await expect.poll(() => card.getAttribute('data-kind')).toBe('functional')
       await expect.poll(() => page.locator('[data-test="minimum-time"]').textContent()).toMatch(/at least 30 seconds/)
       await screenshot(page, 'round-us-overdue-annual')
+      // Durations as hours and minutes; nothing metric on the card.
+      const cardText = (await card.textContent()) ?? ''
+      expect(cardText).toMatch(/rated 1 h 30 min/)
+      expect(cardText).not.toMatch(/°C|\d\s?(m|mm|kg|L)\b/)
       await page.locator('[data-test="pass"]').click()
       const recordedToday = (id: string) => dataSource.query('SELECT kind, achieved_duration_h FROM test_records WHERE luminaire_id = $1 AND tested_on = $2', [id, today])
       await expect.poll(() => recordedToday(ids[0])).toEqual([{ kind: 'functional', achieved_duration_h: null }])

@@ -88,6 +88,33 @@ describe('test planner on the demo library', () => {
     expect(res.body.plan.groups[0]).toMatchObject({ startsAt: '2027-03-01T22:00', endsAt: '2027-03-02T01:00', fullCoverAt: '2027-03-02T21:00' })
   })
 
+  it('follows the circuits and walking order the designer sets on the luminaires', async () => {
+    // Two circuits, alternating inside every area: grouping by circuit then leaves no area dark.
+    const byArea = new Map<string, typeof luminaires>()
+    for (const l of luminaires) byArea.set(l.areaName ?? '', [...(byArea.get(l.areaName ?? '') ?? []), l])
+    let place = 0
+    for (const members of byArea.values()) {
+      for (const [i, l] of members.entries()) {
+        const res = await designer.patch(`/api/luminaires/${l.id}`, { circuit: i % 2 ? 'DB1/2' : 'DB1/1', walkOrder: ++place })
+        expect(res.status).toBe(200)
+        expect(res.body).toMatchObject({ circuit: i % 2 ? 'DB1/2' : 'DB1/1', walkOrder: place })
+      }
+    }
+    const res = await designer.post(`/api/sites/${site.id}/test-plans`, { grouping: 'circuit', firstDay: '2027-03-01', windowStart: '18:00', windowEnd: '23:00' })
+    expect(res.status).toBe(201)
+    expect(res.body.plan.groups.map((g: { name: string }) => g.name)).toEqual(['Circuit DB1/1', 'Circuit DB1/2'])
+    expect(res.body.plan.groups.every((g: { darkAreas: string[] }) => g.darkAreas.length === 0)).toBe(true)
+    expect(res.body.plan.warnings).toEqual([])
+    // Each group's round follows the walking order.
+    const first = res.body.plan.groups[0] as { luminaireIds: string[] }
+    const places = first.luminaireIds.map((id) => luminaires.findIndex((l) => l.id === id))
+    expect(places).toEqual([...places].sort((a, b) => a - b))
+    // A place that cannot be a place is refused with the field named.
+    const bad = await designer.patch(`/api/luminaires/${luminaires[0].id}`, { walkOrder: 0, circuit: 'x'.repeat(41) })
+    expect(bad.status).toBe(400)
+    expect((bad.body.fields as Array<{ path: string }>).map((f) => f.path).sort()).toEqual(['circuit', 'walkOrder'])
+  })
+
   it('refuses what it cannot read, field by field, and leaves planning to designers', async () => {
     const bad = await designer.post(`/api/sites/${site.id}/test-plans`, { grouping: 'rows', firstDay: '2027-02-30', windowStart: '25:00', windowEnd: '06:00', extra: 1 })
     expect(bad.status).toBe(400)
