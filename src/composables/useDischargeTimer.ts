@@ -3,7 +3,7 @@
  * out, or by itself when the required time is reached. The start time is kept on the device so a
  * reload or a locked phone during a three-hour test loses nothing.
  */
-import { computed, onBeforeUnmount, ref, watch, type Ref } from 'vue'
+import { computed, onScopeDispose, ref, watch, type Ref } from 'vue'
 
 const STORAGE_PREFIX = 'lw.discharge-timer.'
 
@@ -101,7 +101,7 @@ export function useDischargeTimer(key: Ref<string | null>, requiredH: Ref<number
     },
     { immediate: true },
   )
-  onBeforeUnmount(stopTicking)
+  onScopeDispose(stopTicking)
 
   return { running, elapsedMs, litH, reachedRequired, started: computed(() => startedAt.value !== null), start, stop, reset }
 }
