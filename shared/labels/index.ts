@@ -100,6 +100,13 @@ export const SHEET_STATUS_LABELS = {
   superseded: 'Superseded',
 } as const
 
+/** Whether a read-only link still opens. */
+export const SHARE_STATE_LABELS = {
+  active: 'Active',
+  expired: 'Expired',
+  revoked: 'Revoked',
+} as const
+
 /** When a luminaire's next test falls. */
 export const DUE_STATE_LABELS = {
   overdue: 'Overdue',
@@ -251,6 +258,7 @@ export const UNIT_LABELS: Record<string, string> = {
   mohm: 'mΩ',
   uA: 'µA',
   days: 'days',
+  'in^3': 'in³',
 }
 
 /** How the full-duration tests of a site are put in groups. */
@@ -272,6 +280,7 @@ export const ENUMERATIONS = {
   role: ROLE_NAMES,
   testKind: TEST_KIND_LABELS,
   sheetStatus: SHEET_STATUS_LABELS,
+  shareState: SHARE_STATE_LABELS,
   dueState: DUE_STATE_LABELS,
   testState: TEST_STATE_LABELS,
   dueReason: DUE_REASON_LABELS,

@@ -32,10 +32,14 @@ export interface TableOptions {
 }
 
 /** A plain table that starts a new page (with its header again) when the page is full. */
-export function table(doc: Doc, columns: Column[], rows: Cell[][], options: TableOptions = {}) {
+export function table(doc: Doc, given: Column[], rows: Cell[][], options: TableOptions = {}) {
   const size = options.size ?? 8.5
-  const tableWidth = columns.reduce((s, c) => s + c.width, 0)
   const left = doc.page.margins.left
+  // Widths are set for A4; on narrower paper (Letter) every column shrinks in proportion so the table stays on the page.
+  const room = doc.page.width - left - doc.page.margins.right
+  const total = given.reduce((sum, c) => sum + c.width, 0)
+  const columns = total > room ? given.map((c) => ({ ...c, width: (c.width * room) / total })) : given
+  const tableWidth = columns.reduce((s, c) => s + c.width, 0)
   const drawHeader = () => {
     const y = doc.y
     const height = Math.max(...columns.map((c) => heightOf(doc, c.title, c.width - 4, { weight: 'semibold', size })))

@@ -37,7 +37,7 @@ export async function roundRecord(workspaceId: string, siteId: string, roundId: 
 export async function roundRecordPdf(workspaceId: string, siteId: string, roundId: string, prefs: FormatPrefs = DEFAULT_PREFS): Promise<{ filename: string; body: Buffer }> {
   const { site, round, records } = await roundRecord(workspaceId, siteId, roundId)
   const date = (d: string) => formatDate(d, prefs)
-  const doc = newDocument({ title: `Record of a test round — ${site.name}` }, { layout: 'landscape', margin: 36 })
+  const doc = newDocument({ title: `Record of a test round — ${site.name}` }, { layout: 'landscape', margin: 36, paper: prefs.paper })
   write(doc, 'Record of a test round', { weight: 'semibold', size: 16 })
   write(doc, `${site.name}${site.address ? ` — ${site.address.replace(/\s*\n\s*/g, ', ')}` : ''}`)
   doc.moveDown(0.4)

@@ -14,7 +14,7 @@ export async function workOrderPdf(workspaceId: string, siteId: string, planId: 
   const site = await findSite(workspaceId, siteId)
   const { input, plan, createdAt } = await findPlan(workspaceId, siteId, planId)
   const when = (stamp: string) => formatWallClock(stamp, prefs)
-  const doc = newDocument({ title: `Work order: full-duration tests — ${site.name}` }, { layout: 'landscape', margin: 36 })
+  const doc = newDocument({ title: `Work order: full-duration tests — ${site.name}` }, { layout: 'landscape', margin: 36, paper: prefs.paper })
   const left = doc.page.margins.left
   write(doc, 'Work order: full-duration tests', { weight: 'semibold', size: 16 })
   write(doc, `${site.name}${site.address ? ` — ${site.address.replace(/\s*\n\s*/g, ', ')}` : ''}`)
