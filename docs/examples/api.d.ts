@@ -1208,6 +1208,90 @@ export interface paths {
         patch?: never;
         trace?: never;
     };
+    "/api/sites/{id}/rounds/{roundId}/record.pdf": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * The printable record of a signed-off round (PDF)
+         * @description Role viewer or higher in the current workspace. State-changing requests with a session cookie need the X-CSRF-Token header (or a same-origin Origin).
+         */
+        get: operations["getApiSitesIdRoundsRoundIdRecordPdf"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/sites/{id}/test-plans": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * A site's test plans, newest first
+         * @description Role viewer or higher in the current workspace. State-changing requests with a session cookie need the X-CSRF-Token header (or a same-origin Origin).
+         */
+        get: operations["getApiSitesIdTestPlans"];
+        put?: never;
+        /**
+         * Plan a site's full-duration tests in groups that leave no area dark
+         * @description Role designer or higher in the current workspace. State-changing requests with a session cookie need the X-CSRF-Token header (or a same-origin Origin).
+         */
+        post: operations["postApiSitesIdTestPlans"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/sites/{id}/test-plans/{planId}": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * One test plan with its groups and times
+         * @description Role viewer or higher in the current workspace. State-changing requests with a session cookie need the X-CSRF-Token header (or a same-origin Origin).
+         */
+        get: operations["getApiSitesIdTestPlansPlanId"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/sites/{id}/test-plans/{planId}/work-order.pdf": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * A test plan printed as a work order (PDF)
+         * @description Role viewer or higher in the current workspace. State-changing requests with a session cookie need the X-CSRF-Token header (or a same-origin Origin).
+         */
+        get: operations["getApiSitesIdTestPlansPlanIdWorkOrderPdf"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
     "/api/sites/{id}/import/preview": {
         parameters: {
             query?: never;
@@ -1546,7 +1630,7 @@ export interface paths {
         get: operations["getApiPhotometry"];
         put?: never;
         /**
-         * Upload an IES LM-63 file (multipart field "file", or JSON { name, text }); a malformed file is refused naming the line
+         * Upload an IES LM-63 or EULUMDAT (.ldt) file (multipart field "file", or JSON { name, text }); a malformed file is refused naming the line
          * @description Role designer or higher in the current workspace. State-changing requests with a session cookie need the X-CSRF-Token header (or a same-origin Origin).
          */
         post: operations["postApiPhotometry"];
@@ -5638,6 +5722,9 @@ export interface operations {
                 content: {
                     "application/json": {
                         repairWindowDays: number;
+                        reminderDaysAhead: number;
+                        remindSiteContact: boolean;
+                        remindRoles: ("owner" | "designer" | "technician" | "viewer")[];
                     };
                 };
             };
@@ -5690,6 +5777,9 @@ export interface operations {
             content: {
                 "application/json": {
                     repairWindowDays?: number;
+                    reminderDaysAhead?: number;
+                    remindSiteContact?: boolean;
+                    remindRoles?: ("owner" | "designer" | "technician" | "viewer")[];
                 };
             };
         };
@@ -5702,6 +5792,9 @@ export interface operations {
                 content: {
                     "application/json": {
                         repairWindowDays: number;
+                        reminderDaysAhead: number;
+                        remindSiteContact: boolean;
+                        remindRoles: ("owner" | "designer" | "technician" | "viewer")[];
                     };
                 };
             };
@@ -5765,6 +5858,9 @@ export interface operations {
                         days: number;
                         settings: {
                             repairWindowDays: number;
+                            reminderDaysAhead: number;
+                            remindSiteContact: boolean;
+                            remindRoles: ("owner" | "designer" | "technician" | "viewer")[];
                         };
                         sites: {
                             id: string;
@@ -5985,6 +6081,9 @@ export interface operations {
                         };
                         settings: {
                             repairWindowDays: number;
+                            reminderDaysAhead: number;
+                            remindSiteContact: boolean;
+                            remindRoles: ("owner" | "designer" | "technician" | "viewer")[];
                         };
                         areas: {
                             id: string;
@@ -6522,6 +6621,12 @@ export interface operations {
                      */
                     luminaireTypeId?: string | null;
                     /** @default null */
+                    walkOrder?: number | null;
+                    /** @default  */
+                    circuit?: string;
+                    /** @default null */
+                    rechargeH?: number | null;
+                    /** @default null */
                     externalId?: string | null;
                     /** @default null */
                     lastFunctionalTestOn?: string | null;
@@ -6872,6 +6977,12 @@ export interface operations {
                      * @default null
                      */
                     luminaireTypeId?: string | null;
+                    /** @default null */
+                    walkOrder?: number | null;
+                    /** @default  */
+                    circuit?: string;
+                    /** @default null */
+                    rechargeH?: number | null;
                     /** @default null */
                     externalId?: string | null;
                     /** @default null */
@@ -7516,6 +7627,418 @@ export interface operations {
                             remedialAction: string;
                         }[];
                     };
+                };
+            };
+            /** @description The request is not valid: `fields` names each field and the reason */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Not signed in */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Your role does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description No such record in this workspace */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+        };
+    };
+    getApiSitesIdRoundsRoundIdRecordPdf: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: string;
+                roundId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description The printable record of a signed-off round (PDF) */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/pdf": string;
+                };
+            };
+            /** @description The request is not valid: `fields` names each field and the reason */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Not signed in */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Your role does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description No such record in this workspace */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+        };
+    };
+    getApiSitesIdTestPlans: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description A site's test plans, newest first */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        plans: {
+                            id: string;
+                            siteId: string;
+                            input: {
+                                /** @enum {string} */
+                                grouping: "alternate" | "area" | "circuit";
+                                firstDay: string;
+                                windowStart: string;
+                                windowEnd: string;
+                                defaultRechargeH: number;
+                            };
+                            plan: {
+                                groups: {
+                                    index: number;
+                                    name: string;
+                                    luminaireIds: string[];
+                                    tags: string[];
+                                    areas: string[];
+                                    testH: number;
+                                    rechargeH: number;
+                                    startsAt: string;
+                                    endsAt: string;
+                                    fullCoverAt: string;
+                                    darkAreas: string[];
+                                }[];
+                                warnings: {
+                                    /** @enum {string} */
+                                    code: "single-luminaire-area" | "area-dark" | "window-too-short" | "no-luminaires";
+                                    message: string;
+                                }[];
+                                finishesAt: string | null;
+                                working: string[];
+                            };
+                            createdAt: string;
+                        }[];
+                    };
+                };
+            };
+            /** @description The request is not valid: `fields` names each field and the reason */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Not signed in */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Your role does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description No such record in this workspace */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+        };
+    };
+    postApiSitesIdTestPlans: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": {
+                    /**
+                     * @default alternate
+                     * @enum {string}
+                     */
+                    grouping?: "alternate" | "area" | "circuit";
+                    firstDay: string;
+                    windowStart: string;
+                    windowEnd: string;
+                    /** @default 24 */
+                    defaultRechargeH?: number;
+                };
+            };
+        };
+        responses: {
+            /** @description Plan a site's full-duration tests in groups that leave no area dark */
+            201: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        id: string;
+                        siteId: string;
+                        input: {
+                            /** @enum {string} */
+                            grouping: "alternate" | "area" | "circuit";
+                            firstDay: string;
+                            windowStart: string;
+                            windowEnd: string;
+                            defaultRechargeH: number;
+                        };
+                        plan: {
+                            groups: {
+                                index: number;
+                                name: string;
+                                luminaireIds: string[];
+                                tags: string[];
+                                areas: string[];
+                                testH: number;
+                                rechargeH: number;
+                                startsAt: string;
+                                endsAt: string;
+                                fullCoverAt: string;
+                                darkAreas: string[];
+                            }[];
+                            warnings: {
+                                /** @enum {string} */
+                                code: "single-luminaire-area" | "area-dark" | "window-too-short" | "no-luminaires";
+                                message: string;
+                            }[];
+                            finishesAt: string | null;
+                            working: string[];
+                        };
+                        createdAt: string;
+                    };
+                };
+            };
+            /** @description The request is not valid: `fields` names each field and the reason */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Not signed in */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Your role does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description No such record in this workspace */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+        };
+    };
+    getApiSitesIdTestPlansPlanId: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: string;
+                planId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description One test plan with its groups and times */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        id: string;
+                        siteId: string;
+                        input: {
+                            /** @enum {string} */
+                            grouping: "alternate" | "area" | "circuit";
+                            firstDay: string;
+                            windowStart: string;
+                            windowEnd: string;
+                            defaultRechargeH: number;
+                        };
+                        plan: {
+                            groups: {
+                                index: number;
+                                name: string;
+                                luminaireIds: string[];
+                                tags: string[];
+                                areas: string[];
+                                testH: number;
+                                rechargeH: number;
+                                startsAt: string;
+                                endsAt: string;
+                                fullCoverAt: string;
+                                darkAreas: string[];
+                            }[];
+                            warnings: {
+                                /** @enum {string} */
+                                code: "single-luminaire-area" | "area-dark" | "window-too-short" | "no-luminaires";
+                                message: string;
+                            }[];
+                            finishesAt: string | null;
+                            working: string[];
+                        };
+                        createdAt: string;
+                    };
+                };
+            };
+            /** @description The request is not valid: `fields` names each field and the reason */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Not signed in */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Your role does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description No such record in this workspace */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+        };
+    };
+    getApiSitesIdTestPlansPlanIdWorkOrderPdf: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: string;
+                planId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description A test plan printed as a work order (PDF) */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/pdf": string;
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */
@@ -9741,7 +10264,7 @@ export interface operations {
             };
         };
         responses: {
-            /** @description Upload an IES LM-63 file (multipart field "file", or JSON { name, text }); a malformed file is refused naming the line */
+            /** @description Upload an IES LM-63 or EULUMDAT (.ldt) file (multipart field "file", or JSON { name, text }); a malformed file is refused naming the line */
             201: {
                 headers: {
                     [name: string]: unknown;

@@ -261,6 +261,13 @@ export const UNIT_LABELS: Record<string, string> = {
   'in^3': 'in³',
 }
 
+/** How the full-duration tests of a site are put in groups. */
+export const PLAN_GROUPING_LABELS = {
+  alternate: 'Alternate luminaires in every area',
+  area: 'One area at a time',
+  circuit: 'One circuit at a time',
+} as const
+
 /** Every enumeration's map by name; the no-codes checks read this list. */
 export const ENUMERATIONS = {
   chemistry: CHEMISTRY_LABELS,
@@ -293,6 +300,7 @@ export const ENUMERATIONS = {
   sizeRule: SIZE_RULE_LABELS,
   chargerType: CHARGER_TYPE_LABELS,
   chargerFit: CHARGER_FIT_LABELS,
+  planGrouping: PLAN_GROUPING_LABELS,
 } as const
 
 export type EnumerationName = keyof typeof ENUMERATIONS

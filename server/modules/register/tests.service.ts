@@ -4,6 +4,8 @@
  */
 import type { EntityManager } from 'typeorm'
 import { durationVerdict, runtimeMismatch, type RoundSignOff, type TestRecordData } from '../../../shared/schemas/test-record.schema'
+import { requiredDurationH } from '../../../shared/engine/round-order'
+import type { TestRegime } from '../../../shared/engine/due'
 import { dataSource } from '../../data-source'
 import { BadRequestError, ConflictError, NotFoundError } from '../../errors/app-error'
 import { recordAudit } from '../audit/audit.service'
@@ -72,7 +74,7 @@ async function upsertOne(m: EntityManager, workspaceId: string, actorId: string,
  * against the rated duration unless a reason is given, and a typed runtime agrees with its discharge
  * log within a few minutes unless a reason is given. Every broken rule is listed by field.
  */
-async function checkAgainstRules(m: EntityManager, workspaceId: string, records: TestRecordData[], ratedById: Map<string, number>) {
+async function checkAgainstRules(m: EntityManager, workspaceId: string, records: TestRecordData[], requiredById: Map<string, number>) {
   const logIds = [...new Set(records.map((r) => r.dischargeLogId).filter((x): x is string => !!x))]
   const runtimes = new Map<string, number>()
   if (logIds.length) {
@@ -90,10 +92,10 @@ async function checkAgainstRules(m: EntityManager, workspaceId: string, records:
       }
     }
     if (r.kind === 'duration') {
-      const rated = ratedById.get(r.luminaireId)!
-      const verdict = durationVerdict(r.achievedDurationH, rated)
+      const required = requiredById.get(r.luminaireId)!
+      const verdict = durationVerdict(r.achievedDurationH, required)
       if (verdict !== null && verdict !== r.passed && !r.verdictOverrideReason) {
-        fields.push({ path: `records.${i}.verdictOverrideReason`, message: `${r.achievedDurationH} h against the rated ${rated} h is a ${verdict ? 'pass' : 'fail'}: give a reason to record a ${r.passed ? 'pass' : 'fail'}` })
+        fields.push({ path: `records.${i}.verdictOverrideReason`, message: `${r.achievedDurationH} h against the required ${required} h is a ${verdict ? 'pass' : 'fail'}: give a reason to record a ${r.passed ? 'pass' : 'fail'}` })
       }
     }
   })
@@ -104,9 +106,13 @@ async function checkAgainstRules(m: EntityManager, workspaceId: string, records:
 export async function recordTests(workspaceId: string, actorId: string, records: TestRecordData[]) {
   return dataSource.transaction(async (m) => {
     const ids = [...new Set(records.map((r) => r.luminaireId))]
-    const found: Array<{ id: string; rated_duration_h: number }> = await m.query('SELECT id, rated_duration_h FROM luminaires WHERE workspace_id = $1 AND id = ANY($2::uuid[])', [workspaceId, ids])
+    const found: Array<{ id: string; rated_duration_h: number; regime: TestRegime }> = await m.query(
+      'SELECT l.id, l.rated_duration_h, s.regime FROM luminaires l JOIN sites s ON s.id = l.site_id WHERE l.workspace_id = $1 AND l.id = ANY($2::uuid[])',
+      [workspaceId, ids],
+    )
     if (found.length !== ids.length) throw new NotFoundError('A luminaire in these records')
-    await checkAgainstRules(m, workspaceId, records, new Map(found.map((f) => [f.id, f.rated_duration_h])))
+    // The time a full-duration test must last depends on the site's regime (rated duration, or a fixed time).
+    await checkAgainstRules(m, workspaceId, records, new Map(found.map((f) => [f.id, requiredDurationH(f.regime, f.rated_duration_h)])))
     const saved: Array<{ clientId: string; id: string; outcome: SaveOutcome }> = []
     for (const r of records) saved.push({ clientId: r.clientId, ...(await upsertOne(m, workspaceId, actorId, r)) })
     return saved
