@@ -148,6 +148,26 @@ export interface paths {
         patch: operations["patchApiAuthMe"];
         trace?: never;
     };
+    "/api/auth/session": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * The signed-in user, or none: a page checks this on load without a failed request when signed out
+         * @description No sign-in needed. State-changing requests with a session cookie need the X-CSRF-Token header (or a same-origin Origin).
+         */
+        get: operations["getApiAuthSession"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
     "/api/auth/password": {
         parameters: {
             query?: never;
@@ -1672,6 +1692,130 @@ export interface paths {
         patch?: never;
         trace?: never;
     };
+    "/api/sites/{id}/handover-packs": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * A site's handover packs, newest first
+         * @description Role viewer or higher in the current workspace. State-changing requests with a session cookie need the X-CSRF-Token header (or a same-origin Origin).
+         */
+        get: operations["getApiSitesIdHandoverPacks"];
+        put?: never;
+        /**
+         * Make the next handover pack of a site (the site frozen as it is today)
+         * @description Role designer or higher in the current workspace. State-changing requests with a session cookie need the X-CSRF-Token header (or a same-origin Origin).
+         */
+        post: operations["postApiSitesIdHandoverPacks"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/sites/{id}/handover-packs/{n}": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * One handover pack with its frozen content
+         * @description Role viewer or higher in the current workspace. State-changing requests with a session cookie need the X-CSRF-Token header (or a same-origin Origin).
+         */
+        get: operations["getApiSitesIdHandoverPacksN"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/sites/{id}/handover-packs/{n}/pdf": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * One handover pack as a PDF
+         * @description Role viewer or higher in the current workspace. State-changing requests with a session cookie need the X-CSRF-Token header (or a same-origin Origin).
+         */
+        get: operations["getApiSitesIdHandoverPacksNPdf"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/sites/{id}/handover-packs/{n}/links": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        /**
+         * Make a read-only link to a handover pack (token shown once)
+         * @description Role designer or higher in the current workspace. State-changing requests with a session cookie need the X-CSRF-Token header (or a same-origin Origin).
+         */
+        post: operations["postApiSitesIdHandoverPacksNLinks"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/handover-links/{token}": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * A handover pack behind a read-only link
+         * @description No sign-in needed. State-changing requests with a session cookie need the X-CSRF-Token header (or a same-origin Origin).
+         */
+        get: operations["getApiHandoverLinksToken"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/handover-links/{token}/pdf": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * A handover pack behind a read-only link, as a PDF
+         * @description No sign-in needed. State-changing requests with a session cookie need the X-CSRF-Token header (or a same-origin Origin).
+         */
+        get: operations["getApiHandoverLinksTokenPdf"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
 }
 export type webhooks = Record<string, never>;
 export interface components {
@@ -2145,6 +2289,67 @@ export interface operations {
             };
             /** @description Your role does not allow this */
             403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description No such record in this workspace */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+        };
+    };
+    getApiAuthSession: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description The signed-in user, or none: a page checks this on load without a failed request when signed out */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        me: {
+                            user: {
+                                id: string;
+                                email: string;
+                                name: string;
+                                /** @enum {string} */
+                                units: "si" | "us";
+                            };
+                            workspace: {
+                                id: string;
+                                name: string;
+                            } | null;
+                            /** @enum {string|null} */
+                            role: "viewer" | "technician" | "designer" | "owner" | null;
+                            workspaces: {
+                                id: string;
+                                name: string;
+                                /** @enum {string} */
+                                role: "viewer" | "technician" | "designer" | "owner";
+                            }[];
+                            csrfToken: string;
+                        } | null;
+                    };
+                };
+            };
+            /** @description The request is not valid: `fields` names each field and the reason */
+            400: {
                 headers: {
                     [name: string]: unknown;
                 };
@@ -10419,6 +10624,750 @@ export interface operations {
             };
             /** @description Your role does not allow this */
             403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description No such record in this workspace */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+        };
+    };
+    getApiSitesIdHandoverPacks: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description A site's handover packs, newest first */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        packs: {
+                            id: string;
+                            siteId: string;
+                            number: number;
+                            signedByName: string;
+                            signedOn: string;
+                            madeBy: {
+                                id: string;
+                                name: string;
+                            } | null;
+                            createdAt: string;
+                        }[];
+                    };
+                };
+            };
+            /** @description The request is not valid: `fields` names each field and the reason */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Not signed in */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Your role does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description No such record in this workspace */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+        };
+    };
+    postApiSitesIdHandoverPacks: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": {
+                    signedByName: string;
+                    signedOn: string;
+                    /** @default  */
+                    extent?: string;
+                    /** @default  */
+                    deviations?: string;
+                    /** @default [] */
+                    routes?: {
+                        name: string;
+                        /** Format: uuid */
+                        typeId: string;
+                        route: {
+                            routeLength: unknown;
+                            routeWidth: unknown;
+                            mountingHeight: unknown;
+                            /** @enum {string} */
+                            criteria: "en1838-route" | "en1838-open-area" | "en1838-high-risk" | "nfpa101";
+                            ratedDuration: unknown;
+                            /** @default 0.8 */
+                            maintenanceFactor?: number;
+                            normalIlluminance?: unknown;
+                            emergencyOutputFactor?: number;
+                            endOfDurationFactor?: number;
+                        };
+                    }[];
+                };
+            };
+        };
+        responses: {
+            /** @description Make the next handover pack of a site (the site frozen as it is today) */
+            201: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        id: string;
+                        siteId: string;
+                        number: number;
+                        signedByName: string;
+                        signedOn: string;
+                        madeBy: {
+                            id: string;
+                            name: string;
+                        } | null;
+                        createdAt: string;
+                        content: {
+                            site: {
+                                name: string;
+                                address: string;
+                                responsibleName: string;
+                                responsibleEmail: string;
+                                /** @enum {string} */
+                                regime: "en50172" | "nfpa101";
+                            };
+                            firm: string;
+                            certificate: {
+                                signedByName: string;
+                                signedOn: string;
+                                extent: string;
+                                deviations: string;
+                            };
+                            luminaires: {
+                                tag: string;
+                                areaName: string | null;
+                                location: string;
+                                typeLabel: string;
+                                /** @enum {string} */
+                                purpose: "escape-route" | "open-area" | "high-risk" | "exit-sign";
+                                /** @enum {string} */
+                                mode: "maintained" | "non-maintained";
+                                ratedDurationH: number;
+                                /** @enum {string} */
+                                chemistry: "nicd" | "nicd-ht" | "nimh" | "lifepo4" | "lead-acid" | "li-ion";
+                                cellsInSeries: number;
+                                capacityAh: number;
+                                packFittedOn: string;
+                            }[];
+                            types: {
+                                name: string;
+                                modes: ("maintained" | "non-maintained")[];
+                                ratedDurationS: number;
+                                /** @enum {string} */
+                                chemistry: "nicd" | "nicd-ht" | "nimh" | "lifepo4" | "lead-acid" | "li-ion";
+                                cellsInSeries: number;
+                                capacityAh: number | null;
+                                emergencyPowerW: number;
+                                emergencyOutputFactor: number;
+                                luminaires: number;
+                                photometry: {
+                                    fileName: string;
+                                    edition: string;
+                                    lampLumens: number | null;
+                                    peakIntensityCd: number;
+                                    peakAtCDeg: number;
+                                    peakAtGammaDeg: number;
+                                    inputWatts: number;
+                                } | null;
+                            }[];
+                            routes: {
+                                name: string;
+                                typeName: string;
+                                /** @enum {string} */
+                                criteria: "en1838-route" | "en1838-open-area" | "en1838-high-risk" | "nfpa101";
+                                routeLengthM: number;
+                                routeWidthM: number;
+                                mountingHeightM: number;
+                                ratedDurationS: number;
+                                maintenanceFactor: number;
+                                meets: boolean;
+                                reasons: string[];
+                                count: number | null;
+                                spacingM: number | null;
+                                endDistanceM: number | null;
+                                minLx: number | null;
+                                averageLx: number | null;
+                                maxToMin: number | null;
+                            }[];
+                            firstDurationTests: {
+                                tag: string;
+                                ratedDurationH: number;
+                                testedOn: string | null;
+                                passed: boolean | null;
+                                achievedDurationH: number | null;
+                                faults: string;
+                                recordedByName: string | null;
+                            }[];
+                            logBook: {
+                                repairWindowDays: number;
+                                firstEntries: {
+                                    testedOn: string;
+                                    tag: string;
+                                    /** @enum {string} */
+                                    kind: "functional" | "duration";
+                                    passed: boolean;
+                                    achievedDurationH: number | null;
+                                    faults: string;
+                                    recordedByName: string | null;
+                                }[];
+                                totalEntries: number;
+                            };
+                        };
+                    };
+                };
+            };
+            /** @description The request is not valid: `fields` names each field and the reason */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Not signed in */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Your role does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description No such record in this workspace */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+        };
+    };
+    getApiSitesIdHandoverPacksN: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: string;
+                n: number;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description One handover pack with its frozen content */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        id: string;
+                        siteId: string;
+                        number: number;
+                        signedByName: string;
+                        signedOn: string;
+                        madeBy: {
+                            id: string;
+                            name: string;
+                        } | null;
+                        createdAt: string;
+                        content: {
+                            site: {
+                                name: string;
+                                address: string;
+                                responsibleName: string;
+                                responsibleEmail: string;
+                                /** @enum {string} */
+                                regime: "en50172" | "nfpa101";
+                            };
+                            firm: string;
+                            certificate: {
+                                signedByName: string;
+                                signedOn: string;
+                                extent: string;
+                                deviations: string;
+                            };
+                            luminaires: {
+                                tag: string;
+                                areaName: string | null;
+                                location: string;
+                                typeLabel: string;
+                                /** @enum {string} */
+                                purpose: "escape-route" | "open-area" | "high-risk" | "exit-sign";
+                                /** @enum {string} */
+                                mode: "maintained" | "non-maintained";
+                                ratedDurationH: number;
+                                /** @enum {string} */
+                                chemistry: "nicd" | "nicd-ht" | "nimh" | "lifepo4" | "lead-acid" | "li-ion";
+                                cellsInSeries: number;
+                                capacityAh: number;
+                                packFittedOn: string;
+                            }[];
+                            types: {
+                                name: string;
+                                modes: ("maintained" | "non-maintained")[];
+                                ratedDurationS: number;
+                                /** @enum {string} */
+                                chemistry: "nicd" | "nicd-ht" | "nimh" | "lifepo4" | "lead-acid" | "li-ion";
+                                cellsInSeries: number;
+                                capacityAh: number | null;
+                                emergencyPowerW: number;
+                                emergencyOutputFactor: number;
+                                luminaires: number;
+                                photometry: {
+                                    fileName: string;
+                                    edition: string;
+                                    lampLumens: number | null;
+                                    peakIntensityCd: number;
+                                    peakAtCDeg: number;
+                                    peakAtGammaDeg: number;
+                                    inputWatts: number;
+                                } | null;
+                            }[];
+                            routes: {
+                                name: string;
+                                typeName: string;
+                                /** @enum {string} */
+                                criteria: "en1838-route" | "en1838-open-area" | "en1838-high-risk" | "nfpa101";
+                                routeLengthM: number;
+                                routeWidthM: number;
+                                mountingHeightM: number;
+                                ratedDurationS: number;
+                                maintenanceFactor: number;
+                                meets: boolean;
+                                reasons: string[];
+                                count: number | null;
+                                spacingM: number | null;
+                                endDistanceM: number | null;
+                                minLx: number | null;
+                                averageLx: number | null;
+                                maxToMin: number | null;
+                            }[];
+                            firstDurationTests: {
+                                tag: string;
+                                ratedDurationH: number;
+                                testedOn: string | null;
+                                passed: boolean | null;
+                                achievedDurationH: number | null;
+                                faults: string;
+                                recordedByName: string | null;
+                            }[];
+                            logBook: {
+                                repairWindowDays: number;
+                                firstEntries: {
+                                    testedOn: string;
+                                    tag: string;
+                                    /** @enum {string} */
+                                    kind: "functional" | "duration";
+                                    passed: boolean;
+                                    achievedDurationH: number | null;
+                                    faults: string;
+                                    recordedByName: string | null;
+                                }[];
+                                totalEntries: number;
+                            };
+                        };
+                    };
+                };
+            };
+            /** @description The request is not valid: `fields` names each field and the reason */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Not signed in */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Your role does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description No such record in this workspace */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+        };
+    };
+    getApiSitesIdHandoverPacksNPdf: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: string;
+                n: number;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description One handover pack as a PDF */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/pdf": string;
+                };
+            };
+            /** @description The request is not valid: `fields` names each field and the reason */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Not signed in */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Your role does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description No such record in this workspace */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+        };
+    };
+    postApiSitesIdHandoverPacksNLinks: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: string;
+                n: number;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": {
+                    /** @default null */
+                    expiresOn?: string | null;
+                };
+            };
+        };
+        responses: {
+            /** @description Make a read-only link to a handover pack (token shown once) */
+            201: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        id: string;
+                        url: string;
+                        token: string;
+                        expiresOn: string | null;
+                    };
+                };
+            };
+            /** @description The request is not valid: `fields` names each field and the reason */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Not signed in */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Your role does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description No such record in this workspace */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+        };
+    };
+    getApiHandoverLinksToken: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                token: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description A handover pack behind a read-only link */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        number: number;
+                        signedByName: string;
+                        signedOn: string;
+                        createdAt: string;
+                        expiresOn: string | null;
+                        content: {
+                            site: {
+                                name: string;
+                                address: string;
+                                responsibleName: string;
+                                responsibleEmail: string;
+                                /** @enum {string} */
+                                regime: "en50172" | "nfpa101";
+                            };
+                            firm: string;
+                            certificate: {
+                                signedByName: string;
+                                signedOn: string;
+                                extent: string;
+                                deviations: string;
+                            };
+                            luminaires: {
+                                tag: string;
+                                areaName: string | null;
+                                location: string;
+                                typeLabel: string;
+                                /** @enum {string} */
+                                purpose: "escape-route" | "open-area" | "high-risk" | "exit-sign";
+                                /** @enum {string} */
+                                mode: "maintained" | "non-maintained";
+                                ratedDurationH: number;
+                                /** @enum {string} */
+                                chemistry: "nicd" | "nicd-ht" | "nimh" | "lifepo4" | "lead-acid" | "li-ion";
+                                cellsInSeries: number;
+                                capacityAh: number;
+                                packFittedOn: string;
+                            }[];
+                            types: {
+                                name: string;
+                                modes: ("maintained" | "non-maintained")[];
+                                ratedDurationS: number;
+                                /** @enum {string} */
+                                chemistry: "nicd" | "nicd-ht" | "nimh" | "lifepo4" | "lead-acid" | "li-ion";
+                                cellsInSeries: number;
+                                capacityAh: number | null;
+                                emergencyPowerW: number;
+                                emergencyOutputFactor: number;
+                                luminaires: number;
+                                photometry: {
+                                    fileName: string;
+                                    edition: string;
+                                    lampLumens: number | null;
+                                    peakIntensityCd: number;
+                                    peakAtCDeg: number;
+                                    peakAtGammaDeg: number;
+                                    inputWatts: number;
+                                } | null;
+                            }[];
+                            routes: {
+                                name: string;
+                                typeName: string;
+                                /** @enum {string} */
+                                criteria: "en1838-route" | "en1838-open-area" | "en1838-high-risk" | "nfpa101";
+                                routeLengthM: number;
+                                routeWidthM: number;
+                                mountingHeightM: number;
+                                ratedDurationS: number;
+                                maintenanceFactor: number;
+                                meets: boolean;
+                                reasons: string[];
+                                count: number | null;
+                                spacingM: number | null;
+                                endDistanceM: number | null;
+                                minLx: number | null;
+                                averageLx: number | null;
+                                maxToMin: number | null;
+                            }[];
+                            firstDurationTests: {
+                                tag: string;
+                                ratedDurationH: number;
+                                testedOn: string | null;
+                                passed: boolean | null;
+                                achievedDurationH: number | null;
+                                faults: string;
+                                recordedByName: string | null;
+                            }[];
+                            logBook: {
+                                repairWindowDays: number;
+                                firstEntries: {
+                                    testedOn: string;
+                                    tag: string;
+                                    /** @enum {string} */
+                                    kind: "functional" | "duration";
+                                    passed: boolean;
+                                    achievedDurationH: number | null;
+                                    faults: string;
+                                    recordedByName: string | null;
+                                }[];
+                                totalEntries: number;
+                            };
+                        };
+                    };
+                };
+            };
+            /** @description The request is not valid: `fields` names each field and the reason */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description No such record in this workspace */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+        };
+    };
+    getApiHandoverLinksTokenPdf: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                token: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description A handover pack behind a read-only link, as a PDF */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/pdf": string;
+                };
+            };
+            /** @description The request is not valid: `fields` names each field and the reason */
+            400: {
                 headers: {
                     [name: string]: unknown;
                 };

@@ -153,8 +153,8 @@ describe('route spacing: photometry to a specification sheet', () => {
       await page.locator('#sp-height').blur()
       await page.locator('[data-test="sp-calculate"]').click()
       await page.locator('[data-test="sp-routeAverage"]').waitFor()
-      // The engine's answer for the same route in SI: 100 ft = 30.48 m, 10 ft = 3.048 m, the 2 m default width.
-      const expected = computeSpacing(spacingInput.parse({ photometry: lm63, mountingHeight: 3.048, emergencyOutputFactor: 0.5, maintenanceFactor: 0.8, criteria: 'nfpa101', routeWidth: 2, routeLength: 30.48, endOfDurationFactor: 1 }))
+      // The engine's answer for the same route in SI: 100 ft = 30.48 m, 10 ft = 3.048 m, the default width of 6.5 ft = 1.9812 m.
+      const expected = computeSpacing(spacingInput.parse({ photometry: lm63, mountingHeight: 3.048, emergencyOutputFactor: 0.5, maintenanceFactor: 0.8, criteria: 'nfpa101', routeWidth: 1.9812, routeLength: 30.48, endOfDurationFactor: 1 }))
       const layout = expected.layout!
       expect(await page.locator('[data-test="sp-luminaires"]').textContent()).toBe(String(layout.count))
       expect(await page.locator('[data-test="sp-layoutSpacing"]').textContent()).toBe(formatDisplay('length', 'us', layout.spacingM as number))
