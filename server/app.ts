@@ -8,9 +8,10 @@ import { config, type AppConfig } from './config'
 import { apiTokenAuth } from './middleware/api-token'
 import { csrfProtection } from './middleware/csrf'
 import { errorHandler, notFoundApi } from './middleware/error-handler'
+import { methodNotAllowed } from './middleware/method-not-allowed'
 import { requestLog } from './middleware/request-log'
 import { authorize, type RouteSpec } from './policy/access'
-import { routeChain } from './policy/route'
+import { routeChain, tokenScopeOf } from './policy/route'
 import { configurePassport } from './modules/auth/passport'
 import { buildRouteTable } from './routes'
 import { DEFAULT_LIMITS, type Limits } from './lib/limits'
@@ -95,9 +96,9 @@ export function createApp(opts: AppOptions = {}): BuiltApp {
       groups.set(prefix, group)
       app.use(prefix, group)
     }
-    group[route.method](route.path.slice(prefix.length) || '/', authorize(route.access, { tokens: route.tokens }), ...routeChain(route))
+    group[route.method](route.path.slice(prefix.length) || '/', authorize(route.access, { tokens: route.tokens, scope: tokenScopeOf(route) }), ...routeChain(route))
   }
-  app.use('/api', notFoundApi)
+  app.use('/api', methodNotAllowed(routeTable), notFoundApi)
 
   const clientDir = opts.clientDir === undefined ? path.resolve('dist') : opts.clientDir
   if (clientDir && fs.existsSync(path.join(clientDir, 'index.html'))) {

@@ -75,6 +75,13 @@ export const ROLE_LABELS: Record<keyof typeof ROLE_NAMES, string> = {
   owner: 'Owner: also manages members and the workspace',
 }
 
+/** What an API token may do. */
+export const TOKEN_SCOPE_LABELS = {
+  read: 'Read records',
+  write: 'Change records',
+  calc: 'Run calculations',
+} as const
+
 export const TEST_KIND_LABELS = {
   functional: 'Functional test',
   duration: 'Full-duration test',
@@ -225,6 +232,7 @@ export const ENUMERATIONS = {
   regime: REGIME_LABELS,
   criteria: CRITERIA_LABELS,
   role: ROLE_NAMES,
+  tokenScope: TOKEN_SCOPE_LABELS,
   testKind: TEST_KIND_LABELS,
   sheetStatus: SHEET_STATUS_LABELS,
   dueState: DUE_STATE_LABELS,

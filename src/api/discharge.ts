@@ -2,7 +2,7 @@
 import type { EngineWarning, WorkingStep } from '@shared/engine/types'
 import type { MappingGuess } from '@shared/engine/discharge-log'
 import { CONFIG } from '@/config'
-import { ApiError, http, type FieldMessage } from './http'
+import { ApiError, http, problemToError } from './http'
 
 export interface UploadPreview {
   uploadId: string
@@ -137,7 +137,7 @@ export async function uploadLog(file: File, onProgress: Progress, signal?: Abort
     xhr.onload = () => {
       const body = (xhr.response ?? {}) as Record<string, unknown>
       if (xhr.status >= 200 && xhr.status < 300) resolve(body as unknown as UploadPreview)
-      else reject(new ApiError(xhr.status, String(body.error ?? xhr.statusText ?? 'Upload failed'), String(body.code ?? 'error'), (body.fields as FieldMessage[]) ?? [], body))
+      else reject(problemToError(xhr.status, xhr.statusText || 'Upload failed', body))
     }
     xhr.onerror = () => reject(new ApiError(0, 'No connection to Lampwright. Check the network and try again.', 'offline'))
     xhr.onabort = () => reject(new DOMException('Upload cancelled', 'AbortError'))

@@ -1,4 +1,5 @@
 /** /api/auth: sign-up, sign-in, sign-out, who am I, CSRF token, password reset. */
+import { sendProblem } from '../../errors/problem'
 import type { Request, RequestHandler } from 'express'
 import { ipKeyGenerator, rateLimit } from 'express-rate-limit'
 import { PostgresHitStore } from '../../lib/rate-limit-store'
@@ -54,11 +55,11 @@ export function signInLimiter(windowMs: number): RequestHandler {
       const seconds = Math.max(1, Math.ceil((reset.getTime() - Date.now()) / 1000))
       const when = seconds >= 120 ? `${Math.ceil(seconds / 60)} minutes` : `${seconds} seconds`
       res.set('Retry-After', String(seconds))
-      res.status(429).json({
-        error: `Too many failed sign-ins for this e-mail. Try again in ${when} (after ${reset.toISOString().slice(11, 16)} UTC), or reset your password.`,
+      sendProblem(res, {
+        status: 429,
         code: 'too_many_attempts',
-        retryAfterSeconds: seconds,
-        retryAt: reset.toISOString(),
+        detail: `Too many failed sign-ins for this e-mail. Try again in ${when} (after ${reset.toISOString().slice(11, 16)} UTC), or reset your password.`,
+        extra: { retryAfterSeconds: seconds, retryAt: reset.toISOString() },
       })
     },
   })
