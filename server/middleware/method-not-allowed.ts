@@ -22,7 +22,8 @@ export function methodNotAllowed(routeTable: RouteSpec[]): RequestHandler {
   }
   const entries = [...byPath.values()]
   return (req, res, next) => {
-    const path = req.originalUrl.split('?')[0]!
+    // The path as routed (an /api/v1 path is read as its /api twin).
+    const path = req.baseUrl + req.path
     const allowed = new Set<string>()
     for (const e of entries) if (e.pattern.test(path)) for (const m of e.methods) allowed.add(m)
     if (!allowed.size || allowed.has(req.method)) return next()

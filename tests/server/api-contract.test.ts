@@ -4,6 +4,8 @@
  * the route table and its working examples; a wrong method answers 405 with Allow (RFC 9110
  * §15.5.6), a wrong media type 415 (RFC 9110 §15.5.16), a missing or bad credential 401 with
  * WWW-Authenticate: Bearer (RFC 6750 §3), and the auth scheme name is case-insensitive (RFC 9110 §11.1).
+ * Reads carry an ETag and answer If-None-Match with 304 (RFC 9110 §13.1.2), answers are compressed
+ * when the client accepts gzip (RFC 9110 §12.5.3), and the version is /api/v1 or the API-Version header.
  */
 import supertest from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
@@ -163,5 +165,39 @@ describe('405, 415 and 401 forms', () => {
       const res = await supertest(built.app).get('/api/sites').set('Authorization', `${scheme} ${made.body.token}`)
       expect(res.status, scheme).toBe(200)
     }
+  })
+})
+
+describe('caching, compression and version', () => {
+  it('answers a read with an ETag and a repeat with If-None-Match with 304 and no body', async () => {
+    const first = await supertest(built.app).get('/api/openapi.json')
+    expect(first.status).toBe(200)
+    expect(first.headers.etag).toMatch(/^W\/"/)
+    const again = await supertest(built.app).get('/api/openapi.json').set('If-None-Match', first.headers.etag!)
+    expect(again.status).toBe(304)
+    expect(again.text ?? '').toBe('')
+    const other = await supertest(built.app).get('/api/openapi.json').set('If-None-Match', 'W/"something-else"')
+    expect(other.status).toBe(200)
+  })
+
+  it('compresses a large answer for a client that accepts gzip, and not for one that does not', async () => {
+    const gz = await supertest(built.app).get('/api/openapi.json').set('Accept-Encoding', 'gzip')
+    expect(gz.headers['content-encoding']).toBe('gzip')
+    expect(gz.body.openapi).toBe('3.1.0')
+    const plain = await supertest(built.app).get('/api/openapi.json').set('Accept-Encoding', 'identity')
+    expect(plain.headers['content-encoding']).toBeUndefined()
+  })
+
+  it('serves the same routes under /api/v1, says API-Version: 1, and refuses another version asked for', async () => {
+    const v1 = await supertest(built.app).get('/api/v1/health')
+    expect(v1.status).toBe(200)
+    expect(v1.headers['api-version']).toBe('1')
+    const bare = await supertest(built.app).get('/api/health')
+    expect(bare.headers['api-version']).toBe('1')
+    const wrongMethod = await supertest(built.app).delete('/api/v1/health')
+    expectProblem(wrongMethod, 405, 'method_not_allowed')
+    const v2 = await supertest(built.app).get('/api/health').set('API-Version', '2')
+    expectProblem(v2, 400, 'invalid_input')
+    expect(v2.body.errors).toEqual([expect.objectContaining({ pointer: '/API-Version', in: 'header' })])
   })
 })

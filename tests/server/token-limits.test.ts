@@ -1,14 +1,17 @@
 /**
  * API tokens: an expiry after which the token answers 401, scopes (read, write, calc) checked with
- * 403 insufficient_scope as RFC 6750 §3.1 describes, and every write made with a token recorded in
- * the audit trail with the token's name.
+ * 403 insufficient_scope as RFC 6750 §3.1 describes, every write made with a token recorded in
+ * the audit trail with the token's name, and a request limit per token announced with the
+ * RateLimit-Policy / RateLimit headers (IETF httpapi rate-limit headers draft-07 form, from memory)
+ * and enforced with 429 and Retry-After (RFC 9110 §10.2.3).
  */
 import crypto from 'node:crypto'
 import supertest from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { BuiltApp } from '../../server/app'
 import { dataSource } from '../../server/data-source'
-import { closeTestApp, getTestApp, makeTeam, signIn, type Client, type TestTeam } from '../helpers/test-app'
+import { createApp } from '../../server/app'
+import { closeTestApp, getTestApp, makeTeam, ROOMY_LIMITS, signIn, type Client, type TestTeam } from '../helpers/test-app'
 
 let built: BuiltApp
 let team: TestTeam
@@ -102,5 +105,34 @@ describe('the audit trail of token writes', () => {
     const created = await designer.post('/api/sites', siteBody(`By hand ${crypto.randomUUID()}`))
     const [event] = await dataSource.query(`SELECT api_token_id, api_token_name FROM audit_events WHERE action = 'site.created' AND entity_id = $1`, [created.body.id])
     expect(event).toEqual({ api_token_id: null, api_token_name: null })
+  })
+})
+
+describe('the request limit per token', () => {
+  it('announces the limit on each answer and refuses the request past it with 429 and Retry-After', async () => {
+    const made = await makeToken({ name: 'busy script', scopes: ['read'] })
+    const limited = createApp({ clientDir: null, limits: { ...ROOMY_LIMITS, tokenRequests: { max: 3, windowMs: 60_000 } } })
+    try {
+      const call = () => supertest(limited.app).get('/api/sites').set('Authorization', `Bearer ${made.token}`)
+      const remaining: string[] = []
+      for (let i = 0; i < 3; i++) {
+        const res = await call()
+        expect(res.status).toBe(200)
+        expect(res.headers['ratelimit-policy']).toBe('3;w=60')
+        remaining.push(/remaining=(\d+)/.exec(res.headers.ratelimit ?? '')?.[1] ?? '?')
+      }
+      expect(remaining).toEqual(['2', '1', '0'])
+      const refused = await call()
+      expect(refused.status).toBe(429)
+      expect(refused.body.code).toBe('too_many_requests')
+      expect(Number(refused.headers['retry-after'])).toBeGreaterThan(0)
+      expect(Number(refused.headers['retry-after'])).toBeLessThanOrEqual(60)
+      // A signed-in session is not counted against the token's limit.
+      expect((await supertest(limited.app).get('/api/health')).status).toBe(200)
+    } finally {
+      await limited.close()
+      // Later files in this worker get the roomy limits back.
+      createApp({ clientDir: null, limits: ROOMY_LIMITS })
+    }
   })
 })
