@@ -29,6 +29,15 @@ function fingerprintOf(req: Request, body: unknown): string {
   return crypto.createHash('sha256').update(`${req.method} ${req.originalUrl}\n${JSON.stringify(canonical(body) ?? null)}`).digest('hex')
 }
 
+let lastPurge = 0
+
+/** Answers past their keeping time are never replayed; drop them at most once an hour per process. */
+function purgeOldKeys() {
+  if (Date.now() - lastPurge < 3600_000) return
+  lastPurge = Date.now()
+  void dataSource.query('DELETE FROM idempotency_keys WHERE created_at < now() - make_interval(hours => $1)', [IDEMPOTENCY_KEEP_HOURS]).catch(() => undefined)
+}
+
 async function keep(id: string, status: number, body: string | null) {
   if (status >= 500) await dataSource.query('DELETE FROM idempotency_keys WHERE id = $1', [id])
   else await dataSource.query('UPDATE idempotency_keys SET status = $2, body = $3 WHERE id = $1', [id, status, body])
@@ -81,6 +90,7 @@ export function idempotency(opts: { secret?: boolean } = {}): RequestHandler {
       [caller, key, fingerprint, IDEMPOTENCY_KEEP_HOURS],
     )
     if (claimed[0]) {
+      purgeOldKeys()
       storeAnswerOf(res, claimed[0].id)
       return next()
     }
