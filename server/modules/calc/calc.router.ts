@@ -1,7 +1,7 @@
 /** POST /api/calc/:tool runs an engine tool on JSON input, exactly as the CLI does. */
 import { ToolListAnswer, ToolRunAnswer } from '../../../shared/schemas/answers/system'
 import { z } from 'zod'
-import { tools } from '../../../shared/engine/registry'
+import { isToolName, tools } from '../../../shared/engine/registry'
 import { assertFinite } from '../../../shared/engine/tool'
 import { strictSchema } from '../../../shared/lib/strict-schema'
 import { ENGINE_VERSION } from '../../../shared/engine/version'
@@ -9,8 +9,7 @@ import { CalcQuerySchema } from '../../../shared/schemas/calc.schema'
 import { InvalidInputError } from '../../errors/problem'
 import { defineRoute, type RouteSpec } from '../../policy/access'
 
-const hasTool = (name: string) => Object.prototype.hasOwnProperty.call(tools, name)
-const ToolParams = z.object({ tool: z.string().refine(hasTool) })
+const ToolParams = z.object({ tool: z.string().refine(isToolName) })
 
 /**
  * Which input schema applies depends on the tool in the path, so the body is checked by that
@@ -30,7 +29,7 @@ export const calcRoutes: RouteSpec[] = [
     params: ToolParams, notFound: (raw) => `The engine tool "${raw.tool}"`, query: CalcQuerySchema, body: ToolInputBody,
     handler: ({ params, query, body }) => {
       const name = params.tool
-      const tool = tools[name]!
+      const tool = tools[name]
       // The tool's schema, refusing fields it does not declare (a misspelt input is an error, not ignored).
       const parsed = strictSchema(tool.input).safeParse(body)
       if (!parsed.success) throw new InvalidInputError(parsed.error, 'body', `Invalid input for ${name}`)
