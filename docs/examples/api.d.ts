@@ -1208,6 +1208,90 @@ export interface paths {
         patch?: never;
         trace?: never;
     };
+    "/api/sites/{id}/rounds/{roundId}/record.pdf": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * The printable record of a signed-off round (PDF)
+         * @description Role viewer or higher in the current workspace. State-changing requests with a session cookie need the X-CSRF-Token header (or a same-origin Origin).
+         */
+        get: operations["getApiSitesIdRoundsRoundIdRecordPdf"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/sites/{id}/test-plans": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * A site's test plans, newest first
+         * @description Role viewer or higher in the current workspace. State-changing requests with a session cookie need the X-CSRF-Token header (or a same-origin Origin).
+         */
+        get: operations["getApiSitesIdTestPlans"];
+        put?: never;
+        /**
+         * Plan a site's full-duration tests in groups that leave no area dark
+         * @description Role designer or higher in the current workspace. State-changing requests with a session cookie need the X-CSRF-Token header (or a same-origin Origin).
+         */
+        post: operations["postApiSitesIdTestPlans"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/sites/{id}/test-plans/{planId}": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * One test plan with its groups and times
+         * @description Role viewer or higher in the current workspace. State-changing requests with a session cookie need the X-CSRF-Token header (or a same-origin Origin).
+         */
+        get: operations["getApiSitesIdTestPlansPlanId"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/sites/{id}/test-plans/{planId}/work-order.pdf": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * A test plan printed as a work order (PDF)
+         * @description Role viewer or higher in the current workspace. State-changing requests with a session cookie need the X-CSRF-Token header (or a same-origin Origin).
+         */
+        get: operations["getApiSitesIdTestPlansPlanIdWorkOrderPdf"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
     "/api/sites/{id}/import/preview": {
         parameters: {
             query?: never;
@@ -1546,7 +1630,7 @@ export interface paths {
         get: operations["getApiPhotometry"];
         put?: never;
         /**
-         * Upload an IES LM-63 file (multipart field "file", or JSON { name, text }); a malformed file is refused naming the line
+         * Upload an IES LM-63 or EULUMDAT (.ldt) file (multipart field "file", or JSON { name, text }); a malformed file is refused naming the line
          * @description Role designer or higher in the current workspace. State-changing requests with a session cookie need the X-CSRF-Token header (or a same-origin Origin).
          */
         post: operations["postApiPhotometry"];
@@ -1820,14 +1904,40 @@ export interface paths {
 export type webhooks = Record<string, never>;
 export interface components {
     schemas: {
-        Error: {
-            /** @description A sentence for people */
-            error: string;
-            /** @description A machine code (invalid_input, not_found, …) */
+        Problem: {
+            /**
+             * Format: uri-reference
+             * @description The kind of problem, /api/problems/<code>
+             */
+            type: string;
+            /** @description The fixed sentence of this kind of problem */
+            title: string;
+            /** @description The HTTP status */
+            status: number;
+            /** @description What went wrong this time, for people */
+            detail: string;
+            /** @description The kind as a short word (invalid_input, not_found, …) */
             code: string;
+            /** @description Each refused value, named by an RFC 6901 JSON Pointer into the body (or into the query parameters when `in` is "query") */
+            errors?: {
+                pointer: string;
+                code: string;
+                detail: string;
+                /** @enum {string} */
+                in?: "body" | "query" | "header";
+            }[];
+            /**
+             * @deprecated
+             * @description The same as `detail` (removed in v2)
+             */
+            error?: string;
+            /**
+             * @deprecated
+             * @description `errors` with dotted paths (removed in v2)
+             */
             fields?: {
-                path: string;
-                message: string;
+                path?: string;
+                message?: string;
             }[];
         };
     };
@@ -1859,13 +1969,13 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -1874,7 +1984,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -1904,13 +2014,13 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -1919,7 +2029,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -1976,13 +2086,13 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -1991,7 +2101,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2022,13 +2141,13 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2037,7 +2156,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2089,13 +2217,13 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2104,7 +2232,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2125,13 +2262,13 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2140,7 +2277,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2184,22 +2321,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -2208,7 +2345,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2217,7 +2354,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2269,22 +2406,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -2293,7 +2430,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2302,7 +2439,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2348,13 +2494,13 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2363,7 +2509,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2395,22 +2541,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -2419,7 +2565,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2428,7 +2574,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2453,13 +2608,13 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2468,7 +2623,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2500,13 +2655,13 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2515,7 +2670,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2547,13 +2711,13 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2562,7 +2726,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2592,22 +2765,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -2616,7 +2789,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2625,7 +2798,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2659,22 +2832,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -2683,7 +2856,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2692,7 +2865,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2743,22 +2925,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -2767,7 +2949,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2776,7 +2958,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2808,22 +2999,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -2832,7 +3023,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2841,7 +3032,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2874,22 +3074,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -2898,7 +3098,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2907,7 +3107,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2930,22 +3130,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -2954,7 +3154,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2963,7 +3163,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2999,22 +3199,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -3023,7 +3223,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -3032,7 +3232,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -3053,22 +3262,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -3077,7 +3286,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -3086,7 +3295,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -3117,22 +3326,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -3141,7 +3350,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -3150,7 +3359,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -3188,22 +3397,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -3212,7 +3421,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -3221,7 +3430,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -3244,22 +3462,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -3268,7 +3486,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -3277,7 +3495,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -3308,13 +3526,13 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -3323,7 +3541,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -3369,22 +3587,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -3393,7 +3611,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -3402,7 +3620,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -3433,22 +3651,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -3457,7 +3675,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -3466,7 +3684,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -3495,22 +3713,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -3519,7 +3737,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -3528,7 +3746,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -3842,22 +4060,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -3866,7 +4084,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -3875,7 +4093,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -3902,6 +4129,8 @@ export interface operations {
                             /** @enum {string} */
                             role: "viewer" | "technician" | "designer" | "owner";
                             prefix: string;
+                            scopes: ("read" | "write" | "calc")[];
+                            expiresAt: string | null;
                             createdAt: string;
                             lastUsedAt: string | null;
                             revokedAt: string | null;
@@ -3909,22 +4138,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -3933,7 +4162,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -3942,7 +4171,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -3960,6 +4189,19 @@ export interface operations {
                     name: string;
                     /** @enum {string} */
                     role: "viewer" | "technician" | "designer" | "owner";
+                    /**
+                     * @default [
+                     *       "read",
+                     *       "write",
+                     *       "calc"
+                     *     ]
+                     */
+                    scopes?: ("read" | "write" | "calc")[];
+                    /**
+                     * Format: date-time
+                     * @default null
+                     */
+                    expiresAt?: string | null;
                 };
             };
         };
@@ -3976,27 +4218,29 @@ export interface operations {
                         /** @enum {string} */
                         role: "viewer" | "technician" | "designer" | "owner";
                         prefix: string;
+                        scopes: ("read" | "write" | "calc")[];
+                        expiresAt: string | null;
                         createdAt: string;
                         token: string;
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4005,7 +4249,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4014,7 +4258,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -4037,22 +4290,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4061,7 +4314,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4070,7 +4323,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -4097,6 +4350,8 @@ export interface operations {
                             /** @enum {string} */
                             role: "viewer" | "technician" | "designer" | "owner";
                             prefix: string;
+                            scopes: ("read" | "write" | "calc")[];
+                            expiresAt: string | null;
                             createdAt: string;
                             lastUsedAt: string | null;
                             revokedAt: string | null;
@@ -4108,22 +4363,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4132,7 +4387,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4141,7 +4396,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -4164,22 +4419,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4188,7 +4443,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4197,7 +4452,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -4255,22 +4510,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4279,7 +4534,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4288,7 +4543,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -4359,22 +4614,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4383,7 +4638,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4392,7 +4647,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -4420,22 +4684,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4444,7 +4708,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4453,7 +4717,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -4509,22 +4773,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4533,7 +4797,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4542,7 +4806,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -4616,22 +4880,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4640,7 +4904,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4649,7 +4913,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -4692,22 +4965,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4716,7 +4989,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4725,7 +4998,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -4777,22 +5050,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4801,7 +5074,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4810,7 +5083,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -4872,22 +5145,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4896,7 +5169,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4905,7 +5178,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -4961,22 +5243,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4985,7 +5267,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4994,7 +5276,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5050,22 +5332,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -5074,7 +5356,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5083,7 +5365,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5139,22 +5421,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -5163,7 +5445,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5172,7 +5454,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5199,22 +5481,22 @@ export interface operations {
                     "application/pdf": string;
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -5223,7 +5505,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5232,7 +5514,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5270,22 +5552,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -5294,7 +5576,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5303,7 +5585,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5343,22 +5625,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -5367,7 +5649,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5376,7 +5658,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5400,22 +5691,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -5424,7 +5715,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5433,7 +5724,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5471,22 +5762,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -5495,7 +5786,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5504,7 +5795,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5561,13 +5861,13 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5576,7 +5876,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5601,13 +5901,13 @@ export interface operations {
                     "application/pdf": string;
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5616,7 +5916,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5638,25 +5938,28 @@ export interface operations {
                 content: {
                     "application/json": {
                         repairWindowDays: number;
+                        reminderDaysAhead: number;
+                        remindSiteContact: boolean;
+                        remindRoles: ("owner" | "designer" | "technician" | "viewer")[];
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -5665,7 +5968,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5674,7 +5977,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5690,6 +5993,9 @@ export interface operations {
             content: {
                 "application/json": {
                     repairWindowDays?: number;
+                    reminderDaysAhead?: number;
+                    remindSiteContact?: boolean;
+                    remindRoles?: ("owner" | "designer" | "technician" | "viewer")[];
                 };
             };
         };
@@ -5702,25 +6008,28 @@ export interface operations {
                 content: {
                     "application/json": {
                         repairWindowDays: number;
+                        reminderDaysAhead: number;
+                        remindSiteContact: boolean;
+                        remindRoles: ("owner" | "designer" | "technician" | "viewer")[];
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -5729,7 +6038,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5738,7 +6047,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5765,6 +6083,9 @@ export interface operations {
                         days: number;
                         settings: {
                             repairWindowDays: number;
+                            reminderDaysAhead: number;
+                            remindSiteContact: boolean;
+                            remindRoles: ("owner" | "designer" | "technician" | "viewer")[];
                         };
                         sites: {
                             id: string;
@@ -5819,22 +6140,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -5843,7 +6164,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5852,7 +6173,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5905,22 +6226,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -5929,7 +6250,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5938,7 +6259,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5985,6 +6315,9 @@ export interface operations {
                         };
                         settings: {
                             repairWindowDays: number;
+                            reminderDaysAhead: number;
+                            remindSiteContact: boolean;
+                            remindRoles: ("owner" | "designer" | "technician" | "viewer")[];
                         };
                         areas: {
                             id: string;
@@ -6099,22 +6432,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -6123,7 +6456,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -6132,7 +6465,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -6155,22 +6488,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -6179,7 +6512,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -6188,7 +6521,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -6243,22 +6576,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -6267,7 +6600,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -6276,7 +6609,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -6314,22 +6656,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -6338,7 +6680,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -6347,7 +6689,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -6370,22 +6721,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -6394,7 +6745,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -6403,7 +6754,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -6441,22 +6792,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -6465,7 +6816,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -6474,7 +6825,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -6522,6 +6882,12 @@ export interface operations {
                      */
                     luminaireTypeId?: string | null;
                     /** @default null */
+                    walkOrder?: number | null;
+                    /** @default  */
+                    circuit?: string;
+                    /** @default null */
+                    rechargeH?: number | null;
+                    /** @default null */
                     externalId?: string | null;
                     /** @default null */
                     lastFunctionalTestOn?: string | null;
@@ -6567,22 +6933,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -6591,7 +6957,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -6600,7 +6966,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -6736,22 +7111,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -6760,7 +7135,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -6769,7 +7144,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -6792,22 +7167,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -6816,7 +7191,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -6825,7 +7200,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -6873,6 +7248,12 @@ export interface operations {
                      */
                     luminaireTypeId?: string | null;
                     /** @default null */
+                    walkOrder?: number | null;
+                    /** @default  */
+                    circuit?: string;
+                    /** @default null */
+                    rechargeH?: number | null;
+                    /** @default null */
                     externalId?: string | null;
                     /** @default null */
                     lastFunctionalTestOn?: string | null;
@@ -6918,22 +7299,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -6942,7 +7323,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -6951,7 +7332,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -7015,22 +7405,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -7039,7 +7429,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -7048,7 +7438,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -7098,22 +7497,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -7122,7 +7521,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -7131,7 +7530,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -7188,22 +7587,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -7212,7 +7611,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -7221,7 +7620,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -7295,22 +7694,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -7319,7 +7718,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -7328,7 +7727,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -7351,22 +7759,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -7375,7 +7783,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -7384,7 +7792,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -7434,22 +7842,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -7458,7 +7866,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -7467,7 +7875,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -7516,6 +7924,427 @@ export interface operations {
                             remedialAction: string;
                         }[];
                     };
+                };
+            };
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Your role does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description No such record in this workspace */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+        };
+    };
+    getApiSitesIdRoundsRoundIdRecordPdf: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: string;
+                roundId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description The printable record of a signed-off round (PDF) */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/pdf": string;
+                };
+            };
+            /** @description The request is not valid: `fields` names each field and the reason */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Not signed in */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Your role does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description No such record in this workspace */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+        };
+    };
+    getApiSitesIdTestPlans: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description A site's test plans, newest first */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        plans: {
+                            id: string;
+                            siteId: string;
+                            input: {
+                                /** @enum {string} */
+                                grouping: "alternate" | "area" | "circuit";
+                                firstDay: string;
+                                windowStart: string;
+                                windowEnd: string;
+                                defaultRechargeH: number;
+                            };
+                            plan: {
+                                groups: {
+                                    index: number;
+                                    name: string;
+                                    luminaireIds: string[];
+                                    tags: string[];
+                                    areas: string[];
+                                    testH: number;
+                                    rechargeH: number;
+                                    startsAt: string;
+                                    endsAt: string;
+                                    fullCoverAt: string;
+                                    darkAreas: string[];
+                                }[];
+                                warnings: {
+                                    /** @enum {string} */
+                                    code: "single-luminaire-area" | "area-dark" | "window-too-short" | "no-luminaires";
+                                    message: string;
+                                }[];
+                                finishesAt: string | null;
+                                working: string[];
+                            };
+                            createdAt: string;
+                        }[];
+                    };
+                };
+            };
+            /** @description The request is not valid: `fields` names each field and the reason */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Not signed in */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Your role does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description No such record in this workspace */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+        };
+    };
+    postApiSitesIdTestPlans: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": {
+                    /**
+                     * @default alternate
+                     * @enum {string}
+                     */
+                    grouping?: "alternate" | "area" | "circuit";
+                    firstDay: string;
+                    windowStart: string;
+                    windowEnd: string;
+                    /** @default 24 */
+                    defaultRechargeH?: number;
+                };
+            };
+        };
+        responses: {
+            /** @description Plan a site's full-duration tests in groups that leave no area dark */
+            201: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        id: string;
+                        siteId: string;
+                        input: {
+                            /** @enum {string} */
+                            grouping: "alternate" | "area" | "circuit";
+                            firstDay: string;
+                            windowStart: string;
+                            windowEnd: string;
+                            defaultRechargeH: number;
+                        };
+                        plan: {
+                            groups: {
+                                index: number;
+                                name: string;
+                                luminaireIds: string[];
+                                tags: string[];
+                                areas: string[];
+                                testH: number;
+                                rechargeH: number;
+                                startsAt: string;
+                                endsAt: string;
+                                fullCoverAt: string;
+                                darkAreas: string[];
+                            }[];
+                            warnings: {
+                                /** @enum {string} */
+                                code: "single-luminaire-area" | "area-dark" | "window-too-short" | "no-luminaires";
+                                message: string;
+                            }[];
+                            finishesAt: string | null;
+                            working: string[];
+                        };
+                        createdAt: string;
+                    };
+                };
+            };
+            /** @description The request is not valid: `fields` names each field and the reason */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Not signed in */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Your role does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description No such record in this workspace */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+        };
+    };
+    getApiSitesIdTestPlansPlanId: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: string;
+                planId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description One test plan with its groups and times */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        id: string;
+                        siteId: string;
+                        input: {
+                            /** @enum {string} */
+                            grouping: "alternate" | "area" | "circuit";
+                            firstDay: string;
+                            windowStart: string;
+                            windowEnd: string;
+                            defaultRechargeH: number;
+                        };
+                        plan: {
+                            groups: {
+                                index: number;
+                                name: string;
+                                luminaireIds: string[];
+                                tags: string[];
+                                areas: string[];
+                                testH: number;
+                                rechargeH: number;
+                                startsAt: string;
+                                endsAt: string;
+                                fullCoverAt: string;
+                                darkAreas: string[];
+                            }[];
+                            warnings: {
+                                /** @enum {string} */
+                                code: "single-luminaire-area" | "area-dark" | "window-too-short" | "no-luminaires";
+                                message: string;
+                            }[];
+                            finishesAt: string | null;
+                            working: string[];
+                        };
+                        createdAt: string;
+                    };
+                };
+            };
+            /** @description The request is not valid: `fields` names each field and the reason */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Not signed in */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description Your role does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+            /** @description No such record in this workspace */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["Error"];
+                };
+            };
+        };
+    };
+    getApiSitesIdTestPlansPlanIdWorkOrderPdf: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: string;
+                planId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description A test plan printed as a work order (PDF) */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/pdf": string;
                 };
             };
             /** @description The request is not valid: `fields` names each field and the reason */
@@ -7607,22 +8436,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -7631,7 +8460,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -7640,7 +8469,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -7683,22 +8521,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -7707,7 +8545,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -7716,7 +8554,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -7752,22 +8599,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -7776,7 +8623,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -7785,7 +8632,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -7915,22 +8762,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -7939,7 +8786,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -7948,7 +8795,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -8027,22 +8874,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -8051,7 +8898,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -8060,7 +8907,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -8120,22 +8976,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -8144,7 +9000,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -8153,7 +9009,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -8219,22 +9084,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -8243,7 +9108,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -8252,7 +9117,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -8319,22 +9184,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -8343,7 +9208,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -8352,7 +9217,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -8381,22 +9246,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -8405,7 +9270,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -8414,7 +9279,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -8453,22 +9318,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -8477,7 +9342,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -8486,7 +9351,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -8549,22 +9423,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -8573,7 +9447,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -8582,7 +9456,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -8651,22 +9525,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -8675,7 +9549,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -8684,7 +9558,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -8740,22 +9623,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -8764,7 +9647,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -8773,7 +9656,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -8796,22 +9679,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -8820,7 +9703,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -8829,7 +9712,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -8894,22 +9777,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -8918,7 +9801,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -8927,7 +9810,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -8981,22 +9873,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -9005,7 +9897,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -9014,7 +9906,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -9091,22 +9992,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -9115,7 +10016,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -9124,7 +10025,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -9287,22 +10188,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -9311,7 +10212,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -9320,7 +10221,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -9391,22 +10301,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -9415,7 +10325,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -9424,7 +10334,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -9447,22 +10357,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -9471,7 +10381,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -9480,7 +10390,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -9609,22 +10519,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -9633,7 +10543,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -9642,7 +10552,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -9682,22 +10592,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -9706,7 +10616,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -9715,7 +10625,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -9741,7 +10651,7 @@ export interface operations {
             };
         };
         responses: {
-            /** @description Upload an IES LM-63 file (multipart field "file", or JSON { name, text }); a malformed file is refused naming the line */
+            /** @description Upload an IES LM-63 or EULUMDAT (.ldt) file (multipart field "file", or JSON { name, text }); a malformed file is refused naming the line */
             201: {
                 headers: {
                     [name: string]: unknown;
@@ -9792,22 +10702,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -9816,7 +10726,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -9825,7 +10735,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -9892,22 +10811,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -9916,7 +10835,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -9925,7 +10844,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -9948,22 +10867,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -9972,7 +10891,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -9981,7 +10900,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -10022,22 +10941,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -10046,7 +10965,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -10055,7 +10974,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -10117,22 +11036,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -10141,7 +11060,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -10150,7 +11069,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -10191,22 +11119,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -10215,7 +11143,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -10224,7 +11152,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -10247,22 +11175,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -10271,7 +11199,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -10280,7 +11208,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -10344,22 +11272,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -10368,7 +11296,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -10377,7 +11305,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -10424,22 +11361,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -10448,7 +11385,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -10457,7 +11394,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -10541,22 +11487,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -10565,7 +11511,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -10574,7 +11520,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -10604,22 +11559,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -10628,7 +11583,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -10637,7 +11592,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -10675,22 +11630,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -10699,7 +11654,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -10708,7 +11663,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -10870,22 +11825,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -10894,7 +11849,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -10903,7 +11858,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -11036,22 +12000,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -11060,7 +12024,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -11069,7 +12033,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -11095,22 +12059,22 @@ export interface operations {
                     "application/pdf": string;
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -11119,7 +12083,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -11128,7 +12092,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -11166,22 +12130,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -11190,7 +12154,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -11199,7 +12163,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -11326,13 +12299,13 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -11341,7 +12314,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -11366,13 +12339,13 @@ export interface operations {
                     "application/pdf": string;
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -11381,7 +12354,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
