@@ -1904,14 +1904,40 @@ export interface paths {
 export type webhooks = Record<string, never>;
 export interface components {
     schemas: {
-        Error: {
-            /** @description A sentence for people */
-            error: string;
-            /** @description A machine code (invalid_input, not_found, …) */
+        Problem: {
+            /**
+             * Format: uri-reference
+             * @description The kind of problem, /api/problems/<code>
+             */
+            type: string;
+            /** @description The fixed sentence of this kind of problem */
+            title: string;
+            /** @description The HTTP status */
+            status: number;
+            /** @description What went wrong this time, for people */
+            detail: string;
+            /** @description The kind as a short word (invalid_input, not_found, …) */
             code: string;
+            /** @description Each refused value, named by an RFC 6901 JSON Pointer into the body (or into the query parameters when `in` is "query") */
+            errors?: {
+                pointer: string;
+                code: string;
+                detail: string;
+                /** @enum {string} */
+                in?: "body" | "query" | "header";
+            }[];
+            /**
+             * @deprecated
+             * @description The same as `detail` (removed in v2)
+             */
+            error?: string;
+            /**
+             * @deprecated
+             * @description `errors` with dotted paths (removed in v2)
+             */
             fields?: {
-                path: string;
-                message: string;
+                path?: string;
+                message?: string;
             }[];
         };
     };
@@ -1943,13 +1969,13 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -1958,7 +1984,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -1988,13 +2014,13 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2003,7 +2029,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2060,13 +2086,13 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2075,7 +2101,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2106,13 +2141,13 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2121,7 +2156,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2173,13 +2217,13 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2188,7 +2232,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2209,13 +2262,13 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2224,7 +2277,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2268,22 +2321,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -2292,7 +2345,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2301,7 +2354,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2353,22 +2406,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -2377,7 +2430,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2386,7 +2439,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2432,13 +2494,13 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2447,7 +2509,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2479,22 +2541,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -2503,7 +2565,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2512,7 +2574,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2537,13 +2608,13 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2552,7 +2623,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2584,13 +2655,13 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2599,7 +2670,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2631,13 +2711,13 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2646,7 +2726,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2676,22 +2765,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -2700,7 +2789,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2709,7 +2798,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2743,22 +2832,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -2767,7 +2856,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2776,7 +2865,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2827,22 +2925,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -2851,7 +2949,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2860,7 +2958,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2892,22 +2999,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -2916,7 +3023,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2925,7 +3032,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2958,22 +3074,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -2982,7 +3098,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2991,7 +3107,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -3014,22 +3130,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -3038,7 +3154,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -3047,7 +3163,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -3083,22 +3199,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -3107,7 +3223,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -3116,7 +3232,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -3137,22 +3262,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -3161,7 +3286,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -3170,7 +3295,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -3201,22 +3326,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -3225,7 +3350,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -3234,7 +3359,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -3272,22 +3397,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -3296,7 +3421,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -3305,7 +3430,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -3328,22 +3462,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -3352,7 +3486,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -3361,7 +3495,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -3392,13 +3526,13 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -3407,7 +3541,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -3453,22 +3587,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -3477,7 +3611,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -3486,7 +3620,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -3517,22 +3651,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -3541,7 +3675,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -3550,7 +3684,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -3579,22 +3713,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -3603,7 +3737,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -3612,7 +3746,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -3926,22 +4060,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -3950,7 +4084,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -3959,7 +4093,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -3986,6 +4129,8 @@ export interface operations {
                             /** @enum {string} */
                             role: "viewer" | "technician" | "designer" | "owner";
                             prefix: string;
+                            scopes: ("read" | "write" | "calc")[];
+                            expiresAt: string | null;
                             createdAt: string;
                             lastUsedAt: string | null;
                             revokedAt: string | null;
@@ -3993,22 +4138,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4017,7 +4162,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4026,7 +4171,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -4044,6 +4189,19 @@ export interface operations {
                     name: string;
                     /** @enum {string} */
                     role: "viewer" | "technician" | "designer" | "owner";
+                    /**
+                     * @default [
+                     *       "read",
+                     *       "write",
+                     *       "calc"
+                     *     ]
+                     */
+                    scopes?: ("read" | "write" | "calc")[];
+                    /**
+                     * Format: date-time
+                     * @default null
+                     */
+                    expiresAt?: string | null;
                 };
             };
         };
@@ -4060,27 +4218,29 @@ export interface operations {
                         /** @enum {string} */
                         role: "viewer" | "technician" | "designer" | "owner";
                         prefix: string;
+                        scopes: ("read" | "write" | "calc")[];
+                        expiresAt: string | null;
                         createdAt: string;
                         token: string;
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4089,7 +4249,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4098,7 +4258,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -4121,22 +4290,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4145,7 +4314,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4154,7 +4323,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -4181,6 +4350,8 @@ export interface operations {
                             /** @enum {string} */
                             role: "viewer" | "technician" | "designer" | "owner";
                             prefix: string;
+                            scopes: ("read" | "write" | "calc")[];
+                            expiresAt: string | null;
                             createdAt: string;
                             lastUsedAt: string | null;
                             revokedAt: string | null;
@@ -4192,22 +4363,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4216,7 +4387,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4225,7 +4396,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -4248,22 +4419,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4272,7 +4443,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4281,7 +4452,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -4339,22 +4510,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4363,7 +4534,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4372,7 +4543,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -4443,22 +4614,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4467,7 +4638,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4476,7 +4647,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -4504,22 +4684,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4528,7 +4708,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4537,7 +4717,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -4593,22 +4773,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4617,7 +4797,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4626,7 +4806,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -4700,22 +4880,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4724,7 +4904,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4733,7 +4913,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -4776,22 +4965,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4800,7 +4989,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4809,7 +4998,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -4861,22 +5050,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4885,7 +5074,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4894,7 +5083,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -4956,22 +5145,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4980,7 +5169,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4989,7 +5178,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5045,22 +5243,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -5069,7 +5267,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5078,7 +5276,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5134,22 +5332,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -5158,7 +5356,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5167,7 +5365,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5223,22 +5421,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -5247,7 +5445,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5256,7 +5454,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5283,22 +5481,22 @@ export interface operations {
                     "application/pdf": string;
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -5307,7 +5505,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5316,7 +5514,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5354,22 +5552,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -5378,7 +5576,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5387,7 +5585,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5427,22 +5625,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -5451,7 +5649,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5460,7 +5658,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5484,22 +5691,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -5508,7 +5715,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5517,7 +5724,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5555,22 +5762,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -5579,7 +5786,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5588,7 +5795,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5645,13 +5861,13 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5660,7 +5876,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5685,13 +5901,13 @@ export interface operations {
                     "application/pdf": string;
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5700,7 +5916,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5728,22 +5944,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -5752,7 +5968,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5761,7 +5977,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5798,22 +6014,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -5822,7 +6038,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5831,7 +6047,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5915,22 +6140,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -5939,7 +6164,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5948,7 +6173,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -6001,22 +6226,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -6025,7 +6250,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -6034,7 +6259,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -6198,22 +6432,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -6222,7 +6456,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -6231,7 +6465,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -6254,22 +6488,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -6278,7 +6512,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -6287,7 +6521,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -6342,22 +6576,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -6366,7 +6600,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -6375,7 +6609,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -6413,22 +6656,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -6437,7 +6680,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -6446,7 +6689,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -6469,22 +6721,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -6493,7 +6745,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -6502,7 +6754,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -6540,22 +6792,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -6564,7 +6816,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -6573,7 +6825,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -6672,22 +6933,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -6696,7 +6957,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -6705,7 +6966,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -6841,22 +7111,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -6865,7 +7135,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -6874,7 +7144,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -6897,22 +7167,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -6921,7 +7191,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -6930,7 +7200,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -7029,22 +7299,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -7053,7 +7323,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -7062,7 +7332,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -7126,22 +7405,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -7150,7 +7429,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -7159,7 +7438,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -7209,22 +7497,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -7233,7 +7521,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -7242,7 +7530,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -7299,22 +7587,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -7323,7 +7611,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -7332,7 +7620,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -7406,22 +7694,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -7430,7 +7718,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -7439,7 +7727,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -7462,22 +7759,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -7486,7 +7783,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -7495,7 +7792,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -7545,22 +7842,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -7569,7 +7866,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -7578,7 +7875,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -7629,22 +7926,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -7653,7 +7950,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -7662,7 +7959,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -8130,22 +8436,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -8154,7 +8460,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -8163,7 +8469,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -8206,22 +8521,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -8230,7 +8545,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -8239,7 +8554,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -8275,22 +8599,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -8299,7 +8623,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -8308,7 +8632,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -8438,22 +8762,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -8462,7 +8786,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -8471,7 +8795,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -8550,22 +8874,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -8574,7 +8898,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -8583,7 +8907,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -8643,22 +8976,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -8667,7 +9000,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -8676,7 +9009,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -8742,22 +9084,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -8766,7 +9108,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -8775,7 +9117,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -8842,22 +9184,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -8866,7 +9208,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -8875,7 +9217,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -8904,22 +9246,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -8928,7 +9270,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -8937,7 +9279,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -8976,22 +9318,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -9000,7 +9342,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -9009,7 +9351,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -9072,22 +9423,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -9096,7 +9447,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -9105,7 +9456,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -9174,22 +9525,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -9198,7 +9549,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -9207,7 +9558,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -9263,22 +9623,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -9287,7 +9647,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -9296,7 +9656,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -9319,22 +9679,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -9343,7 +9703,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -9352,7 +9712,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -9417,22 +9777,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -9441,7 +9801,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -9450,7 +9810,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -9504,22 +9873,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -9528,7 +9897,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -9537,7 +9906,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -9614,22 +9992,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -9638,7 +10016,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -9647,7 +10025,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -9810,22 +10188,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -9834,7 +10212,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -9843,7 +10221,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -9914,22 +10301,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -9938,7 +10325,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -9947,7 +10334,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -9970,22 +10357,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -9994,7 +10381,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -10003,7 +10390,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -10132,22 +10519,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -10156,7 +10543,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -10165,7 +10552,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -10205,22 +10592,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -10229,7 +10616,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -10238,7 +10625,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -10315,22 +10702,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -10339,7 +10726,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -10348,7 +10735,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -10415,22 +10811,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -10439,7 +10835,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -10448,7 +10844,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -10471,22 +10867,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -10495,7 +10891,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -10504,7 +10900,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -10545,22 +10941,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -10569,7 +10965,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -10578,7 +10974,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -10640,22 +11036,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -10664,7 +11060,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -10673,7 +11069,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -10714,22 +11119,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -10738,7 +11143,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -10747,7 +11152,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -10770,22 +11175,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -10794,7 +11199,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -10803,7 +11208,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -10867,22 +11272,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -10891,7 +11296,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -10900,7 +11305,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -10947,22 +11361,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -10971,7 +11385,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -10980,7 +11394,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -11064,22 +11487,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -11088,7 +11511,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -11097,7 +11520,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -11127,22 +11559,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -11151,7 +11583,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -11160,7 +11592,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -11198,22 +11630,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -11222,7 +11654,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -11231,7 +11663,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -11393,22 +11825,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -11417,7 +11849,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -11426,7 +11858,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -11559,22 +12000,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -11583,7 +12024,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -11592,7 +12033,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -11618,22 +12059,22 @@ export interface operations {
                     "application/pdf": string;
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -11642,7 +12083,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -11651,7 +12092,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -11689,22 +12130,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -11713,7 +12154,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -11722,7 +12163,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -11849,13 +12299,13 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -11864,7 +12314,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -11889,13 +12339,13 @@ export interface operations {
                     "application/pdf": string;
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -11904,7 +12354,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };

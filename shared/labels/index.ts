@@ -89,6 +89,13 @@ export const ROLE_LABELS: Record<keyof typeof ROLE_NAMES, string> = {
   owner: 'Owner: also manages members and the workspace',
 }
 
+/** What an API token may do. */
+export const TOKEN_SCOPE_LABELS = {
+  read: 'Read records',
+  write: 'Change records',
+  calc: 'Run calculations',
+} as const
+
 export const TEST_KIND_LABELS = {
   functional: 'Functional test',
   duration: 'Full-duration test',
@@ -278,6 +285,7 @@ export const ENUMERATIONS = {
   criteria: CRITERIA_LABELS,
   emphasisPoint: EMPHASIS_POINT_LABELS,
   role: ROLE_NAMES,
+  tokenScope: TOKEN_SCOPE_LABELS,
   testKind: TEST_KIND_LABELS,
   sheetStatus: SHEET_STATUS_LABELS,
   shareState: SHARE_STATE_LABELS,
