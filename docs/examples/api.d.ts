@@ -7994,22 +7994,22 @@ export interface operations {
                     "application/pdf": string;
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -8018,7 +8018,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -8027,7 +8027,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -8088,22 +8088,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -8112,7 +8112,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -8121,7 +8121,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -8195,22 +8195,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -8219,7 +8219,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -8228,7 +8228,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -8288,22 +8297,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -8312,7 +8321,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -8321,7 +8330,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -8347,22 +8356,22 @@ export interface operations {
                     "application/pdf": string;
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -8371,7 +8380,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -8380,7 +8389,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };

@@ -8,6 +8,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { closeTestApp, getTestApp, makeTeam, signIn, type Client, type TestTeam } from '../helpers/test-app'
 import { luminaireIn, siteIn } from '../helpers/register-fixtures'
 import { pdfLines } from '../helpers/pdf-checks'
+import { formatHours } from '../../shared/format'
 
 let team: TestTeam
 let tech: Client
@@ -77,7 +78,7 @@ describe('the printed round record', () => {
     expect(text).toMatch(/Ilsa Marrow/)
     expect(text).toMatch(/Luminaires tested: 2: 1 passed, 1 failed/)
     expect(text).toMatch(/BH-1.*Functional test.*Pass.*2 checked, all fine/)
-    expect(text).toMatch(/BH-2.*Full-duration test.*Fail.*2 h 15 min.*Found wrong: Stayed lit to the end of the rated/)
+    expect(text).toMatch(new RegExp(`BH-2.*Full-duration test.*Fail${formatHours(2.25)}Found wrong: Stayed lit to the end of the rated`))
     expect(text).toMatch(/Failures to put right/)
     expect(text).toMatch(/New pack ordered/)
     expect(text).toMatch(/Page 1 of \d/)
