@@ -258,6 +258,7 @@ export const UNIT_LABELS: Record<string, string> = {
   mohm: 'mΩ',
   uA: 'µA',
   days: 'days',
+  'in^3': 'in³',
 }
 
 /** Every enumeration's map by name; the no-codes checks read this list. */

@@ -94,7 +94,7 @@ function dueWords(t: LuminaireStatus['due']['functional'], prefs: FormatPrefs): 
 }
 
 // Landscape with narrow margins: the register is a wide table.
-const newDoc = (title: string) => newDocument({ title }, { layout: 'landscape', margin: 36 })
+const newDoc = (title: string, prefs: FormatPrefs) => newDocument({ title }, { layout: 'landscape', margin: 36, paper: prefs.paper })
 
 function heading(doc: Doc, title: string, status: SiteStatus, prefs: FormatPrefs) {
   write(doc, title, { weight: 'semibold', size: 16 })
@@ -115,8 +115,12 @@ interface Column {
 }
 
 /** A plain table that starts a new page (with its header again) when the page is full. */
-function table(doc: Doc, columns: Column[], rows: string[][]) {
+function table(doc: Doc, given: Column[], rows: string[][]) {
   const left = doc.page.margins.left
+  // Widths are set for A4; on narrower paper (Letter) every column shrinks in proportion so the table stays on the page.
+  const room = doc.page.width - left - doc.page.margins.right
+  const total = given.reduce((sum, c) => sum + c.width, 0)
+  const columns = total > room ? given.map((c) => ({ ...c, width: (c.width * room) / total })) : given
   const size = 8.5
   const drawHeader = () => {
     const y = doc.y
@@ -151,7 +155,7 @@ function table(doc: Doc, columns: Column[], rows: string[][]) {
 async function registerPdf(reg: Awaited<ReturnType<typeof registerRows>>, prefs: FormatPrefs): Promise<Buffer> {
   const s = reg.status
   const date = (d: string | null) => formatDate(d, prefs)
-  const doc = newDoc(`Emergency lighting register — ${s.site.name}`)
+  const doc = newDoc(`Emergency lighting register — ${s.site.name}`, prefs)
   heading(doc, 'Emergency lighting register', s, prefs)
   write(doc, `${s.counts.luminaires} luminaires: ${s.counts.failed} with a failure not yet put right (${s.counts.retestOverdue} of them past the ${s.settings.repairWindowDays}-day repair window), ${s.counts.overdue} overdue, ${s.counts.dueNow} with a test due now, ${s.counts.dueSoon} due within 14 days.`)
   doc.moveDown(0.6)
@@ -188,7 +192,7 @@ async function registerPdf(reg: Awaited<ReturnType<typeof registerRows>>, prefs:
 }
 
 async function logBookPdf(status: SiteStatus, rows: Array<Array<string | number | boolean | null>>, prefs: FormatPrefs, period: LogBookPeriod = {}): Promise<Buffer> {
-  const doc = newDoc(`Emergency lighting log book — ${status.site.name}`)
+  const doc = newDoc(`Emergency lighting log book — ${status.site.name}`, prefs)
   heading(doc, 'Emergency lighting log book', status, prefs)
   if (period.from || period.to) {
     write(doc, `Tests ${period.from ? `from ${formatDate(period.from, prefs)} ` : ''}${period.to ? `to ${formatDate(period.to, prefs)}` : 'to today'}.`)

@@ -7,7 +7,15 @@ import { IsoDay, ReferenceSchema, StoredJson, Timestamp } from './common'
 
 const TestKind = z.enum(TEST_KINDS)
 
-export const RegisterSettingsAnswer = z.object({ repairWindowDays: z.number().int() })
+export const RegisterSettingsAnswer = z.object({
+  repairWindowDays: z.number().int(),
+  /** The daily reminder lists tests falling due within this many days. */
+  reminderDaysAhead: z.number().int(),
+  /** Whether each site's responsible person gets the reminder. */
+  remindSiteContact: z.boolean(),
+  /** Members with these roles get it. */
+  remindRoles: z.array(z.enum(['owner', 'designer', 'technician', 'viewer'])),
+})
 
 export const SiteAnswer = z.object({
   id: z.string(),
