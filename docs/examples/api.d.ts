@@ -1546,7 +1546,7 @@ export interface paths {
         get: operations["getApiPhotometry"];
         put?: never;
         /**
-         * Upload an IES LM-63 file (multipart field "file", or JSON { name, text }); a malformed file is refused naming the line
+         * Upload an IES LM-63 or EULUMDAT (.ldt) file (multipart field "file", or JSON { name, text }); a malformed file is refused naming the line
          * @description Role designer or higher in the current workspace. State-changing requests with a session cookie need the X-CSRF-Token header (or a same-origin Origin).
          */
         post: operations["postApiPhotometry"];
@@ -5638,6 +5638,9 @@ export interface operations {
                 content: {
                     "application/json": {
                         repairWindowDays: number;
+                        reminderDaysAhead: number;
+                        remindSiteContact: boolean;
+                        remindRoles: ("owner" | "designer" | "technician" | "viewer")[];
                     };
                 };
             };
@@ -5690,6 +5693,9 @@ export interface operations {
             content: {
                 "application/json": {
                     repairWindowDays?: number;
+                    reminderDaysAhead?: number;
+                    remindSiteContact?: boolean;
+                    remindRoles?: ("owner" | "designer" | "technician" | "viewer")[];
                 };
             };
         };
@@ -5702,6 +5708,9 @@ export interface operations {
                 content: {
                     "application/json": {
                         repairWindowDays: number;
+                        reminderDaysAhead: number;
+                        remindSiteContact: boolean;
+                        remindRoles: ("owner" | "designer" | "technician" | "viewer")[];
                     };
                 };
             };
@@ -5765,6 +5774,9 @@ export interface operations {
                         days: number;
                         settings: {
                             repairWindowDays: number;
+                            reminderDaysAhead: number;
+                            remindSiteContact: boolean;
+                            remindRoles: ("owner" | "designer" | "technician" | "viewer")[];
                         };
                         sites: {
                             id: string;
@@ -5985,6 +5997,9 @@ export interface operations {
                         };
                         settings: {
                             repairWindowDays: number;
+                            reminderDaysAhead: number;
+                            remindSiteContact: boolean;
+                            remindRoles: ("owner" | "designer" | "technician" | "viewer")[];
                         };
                         areas: {
                             id: string;
@@ -9741,7 +9756,7 @@ export interface operations {
             };
         };
         responses: {
-            /** @description Upload an IES LM-63 file (multipart field "file", or JSON { name, text }); a malformed file is refused naming the line */
+            /** @description Upload an IES LM-63 or EULUMDAT (.ldt) file (multipart field "file", or JSON { name, text }); a malformed file is refused naming the line */
             201: {
                 headers: {
                     [name: string]: unknown;
