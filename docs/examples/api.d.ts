@@ -1208,6 +1208,90 @@ export interface paths {
         patch?: never;
         trace?: never;
     };
+    "/api/sites/{id}/rounds/{roundId}/record.pdf": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * The printable record of a signed-off round (PDF)
+         * @description Role viewer or higher in the current workspace. State-changing requests with a session cookie need the X-CSRF-Token header (or a same-origin Origin).
+         */
+        get: operations["getApiSitesIdRoundsRoundIdRecordPdf"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/sites/{id}/test-plans": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * A site's test plans, newest first
+         * @description Role viewer or higher in the current workspace. State-changing requests with a session cookie need the X-CSRF-Token header (or a same-origin Origin).
+         */
+        get: operations["getApiSitesIdTestPlans"];
+        put?: never;
+        /**
+         * Plan a site's full-duration tests in groups that leave no area dark
+         * @description Role designer or higher in the current workspace. State-changing requests with a session cookie need the X-CSRF-Token header (or a same-origin Origin).
+         */
+        post: operations["postApiSitesIdTestPlans"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/sites/{id}/test-plans/{planId}": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * One test plan with its groups and times
+         * @description Role viewer or higher in the current workspace. State-changing requests with a session cookie need the X-CSRF-Token header (or a same-origin Origin).
+         */
+        get: operations["getApiSitesIdTestPlansPlanId"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/sites/{id}/test-plans/{planId}/work-order.pdf": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * A test plan printed as a work order (PDF)
+         * @description Role viewer or higher in the current workspace. State-changing requests with a session cookie need the X-CSRF-Token header (or a same-origin Origin).
+         */
+        get: operations["getApiSitesIdTestPlansPlanIdWorkOrderPdf"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
     "/api/sites/{id}/import/preview": {
         parameters: {
             query?: never;
@@ -1820,14 +1904,40 @@ export interface paths {
 export type webhooks = Record<string, never>;
 export interface components {
     schemas: {
-        Error: {
-            /** @description A sentence for people */
-            error: string;
-            /** @description A machine code (invalid_input, not_found, …) */
+        Problem: {
+            /**
+             * Format: uri-reference
+             * @description The kind of problem, /api/problems/<code>
+             */
+            type: string;
+            /** @description The fixed sentence of this kind of problem */
+            title: string;
+            /** @description The HTTP status */
+            status: number;
+            /** @description What went wrong this time, for people */
+            detail: string;
+            /** @description The kind as a short word (invalid_input, not_found, …) */
             code: string;
+            /** @description Each refused value, named by an RFC 6901 JSON Pointer into the body (or into the query parameters when `in` is "query") */
+            errors?: {
+                pointer: string;
+                code: string;
+                detail: string;
+                /** @enum {string} */
+                in?: "body" | "query" | "header";
+            }[];
+            /**
+             * @deprecated
+             * @description The same as `detail` (removed in v2)
+             */
+            error?: string;
+            /**
+             * @deprecated
+             * @description `errors` with dotted paths (removed in v2)
+             */
             fields?: {
-                path: string;
-                message: string;
+                path?: string;
+                message?: string;
             }[];
         };
     };
@@ -1859,13 +1969,13 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -1874,7 +1984,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -1904,13 +2014,13 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -1919,7 +2029,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -1976,13 +2086,13 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -1991,7 +2101,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2022,13 +2141,13 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2037,7 +2156,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2089,13 +2217,13 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2104,7 +2232,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2125,13 +2262,13 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2140,7 +2277,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2184,22 +2321,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -2208,7 +2345,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2217,7 +2354,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2269,22 +2406,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -2293,7 +2430,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2302,7 +2439,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2348,13 +2494,13 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2363,7 +2509,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2395,22 +2541,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -2419,7 +2565,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2428,7 +2574,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2453,13 +2608,13 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2468,7 +2623,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2500,13 +2655,13 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2515,7 +2670,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2547,13 +2711,13 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2562,7 +2726,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2592,22 +2765,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -2616,7 +2789,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2625,7 +2798,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2659,22 +2832,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -2683,7 +2856,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2692,7 +2865,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2743,22 +2925,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -2767,7 +2949,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2776,7 +2958,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2808,22 +2999,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -2832,7 +3023,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2841,7 +3032,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2874,22 +3074,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -2898,7 +3098,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2907,7 +3107,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2930,22 +3130,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -2954,7 +3154,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -2963,7 +3163,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -2999,22 +3199,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -3023,7 +3223,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -3032,7 +3232,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -3053,22 +3262,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -3077,7 +3286,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -3086,7 +3295,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -3117,22 +3326,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -3141,7 +3350,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -3150,7 +3359,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -3188,22 +3397,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -3212,7 +3421,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -3221,7 +3430,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -3244,22 +3462,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -3268,7 +3486,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -3277,7 +3495,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -3308,13 +3526,13 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -3323,7 +3541,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -3369,22 +3587,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -3393,7 +3611,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -3402,7 +3620,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -3433,22 +3651,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -3457,7 +3675,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -3466,7 +3684,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -3495,22 +3713,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -3519,7 +3737,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -3528,7 +3746,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -3842,22 +4060,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -3866,7 +4084,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -3875,7 +4093,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -3902,6 +4129,8 @@ export interface operations {
                             /** @enum {string} */
                             role: "viewer" | "technician" | "designer" | "owner";
                             prefix: string;
+                            scopes: ("read" | "write" | "calc")[];
+                            expiresAt: string | null;
                             createdAt: string;
                             lastUsedAt: string | null;
                             revokedAt: string | null;
@@ -3909,22 +4138,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -3933,7 +4162,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -3942,7 +4171,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -3960,6 +4189,19 @@ export interface operations {
                     name: string;
                     /** @enum {string} */
                     role: "viewer" | "technician" | "designer" | "owner";
+                    /**
+                     * @default [
+                     *       "read",
+                     *       "write",
+                     *       "calc"
+                     *     ]
+                     */
+                    scopes?: ("read" | "write" | "calc")[];
+                    /**
+                     * Format: date-time
+                     * @default null
+                     */
+                    expiresAt?: string | null;
                 };
             };
         };
@@ -3976,27 +4218,29 @@ export interface operations {
                         /** @enum {string} */
                         role: "viewer" | "technician" | "designer" | "owner";
                         prefix: string;
+                        scopes: ("read" | "write" | "calc")[];
+                        expiresAt: string | null;
                         createdAt: string;
                         token: string;
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4005,7 +4249,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4014,7 +4258,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -4037,22 +4290,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4061,7 +4314,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4070,7 +4323,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -4097,6 +4350,8 @@ export interface operations {
                             /** @enum {string} */
                             role: "viewer" | "technician" | "designer" | "owner";
                             prefix: string;
+                            scopes: ("read" | "write" | "calc")[];
+                            expiresAt: string | null;
                             createdAt: string;
                             lastUsedAt: string | null;
                             revokedAt: string | null;
@@ -4108,22 +4363,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4132,7 +4387,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4141,7 +4396,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -4164,22 +4419,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4188,7 +4443,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4197,7 +4452,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -4255,22 +4510,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4279,7 +4534,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4288,7 +4543,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -4359,22 +4614,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4383,7 +4638,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4392,7 +4647,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -4420,22 +4684,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4444,7 +4708,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4453,7 +4717,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -4509,22 +4773,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4533,7 +4797,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4542,7 +4806,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -4616,22 +4880,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4640,7 +4904,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4649,7 +4913,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -4692,22 +4965,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4716,7 +4989,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4725,7 +4998,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -4777,22 +5050,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4801,7 +5074,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4810,7 +5083,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -4872,22 +5145,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4896,7 +5169,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4905,7 +5178,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -4961,22 +5243,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -4985,7 +5267,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -4994,7 +5276,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5050,22 +5332,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -5074,7 +5356,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5083,7 +5365,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5139,22 +5421,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -5163,7 +5445,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5172,7 +5454,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5199,22 +5481,22 @@ export interface operations {
                     "application/pdf": string;
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -5223,7 +5505,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5232,7 +5514,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5270,22 +5552,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -5294,7 +5576,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5303,7 +5585,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5343,22 +5625,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -5367,7 +5649,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5376,7 +5658,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5400,22 +5691,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -5424,7 +5715,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5433,7 +5724,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5471,22 +5762,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -5495,7 +5786,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5504,7 +5795,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5561,13 +5861,13 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5576,7 +5876,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5601,13 +5901,13 @@ export interface operations {
                     "application/pdf": string;
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5616,7 +5916,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5644,22 +5944,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -5668,7 +5968,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5677,7 +5977,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5714,22 +6014,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -5738,7 +6038,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5747,7 +6047,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5831,22 +6140,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -5855,7 +6164,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5864,7 +6173,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -5917,22 +6226,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -5941,7 +6250,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -5950,7 +6259,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -6114,22 +6432,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -6138,7 +6456,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -6147,7 +6465,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -6170,22 +6488,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -6194,7 +6512,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -6203,7 +6521,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -6258,22 +6576,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -6282,7 +6600,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -6291,7 +6609,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -6329,22 +6656,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -6353,7 +6680,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -6362,7 +6689,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -6385,22 +6721,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -6409,7 +6745,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -6418,7 +6754,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -6456,22 +6792,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -6480,7 +6816,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -6489,7 +6825,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -6537,6 +6882,12 @@ export interface operations {
                      */
                     luminaireTypeId?: string | null;
                     /** @default null */
+                    walkOrder?: number | null;
+                    /** @default  */
+                    circuit?: string;
+                    /** @default null */
+                    rechargeH?: number | null;
+                    /** @default null */
                     externalId?: string | null;
                     /** @default null */
                     lastFunctionalTestOn?: string | null;
@@ -6582,22 +6933,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -6606,7 +6957,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -6615,7 +6966,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -6751,22 +7111,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -6775,7 +7135,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -6784,7 +7144,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -6807,22 +7167,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -6831,7 +7191,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -6840,7 +7200,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -6888,6 +7248,12 @@ export interface operations {
                      */
                     luminaireTypeId?: string | null;
                     /** @default null */
+                    walkOrder?: number | null;
+                    /** @default  */
+                    circuit?: string;
+                    /** @default null */
+                    rechargeH?: number | null;
+                    /** @default null */
                     externalId?: string | null;
                     /** @default null */
                     lastFunctionalTestOn?: string | null;
@@ -6933,22 +7299,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -6957,7 +7323,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -6966,7 +7332,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -7030,22 +7405,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -7054,7 +7429,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -7063,7 +7438,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -7113,22 +7497,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -7137,7 +7521,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -7146,7 +7530,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -7203,22 +7587,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -7227,7 +7611,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -7236,7 +7620,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -7310,22 +7694,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -7334,7 +7718,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -7343,7 +7727,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -7366,22 +7759,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -7390,7 +7783,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -7399,7 +7792,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -7449,22 +7842,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -7473,7 +7866,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -7482,7 +7875,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -7533,22 +7926,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -7557,7 +7950,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -7566,7 +7959,437 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+        };
+    };
+    getApiSitesIdRoundsRoundIdRecordPdf: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: string;
+                roundId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description The printable record of a signed-off round (PDF) */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/pdf": string;
+                };
+            };
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Your role does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description No such record in this workspace */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+        };
+    };
+    getApiSitesIdTestPlans: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description A site's test plans, newest first */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        plans: {
+                            id: string;
+                            siteId: string;
+                            input: {
+                                /** @enum {string} */
+                                grouping: "alternate" | "area" | "circuit";
+                                firstDay: string;
+                                windowStart: string;
+                                windowEnd: string;
+                                defaultRechargeH: number;
+                            };
+                            plan: {
+                                groups: {
+                                    index: number;
+                                    name: string;
+                                    luminaireIds: string[];
+                                    tags: string[];
+                                    areas: string[];
+                                    testH: number;
+                                    rechargeH: number;
+                                    startsAt: string;
+                                    endsAt: string;
+                                    fullCoverAt: string;
+                                    darkAreas: string[];
+                                }[];
+                                warnings: {
+                                    /** @enum {string} */
+                                    code: "single-luminaire-area" | "area-dark" | "window-too-short" | "no-luminaires";
+                                    message: string;
+                                }[];
+                                finishesAt: string | null;
+                                working: string[];
+                            };
+                            createdAt: string;
+                        }[];
+                    };
+                };
+            };
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Your role does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description No such record in this workspace */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+        };
+    };
+    postApiSitesIdTestPlans: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": {
+                    /**
+                     * @default alternate
+                     * @enum {string}
+                     */
+                    grouping?: "alternate" | "area" | "circuit";
+                    firstDay: string;
+                    windowStart: string;
+                    windowEnd: string;
+                    /** @default 24 */
+                    defaultRechargeH?: number;
+                };
+            };
+        };
+        responses: {
+            /** @description Plan a site's full-duration tests in groups that leave no area dark */
+            201: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        id: string;
+                        siteId: string;
+                        input: {
+                            /** @enum {string} */
+                            grouping: "alternate" | "area" | "circuit";
+                            firstDay: string;
+                            windowStart: string;
+                            windowEnd: string;
+                            defaultRechargeH: number;
+                        };
+                        plan: {
+                            groups: {
+                                index: number;
+                                name: string;
+                                luminaireIds: string[];
+                                tags: string[];
+                                areas: string[];
+                                testH: number;
+                                rechargeH: number;
+                                startsAt: string;
+                                endsAt: string;
+                                fullCoverAt: string;
+                                darkAreas: string[];
+                            }[];
+                            warnings: {
+                                /** @enum {string} */
+                                code: "single-luminaire-area" | "area-dark" | "window-too-short" | "no-luminaires";
+                                message: string;
+                            }[];
+                            finishesAt: string | null;
+                            working: string[];
+                        };
+                        createdAt: string;
+                    };
+                };
+            };
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Your role does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description No such record in this workspace */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+        };
+    };
+    getApiSitesIdTestPlansPlanId: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: string;
+                planId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description One test plan with its groups and times */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        id: string;
+                        siteId: string;
+                        input: {
+                            /** @enum {string} */
+                            grouping: "alternate" | "area" | "circuit";
+                            firstDay: string;
+                            windowStart: string;
+                            windowEnd: string;
+                            defaultRechargeH: number;
+                        };
+                        plan: {
+                            groups: {
+                                index: number;
+                                name: string;
+                                luminaireIds: string[];
+                                tags: string[];
+                                areas: string[];
+                                testH: number;
+                                rechargeH: number;
+                                startsAt: string;
+                                endsAt: string;
+                                fullCoverAt: string;
+                                darkAreas: string[];
+                            }[];
+                            warnings: {
+                                /** @enum {string} */
+                                code: "single-luminaire-area" | "area-dark" | "window-too-short" | "no-luminaires";
+                                message: string;
+                            }[];
+                            finishesAt: string | null;
+                            working: string[];
+                        };
+                        createdAt: string;
+                    };
+                };
+            };
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Your role does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description No such record in this workspace */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+        };
+    };
+    getApiSitesIdTestPlansPlanIdWorkOrderPdf: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: string;
+                planId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description A test plan printed as a work order (PDF) */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/pdf": string;
+                };
+            };
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Your role does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description No such record in this workspace */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -7622,22 +8445,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -7646,7 +8469,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -7655,7 +8478,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -7698,22 +8530,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -7722,7 +8554,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -7731,7 +8563,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -7767,22 +8608,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -7791,7 +8632,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -7800,7 +8641,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -7930,22 +8771,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -7954,7 +8795,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -7963,7 +8804,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -8042,22 +8883,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -8066,7 +8907,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -8075,7 +8916,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -8135,22 +8985,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -8159,7 +9009,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -8168,7 +9018,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -8234,22 +9093,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -8258,7 +9117,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -8267,7 +9126,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -8334,22 +9193,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -8358,7 +9217,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -8367,7 +9226,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -8396,22 +9255,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -8420,7 +9279,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -8429,7 +9288,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -8468,22 +9327,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -8492,7 +9351,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -8501,7 +9360,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -8564,22 +9432,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -8588,7 +9456,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -8597,7 +9465,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -8666,22 +9534,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -8690,7 +9558,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -8699,7 +9567,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -8755,22 +9632,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -8779,7 +9656,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -8788,7 +9665,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -8811,22 +9688,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -8835,7 +9712,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -8844,7 +9721,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -8909,22 +9786,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -8933,7 +9810,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -8942,7 +9819,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -8996,22 +9882,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -9020,7 +9906,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -9029,7 +9915,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -9106,22 +10001,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -9130,7 +10025,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -9139,7 +10034,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -9302,22 +10197,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -9326,7 +10221,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -9335,7 +10230,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -9406,22 +10310,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -9430,7 +10334,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -9439,7 +10343,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -9462,22 +10366,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -9486,7 +10390,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -9495,7 +10399,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -9624,22 +10528,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -9648,7 +10552,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -9657,7 +10561,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -9697,22 +10601,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -9721,7 +10625,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -9730,7 +10634,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -9807,22 +10711,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -9831,7 +10735,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -9840,7 +10744,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -9907,22 +10820,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -9931,7 +10844,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -9940,7 +10853,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -9963,22 +10876,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -9987,7 +10900,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -9996,7 +10909,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -10037,22 +10950,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -10061,7 +10974,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -10070,7 +10983,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -10132,22 +11045,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -10156,7 +11069,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -10165,7 +11078,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -10206,22 +11128,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -10230,7 +11152,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -10239,7 +11161,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -10262,22 +11184,22 @@ export interface operations {
                 };
                 content?: never;
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -10286,7 +11208,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -10295,7 +11217,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -10359,22 +11281,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -10383,7 +11305,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -10392,7 +11314,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -10439,22 +11370,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -10463,7 +11394,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -10472,7 +11403,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -10556,22 +11496,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -10580,7 +11520,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -10589,7 +11529,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -10619,22 +11568,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -10643,7 +11592,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -10652,7 +11601,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -10690,22 +11639,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -10714,7 +11663,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -10723,7 +11672,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -10885,22 +11834,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -10909,7 +11858,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -10918,7 +11867,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -11051,22 +12009,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -11075,7 +12033,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -11084,7 +12042,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -11110,22 +12068,22 @@ export interface operations {
                     "application/pdf": string;
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -11134,7 +12092,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -11143,7 +12101,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -11181,22 +12139,22 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Not signed in */
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
             401: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description Your role does not allow this */
@@ -11205,7 +12163,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -11214,7 +12172,16 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -11341,13 +12308,13 @@ export interface operations {
                     };
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -11356,7 +12323,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
@@ -11381,13 +12348,13 @@ export interface operations {
                     "application/pdf": string;
                 };
             };
-            /** @description The request is not valid: `fields` names each field and the reason */
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
             400: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
             /** @description No such record in this workspace */
@@ -11396,7 +12363,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["Error"];
+                    "application/problem+json": components["schemas"]["Problem"];
                 };
             };
         };
