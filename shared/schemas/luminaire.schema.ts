@@ -79,6 +79,17 @@ export const IMPORT_COLUMNS = [
 ] as const
 export const REQUIRED_IMPORT_COLUMNS = ['tag', 'purpose', 'mode', 'rated_duration_h', 'chemistry', 'cells', 'capacity_ah', 'pack_fitted_on'] as const
 
+/**
+ * Columns the register export adds that the calendar computes (due dates, state, failures). An
+ * import reads past them, so an exported register can be edited and imported again as it is; what
+ * they hold is worked out again from the log book, never taken from the file.
+ */
+export const REGISTER_DERIVED_COLUMNS = [
+  'last_functional', 'next_functional', 'last_duration', 'next_duration', 'state', 'replace_pack_by',
+  'functional_due_reason', 'functional_overdue_after', 'duration_due_reason', 'duration_overdue_after',
+  'open_failure', 'failed_on', 'faults', 'remedial_action', 'retest_due_by', 'retest_overdue',
+] as const
+
 /** One CSV row, cells as text, checked column by column (the key is the CSV column). */
 export const ImportRowSchema = z.object({
   tag: LuminaireSchema.shape.tag,

@@ -66,4 +66,19 @@ describe('importing a schedule again', () => {
     const future = await designer.post(`/api/sites/${site.id}/import/preview`, { csv: [HEADER, row('C-3', 'C-3', { lastF: addDays(today, 1) })].join('\n') })
     expect(future.body.errors).toEqual([{ row: 2, column: 'last_functional_test_on', reason: expect.stringMatching(/^is after today/) }])
   })
+
+  it('imports its own register export unchanged: the computed columns are read past and nothing changes', async () => {
+    const site = await siteIn(team.workspaceId)
+    await designer.post(`/api/sites/${site.id}/import`, { csv: [HEADER, row('D-1', 'D-1', { lastF: addDays(today, -3) }), row('D-2', 'D-2')].join('\n') })
+    const exported = await designer.get(`/api/sites/${site.id}/export/register.csv`)
+    expect(exported.status).toBe(200)
+    expect(exported.text.split('\r\n')[0]).toMatch(/,state,.*,external_id,last_functional_test_on,last_duration_test_on$/)
+    const again = await designer.post(`/api/sites/${site.id}/import`, { csv: exported.text })
+    expect(again.status, JSON.stringify(again.body)).toBe(200)
+    expect(again.body).toMatchObject({ imported: 0, updated: 0, unchanged: 2 })
+    // An edited cell in the export updates that luminaire only.
+    const edited = exported.text.replace(',Corridor,', ',Plant room,')
+    const changed = await designer.post(`/api/sites/${site.id}/import`, { csv: edited })
+    expect(changed.body).toMatchObject({ imported: 0, updated: 1, unchanged: 1 })
+  })
 })

@@ -7,7 +7,7 @@ import Papa from 'papaparse'
 import { DEFAULT_PREFS, formatDate, formatHours, formatNumber, type FormatPrefs } from '../../../shared/format'
 import { frame, newDocument, toBuffer, write, type Doc, type WriteOptions } from '../../lib/pdf/pdf-kit'
 import { resultCell, table, type Column } from './register-pdf'
-import { PURPOSE_LABELS } from '../../../shared/schemas/luminaire.schema'
+import { PURPOSE_LABELS, REGISTER_DERIVED_COLUMNS } from '../../../shared/schemas/luminaire.schema'
 import { REGIME_LABELS } from '../../../shared/schemas/site.schema'
 import { chemistryName, DUE_REASON_LABELS, labelOf, PACK_STATE_LABELS, TEST_KIND_LABELS, TEST_STATE_LABELS, MODE_LABELS, testKindWords } from '../../../shared/labels'
 import type { LuminaireStatus } from './register.service'
@@ -26,11 +26,11 @@ const round = (v: number, digits = 2) => Number(v.toFixed(digits))
 
 export async function registerRows(workspaceId: string, siteId: string) {
   const status = await siteStatus(workspaceId, siteId, todayIso())
+  // The import's columns (the last three at the end, after the computed ones, so older readers keep their positions).
   const header = [
     'tag', 'area', 'location', 'type', 'purpose', 'mode', 'rated_duration_h', 'chemistry', 'cells', 'capacity_ah', 'pack_fitted_on',
-    'last_functional', 'next_functional', 'last_duration', 'next_duration', 'state', 'replace_pack_by',
-    'functional_due_reason', 'functional_overdue_after', 'duration_due_reason', 'duration_overdue_after',
-    'open_failure', 'failed_on', 'faults', 'remedial_action', 'retest_due_by', 'retest_overdue',
+    ...REGISTER_DERIVED_COLUMNS,
+    'external_id', 'last_functional_test_on', 'last_duration_test_on',
   ]
   const rows = status.luminaires.map((l) => {
     const f = l.due.lastFailure
@@ -39,6 +39,7 @@ export async function registerRows(workspaceId: string, siteId: string) {
       l.due.functional.lastTestedOn, l.due.functional.nextDueOn, l.due.duration.lastTestedOn, l.due.duration.nextDueOn, l.due.state, l.forecast.replaceBy,
       l.due.functional.reason, l.due.functional.overdueAfter, l.due.duration.reason, l.due.duration.overdueAfter,
       f?.kind ?? '', f?.testedOn ?? '', f?.faults ?? '', f?.remedialAction ?? '', f?.retestBy ?? '', f ? String(f.retestOverdue) : '',
+      l.externalId ?? '', l.lastFunctionalTestOn ?? '', l.lastDurationTestOn ?? '',
     ]
   })
   return { status, header, rows }

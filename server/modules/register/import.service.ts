@@ -8,7 +8,10 @@
  * shows them: the header is row 1, the first luminaire row 2.
  */
 import Papa from 'papaparse'
-import { IMPORT_COLUMNS, ImportRowSchema, REQUIRED_IMPORT_COLUMNS, type ImportRow } from '../../../shared/schemas/luminaire.schema'
+import { IMPORT_COLUMNS, ImportRowSchema, REGISTER_DERIVED_COLUMNS, REQUIRED_IMPORT_COLUMNS, type ImportRow } from '../../../shared/schemas/luminaire.schema'
+
+/** The register export's computed columns: read past, never taken from the file. */
+const DERIVED = new Set<string>(REGISTER_DERIVED_COLUMNS)
 import { dataSource } from '../../data-source'
 import { AppError } from '../../errors/app-error'
 import { recordAudit } from '../audit/audit.service'
@@ -195,7 +198,7 @@ async function checkRows(csv: string, existing: Existing[], existingAreas: Set<s
     if (!header) {
       rawHeader = cells
       header = cells.map(normaliseHeader)
-      const known = new Set<string>(IMPORT_COLUMNS)
+      const known = new Set<string>([...IMPORT_COLUMNS, ...REGISTER_DERIVED_COLUMNS])
       header.forEach((h, i) => {
         if (!known.has(h)) problem({ row: 1, column: rawHeader[i] || `(column ${i + 1})`, reason: `is not a column this import knows; use: ${IMPORT_COLUMNS.join(', ')}` })
       })
@@ -218,7 +221,7 @@ async function checkRows(csv: string, existing: Existing[], existingAreas: Set<s
     const raw: Record<string, string> = {}
     h.forEach((name, c) => {
       const cell = cells[c]
-      if (cell !== undefined && cell !== '') raw[name] = cell
+      if (cell !== undefined && cell !== '' && !DERIVED.has(name)) raw[name] = cell
     })
     const parsed = ImportRowSchema.safeParse(raw)
     if (!parsed.success) {
