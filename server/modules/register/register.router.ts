@@ -1,10 +1,10 @@
 /** /api/sites, /api/areas, /api/luminaires, /api/tests: the site register and its test log book. */
-import { RoundSignOffAnswer } from '../../../shared/schemas/answers/register'
+import { LogBookEntryAnswer, RegimeHistoryAnswer, RoundSignOffAnswer } from '../../../shared/schemas/answers/register'
 import multer from 'multer'
 import { z } from 'zod'
 import { ImportRequestSchema, LuminairePatchSchema, LuminaireSchema, PackReplacementSchema } from '../../../shared/schemas/luminaire.schema'
 import { AreaPatchSchema, AreaSchema, RegisterSettingsPatchSchema, SitePatchSchema, SiteSchema } from '../../../shared/schemas/site.schema'
-import { RoundSignOffSchema, TestBatchSchema } from '../../../shared/schemas/test-record.schema'
+import { RecordedInErrorSchema, RoundSignOffSchema, TestBatchSchema } from '../../../shared/schemas/test-record.schema'
 import { IdParams, Uuid } from '../../lib/parse'
 import { defineRoute, scope, type RouteSpec } from '../../policy/access'
 import { formatPrefsOf } from '../../lib/format-prefs'
@@ -12,6 +12,7 @@ import { EXPORT_FILES, exportFile } from './export.service'
 import { commitImport, previewImport } from './import.service'
 import * as register from './register.service'
 import * as tests from './tests.service'
+import { regimeHistory } from './regime-history.service'
 
 
 // Schedules are small text files; 2 MB is far more than any building's register.
@@ -164,6 +165,23 @@ export const registerRoutes: RouteSpec[] = [
       const s = scope(req)
       await tests.deleteTest(s.workspaceId, s.userId, params.id)
       res.status(204).end()
+    },
+  }),
+  defineRoute({
+    method: 'post', path: '/api/tests/:id/recorded-in-error', access: 'technician', summary: 'Mark a test as recorded in error: kept in the log book struck through, left out of the state',
+    params: IdParams, body: RecordedInErrorSchema, response: LogBookEntryAnswer,
+    handler: ({ params, body }, req) => {
+      const s = scope(req)
+      return tests.markRecordedInError(s.workspaceId, s.userId, params.id, body.reason)
+    },
+  }),
+  defineRoute({
+    method: 'get', path: '/api/sites/:id/regime-history', access: 'viewer', summary: "A site's testing regimes over time, oldest first",
+    params: IdParams, response: RegimeHistoryAnswer,
+    handler: async ({ params }, req) => {
+      const workspaceId = scope(req).workspaceId
+      await register.findSite(workspaceId, params.id)
+      return { changes: await regimeHistory(workspaceId, params.id) }
     },
   }),
   defineRoute({

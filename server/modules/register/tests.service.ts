@@ -31,6 +31,10 @@ export interface LogBookEntry {
   recordedBy: string | null
   recordedByName: string | null
   recordedAt: string
+  /** Set when the record was marked as entered in error: kept and shown struck through, left out of the luminaire's state. */
+  recordedInErrorAt: string | null
+  recordedInErrorReason: string
+  recordedInErrorByName: string | null
 }
 
 async function upsertOne(m: EntityManager, workspaceId: string, actorId: string, r: TestRecordData): Promise<{ id: string; outcome: SaveOutcome }> {
@@ -116,8 +120,9 @@ export async function recordTests(workspaceId: string, actorId: string, records:
 const LOG_SELECT = `SELECT t.id, t.client_id AS "clientId", t.luminaire_id AS "luminaireId", l.tag, l.site_id AS "siteId", t.kind,
     t.tested_on::text AS "testedOn", t.passed, t.achieved_duration_h AS "achievedDurationH", t.faults, t.remedial_action AS "remedialAction",
     t.discharge_log_id AS "dischargeLogId", t.checklist, t.verdict_override_reason AS "verdictOverrideReason", t.runtime_note AS "runtimeNote", t.round_client_id AS "roundClientId",
-    t.recorded_by AS "recordedBy", u.name AS "recordedByName", t.recorded_at AS "recordedAt"
-  FROM test_records t JOIN luminaires l ON l.id = t.luminaire_id LEFT JOIN users u ON u.id = t.recorded_by`
+    t.recorded_by AS "recordedBy", u.name AS "recordedByName", t.recorded_at AS "recordedAt",
+    t.recorded_in_error_at AS "recordedInErrorAt", t.recorded_in_error_reason AS "recordedInErrorReason", e.name AS "recordedInErrorByName"
+  FROM test_records t JOIN luminaires l ON l.id = t.luminaire_id LEFT JOIN users u ON u.id = t.recorded_by LEFT JOIN users e ON e.id = t.recorded_in_error_by`
 
 /** A site's log book, newest first. */
 export async function siteLogBook(workspaceId: string, siteId: string, limit = 2000): Promise<LogBookEntry[]> {
@@ -141,6 +146,23 @@ export async function deleteTest(workspaceId: string, actorId: string, id: strin
   })
 }
 
+/**
+ * Marks a record as entered in error (a test that never ran, the wrong luminaire): the row stays in
+ * the log book, struck through with the reason, and no longer counts towards the luminaire's state.
+ * Marking again is refused so the first reason and who gave it are kept.
+ */
+export async function markRecordedInError(workspaceId: string, actorId: string, id: string, reason: string): Promise<LogBookEntry> {
+  return dataSource.transaction(async (m) => {
+    const rows: LogBookEntry[] = await m.query(`${LOG_SELECT} WHERE t.workspace_id = $1 AND t.id = $2 FOR UPDATE OF t`, [workspaceId, id])
+    if (!rows.length) throw new NotFoundError('That test record')
+    if (rows[0].recordedInErrorAt) throw new ConflictError(`This test was already marked as recorded in error (${rows[0].recordedInErrorReason}).`)
+    await m.query('UPDATE test_records SET recorded_in_error_at = now(), recorded_in_error_by = $3, recorded_in_error_reason = $4, updated_at = now() WHERE workspace_id = $1 AND id = $2', [workspaceId, id, actorId, reason])
+    await recordAudit({ workspaceId, actorId, action: 'test.recorded-in-error', entityType: 'test', entityId: id, data: { reason, record: { ...rows[0] } } }, m)
+    const after: LogBookEntry[] = await m.query(`${LOG_SELECT} WHERE t.workspace_id = $1 AND t.id = $2`, [workspaceId, id])
+    return after[0]
+  })
+}
+
 /** Signs off a round (retries with the same clientId answer the same row); lists its records' failures. */
 export async function signOffRound(workspaceId: string, actorId: string, siteId: string, input: RoundSignOff) {
   await findSite(workspaceId, siteId)
@@ -161,7 +183,7 @@ export async function signOffRound(workspaceId: string, actorId: string, siteId:
       created: rows[0].inserted,
       ...input,
       records: records.length,
-      failures: records.filter((r) => !r.passed).map((r) => ({ tag: r.tag, kind: r.kind, faults: r.faults, remedialAction: r.remedialAction })),
+      failures: records.filter((r) => !r.passed && !r.recordedInErrorAt).map((r) => ({ tag: r.tag, kind: r.kind, faults: r.faults, remedialAction: r.remedialAction })),
     }
   })
 }
