@@ -118,3 +118,23 @@ describe('a test recorded in error', () => {
     expect((await viewer.post(`/api/tests/${testId}/recorded-in-error`, { reason: 'Not mine to mark' })).status).toBe(403)
   })
 })
+
+describe('pack changes in the log book', () => {
+  it('a pack fitted in the field and a corrected pack detail appear with their notes, newest first', async () => {
+    const id = await newSite()
+    const l = await luminaireIn(team.workspaceId, id, { tag: 'PK-1', packFittedOn: '2021-04-01', capacityAh: 1.6 })
+    const fitted = await technician.post(`/api/luminaires/${l.id}/pack`, { packFittedOn: addDays(today, -10), capacityAh: 2.2, note: 'Swollen cells found on the monthly test' })
+    expect(fitted.status).toBe(200)
+    const corrected = await designer.patch(`/api/luminaires/${l.id}`, { cellsInSeries: 4 })
+    expect(corrected.status).toBe(200)
+    const book = await viewer.get(`/api/sites/${id}/tests`)
+    expect(book.status).toBe(200)
+    expect(book.body.packChanges).toHaveLength(2)
+    const [correction, field] = book.body.packChanges
+    expect(field).toMatchObject({ tag: 'PK-1', changedOn: addDays(today, -10), note: 'Swollen cells found on the monthly test', before: { capacityAh: 1.6, packFittedOn: '2021-04-01' }, after: { capacityAh: 2.2 } })
+    expect(correction).toMatchObject({ tag: 'PK-1', before: { cellsInSeries: 3 }, after: { cellsInSeries: 4 } })
+    // Another site's log book does not show them.
+    const other = await newSite()
+    expect((await viewer.get(`/api/sites/${other}/tests`)).body.packChanges).toEqual([])
+  })
+})

@@ -187,7 +187,10 @@ export const registerRoutes: RouteSpec[] = [
   defineRoute({
     method: 'get', path: '/api/sites/:id/tests', access: 'viewer', summary: "A site's log book, newest first",
     params: IdParams,
-    handler: async ({ params }, req) => ({ tests: await tests.siteLogBook(scope(req).workspaceId, params.id) }),
+    handler: async ({ params }, req) => {
+      const workspaceId = scope(req).workspaceId
+      return { tests: await tests.siteLogBook(workspaceId, params.id), packChanges: await tests.sitePackChanges(workspaceId, params.id) }
+    },
   }),
   defineRoute({
     method: 'post', path: '/api/sites/:id/rounds', access: 'technician', summary: 'Sign off a round by name and date; answers with the failures recorded on it',

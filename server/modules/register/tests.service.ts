@@ -130,6 +130,42 @@ export async function siteLogBook(workspaceId: string, siteId: string, limit = 2
   return dataSource.query(`${LOG_SELECT} WHERE t.workspace_id = $1 AND l.site_id = $2 ORDER BY t.tested_on DESC, t.recorded_at DESC LIMIT $3`, [workspaceId, siteId, limit])
 }
 
+/** A battery pack fitted or changed on a luminaire of the site, as the audit trail recorded it, with its note. */
+export interface PackChangeEntry {
+  id: string
+  luminaireId: string
+  tag: string
+  /** Day the new pack was fitted (for a correction of the pack's details: the day it was recorded). */
+  changedOn: string
+  before: Record<string, unknown> | null
+  after: Record<string, unknown> | null
+  note: string
+  recordedByName: string | null
+  recordedAt: string
+}
+
+/** Pack changes of a site's luminaires (fitted in the field, or the pack's details corrected), newest first. */
+export async function sitePackChanges(workspaceId: string, siteId: string, limit = 2000): Promise<PackChangeEntry[]> {
+  const rows: Array<{ id: string; luminaireId: string; tag: string; action: string; data: Record<string, unknown>; recordedByName: string | null; at: Date }> = await dataSource.query(
+    `SELECT a.id, l.id AS "luminaireId", l.tag, a.action, a.data, u.name AS "recordedByName", a.at
+       FROM audit_events a JOIN luminaires l ON l.id::text = a.entity_id AND l.workspace_id = a.workspace_id LEFT JOIN users u ON u.id = a.actor_id
+      WHERE a.workspace_id = $1 AND l.site_id = $2 AND a.action IN ('pack.replaced', 'pack.changed') ORDER BY a.at DESC LIMIT $3`,
+    [workspaceId, siteId, limit],
+  )
+  return rows.map((r) => {
+    const at = new Date(r.at).toISOString()
+    if (r.action === 'pack.replaced') {
+      const after = (r.data.after ?? null) as Record<string, unknown> | null
+      return { id: r.id, luminaireId: r.luminaireId, tag: r.tag, changedOn: String(after?.packFittedOn ?? at.slice(0, 10)), before: (r.data.before ?? null) as Record<string, unknown> | null, after, note: String(r.data.note ?? ''), recordedByName: r.recordedByName, recordedAt: at }
+    }
+    // A correction of the pack's details: { field: { from, to } }.
+    const changes = (r.data.changes ?? {}) as Record<string, { from: unknown; to: unknown }>
+    const before = Object.fromEntries(Object.entries(changes).map(([k, v]) => [k, v.from]))
+    const after = Object.fromEntries(Object.entries(changes).map(([k, v]) => [k, v.to]))
+    return { id: r.id, luminaireId: r.luminaireId, tag: r.tag, changedOn: at.slice(0, 10), before, after, note: 'Pack details corrected in the register', recordedByName: r.recordedByName, recordedAt: at }
+  })
+}
+
 /** One luminaire's tests, newest first. */
 export async function luminaireLogBook(workspaceId: string, luminaireId: string): Promise<LogBookEntry[]> {
   await findLuminaire(workspaceId, luminaireId)
