@@ -142,3 +142,10 @@ export function warningsForRegime<W extends { code: string }>(warnings: readonly
   const words = regimeWords(regime)
   return warnings.filter((w) => (words.cadmiumNote || !CADMIUM_CODES.has(w.code)) && (words.iecAnnexNotes || !IEC_ANNEX_CODES.has(w.code)))
 }
+
+/** A luminaire's purpose in the site's words: "Egress path" on a US site where a UK one reads "Escape route". */
+export function purposeLabelFor(purpose: string, regime: string | null | undefined, labels: Record<string, string>): string {
+  if (purpose !== 'escape-route') return labels[purpose] ?? purpose
+  const route = regimeWords(regime).escapeRoute
+  return route.charAt(0).toUpperCase() + route.slice(1)
+}

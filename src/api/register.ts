@@ -1,6 +1,7 @@
 /** The site register and log book API. */
 import type { DueCounts, DueItem, LuminaireDue, PackForecast, RegimeRules } from '@shared/engine/due'
 import type { LuminaireInput } from '@shared/schemas/luminaire.schema'
+import type { RegimeProfile } from '@shared/engine/regimes'
 import type { SiteInput, TestRegimeId } from '@shared/schemas/site.schema'
 import type { TestRecordInput } from '@shared/schemas/test-record.schema'
 import { http } from './http'
@@ -77,6 +78,9 @@ export interface SiteStatus {
   today: string
   site: Site
   regime: { label: string; references: RegimeRules['references'] }
+  /** The full regime profile (tests, windows, records, retention, edition). */
+  profile?: RegimeProfile
+  regimeHistory?: RegimeChange[]
   settings: RegisterSettings
   areas: Array<{ id: string; name: string }>
   counts: DueCounts
@@ -101,6 +105,33 @@ export interface LogBookEntry {
   roundClientId: string | null
   recordedByName: string | null
   recordedAt: string
+  /** Marked as recorded in error: shown struck through, left out of the state. */
+  recordedInErrorAt?: string | null
+  recordedInErrorReason?: string
+  recordedInErrorByName?: string | null
+}
+
+/** A pack fitted or its details corrected, from the audit trail, with its note. */
+export interface PackChangeEntry {
+  id: string
+  luminaireId: string
+  tag: string
+  changedOn: string
+  before: Record<string, unknown> | null
+  after: Record<string, unknown> | null
+  note: string
+  recordedByName: string | null
+  recordedAt: string
+}
+
+export interface RegimeChange {
+  id: string
+  fromRegime: TestRegimeId | null
+  toRegime: TestRegimeId
+  profileVersion: string
+  reason: string
+  changedByName: string | null
+  changedAt: string
 }
 
 export interface ImportIssue {
@@ -126,7 +157,7 @@ export const fetchOverview = (days = 60) =>
 export const fetchRegisterSettings = () => http.get<RegisterSettings>('/register/settings')
 export const updateRegisterSettings = (body: Partial<RegisterSettings>) => http.patch<RegisterSettings>('/register/settings', body)
 export const createSite = (body: SiteInput) => http.post<Site>('/sites', body)
-export const updateSite = (id: string, body: Partial<SiteInput>) => http.patch<Site>(`/sites/${id}`, body)
+export const updateSite = (id: string, body: Partial<SiteInput> & { regimeChangeReason?: string }) => http.patch<Site>(`/sites/${id}`, body)
 export const deleteSite = (id: string) => http.del<void>(`/sites/${id}`)
 export const fetchSite = (id: string) => http.get<SiteStatus>(`/sites/${id}`)
 export const createArea = (siteId: string, name: string) => http.post<{ id: string; name: string }>(`/sites/${siteId}/areas`, { name })
@@ -137,7 +168,10 @@ export const deleteLuminaire = (id: string) => http.del<void>(`/luminaires/${id}
 export const replacePack = (id: string, body: { packFittedOn: string; chemistry?: string; cellsInSeries?: number; capacityAh?: number; note?: string }) =>
   http.post<Luminaire>(`/luminaires/${id}/pack`, body)
 export const fetchLuminaireTests = (id: string) => http.get<{ tests: LogBookEntry[] }>(`/luminaires/${id}/tests`)
-export const fetchLogBook = (siteId: string) => http.get<{ tests: LogBookEntry[] }>(`/sites/${siteId}/tests`)
+export const fetchLogBook = (siteId: string) => http.get<{ tests: LogBookEntry[]; packChanges?: PackChangeEntry[] }>(`/sites/${siteId}/tests`)
+export const markRecordedInError = (testId: string, reason: string) => http.post<LogBookEntry>(`/tests/${testId}/recorded-in-error`, { reason })
+export const renameArea = (id: string, name: string) => http.patch<{ id: string; name: string }>(`/areas/${id}`, { name })
+export const deleteArea = (id: string) => http.del<void>(`/areas/${id}`)
 export const recordTests = (records: TestRecordInput[]) =>
   http.post<{ records: Array<{ clientId: string; id: string; outcome: 'created' | 'updated' | 'unchanged' }> }>('/tests', { records })
 export const previewImport = (siteId: string, csv: string) => http.post<ImportPreview>(`/sites/${siteId}/import/preview`, { csv })

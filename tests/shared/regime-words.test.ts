@@ -75,3 +75,13 @@ describe('myths corrected where they surface', () => {
     for (const id of ['en50172', 'ca-nfc', 'asnzs2293'] as const) expect(REGIME_WORDS[id].myths.some((m) => /90 minutes/.test(m.claim))).toBe(true)
   })
 })
+
+describe('purpose labels in the site\'s words', () => {
+  test('an escape-route luminaire reads "Egress path" on a US site and "Escape route" on a UK one; other purposes keep their label', async () => {
+    const { PURPOSE_LABELS } = await import('../../shared/labels')
+    const { purposeLabelFor } = await import('../../shared/labels/regime-words')
+    expect(purposeLabelFor('escape-route', 'nfpa101', PURPOSE_LABELS)).toBe('Egress path')
+    expect(purposeLabelFor('escape-route', 'en50172', PURPOSE_LABELS)).toBe('Escape route')
+    expect(purposeLabelFor('open-area', 'nfpa101', PURPOSE_LABELS)).toBe(PURPOSE_LABELS['open-area'])
+  })
+})
