@@ -11,6 +11,7 @@ import path from 'node:path'
 import autocannon from 'autocannon'
 import { DEMO_PASSWORD } from '../server/scripts/demo-users'
 import { LAYERS } from './load-layers'
+import { accountScenario, printAccountFigures } from './load-accounts'
 import { ensurePostgresBinaries, findFreePort, startCluster } from './lib/setup.mjs'
 
 const DURATION_S = Number(process.env.LOAD_SECONDS ?? 8)
@@ -19,11 +20,11 @@ const PROFILE_DIR = process.env.LOAD_PROFILE_DIR
 /** LOAD_CONNECTIONS=50 runs one connection count instead of 50 and 200. */
 const CONNECTIONS = process.env.LOAD_CONNECTIONS ? process.env.LOAD_CONNECTIONS.split(',').map(Number) : [50, 200]
 /**
- * LOAD_SCENARIOS=compute,reads runs only those (of bare, reads, compute, lean, mix, sign-in, layers);
+ * LOAD_SCENARIOS=compute,reads runs only those (of bare, reads, compute, lean, mix, sign-in, processes, accounts, layers);
  * the ratios need bare. `layers` (not in the default run) serves the compute route through the app's
  * middleware one layer at a time and prints what each costs.
  */
-const SCENARIOS = new Set((process.env.LOAD_SCENARIOS ?? 'bare,reads,compute,lean,mix,sign-in,processes').split(','))
+const SCENARIOS = new Set((process.env.LOAD_SCENARIOS ?? 'bare,reads,compute,lean,mix,sign-in,processes,accounts').split(','))
 /** `processes`: the reads through `server/cluster.ts` with 1 and with N app processes (WEB_CONCURRENCY, default one per CPU). */
 const PROCESSES = Number(process.env.WEB_CONCURRENCY ?? Math.max(1, os.availableParallelism()))
 const work = fs.mkdtempSync(path.join(os.tmpdir(), 'lw-load-'))
@@ -297,6 +298,15 @@ async function main() {
   if (SCENARIOS.has('sign-in')) {
     const signIns = await run({ url: `${base}/api/auth/sign-in`, method: 'POST', connections: 4, headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: 'viewer@tallowmere.example', password: DEMO_PASSWORD }) }, app)
     results.push(row('sign-in (bcrypt cost 12), 4 conn', signIns))
+  }
+
+  if (SCENARIOS.has('accounts')) {
+    // Its own app process, trusting one proxy hop, so each request can come from its own address.
+    const port = await findFreePort(45000)
+    const accounts = spawn('node', ['--import', 'tsx', 'server/index.ts'], { env: { ...env, PORT: String(port), TRUST_PROXY: '1' }, stdio: 'ignore' })
+    children.push(accounts)
+    await waitFor(`http://127.0.0.1:${port}/api/health`)
+    printAccountFigures(await accountScenario(`http://127.0.0.1:${port}`))
   }
 
   console.log(`\nmachine: ${os.cpus()[0]?.model} × ${os.cpus().length}, Node ${process.version}; ${DURATION_S} s per scenario`)

@@ -24,6 +24,8 @@ export interface AppOptions {
   limits?: Partial<Limits>
   /** Folder of the built client; served with a fallback to index.html for client routes. */
   clientDir?: string | null
+  /** Reverse-proxy hops to trust for the client address (TRUST_PROXY by default; tests send X-Forwarded-For). */
+  trustProxy?: number
 }
 
 export interface BuiltApp {
@@ -66,7 +68,7 @@ export function createApp(opts: AppOptions = {}): BuiltApp {
   const cfg = config()
   const app = express()
   app.disable('x-powered-by')
-  app.set('trust proxy', cfg.trustProxy)
+  app.set('trust proxy', opts.trustProxy ?? cfg.trustProxy)
   app.set('query parser', 'simple')
 
   app.use(securityHeaders(cfg))

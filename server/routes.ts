@@ -9,10 +9,12 @@ import { authRoutes } from './modules/auth/auth.router'
 import { calcRoutes } from './modules/calc/calc.router'
 import { dischargeRoutes } from './modules/discharge/discharge.router'
 import { docsRoutes } from './modules/docs/docs.router'
+import { handoverRoutes } from './modules/handover/handover.router'
 import { healthRoutes } from './modules/health/health.router'
 import { outboxRoutes } from './modules/mail/outbox.router'
 import { photometryRoutes } from './modules/photometry/photometry.router'
 import { registerRoutes } from './modules/register/register.router'
+import { portfolioRoutes } from './modules/register/portfolio.router'
 import { sheetRoutes } from './modules/sheets/sheets.router'
 import { storageRoutes } from './modules/storage/storage.router'
 import { tokenRoutes } from './modules/tokens/tokens.router'
@@ -34,10 +36,12 @@ export function buildRouteTable(opts: RouteTableOptions): RouteSpec[] {
     ...tokenRoutes,
     ...sheetRoutes,
     ...registerRoutes,
+    ...portfolioRoutes,
     ...auditRoutes,
     ...dischargeRoutes,
     ...photometryRoutes,
     ...storageRoutes,
+    ...handoverRoutes,
   ]
   return table
 }

@@ -31,6 +31,11 @@ export const DEFAULT_LIMITS = {
   mailPerRecipient: { max: 5, windowMs: HOUR },
   /** Failed sign-ins from one client address, across every account. */
   signInFailuresPerAddress: { max: 20, windowMs: 15 * 60 * 1000 },
+  /**
+   * Through a sign-in lockout: one password check per window for the locked account (or, when the
+   * address is locked, for the whole address). The right password gets in after this wait.
+   */
+  signInSlowLane: { max: 1, windowMs: 15 * 1000 },
 } satisfies Record<string, Limit>
 
 export type Limits = typeof DEFAULT_LIMITS
@@ -68,6 +73,17 @@ export async function spend(bucket: string, key: string, limit: Limit, what: str
 export async function used(bucket: string, key: string, limit: Limit): Promise<{ hits: number; resetAt: Date | null }> {
   const info = await store(bucket, limit.windowMs).get(key)
   return { hits: info?.totalHits ?? 0, resetAt: info?.resetTime ?? null }
+}
+
+/** Counts one use of `key` in `bucket` and returns the count with this one, without refusing anything. */
+export async function count(bucket: string, key: string, limit: Limit): Promise<{ hits: number; resetAt: Date | null }> {
+  const hit = await store(bucket, limit.windowMs).increment(key)
+  return { hits: hit.totalHits, resetAt: hit.resetTime ?? null }
+}
+
+/** Starts the count for `key` again. */
+export async function reset(bucket: string, key: string, limit: Limit): Promise<void> {
+  await store(bucket, limit.windowMs).resetKey(key)
 }
 
 export async function forget(bucket: string, key: string, limit: Limit): Promise<void> {

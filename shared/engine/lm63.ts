@@ -7,7 +7,8 @@
 export type Lm63Edition = '1986' | '1991' | '1995' | '2002' | '2019'
 
 export interface Photometry {
-  edition: Lm63Edition
+  /** The LM-63 edition, or 'EULUMDAT' for a file read by the EULUMDAT parser into this shape. */
+  edition: Lm63Edition | 'EULUMDAT'
   /** Keyword lines ("[LUMINAIRE] ..."), keyed without brackets; [MORE] lines are joined with a newline. */
   keywords: Record<string, string>
   /** 'NONE', 'INCLUDE', or the file name given after TILT=. */

@@ -65,6 +65,20 @@ export const CRITERIA_LABELS = {
   nfpa101: 'NFPA 101 egress path',
 } as const
 
+/** Points along a route that need a luminaire near them. */
+export const EMPHASIS_POINT_LABELS = {
+  'exit-door': 'Exit door',
+  'final-exit': 'Outside a final exit',
+  'change-of-direction': 'Change of direction',
+  intersection: 'Corridor intersection',
+  stairs: 'Stairs',
+  'change-of-level': 'Change of floor level',
+  'fire-fighting-equipment': 'Fire-fighting equipment',
+  'call-point': 'Fire alarm call point',
+  'first-aid-point': 'First-aid point',
+  'safety-sign': 'Exit or safety sign',
+} as const
+
 export const ROLE_NAMES = {
   viewer: 'Viewer',
   technician: 'Technician',
@@ -183,6 +197,29 @@ export const CLAIM_VERDICT_LABELS = {
   'below claim': 'Below the claim',
 } as const
 
+/** The claim verdict in the middle of a sentence ("it … (+4 %)"). */
+export const CLAIM_VERDICT_PHRASES: Record<keyof typeof CLAIM_VERDICT_LABELS, string> = {
+  'within tolerance': 'agrees with the claim',
+  'above claim': 'draws more than claimed',
+  'below claim': 'draws less than claimed',
+}
+
+/** What a luminaire's declared power most likely describes. */
+export const CLAIM_MEANING_LABELS = {
+  'input power': 'the power taken from the supply',
+  'LED power': 'the power reaching the LEDs',
+  'apparent power': 'volt-amperes, not watts',
+  'something else': 'none of the measured figures',
+} as const
+
+/** How a luminaire type fares against the chosen criteria in the type selector. */
+export const TYPE_VERDICT_LABELS = {
+  meets: 'Meets',
+  pack: 'Light yes, duration no',
+  light: 'Light falls short',
+  both: 'Light and duration fall short',
+} as const
+
 /** How a pack size was chosen from the ladder of capacities. */
 export const SIZE_RULE_LABELS = {
   given: 'the capacity given',
@@ -228,6 +265,7 @@ export const ENUMERATIONS = {
   purpose: PURPOSE_LABELS,
   regime: REGIME_LABELS,
   criteria: CRITERIA_LABELS,
+  emphasisPoint: EMPHASIS_POINT_LABELS,
   role: ROLE_NAMES,
   testKind: TEST_KIND_LABELS,
   sheetStatus: SHEET_STATUS_LABELS,
@@ -245,6 +283,8 @@ export const ENUMERATIONS = {
   diodeType: DIODE_TYPE_LABELS,
   unitSystem: UNIT_SYSTEM_LABELS,
   claimVerdict: CLAIM_VERDICT_LABELS,
+  claimMeaning: CLAIM_MEANING_LABELS,
+  typeVerdict: TYPE_VERDICT_LABELS,
   sizeRule: SIZE_RULE_LABELS,
   chargerType: CHARGER_TYPE_LABELS,
   chargerFit: CHARGER_FIT_LABELS,
@@ -262,6 +302,16 @@ export function labelOf<M extends Record<string, string>>(map: M, code: string |
   if (word !== undefined) return word
   const spaced = code.replace(/[-_]+/g, ' ').replace(/([a-z])([A-Z])/g, '$1 $2').toLowerCase()
   return spaced.charAt(0).toUpperCase() + spaced.slice(1)
+}
+
+/** A test kind in the middle of a sentence ("the functional test is due"). */
+export function testKindWords(kind: keyof typeof TEST_KIND_LABELS): string {
+  return TEST_KIND_LABELS[kind].toLowerCase()
+}
+
+/** A chemistry's full name; an unknown code is spelled out rather than shown raw. */
+export function chemistryName(id: string): string {
+  return labelOf(CHEMISTRY_LABELS, id)
 }
 
 /** The usual symbol for a unit ("degC" → "°C"). */

@@ -69,19 +69,6 @@ export const AUDIT_RESULT_FIGURES: Array<{ key: string; label: string; unit: str
   { key: 'annualCost', label: 'Cost over a year', unit: '', step: 'annualCost' },
 ]
 
-export const CLAIM_VERDICT_WORDS: Record<string, string> = {
-  'within tolerance': 'agrees with the claim',
-  'above claim': 'draws more than claimed',
-  'below claim': 'draws less than claimed',
-}
-
-export const CLAIM_MEANING_WORDS: Record<string, string> = {
-  'input power': 'the power taken from the supply',
-  'LED power': 'the power reaching the LEDs',
-  'apparent power': 'volt-amperes, not watts',
-  'something else': 'none of the measured figures',
-}
-
 /**
  * Replaces field keys in an engine message ("measuredPower (3 W) and measuredCurrent …") with
  * words ("the measured power (3 W) and the measured current …") and starts it with a capital.

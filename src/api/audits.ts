@@ -1,12 +1,13 @@
 /** /api/audits: saved wattage audits, and the sheets and luminaires they can hang on. Types only from shared. */
-import type { EngineWarning } from '@shared/engine/types'
+import type { Answer, PersonSchema } from '@shared/schemas/answers/common'
+import type { AuditListAnswer, SavedAuditAnswer } from '@shared/schemas/answers/audits'
 import { http } from './http'
+import type { LuminaireStatus, RegisterOverview, SiteStatus, SiteSummary } from './register'
+import type { SheetListItem, SheetPage } from './sheets'
 
-export interface Person {
-  id: string
-  name: string
-}
+export type Person = Answer<typeof PersonSchema>
 
+/** What the audit form sends. */
 export interface AuditFields {
   title: string
   luminaire: string
@@ -15,23 +16,9 @@ export interface AuditFields {
   luminaireId?: string | null
 }
 
-export interface SavedAudit {
-  id: string
-  title: string
-  luminaire: string
-  inputs: Record<string, unknown>
-  /** The engine's audit result as saved (lists leave out `working`). */
-  results: Record<string, unknown> & { warnings: EngineWarning[] }
-  claimedPowerW: number
-  engineVersion: string
-  author: Person | null
-  specSheetId: string | null
-  luminaireId: string | null
-  specSheet: { id: string; title: string } | null
-  luminaireLink: { id: string; tag: string; siteId: string; siteName: string } | null
-  createdAt: string
-  updatedAt: string
-}
+// Answers: typed from the schemas the server's routes declare.
+export type SavedAudit = Answer<typeof SavedAuditAnswer>
+export type AuditList = Answer<typeof AuditListAnswer>
 
 export interface AuditQuery {
   sheetId?: string
@@ -42,29 +29,18 @@ export interface AuditQuery {
 }
 
 export const fetchAudits = (q: AuditQuery = {}) =>
-  http.get<{ items: SavedAudit[]; total: number }>('/audits', { sheetId: q.sheetId, luminaireId: q.luminaireId, ids: q.ids?.join(','), q: q.q, limit: q.limit })
+  http.get<AuditList>('/audits', { sheetId: q.sheetId, luminaireId: q.luminaireId, ids: q.ids?.join(','), q: q.q, limit: q.limit })
 export const fetchAudit = (id: string) => http.get<SavedAudit>(`/audits/${id}`)
 export const createAudit = (body: AuditFields) => http.post<SavedAudit>('/audits', body)
 export const attachAudit = (id: string, body: { specSheetId?: string | null; luminaireId?: string | null }) => http.post<SavedAudit>(`/audits/${id}/attach`, body)
 export const deleteAudit = (id: string) => http.del<void>(`/audits/${id}`)
 
-/** Places an audit can be attached to, for the pickers. */
-export interface SheetChoice {
-  id: string
-  title: string
-  reference: string
-}
-export interface LuminaireChoice {
-  id: string
-  tag: string
-  location: string
-}
-export interface SiteChoice {
-  id: string
-  name: string
-}
+/** Places an audit can be attached to, for the pickers: parts of the sheet list, the overview and a site. */
+export type SheetChoice = Pick<SheetListItem, 'id' | 'title' | 'reference'>
+export type SiteChoice = Pick<SiteSummary, 'id' | 'name'>
+export type LuminaireChoice = Pick<LuminaireStatus, 'id' | 'tag' | 'location'>
 
 export const fetchSheetChoices = (q?: string) =>
-  http.get<{ items: SheetChoice[] }>('/sheets', { pageSize: 50, sort: 'updatedAt', order: 'desc', q }).then((r) => r.items)
-export const fetchSiteChoices = () => http.get<{ sites: SiteChoice[] }>('/sites').then((r) => r.sites)
-export const fetchLuminaireChoices = (siteId: string) => http.get<{ luminaires: LuminaireChoice[] }>(`/sites/${siteId}`).then((r) => r.luminaires ?? [])
+  http.get<SheetPage>('/sheets', { pageSize: 50, sort: 'updatedAt', order: 'desc', q }).then((r) => r.items)
+export const fetchSiteChoices = () => http.get<RegisterOverview>('/sites').then((r) => r.sites)
+export const fetchLuminaireChoices = (siteId: string) => http.get<SiteStatus>(`/sites/${siteId}`).then((r) => r.luminaires)

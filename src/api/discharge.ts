@@ -1,84 +1,26 @@
 /** /api/discharge: upload a log (with upload progress), analyse it with a mapping, save, list, compare. */
-import type { EngineWarning, WorkingStep } from '@shared/engine/types'
-import type { MappingGuess } from '@shared/engine/discharge-log'
+import type { Answer } from '@shared/schemas/answers/common'
+import type { AnalyseAnswer, CurveAnswer, LogComparisonAnswer, LogListAnswer, LogMapping, LogOptions, SavedLogAnswer, UploadPreviewAnswer } from '@shared/schemas/answers/discharge'
 import { CONFIG } from '@/config'
 import { ApiError, http, type FieldMessage } from './http'
 
-export interface UploadPreview {
-  uploadId: string
-  sha256: string
-  size: number
-  name: string
-  storedFileId: string | null
-  delimiter: ',' | ';' | '\t'
-  decimal: '.' | ','
-  header: boolean
-  firstLine: number
-  columns: string[]
-  preview: string[][]
-  guess: MappingGuess
-}
+export type { BadRow, DischargeSummary as Summary, LogMapping as Mapping, LogOptions as Options } from '@shared/schemas/answers/discharge'
 
-export interface BadRow {
-  row: number
-  column: string
-  value: string
-  reason: string
-}
-
-export interface Summary {
-  runtimeH: number
-  runtimeEnd: 'cutoff' | 'dropout' | 'end-of-log'
-  cutoffTimeH: number | null
-  dropoutTimeH: number | null
-  cutoffVoltageV: number
-  thresholdCrossings: Array<{ perCellV: number; packV: number; timeH: number | null }>
-  deliveredAh: number | null
-  deliveredWh: number | null
-  estimated: boolean
-  midpointVoltageV: number
-  pass: boolean | null
-  marginH: number
-  stateOfHealth: number | null
-  samplesUsed: number
-  warnings: EngineWarning[]
-  working?: WorkingStep[]
-  read: { rows: number; badRows: { count: number; items: BadRow[] }; currentInverted: boolean }
-}
-
-export interface Curve {
-  tH: number[]
-  v: number[]
-  i: number[] | null
-}
-
-export interface Mapping {
-  delimiter: ',' | ';' | '\t'
-  decimal: '.' | ','
-  header: boolean
-  firstLine: number
-  time: { column: number; format: 'elapsed' | 'clock' | 'timestamp'; unit: 's' | 'min' | 'h'; dateOrder: 'ymd' | 'dmy' | 'mdy' }
-  voltage: { column: number; unit: 'V' | 'mV' }
-  current: { column: number; unit: 'A' | 'mA' } | null
-}
-
-export interface Options {
-  chemistry: string
-  cellsInSeries: number
-  ratedDuration: string
-  cutoffPerCell?: string
-  ratedCapacity?: string
-  thresholdsPerCell?: string[]
-  assumedPower?: string
-}
+// Answers: typed from the schemas the server's routes declare.
+export type UploadPreview = Answer<typeof UploadPreviewAnswer>
+export type Curve = Answer<typeof CurveAnswer>
+export type SavedLog = Answer<typeof SavedLogAnswer>
+export type AnalyseResult = Answer<typeof AnalyseAnswer>
+export type DryRun = Extract<AnalyseResult, { saved: false }>
+export type LogComparison = Answer<typeof LogComparisonAnswer>
 
 export interface AnalyseBody {
   uploadId?: string
   fileId?: string
   title?: string
   notes?: string
-  mapping: Mapping
-  options: Options
+  mapping: LogMapping
+  options: LogOptions
   acceptBadRows?: boolean
   dryRun?: boolean
   specSheetId?: string | null
@@ -88,33 +30,6 @@ export interface AnalyseBody {
   testedOn?: string
   /** Why the runtime typed in the attached record differs from the log. */
   runtimeNote?: string
-}
-
-export interface SavedLog {
-  id: string
-  title: string
-  notes: string
-  fileId: string
-  mapping: Mapping
-  options: Options & Record<string, unknown>
-  summary: Summary
-  curve?: Curve
-  engineVersion: string
-  author: { id: string; name: string } | null
-  specSheetId: string | null
-  testRecordId: string | null
-  specSheet: { id: string; title: string } | null
-  testRecord: { id: string; testedOn: string; luminaireId: string; luminaireTag: string } | null
-  luminaireId: string | null
-  luminaire: { id: string; tag: string; siteId: string } | null
-  createdAt: string
-}
-
-export interface DryRun {
-  saved: false
-  columns: string[]
-  summary: Summary
-  curve: Curve
 }
 
 export type Progress = (loaded: number, total: number) => void
@@ -148,9 +63,9 @@ export async function uploadLog(file: File, onProgress: Progress, signal?: Abort
   })
 }
 
-export const analyseLog = (body: AnalyseBody) => http.post<DryRun | (SavedLog & { saved: true })>('/discharge/logs', body)
-export const fetchLogs = (q: { sheetId?: string; testRecordId?: string; luminaireId?: string } = {}) => http.get<{ items: SavedLog[]; total: number }>('/discharge/logs', q)
+export const analyseLog = (body: AnalyseBody) => http.post<AnalyseResult>('/discharge/logs', body)
+export const fetchLogs = (q: { sheetId?: string; testRecordId?: string; luminaireId?: string } = {}) => http.get<Answer<typeof LogListAnswer>>('/discharge/logs', q)
 export const fetchLog = (id: string) => http.get<SavedLog>(`/discharge/logs/${id}`)
 export const deleteLog = (id: string) => http.del<void>(`/discharge/logs/${id}`)
 export const compareLogs = (a: string, b: string) =>
-  http.get<{ a: SavedLog; b: SavedLog; change: Record<'runtimeH' | 'deliveredAh' | 'deliveredWh' | 'midpointVoltageV' | 'marginH' | 'stateOfHealth', number | null> }>('/discharge/compare', { a, b })
+  http.get<LogComparison>('/discharge/compare', { a, b })

@@ -1,58 +1,26 @@
 /** /api/photometry, /api/luminaire-types, /api/route-spacing and the engine's spacing tool. Types only from shared. */
 import type { RouteNeedInput } from '@shared/schemas/photometry.schema'
-import type { TypeSelection } from '@shared/engine/route-select'
 import type { SpacingResult } from '@shared/engine/spacing'
-import type { Sheet } from './sheets'
+import type { Answer } from '@shared/schemas/answers/common'
+import type {
+  LuminaireTypeAnswer,
+  LuminaireTypeListAnswer,
+  ParsedPhotometryAnswer,
+  PhotometryFileAnswer,
+  PhotometryFileListAnswer,
+  PhotometryFileSummaryAnswer,
+  PickAnswer,
+  TypeSelectionAnswer,
+} from '@shared/schemas/answers/photometry'
 import { http } from './http'
 
-export interface Person {
-  id: string
-  name: string
-}
-
-export interface PhotometryFileSummary {
-  id: string
-  name: string
-  sha256: string
-  edition: string
-  luminaire: string | null
-  verticalCount: number
-  horizontalCount: number
-  absolute: boolean
-  inputWatts: number
-  createdBy: Person | null
-  createdAt: string
-}
-
-export interface IntensityTableData {
-  verticalAngles: number[]
-  horizontalAngles: number[]
-  candela: number[][]
-}
-
-export interface PhotometryFile extends PhotometryFileSummary {
-  parsed: IntensityTableData & { header: { edition: string; keywords: Record<string, string>; tilt: string; lamps: number; lumensPerLamp: number; candelaMultiplier: number; unitsType: 1 | 2; width: number; length: number; height: number; ballastFactor: number; inputWatts: number; absolute: boolean } }
-  rawText: string
-  usedBy: Array<{ id: string; name: string }>
-}
-
-export interface LuminaireType {
-  id: string
-  name: string
-  photometricFileId: string | null
-  photometricFileName: string | null
-  emergencyOutputFactor: number
-  ratedDurationS: number
-  modes: Array<'maintained' | 'non-maintained'>
-  chemistry: string
-  cellsInSeries: number
-  capacityAh: number | null
-  emergencyPowerW: number
-  inputPowerW: number
-  notes: string
-  createdAt: string
-  updatedAt: string
-}
+// Answers: typed from the schemas the server's routes declare.
+export type PhotometryFileSummary = Answer<typeof PhotometryFileSummaryAnswer>
+export type IntensityTableData = Pick<Answer<typeof ParsedPhotometryAnswer>, 'verticalAngles' | 'horizontalAngles' | 'candela'>
+export type PhotometryFile = Answer<typeof PhotometryFileAnswer>
+export type LuminaireType = Answer<typeof LuminaireTypeAnswer>
+export type TypeSelectionResult = Answer<typeof TypeSelectionAnswer>
+export type PickResult = Answer<typeof PickAnswer>
 
 /** What the type form sends (the shared schema's input). */
 export interface LuminaireTypeFields {
@@ -71,7 +39,7 @@ export interface LuminaireTypeFields {
 
 export type RouteNeedFields = { [K in keyof RouteNeedInput]?: RouteNeedInput[K] | string }
 
-export const fetchPhotometryFiles = () => http.get<{ files: PhotometryFileSummary[] }>('/photometry')
+export const fetchPhotometryFiles = () => http.get<Answer<typeof PhotometryFileListAnswer>>('/photometry')
 export const fetchPhotometryFile = (id: string) => http.get<PhotometryFile>(`/photometry/${id}`)
 export function uploadPhotometry(file: File, name?: string) {
   const form = new FormData()
@@ -81,14 +49,14 @@ export function uploadPhotometry(file: File, name?: string) {
 }
 export const deletePhotometryFile = (id: string) => http.del<void>(`/photometry/${id}`)
 
-export const fetchLuminaireTypes = () => http.get<{ types: LuminaireType[] }>('/luminaire-types')
+export const fetchLuminaireTypes = () => http.get<Answer<typeof LuminaireTypeListAnswer>>('/luminaire-types')
 export const createLuminaireType = (body: LuminaireTypeFields) => http.post<LuminaireType>('/luminaire-types', body)
 export const updateLuminaireType = (id: string, body: Partial<LuminaireTypeFields>) => http.patch<LuminaireType>(`/luminaire-types/${id}`, body)
 export const deleteLuminaireType = (id: string) => http.del<void>(`/luminaire-types/${id}`)
 
-export const selectTypes = (route: RouteNeedFields) => http.post<{ results: TypeSelection[] }>('/route-spacing/select', route)
+export const selectTypes = (route: RouteNeedFields) => http.post<TypeSelectionResult>('/route-spacing/select', route)
 export const pickType = (body: { typeId: string; route: RouteNeedFields; title?: string; sheetId?: string; version?: number }) =>
-  http.post<{ sheet: Sheet; selection: TypeSelection }>('/route-spacing/pick', body)
+  http.post<PickResult>('/route-spacing/pick', body)
 
 export type SpacingResponse = SpacingResult & { tool: string; engineVersion: string }
 export const calcSpacing = (input: Record<string, unknown>) => http.post<SpacingResponse>('/calc/spacing', input)

@@ -1,7 +1,8 @@
 /**
  * Every main screen, on the demo workspace, at desktop and 375 px widths, in the light and dark
  * themes: a screenshot of each (kept in test-artifacts/screens/) and an axe-core check that fails on
- * any serious or critical accessibility violation.
+ * any serious or critical accessibility violation. Each screen must also read as words: no
+ * enumeration code or machine date as text, and no word broken across two lines.
  */
 import fs from 'node:fs'
 import { createRequire } from 'node:module'
@@ -11,6 +12,7 @@ import { dataSource } from '../../server/data-source'
 import { seedDemo } from '../../server/demo/index'
 import { DEMO_PASSWORD } from '../../server/scripts/demo-users'
 import { newBrowser, screenshot, signInThroughForm, startE2eApp, type RunningApp } from '../helpers/browser'
+import { codesOnScreen, splitWords } from '../helpers/screen-text'
 import { closeTestApp } from '../helpers/test-app'
 
 const require = createRequire(import.meta.url)
@@ -57,6 +59,8 @@ describe('main screens', () => {
             await b.page.locator('h1, .n-card-header').first().waitFor()
             await screenshot(b.page, `screens/${theme}-${viewport.width}${path === '/' ? '-landing' : path.replace(/\?.*$/, '').replace(/\//g, '-')}`)
             for (const v of await axeViolations(b.page)) problems.push(`${theme} ${viewport.width} ${path}: ${v}`)
+            for (const c of await codesOnScreen(b.page)) problems.push(`${theme} ${viewport.width} ${path}: ${c}`)
+            for (const w of await splitWords(b.page)) problems.push(`${theme} ${viewport.width} ${path}: word split across lines ${w}`)
           }
           await signInThroughForm(b.page, app.url, 'owner@tallowmere.example', DEMO_PASSWORD)
           const sheetId = await firstId(b.page, '/api/sheets', (body) => (body.items as Array<{ id: string }> | undefined)?.[0]?.id ?? (body.sheets as Array<{ id: string }> | undefined)?.[0]?.id)
@@ -74,7 +78,7 @@ describe('main screens', () => {
             '/sites', siteId ? `/sites/${siteId}` : null, siteId ? `/sites/${siteId}/round` : null, '/rounds', '/team', '/account', '/glossary', '/cautions', '/api-docs',
             luminaireId ? `/luminaires/${luminaireId}` : null,
             '/discharge', '/discharge/new', logId ? `/discharge/${logId}` : null, otherLogId ? `/discharge/compare?a=${logId}&b=${otherLogId}` : null,
-            siteId ? `/sites/${siteId}/import` : null, '/outbox',
+            siteId ? `/sites/${siteId}/import` : null, siteId ? `/sites/${siteId}/handover` : null, '/outbox',
             '/route-spacing', '/route-spacing/selector', '/route-spacing/types', '/route-spacing/photometry',
           ].filter((p): p is string => !!p)
           for (const path of screens) {
@@ -83,6 +87,9 @@ describe('main screens', () => {
             await b.page.waitForLoadState('networkidle')
             await screenshot(b.page, `screens/${theme}-${viewport.width}${path.replace(/\?.*$/, '').replace(/\/[0-9a-f-]{36}/g, '-id').replace(/\//g, '-')}`)
             for (const v of await axeViolations(b.page)) problems.push(`${theme} ${viewport.width} ${path}: ${v}`)
+            // The API reference shows the contract itself, codes included.
+            if (path !== '/api-docs') for (const c of await codesOnScreen(b.page)) problems.push(`${theme} ${viewport.width} ${path}: ${c}`)
+            for (const w of await splitWords(b.page)) problems.push(`${theme} ${viewport.width} ${path}: word split across lines ${w}`)
             const overflow = await b.page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth)
             if (viewport.width === 375 && overflow > 2) problems.push(`${theme} 375 ${path}: the page scrolls sideways by ${overflow} px`)
           }

@@ -1,6 +1,6 @@
 /**
  * Every PDF the app makes, for the demo workspace: sheets (with audits and discharge logs), each
- * site's register and log book. Each must keep its text out of the header and footer bands, never
+ * site's register, log book and handover pack. Each must keep its text out of the header and footer bands, never
  * print text over text, number its pages "n of N", and show words instead of codes.
  */
 import fs from 'node:fs'
@@ -40,14 +40,23 @@ beforeAll(async () => {
     await fetchPdf(`register of ${site.name}`, `/api/sites/${site.id}/export/register.pdf`)
     await fetchPdf(`log book of ${site.name}`, `/api/sites/${site.id}/export/logbook.pdf`)
   }
+  // A handover pack of each demo site, with a corridor laid out with the first catalogue type.
+  const types = (await owner.get('/api/luminaire-types')).body.types as Array<{ id: string }>
+  const routes = types.length ? [{ name: 'Main corridor', typeId: types[0].id, route: { routeLength: '24 m', routeWidth: '2 m', mountingHeight: '2.6 m', criteria: 'en1838-route', ratedDuration: '3 h' } }] : []
+  for (const site of sites) {
+    const made = await owner.post(`/api/sites/${site.id}/handover-packs`, { signedByName: 'Demo Engineer', signedOn: '2026-01-15', routes })
+    expect(made.status, JSON.stringify(made.body)).toBe(201)
+    await fetchPdf(`handover pack of ${site.name}`, `/api/sites/${site.id}/handover-packs/${made.body.number}/pdf`)
+  }
 }, 120_000)
 afterAll(closeTestApp)
 
 describe('every PDF of the demo workspace', () => {
-  it('is made: sheets, registers and log books', () => {
+  it('is made: sheets, registers, log books and handover packs', () => {
     expect(documents.filter((d) => d.name.startsWith('sheet')).length).toBeGreaterThanOrEqual(3)
     expect(documents.filter((d) => d.name.startsWith('register')).length).toBeGreaterThanOrEqual(3)
     expect(documents.filter((d) => d.name.startsWith('log book')).length).toBeGreaterThanOrEqual(3)
+    expect(documents.filter((d) => d.name.startsWith('handover pack')).length).toBeGreaterThanOrEqual(3)
   })
 
   it('keeps text out of the header and footer bands, never prints text over text, and numbers its pages', () => {

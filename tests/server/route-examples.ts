@@ -18,6 +18,7 @@ import { registerRouteExamples } from './register-examples'
 import { auditRouteExamples } from './audit-examples'
 import { dischargeRouteExamples } from './discharge-examples'
 import { photometryRouteExamples } from './photometry-examples'
+import { handoverRouteExamples } from './handover-examples'
 
 export interface ExampleContext {
   /** The workspace the caller belongs to (the caller's role is `role`). */
@@ -148,4 +149,5 @@ export const routeExamples: Record<string, ExampleFn> = {
   ...auditRouteExamples,
   ...photometryRouteExamples,
   ...dischargeRouteExamples,
+  ...handoverRouteExamples,
 }

@@ -7,6 +7,8 @@
  */
 import type { SheetListItem, SheetPage } from '../../src/api/sheets'
 import type { ApiTokenInfo } from '../../src/api/tokens'
+import type { LuminaireStatus } from '../../src/api/register'
+import type { SavedLog } from '../../src/api/discharge'
 import { SheetAuthorsAnswer } from '../../shared/schemas/answers/sheets'
 import { defineRoute } from '../../server/policy/route'
 
@@ -23,6 +25,19 @@ export const hand: { selectedCapacityAh: number } = fromServer
 // Dates arrive as text: a client expecting a Date object disagrees.
 // @ts-expect-error createdAt is ISO text on the client side
 export const when: Date = fromServer.createdAt
+
+// The register's answers come from the same schemas: a luminaire outside any area has no area id.
+declare const lum: LuminaireStatus
+export const areaId: string | null = lum.areaId
+// @ts-expect-error areaId is null for a luminaire outside any area
+export const areaAlways: string = lum.areaId
+// @ts-expect-error a luminaire's due state is one of the engine's states, not any text
+export const dueState: LuminaireStatus['due']['state'] = 'late'
+
+// A discharge log without a decided verdict carries pass: null.
+declare const log: SavedLog
+// @ts-expect-error pass may be null when the log cannot tell
+export const passed: boolean = log.summary.pass
 
 // A new token carries its secret once; a listed token never does.
 declare const listed: ApiTokenInfo

@@ -3,9 +3,9 @@
  * with the claim against the readings, the figures, and its warnings in plain sentences.
  */
 import type { EngineWarning } from '../../../shared/engine/types'
-import { SEVERITY_LABELS } from '../../../shared/labels'
+import { CLAIM_MEANING_LABELS, CLAIM_VERDICT_PHRASES, labelOf, SEVERITY_LABELS } from '../../../shared/labels'
 import { DEFAULT_PREFS, formatDate, formatNumber } from '../../../shared/format'
-import { AUDIT_RESULT_FIGURES, auditFigureText, CLAIM_MEANING_WORDS, CLAIM_VERDICT_WORDS, plainAuditWarnings } from '../../../shared/schemas/wattage-audit-text'
+import { AUDIT_RESULT_FIGURES, auditFigureText, plainAuditWarnings } from '../../../shared/schemas/wattage-audit-text'
 import { ensureSpace, heading, pair, write } from '../../lib/pdf/pdf-kit'
 import type { PdfSection } from '../sheets/sheet-pdf'
 import type { AuditDto } from './audits.service'
@@ -24,7 +24,7 @@ export function wattageAuditsSection(audits: AuditDto[]): PdfSection {
       if (a.luminaire) write(doc, a.luminaire, { size: 9.5 })
       write(doc, `Recorded by ${a.author?.name ?? '—'} on ${formatDate(a.createdAt, prefs)} · engine ${a.engineVersion}`, { size: 8.5, color: '#5b6b75' })
       pair(doc, 'Claimed power', formatNumber(a.claimedPowerW, { unit: 'W' }, prefs))
-      pair(doc, 'Verdict', `${formatNumber(r.measuredPowerW, { unit: 'W' }, prefs)} measured: ${CLAIM_VERDICT_WORDS[String(r.claimVerdict)] ?? String(r.claimVerdict)}; the claim most likely describes ${CLAIM_MEANING_WORDS[String(r.claimLikelyMeans)] ?? String(r.claimLikelyMeans)}`)
+      pair(doc, 'Verdict', `${formatNumber(r.measuredPowerW, { unit: 'W' }, prefs)} measured: ${labelOf(CLAIM_VERDICT_PHRASES, String(r.claimVerdict))}; the claim most likely describes ${labelOf(CLAIM_MEANING_LABELS, String(r.claimLikelyMeans))}`)
       for (const f of AUDIT_RESULT_FIGURES) {
         if (f.key === 'measuredPowerW') continue
         const text = auditFigureText(r, f)

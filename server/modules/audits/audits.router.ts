@@ -1,4 +1,5 @@
 /** /api/audits: saved wattage audits (claimed power against bench readings), and where they are attached. */
+import { AuditListAnswer, SavedAuditAnswer } from '../../../shared/schemas/answers/audits'
 import { AuditAttachSchema, AuditCreateSchema, AuditListQuerySchema } from '../../../shared/schemas/wattage-audit.schema'
 import { IdParams } from '../../lib/parse'
 import { defineRoute, scope, type RouteSpec } from '../../policy/access'
@@ -11,12 +12,12 @@ const WHAT = 'That wattage audit'
 // (it may back an issued sheet) is left to designers, like the other records a sheet rests on.
 export const auditRoutes: RouteSpec[] = [
   defineRoute({
-    method: 'get', path: '/api/audits', access: 'viewer', summary: 'Wattage audits (newest first; by sheet, luminaire or a list of ids)',
+    method: 'get', path: '/api/audits', response: AuditListAnswer, access: 'viewer', summary: 'Wattage audits (newest first; by sheet, luminaire or a list of ids)',
     query: AuditListQuerySchema,
     handler: ({ query }, req) => service.listAudits(scope(req).workspaceId, query),
   }),
   defineRoute({
-    method: 'post', path: '/api/audits', access: 'technician', summary: 'Save a wattage audit (the engine computes its results)',
+    method: 'post', path: '/api/audits', response: SavedAuditAnswer, access: 'technician', summary: 'Save a wattage audit (the engine computes its results)',
     body: AuditCreateSchema, status: 201,
     handler: ({ body }, req) => {
       const s = scope(req)
@@ -24,7 +25,7 @@ export const auditRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'get', path: '/api/audits/:id', access: 'viewer', summary: 'One wattage audit with its working',
+    method: 'get', path: '/api/audits/:id', response: SavedAuditAnswer, access: 'viewer', summary: 'One wattage audit with its working',
     params: IdParams, notFound: WHAT,
     handler: ({ params }, req) => service.getAudit(scope(req).workspaceId, params.id),
   }),
@@ -38,7 +39,7 @@ export const auditRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'post', path: '/api/audits/:id/attach', access: 'technician', summary: 'Attach a wattage audit to a sheet or a luminaire (null detaches)',
+    method: 'post', path: '/api/audits/:id/attach', response: SavedAuditAnswer, access: 'technician', summary: 'Attach a wattage audit to a sheet or a luminaire (null detaches)',
     params: IdParams, notFound: WHAT, body: AuditAttachSchema,
     handler: ({ params, body }, req) => {
       const s = scope(req)

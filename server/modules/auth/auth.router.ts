@@ -1,7 +1,5 @@
 /** /api/auth: sign-up, sign-in, sign-out, who am I, CSRF token, password reset. */
-import type { Request, RequestHandler } from 'express'
-import { ipKeyGenerator, rateLimit } from 'express-rate-limit'
-import { PostgresHitStore } from '../../lib/rate-limit-store'
+import type { Request } from 'express'
 import passport from 'passport'
 import { z } from 'zod'
 import {
@@ -20,6 +18,7 @@ import { forgetUser, users } from '../users/users.repository'
 import { changePassword, confirmEmail, mailConfirmationLink, requestPasswordReset, resetPassword, SIGN_UP_ANSWER, signUp, signUpWithInvitation } from './auth.service'
 import { afterAnswer } from '../../lib/after-answer'
 import { perAddress, perEmail, type Limits } from '../../lib/limits'
+import { signInGate, stillLocked } from './sign-in-gate'
 import { ensureCsrfToken, meResponse } from './me.service'
 import { CsrfAnswer, MeAnswer } from '../../../shared/schemas/answers/accounts'
 import { MessageSchema } from '../../../shared/schemas/answers/common'
@@ -34,34 +33,6 @@ function login(req: Request, user: User): Promise<void> {
       resolve()
     }),
   )
-}
-
-/**
- * Ten wrong passwords in a row for one e-mail from one address: the tenth is refused with 429.
- * Counted in PostgreSQL, so the limit holds across every app process.
- */
-export function signInLimiter(windowMs: number): RequestHandler {
-  return rateLimit({
-    windowMs,
-    store: new PostgresHitStore('sign-in|'),
-    limit: 9,
-    skipSuccessfulRequests: true,
-    standardHeaders: 'draft-7',
-    legacyHeaders: false,
-    keyGenerator: (req) => `${ipKeyGenerator(req.ip ?? '0.0.0.0')}|${String((req.body as { email?: unknown })?.email ?? '').trim().toLowerCase()}`,
-    handler: (req, res) => {
-      const reset = (req as Request & { rateLimit?: { resetTime?: Date } }).rateLimit?.resetTime ?? new Date(Date.now() + windowMs)
-      const seconds = Math.max(1, Math.ceil((reset.getTime() - Date.now()) / 1000))
-      const when = seconds >= 120 ? `${Math.ceil(seconds / 60)} minutes` : `${seconds} seconds`
-      res.set('Retry-After', String(seconds))
-      res.status(429).json({
-        error: `Too many failed sign-ins for this e-mail. Try again in ${when} (after ${reset.toISOString().slice(11, 16)} UTC), or reset your password.`,
-        code: 'too_many_attempts',
-        retryAfterSeconds: seconds,
-        retryAt: reset.toISOString(),
-      })
-    },
-  })
 }
 
 export function authRoutes(opts: { signInWindowMs: number; limits: Limits }): RouteSpec[] {
@@ -95,13 +66,13 @@ export function authRoutes(opts: { signInWindowMs: number; limits: Limits }): Ro
     }),
     defineRoute({
       method: 'post', path: '/api/auth/sign-in', response: MeAnswer, access: 'public', summary: 'Sign in with e-mail and password',
-      // The limiter counts failed attempts, including bodies that fail the schema.
-      before: [signInLimiter(opts.signInWindowMs)], body: SignInSchema,
+      // The gate counts failed attempts, including bodies that fail the schema (sign-in-gate.ts).
+      before: [signInGate(opts.signInWindowMs, L)], body: SignInSchema,
       handler: (_input, req, res, next) => {
         // passport's local strategy reads the parsed body (e-mail trimmed and lower-cased).
         passport.authenticate('local', { session: false }, (err: unknown, user: User | false) => {
           if (err) return next(err)
-          if (!user) return next(new AppError(401, 'bad_credentials', 'E-mail or password is wrong.'))
+          if (!user) return next(stillLocked(res) ?? new AppError(401, 'bad_credentials', 'E-mail or password is wrong.'))
           if (!user.emailConfirmedAt) {
             // Only someone who knows the password learns the account is waiting: send a fresh link.
             afterAnswer('confirmation mail', () => mailConfirmationLink(user))

@@ -1,4 +1,5 @@
 /** POST /api/calc/:tool runs an engine tool on JSON input, exactly as the CLI does. */
+import { ToolListAnswer, ToolRunAnswer } from '../../../shared/schemas/answers/system'
 import { z } from 'zod'
 import { tools } from '../../../shared/engine/registry'
 import { runTool } from '../../../shared/engine/tool'
@@ -20,11 +21,11 @@ export const ToolInputBody = z.unknown()
 // Calculations touch no account or workspace data: API tokens may use them.
 export const calcRoutes: RouteSpec[] = [
   defineRoute({
-    method: 'get', path: '/api/calc', access: 'signed-in', tokens: true, summary: 'The engine tools',
+    method: 'get', path: '/api/calc', response: ToolListAnswer, access: 'signed-in', tokens: true, summary: 'The engine tools',
     handler: () => ({ engineVersion: ENGINE_VERSION, tools: Object.values(tools).map((t) => ({ name: t.name, summary: t.summary })) }),
   }),
   defineRoute({
-    method: 'post', path: '/api/calc/:tool', access: 'signed-in', tokens: true, summary: 'Run an engine tool (size, charge, compare, …); ?working=false leaves out the working steps',
+    method: 'post', path: '/api/calc/:tool', response: ToolRunAnswer, access: 'signed-in', tokens: true, summary: 'Run an engine tool (size, charge, compare, …); ?working=false leaves out the working steps',
     params: ToolParams, notFound: (raw) => `The engine tool "${raw.tool}"`, query: CalcQuerySchema, body: ToolInputBody,
     handler: ({ params, query, body }) => {
       const name = params.tool

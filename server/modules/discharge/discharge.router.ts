@@ -1,4 +1,5 @@
 /** /api/discharge: upload a logged duration test, map its columns, analyse, save, list, compare. */
+import { AnalyseAnswer, LogComparisonAnswer, LogListAnswer, SavedLogAnswer, UploadPreviewAnswer } from '../../../shared/schemas/answers/discharge'
 import fs from 'node:fs'
 import type { NextFunction, Request, Response } from 'express'
 import multer from 'multer'
@@ -53,7 +54,7 @@ const WHAT = 'That discharge log'
 // record or an issued sheet) is left to designers, like the other records a sheet rests on.
 export const dischargeRoutes: RouteSpec[] = [
   defineRoute({
-    method: 'post', path: '/api/discharge/uploads', access: 'technician', upload: true, tags: ['discharge'],
+    method: 'post', path: '/api/discharge/uploads', response: UploadPreviewAnswer, access: 'technician', upload: true, tags: ['discharge'],
     summary: `Upload a discharge log (CSV or TSV, multipart field "file", at most ${LIMIT_MB} MB; or JSON { name, text }): staged, answered with a preview and column guesses`,
     before: [receive], body: DischargeTextUploadSchema, status: 201,
     handler: ({ body, file }, req) => {
@@ -65,7 +66,7 @@ export const dischargeRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'post', path: '/api/discharge/logs', access: 'technician', body: DischargeAnalyseSchema, tags: ['discharge'],
+    method: 'post', path: '/api/discharge/logs', response: AnalyseAnswer, access: 'technician', body: DischargeAnalyseSchema, tags: ['discharge'],
     summary: 'Analyse an upload (or a stored file) with a column mapping; dryRun answers without storing, otherwise the file and the log are saved',
     handler: async ({ body }, req, res) => {
       const s = scope(req)
@@ -75,11 +76,11 @@ export const dischargeRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'get', path: '/api/discharge/logs', access: 'viewer', query: DischargeListQuerySchema, tags: ['discharge'], summary: 'Discharge logs, newest first (by sheet, test record or luminaire)',
+    method: 'get', path: '/api/discharge/logs', response: LogListAnswer, access: 'viewer', query: DischargeListQuerySchema, tags: ['discharge'], summary: 'Discharge logs, newest first (by sheet, test record or luminaire)',
     handler: ({ query }, req) => service.listLogs(scope(req).workspaceId, query),
   }),
   defineRoute({
-    method: 'get', path: '/api/discharge/logs/:id', access: 'viewer', tags: ['discharge'], summary: 'One discharge log with its summary, working and down-sampled curve',
+    method: 'get', path: '/api/discharge/logs/:id', response: SavedLogAnswer, access: 'viewer', tags: ['discharge'], summary: 'One discharge log with its summary, working and down-sampled curve',
     params: IdParams, notFound: WHAT,
     handler: ({ params }, req) => service.getLog(scope(req).workspaceId, params.id),
   }),
@@ -93,7 +94,7 @@ export const dischargeRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'get', path: '/api/discharge/compare', access: 'viewer', tags: ['discharge'], summary: 'Two discharge logs side by side (?a=&b=), with the change from a to b',
+    method: 'get', path: '/api/discharge/compare', response: LogComparisonAnswer, access: 'viewer', tags: ['discharge'], summary: 'Two discharge logs side by side (?a=&b=), with the change from a to b',
     // Ids that are not ids read like missing logs.
     query: DischargeCompareQuerySchema, invalid: { query: 404 }, notFound: WHAT,
     handler: ({ query }, req) => service.compareLogs(scope(req).workspaceId, query.a, query.b),

@@ -478,6 +478,7 @@ export async function deleteLog(workspaceId: string, userId: string, id: string)
   })
 }
 
+const COMPARED_FIGURES = ['runtimeH', 'deliveredAh', 'deliveredWh', 'midpointVoltageV', 'marginH', 'stateOfHealth'] as const
 const diff = (a: unknown, b: unknown) => (typeof a === 'number' && typeof b === 'number' ? b - a : null)
 
 /** Two logs side by side, with the change from the first to the second. */
@@ -485,7 +486,7 @@ export async function compareLogs(workspaceId: string, aId: string, bId: string)
   const [a, b] = await Promise.all([getLog(workspaceId, aId), getLog(workspaceId, bId)])
   const sa = a.summary as Record<string, unknown>
   const sb = b.summary as Record<string, unknown>
-  const change = Object.fromEntries(['runtimeH', 'deliveredAh', 'deliveredWh', 'midpointVoltageV', 'marginH', 'stateOfHealth'].map((k) => [k, diff(sa[k], sb[k])]))
+  const change = Object.fromEntries(COMPARED_FIGURES.map((k) => [k, diff(sa[k], sb[k])])) as Record<(typeof COMPARED_FIGURES)[number], number | null>
   return { a, b, change }
 }
 

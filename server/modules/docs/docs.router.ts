@@ -1,3 +1,4 @@
+import { OpenApiAnswer } from '../../../shared/schemas/answers/system'
 import { defineRoute, type RouteSpec } from '../../policy/access'
 import { buildOpenApi } from './openapi'
 
@@ -10,6 +11,7 @@ export function docsRoutes(table: () => RouteSpec[]): RouteSpec[] {
       path: '/api/openapi.json',
       access: 'public',
       summary: 'This API described in OpenAPI 3.1',
+      response: OpenApiAnswer,
       handler: () => (cached ??= buildOpenApi(table())),
     }),
   ]

@@ -1,11 +1,13 @@
 import type { Response } from 'express'
+import type { z } from 'zod'
+import { HealthAnswer } from '../../../shared/schemas/answers/system'
 import { APP_VERSION } from '../../config'
 import { dataSource } from '../../data-source'
 import { appPoolIsFull, isPoolWaitTimeout } from '../../lib/pools'
 import { ENGINE_VERSION } from '../../../shared/engine/version'
 import { defineRoute, type RouteSpec } from '../../policy/access'
 
-async function health(res: Response) {
+async function health(res: Response): Promise<z.input<typeof HealthAnswer>> {
   let database: 'reachable' | 'unreachable' | 'busy' = 'unreachable'
   try {
     if (dataSource.isInitialized) {
@@ -17,9 +19,10 @@ async function health(res: Response) {
     database = isPoolWaitTimeout(err) && appPoolIsFull() ? 'busy' : 'unreachable'
   }
   if (database !== 'reachable') res.set('Retry-After', database === 'busy' ? '2' : '5')
-  res.status(database === 'reachable' ? 200 : 503).json({ status: database === 'reachable' ? 'ok' : database === 'busy' ? 'busy' : 'degraded', version: APP_VERSION, engineVersion: ENGINE_VERSION, database })
+  res.status(database === 'reachable' ? 200 : 503)
+  return { status: database === 'reachable' ? 'ok' : database === 'busy' ? 'busy' : 'degraded', version: APP_VERSION, engineVersion: ENGINE_VERSION, database }
 }
 
 export const healthRoutes: RouteSpec[] = [
-  defineRoute({ method: 'get', path: '/api/health', access: 'public', summary: 'Version and whether the database answers', handler: (_input, _req, res) => health(res) }),
+  defineRoute({ method: 'get', path: '/api/health', access: 'public', summary: 'Version and whether the database answers', response: HealthAnswer, handler: (_input, _req, res) => health(res) }),
 ]

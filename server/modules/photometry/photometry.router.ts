@@ -1,4 +1,5 @@
 /** /api/photometry (LM-63 files), /api/luminaire-types (the catalogue) and /api/route-spacing (choosing a type for a route). */
+import { LuminaireTypeAnswer, LuminaireTypeListAnswer, PhotometryFileAnswer, PhotometryFileListAnswer, PickAnswer, TypeSelectionAnswer } from '../../../shared/schemas/answers/photometry'
 import type { Request, RequestHandler } from 'express'
 import multer from 'multer'
 import {
@@ -32,11 +33,11 @@ function uploadName(req: Request, file: Express.Multer.File): string | undefined
 
 export const photometryRoutes: RouteSpec[] = [
   defineRoute({
-    method: 'get', path: '/api/photometry', access: 'viewer', summary: 'Photometric files of the workspace (newest first)',
+    method: 'get', path: '/api/photometry', response: PhotometryFileListAnswer, access: 'viewer', summary: 'Photometric files of the workspace (newest first)',
     handler: async (_input, req) => ({ files: await service.listFiles(scope(req).workspaceId) }),
   }),
   defineRoute({
-    method: 'post', path: '/api/photometry', access: 'designer', upload: true,
+    method: 'post', path: '/api/photometry', response: PhotometryFileAnswer, access: 'designer', upload: true,
     summary: 'Upload an IES LM-63 file (multipart field "file", or JSON { name, text }); a malformed file is refused naming the line',
     before: [upload.single('file'), requireFile], body: PhotometryUploadSchema, status: 201,
     handler: ({ body, file }, req) => {
@@ -46,7 +47,7 @@ export const photometryRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'get', path: '/api/photometry/:id', access: 'viewer', summary: 'A photometric file: its header, intensity table and text',
+    method: 'get', path: '/api/photometry/:id', response: PhotometryFileAnswer, access: 'viewer', summary: 'A photometric file: its header, intensity table and text',
     params: IdParams,
     handler: ({ params }, req) => service.getFile(scope(req).workspaceId, params.id),
   }),
@@ -60,11 +61,11 @@ export const photometryRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'get', path: '/api/luminaire-types', access: 'viewer', summary: "The workspace's luminaire types",
+    method: 'get', path: '/api/luminaire-types', response: LuminaireTypeListAnswer, access: 'viewer', summary: "The workspace's luminaire types",
     handler: async (_input, req) => ({ types: await service.listTypes(scope(req).workspaceId) }),
   }),
   defineRoute({
-    method: 'post', path: '/api/luminaire-types', access: 'designer', summary: 'Add a luminaire type',
+    method: 'post', path: '/api/luminaire-types', response: LuminaireTypeAnswer, access: 'designer', summary: 'Add a luminaire type',
     body: LuminaireTypeSchema, status: 201,
     handler: ({ body }, req) => {
       const s = scope(req)
@@ -72,12 +73,12 @@ export const photometryRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'get', path: '/api/luminaire-types/:id', access: 'viewer', summary: 'One luminaire type',
+    method: 'get', path: '/api/luminaire-types/:id', response: LuminaireTypeAnswer, access: 'viewer', summary: 'One luminaire type',
     params: IdParams,
     handler: ({ params }, req) => service.getType(scope(req).workspaceId, params.id),
   }),
   defineRoute({
-    method: 'patch', path: '/api/luminaire-types/:id', access: 'designer', summary: 'Change a luminaire type',
+    method: 'patch', path: '/api/luminaire-types/:id', response: LuminaireTypeAnswer, access: 'designer', summary: 'Change a luminaire type',
     params: IdParams, body: LuminaireTypePatchSchema,
     handler: ({ params, body }, req) => {
       const s = scope(req)
@@ -94,12 +95,12 @@ export const photometryRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'post', path: '/api/route-spacing/select', access: 'viewer', summary: 'Luminaire types for a route: count, spacing, standby power and pack of each',
+    method: 'post', path: '/api/route-spacing/select', response: TypeSelectionAnswer, access: 'viewer', summary: 'Luminaire types for a route: count, spacing, standby power and pack of each',
     body: RouteNeedSchema,
     handler: ({ body }, req) => service.selectTypes(scope(req).workspaceId, body),
   }),
   defineRoute({
-    method: 'post', path: '/api/route-spacing/pick', access: 'designer', summary: 'Put a luminaire type that meets a route on a specification sheet (new draft, or a new revision)',
+    method: 'post', path: '/api/route-spacing/pick', response: PickAnswer, access: 'designer', summary: 'Put a luminaire type that meets a route on a specification sheet (new draft, or a new revision)',
     body: PickSchema,
     handler: async ({ body }, req, res) => {
       const s = scope(req)

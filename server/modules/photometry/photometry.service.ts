@@ -5,7 +5,7 @@
 import crypto from 'node:crypto'
 import type { EntityManager } from 'typeorm'
 import { In, QueryFailedError } from 'typeorm'
-import { parseLm63 } from '../../../shared/engine/lm63'
+import { parsePhotometricFile, PHOTOMETRIC_FORMAT_NAMES } from '../../../shared/engine/photometric-file'
 import { assessType, selectTypesForRoute, type RouteNeed, type TypeCandidate } from '../../../shared/engine/route-select'
 import { CRITERIA_LABELS, type LuminaireTypeInput, type LuminaireTypePatch, type PickInput, type RouteNeedInput } from '../../../shared/schemas/photometry.schema'
 import { dataSource } from '../../data-source'
@@ -22,9 +22,9 @@ const types = (m: EntityManager = dataSource.manager) => m.getRepository(Luminai
 
 const isUniqueViolation = (err: unknown) => err instanceof QueryFailedError && (err as QueryFailedError & { driverError?: { code?: string } }).driverError?.code === '23505'
 
-/** Parses LM-63 text; a malformed file is a 400 naming the line, and nothing is stored. */
+/** Parses LM-63 or EULUMDAT text; a malformed file is a 400 naming the format and the line, and nothing is stored. */
 export function parseUpload(text: string, field = 'text'): ParsedPhotometry {
-  // Control characters other than tab and line ends never belong in an LM-63 file.
+  // Control characters other than tab and line ends never belong in a photometric file.
   const control = /[\u0000-\u0008\u000b\u000c\u000e-\u001f]/.exec(text)
   if (control) {
     const line = text.slice(0, control.index).split(/\r\n|\r|\n/).length
@@ -32,10 +32,11 @@ export function parseUpload(text: string, field = 'text'): ParsedPhotometry {
       { path: field, message: `line ${line}: a control character is not allowed in an LM-63 file` },
     ], { line })
   }
-  const result = parseLm63(text)
+  const result = parsePhotometricFile(text)
   if (!result.ok) {
     const { line, message } = result.error
-    throw new BadRequestError(`LM-63 file, line ${line}: ${message}`, [{ path: field, message: `line ${line}: ${message}` }], { line })
+    const what = PHOTOMETRIC_FORMAT_NAMES[result.format]
+    throw new BadRequestError(`${what}, line ${line}: ${message}`, [{ path: field, message: `line ${line}: ${message}` }], { line })
   }
   const p = result.value
   return {
@@ -241,7 +242,7 @@ export async function deleteType(workspaceId: string, userId: string, id: string
 // ---------------------------------------------------------------------------------------------
 // Choosing a type for a route
 
-const routeNeed = (r: RouteNeedInput): RouteNeed => ({
+export const routeNeed = (r: RouteNeedInput): RouteNeed => ({
   routeLengthM: r.routeLength,
   routeWidthM: r.routeWidth,
   mountingHeightM: r.mountingHeight,
@@ -253,7 +254,7 @@ const routeNeed = (r: RouteNeedInput): RouteNeed => ({
   ...(r.endOfDurationFactor !== undefined ? { endOfDurationFactor: r.endOfDurationFactor } : {}),
 })
 
-async function candidatesOf(workspaceId: string, rows: LuminaireType[]): Promise<TypeCandidate[]> {
+export async function candidatesOf(workspaceId: string, rows: LuminaireType[]): Promise<TypeCandidate[]> {
   const ids = [...new Set(rows.map((r) => r.photometricFileId).filter((x): x is string => !!x))]
   const tables = ids.length ? await files().find({ where: { workspaceId, id: In(ids) }, select: { id: true, parsed: true } }) : []
   const byId = new Map(tables.map((f) => [f.id, f.parsed]))

@@ -8,7 +8,7 @@ import { DEFAULT_PREFS, formatDate, formatHours, formatNumber, type FormatPrefs 
 import { frame, heightOf, newDocument, toBuffer, write, writeAt, type Doc, type WriteOptions } from '../../lib/pdf/pdf-kit'
 import { PURPOSE_LABELS } from '../../../shared/schemas/luminaire.schema'
 import { REGIME_LABELS } from '../../../shared/schemas/site.schema'
-import { chemistryName, DUE_REASON_LABELS, FORECAST_STATE_LABELS, LUMINAIRE_STATE_LABELS, MODE_LABELS, testKindWords } from '../../../shared/schemas/logbook-labels'
+import { chemistryName, DUE_REASON_LABELS, PACK_STATE_LABELS, TEST_STATE_LABELS, MODE_LABELS, testKindWords } from '../../../shared/labels'
 import type { LuminaireStatus } from './register.service'
 import { siteStatus, todayIso } from './register.service'
 import { siteLogBook } from './tests.service'
@@ -156,8 +156,8 @@ async function registerPdf(reg: Awaited<ReturnType<typeof registerRows>>, prefs:
     columns,
     s.luminaires.map((l) => [
       l.tag, [l.areaName, l.location].filter(Boolean).join(' — '), PURPOSE_LABELS[l.purpose], MODE_LABELS[l.mode], formatHours(l.ratedDurationH, prefs),
-      `${chemistryName(l.chemistry)}, ${l.cellsInSeries} cells, ${formatNumber(l.capacityAh, { unit: 'Ah' }, prefs)}`, date(l.packFittedOn), dueWords(l.due.functional, prefs), dueWords(l.due.duration, prefs), LUMINAIRE_STATE_LABELS[l.due.state],
-      `${date(l.forecast.replaceBy)} (${FORECAST_STATE_LABELS[l.forecast.state].toLowerCase()})`,
+      `${chemistryName(l.chemistry)}, ${l.cellsInSeries} cells, ${formatNumber(l.capacityAh, { unit: 'Ah' }, prefs)}`, date(l.packFittedOn), dueWords(l.due.functional, prefs), dueWords(l.due.duration, prefs), TEST_STATE_LABELS[l.due.state],
+      `${date(l.forecast.replaceBy)} (${PACK_STATE_LABELS[l.forecast.state].toLowerCase()})`,
     ]),
   )
   const failures = s.luminaires.filter((l) => l.due.openFailures.length)

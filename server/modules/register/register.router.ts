@@ -1,5 +1,5 @@
 /** /api/sites, /api/areas, /api/luminaires, /api/tests: the site register and its test log book. */
-import { LogBookEntryAnswer, RegimeHistoryAnswer, RoundSignOffAnswer } from '../../../shared/schemas/answers/register'
+import { AreaAnswer, ExportAnswer, ImportPreviewAnswer, ImportResultAnswer, LogBookAnswer, LogBookEntryAnswer, LuminaireAnswer, LuminaireDetailAnswer, RegisterOverviewAnswer, RegimeHistoryAnswer, RegisterSettingsAnswer, RoundSignOffAnswer, SiteAnswer, SiteStatusAnswer, TestBatchAnswer } from '../../../shared/schemas/answers/register'
 import multer from 'multer'
 import { z } from 'zod'
 import { ImportRequestSchema, LuminairePatchSchema, LuminaireSchema, PackReplacementSchema } from '../../../shared/schemas/luminaire.schema'
@@ -30,11 +30,11 @@ function csvOf(input: { file?: Express.Multer.File; body?: { csv: string } }): s
 export const registerRoutes: RouteSpec[] = [
   // the workspace's log-book rules
   defineRoute({
-    method: 'get', path: '/api/register/settings', access: 'viewer', summary: "The workspace's log-book rules (repair window for retests)",
+    method: 'get', path: '/api/register/settings', response: RegisterSettingsAnswer, access: 'viewer', summary: "The workspace's log-book rules (repair window for retests)",
     handler: (_input, req) => register.registerSettings(scope(req).workspaceId),
   }),
   defineRoute({
-    method: 'patch', path: '/api/register/settings', access: 'owner', summary: "Change the workspace's log-book rules",
+    method: 'patch', path: '/api/register/settings', response: RegisterSettingsAnswer, access: 'owner', summary: "Change the workspace's log-book rules",
     body: RegisterSettingsPatchSchema,
     handler: ({ body }, req) => {
       const s = scope(req)
@@ -43,12 +43,12 @@ export const registerRoutes: RouteSpec[] = [
   }),
   // sites
   defineRoute({
-    method: 'get', path: '/api/sites', access: 'viewer', summary: 'Sites with their due counts, and tests falling due soon',
+    method: 'get', path: '/api/sites', response: RegisterOverviewAnswer, access: 'viewer', summary: 'Sites with their due counts, and tests falling due soon',
     query: DaysQuery,
     handler: ({ query }, req) => register.overview(scope(req).workspaceId, query.days),
   }),
   defineRoute({
-    method: 'post', path: '/api/sites', access: 'designer', summary: 'Add a site',
+    method: 'post', path: '/api/sites', response: SiteAnswer, access: 'designer', summary: 'Add a site',
     body: SiteSchema, status: 201,
     handler: ({ body }, req) => {
       const s = scope(req)
@@ -56,12 +56,12 @@ export const registerRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'get', path: '/api/sites/:id', access: 'viewer', summary: 'A site with its areas, luminaires, due dates and pack forecast',
+    method: 'get', path: '/api/sites/:id', response: SiteStatusAnswer, access: 'viewer', summary: 'A site with its areas, luminaires, due dates and pack forecast',
     params: IdParams,
     handler: ({ params }, req) => register.siteStatus(scope(req).workspaceId, params.id),
   }),
   defineRoute({
-    method: 'patch', path: '/api/sites/:id', access: 'designer', summary: 'Change a site',
+    method: 'patch', path: '/api/sites/:id', response: SiteAnswer, access: 'designer', summary: 'Change a site',
     params: IdParams, body: SitePatchSchema,
     handler: ({ params, body }, req) => {
       const s = scope(req)
@@ -79,7 +79,7 @@ export const registerRoutes: RouteSpec[] = [
   }),
   // areas
   defineRoute({
-    method: 'post', path: '/api/sites/:id/areas', access: 'designer', summary: 'Add an area to a site',
+    method: 'post', path: '/api/sites/:id/areas', response: AreaAnswer, access: 'designer', summary: 'Add an area to a site',
     params: IdParams, body: AreaSchema, status: 201,
     handler: ({ params, body }, req) => {
       const s = scope(req)
@@ -87,7 +87,7 @@ export const registerRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'patch', path: '/api/areas/:id', access: 'designer', summary: 'Rename an area',
+    method: 'patch', path: '/api/areas/:id', response: AreaAnswer, access: 'designer', summary: 'Rename an area',
     params: IdParams, body: AreaPatchSchema,
     handler: ({ params, body }, req) => {
       const s = scope(req)
@@ -105,7 +105,7 @@ export const registerRoutes: RouteSpec[] = [
   }),
   // luminaires
   defineRoute({
-    method: 'post', path: '/api/sites/:id/luminaires', access: 'designer', summary: 'Add a luminaire to a site',
+    method: 'post', path: '/api/sites/:id/luminaires', response: LuminaireAnswer, access: 'designer', summary: 'Add a luminaire to a site',
     params: IdParams, body: LuminaireSchema, status: 201,
     handler: ({ params, body }, req) => {
       const s = scope(req)
@@ -113,12 +113,12 @@ export const registerRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'get', path: '/api/luminaires/:id', access: 'viewer', summary: 'A luminaire with its due dates and pack forecast',
+    method: 'get', path: '/api/luminaires/:id', response: LuminaireDetailAnswer, access: 'viewer', summary: 'A luminaire with its due dates and pack forecast',
     params: IdParams,
     handler: ({ params }, req) => register.luminaireDetail(scope(req).workspaceId, params.id),
   }),
   defineRoute({
-    method: 'patch', path: '/api/luminaires/:id', access: 'designer', summary: 'Change a luminaire',
+    method: 'patch', path: '/api/luminaires/:id', response: LuminaireAnswer, access: 'designer', summary: 'Change a luminaire',
     params: IdParams, body: LuminairePatchSchema,
     handler: ({ params, body }, req) => {
       const s = scope(req)
@@ -135,7 +135,7 @@ export const registerRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'post', path: '/api/luminaires/:id/pack', access: 'technician', summary: 'Record a new battery pack fitted to a luminaire',
+    method: 'post', path: '/api/luminaires/:id/pack', response: LuminaireAnswer, access: 'technician', summary: 'Record a new battery pack fitted to a luminaire',
     params: IdParams, body: PackReplacementSchema,
     handler: ({ params, body }, req) => {
       const s = scope(req)
@@ -143,13 +143,13 @@ export const registerRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'get', path: '/api/luminaires/:id/tests', access: 'viewer', summary: "A luminaire's tests, newest first",
+    method: 'get', path: '/api/luminaires/:id/tests', response: LogBookAnswer, access: 'viewer', summary: "A luminaire's tests, newest first",
     params: IdParams,
     handler: async ({ params }, req) => ({ tests: await tests.luminaireLogBook(scope(req).workspaceId, params.id) }),
   }),
   // tests
   defineRoute({
-    method: 'post', path: '/api/tests', access: 'technician', summary: 'Record tests (one or a round); retries with the same clientId never duplicate',
+    method: 'post', path: '/api/tests', response: TestBatchAnswer, access: 'technician', summary: 'Record tests (one or a round); retries with the same clientId never duplicate',
     body: TestBatchSchema,
     handler: async ({ body }, req, res) => {
       const s = scope(req)
@@ -185,7 +185,7 @@ export const registerRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'get', path: '/api/sites/:id/tests', access: 'viewer', summary: "A site's log book, newest first",
+    method: 'get', path: '/api/sites/:id/tests', response: LogBookAnswer, access: 'viewer', summary: "A site's log book, newest first",
     params: IdParams,
     handler: async ({ params }, req) => {
       const workspaceId = scope(req).workspaceId
@@ -204,12 +204,12 @@ export const registerRoutes: RouteSpec[] = [
   }),
   // import and export
   defineRoute({
-    method: 'post', path: '/api/sites/:id/import/preview', access: 'designer', summary: 'Check a luminaire schedule (CSV) row by row without storing it',
+    method: 'post', path: '/api/sites/:id/import/preview', response: ImportPreviewAnswer, access: 'designer', summary: 'Check a luminaire schedule (CSV) row by row without storing it',
     upload: true, before: [upload.single('file')], params: IdParams, body: ImportRequestSchema,
     handler: (input, req) => previewImport(scope(req).workspaceId, input.params.id, csvOf(input)),
   }),
   defineRoute({
-    method: 'post', path: '/api/sites/:id/import', access: 'designer', summary: 'Import a luminaire schedule (CSV): every row or none',
+    method: 'post', path: '/api/sites/:id/import', response: ImportResultAnswer, access: 'designer', summary: 'Import a luminaire schedule (CSV): every row or none',
     upload: true, before: [upload.single('file')], params: IdParams, body: ImportRequestSchema, status: 201,
     handler: (input, req) => {
       const s = scope(req)
@@ -217,14 +217,14 @@ export const registerRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'get', path: '/api/sites/:id/export/:file', access: 'viewer', summary: 'Download the register or log book as CSV or PDF (?as=json wraps it in JSON)',
+    method: 'get', path: '/api/sites/:id/export/:file', response: ExportAnswer, access: 'viewer', summary: 'Download the register or log book as CSV or PDF (?as=json wraps it in JSON)',
     params: SiteExportParams, query: ExportQuery,
     notFound: (raw) => ((EXPORT_FILES as readonly string[]).includes(raw.file ?? '') ? 'That record' : `The export "${raw.file}"`),
     handler: async ({ params, query }, req, res) => {
       const out = await exportFile(scope(req).workspaceId, params.id, params.file, formatPrefsOf(req))
       if (query.as === 'json') {
         const text = out.mediaType.startsWith('text/')
-        return { filename: out.filename, mediaType: out.mediaType, encoding: text ? 'utf8' : 'base64', content: out.body.toString(text ? 'utf8' : 'base64') }
+        return { filename: out.filename, mediaType: out.mediaType, encoding: text ? ('utf8' as const) : ('base64' as const), content: out.body.toString(text ? 'utf8' : 'base64') }
       }
       res.setHeader('Content-Type', out.mediaType)
       res.setHeader('Content-Disposition', `attachment; filename="${out.filename}"`)

@@ -420,6 +420,20 @@ export async function overview(workspaceId: string, days = 60, today = todayIso(
   return { today, days, settings, sites: perSite, attention, upcoming }
 }
 
+/**
+ * Every site of the workspace and every luminaire's status (due dates, open failures, pack
+ * forecast), with its area name: the one place the cross-site lists read from.
+ */
+export async function workspaceStatuses(workspaceId: string, today = todayIso()) {
+  const sites = await dataSource.getRepository(SiteEntity).find({ where: { workspaceId }, order: { name: 'ASC' } })
+  const { rows, areaNames } = await luminairesOf(workspaceId, {})
+  const tests = await testsOf(workspaceId, rows.map((l) => l.id))
+  const settings = await registerSettings(workspaceId)
+  const siteById = new Map(sites.map((s) => [s.id, s]))
+  const statuses = rows.map((l) => statusOf(siteById.get(l.siteId)!, l, l.areaId ? (areaNames.get(l.areaId) ?? null) : null, tests.get(l.id) ?? [], today, settings))
+  return { today, sites, statuses }
+}
+
 /** One luminaire with its site, full test history, due dates and pack forecast. */
 export async function luminaireDetail(workspaceId: string, id: string, today = todayIso()) {
   const l = await findLuminaire(workspaceId, id)

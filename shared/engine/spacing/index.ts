@@ -6,13 +6,18 @@
  *
  * illuminance.ts  point illuminance        criteria.ts   what each criterion asks, where
  * row-solver.ts   long-row spacing, ends   glare.ts      EN 1838 glare limits
+ * row-symmetry.ts  table symmetries the solver uses, golden-section search
  * layout.ts       a finite route laid out  input.ts      tool input and result
  * tool.ts         computeSpacing, the tool
+ * emphasis*.ts    points that need a luminaire within 2 m, and the layout that serves them
  */
 export * from './illuminance'
 export * from './criteria'
 export * from './row-solver'
+export * from './row-symmetry'
 export * from './layout'
+export * from './emphasis-points'
+export * from './emphasis'
 export * from './glare'
 export * from './input'
 export * from './tool'

@@ -1,9 +1,11 @@
 /** The spacing tool's input (zod) and result shapes. */
 import { z } from 'zod'
 import { finiteNumber, fraction, quantity } from '../fields'
-import { checkIntensityTable, parseLm63, type IntensityTable } from '../lm63'
+import { checkIntensityTable, type IntensityTable } from '../lm63'
+import { parsePhotometricFile, PHOTOMETRIC_FORMAT_NAMES } from '../photometric-file'
 import type { EngineWarning, WorkingStep } from '../types'
 import type { Requirement } from './criteria'
+import { EMPHASIS_KINDS } from './emphasis-points'
 import type { RouteLayout } from './layout'
 
 const intensityTableInput = z.object({
@@ -14,13 +16,13 @@ const intensityTableInput = z.object({
 
 const photometryInput = z
   .union([z.string(), intensityTableInput], {
-    errorMap: () => ({ message: 'must be the text of an LM-63 (.ies) file or { verticalAngles, horizontalAngles, candela }' }),
+    errorMap: () => ({ message: 'must be the text of an LM-63 (.ies) or EULUMDAT (.ldt) file, or { verticalAngles, horizontalAngles, candela }' }),
   })
   .transform((raw, ctx): { table: IntensityTable; absolute: boolean | null; name: string | null } => {
     if (typeof raw === 'string') {
-      const parsed = parseLm63(raw)
+      const parsed = parsePhotometricFile(raw)
       if (!parsed.ok) {
-        ctx.addIssue({ code: z.ZodIssueCode.custom, message: `LM-63 file, line ${parsed.error.line}: ${parsed.error.message}` })
+        ctx.addIssue({ code: z.ZodIssueCode.custom, message: `${PHOTOMETRIC_FORMAT_NAMES[parsed.format]}, line ${parsed.error.line}: ${parsed.error.message}` })
         return z.NEVER
       }
       return { table: parsed.value, absolute: parsed.value.absolute, name: parsed.value.keywords.LUMINAIRE ?? null }
@@ -32,6 +34,14 @@ const photometryInput = z
     }
     return { table: raw, absolute: null, name: null }
   })
+
+const emphasisPointInput = z
+  .object({
+    kind: z.enum(EMPHASIS_KINDS, { errorMap: () => ({ message: `must be one of ${EMPHASIS_KINDS.map((k) => `'${k}'`).join(', ')}` }) }),
+    at: quantity('length', { min: 0, max: 2000 }),
+    name: z.string().trim().max(80, 'at most 80 characters').optional(),
+  })
+  .strict()
 
 export const spacingInput = z
   .object({
@@ -50,8 +60,18 @@ export const spacingInput = z
     heights: z.array(quantity('length', { positive: true, min: 0.1, max: 30 })).max(20, 'at most 20 heights').optional(),
     /** NFPA 101 only: share of the initial emergency output left at the end of the rated duration. */
     endOfDurationFactor: fraction().default(1),
+    /** Points along the route that need a luminaire within 2 m (exit doors, stairs, call points, …). */
+    points: z.array(emphasisPointInput).max(100, 'at most 100 points').optional(),
   })
   .superRefine((input, ctx) => {
+    if (input.points?.length && input.routeLength === undefined) {
+      ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['routeLength'], message: 'is required when points along the route are marked (they are placed by their distance from its start)' })
+    }
+    input.points?.forEach((p, i) => {
+      if (input.routeLength !== undefined && p.at > input.routeLength + 1e-9) {
+        ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['points', i, 'at'], message: `is beyond the end of the route (${Number(input.routeLength.toPrecision(6))} m long)` })
+      }
+    })
     if (input.criteria === 'en1838-high-risk' && input.normalIlluminance === undefined) {
       ctx.addIssue({
         code: z.ZodIssueCode.custom,

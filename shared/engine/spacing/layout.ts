@@ -4,7 +4,9 @@
  * along the whole route, both ends included, with only the luminaires actually on the route.
  */
 import { evenRowPositions } from '../row-layout'
-import { goldenExtreme, type PointFn, type RowSolver } from './row-solver'
+import type { PointServed } from './emphasis-points'
+import type { PointFn, RowSolver } from './row-solver'
+import { goldenExtreme } from './row-symmetry'
 
 export interface RouteLayout {
   count: number
@@ -22,6 +24,13 @@ export interface RouteLayout {
   maxToMin: number | null
   /** NFPA 101: the same figures at the end of the rated duration (× the end-of-duration factor). */
   endOfDuration?: { factor: number; averageLx: number; minLx: number }
+  /**
+   * False when points that need a luminaire fixed some luminaires and the rest fill the
+   * stretches between (spacingM is then the largest gap, endDistanceM the larger end distance).
+   */
+  even?: boolean
+  /** For each marked point, the luminaire within reach that serves it. */
+  pointsServed?: PointServed[]
 }
 
 export interface FiniteRowStatistics {

@@ -5,37 +5,11 @@
 import { intensityAt, type IntensityTable } from '../lm63'
 import type { EvaluationLine, RowCriteria } from './criteria'
 import { DEG, horizontalIlluminance } from './illuminance'
+import { goldenExtreme, mergeMirroredLines, symmetricAboutRow, symmetricAcrossRow } from './row-symmetry'
 
 // Held here once: the hottest loops call these millions of times.
 const lookUpIntensity = intensityAt
 const pointIlluminance = horizontalIlluminance
-
-/** Whether the light is the same either side of the vertical plane along the row. */
-function symmetricAboutRow(table: IntensityTable, cPlane: number): boolean {
-  const first = table.horizontalAngles[0]
-  const last = table.horizontalAngles[table.horizontalAngles.length - 1]
-  const c = ((cPlane % 360) + 360) % 360
-  if (last === 0) return true
-  if (first === 0 && last === 90) return c % 90 === 0
-  if (first === 0 && last === 180) return c % 180 === 0
-  if (first === 90 && last === 270) return c % 180 === 90
-  return false
-}
-
-/** Drops the −y twin of each +y line (same checks), adding its weight to the +y line. */
-function mergeMirroredLines(lines: EvaluationLine[]): EvaluationLine[] {
-  const kept: EvaluationLine[] = []
-  for (const line of lines) {
-    const twin = line.y < 0 ? lines.find((l) => l.y === -line.y && l.minFraction === line.minFraction && l.ratio === line.ratio) : undefined
-    if (!twin) kept.push({ ...line })
-  }
-  for (const line of lines) {
-    if (line.y >= 0) continue
-    const twin = kept.find((l) => l.y === -line.y)
-    if (twin && !kept.includes(line)) twin.weight += line.weight
-  }
-  return kept.map((l) => (l.y > 0 ? { ...l, label: l.label.replace(' (left)', '') } : l))
-}
 
 export interface RowSolverOptions {
   table: IntensityTable
@@ -81,34 +55,9 @@ interface RowTails {
 }
 
 const SAMPLES = 32
-const GOLDEN = (Math.sqrt(5) - 1) / 2
 /** Luminaires adding less than this share of the smallest required level are left out (conservative: the row only loses light). */
 const NEGLIGIBLE = 1e-4
 const BISECTION_TOLERANCE_M = 0.001
-
-export function goldenExtreme(f: (x: number) => number, a: number, b: number, sign: 1 | -1, iterations = 18): number {
-  // Minimises sign·f on [a, b]; returns f at the best point found.
-  let x1 = b - GOLDEN * (b - a)
-  let x2 = a + GOLDEN * (b - a)
-  let f1 = sign * f(x1)
-  let f2 = sign * f(x2)
-  for (let k = 0; k < iterations; k++) {
-    if (f1 < f2) {
-      b = x2
-      x2 = x1
-      f2 = f1
-      x1 = b - GOLDEN * (b - a)
-      f1 = sign * f(x1)
-    } else {
-      a = x1
-      x1 = x2
-      f1 = f2
-      x2 = a + GOLDEN * (b - a)
-      f2 = sign * f(x2)
-    }
-  }
-  return sign * Math.min(f1, f2)
-}
 
 /**
  * Precomputes, per evaluation line, the illuminance from one luminaire as a function of the
@@ -131,13 +80,15 @@ export class RowSolver {
     const threshold = NEGLIGIBLE * smallest
     // Reach: beyond it one luminaire adds less than the negligible share on every line. Steps
     // grow with distance, since the angle from straight down changes ever more slowly.
+    // With the light the same either way along the row, each table holds its half once.
+    const mirrored = symmetricAcrossRow(o.table, o.cPlane)
     let reach = 0
     for (let d = 0; d <= 200 * h; d += Math.max(h / 8, 0.05 * d)) {
       for (let j = 0; j < this.lines.length; j++) {
-        if (this.direct(j, d) >= threshold || this.direct(j, -d) >= threshold) reach = d
+        if (this.direct(j, d) >= threshold || (!mirrored && this.direct(j, -d) >= threshold)) reach = d
       }
     }
-    this.reach = reach > 0 ? reach * 1.1 + h / 8 : 0
+    const wanted = reach > 0 ? reach * 1.1 + h / 8 : 0
     this.kinks = this.lines.map((line) =>
       o.table.verticalAngles
         .filter((g) => g > 0 && g < 90)
@@ -146,13 +97,15 @@ export class RowSolver {
         .map(Math.sqrt)
         .sort((a, b) => a - b),
     )
-    this.step = Math.max(h / 64, this.reach / 8192)
-    this.cells = Math.ceil(this.reach / this.step)
+    this.step = Math.max(h / 64, wanted / 8192)
+    this.cells = Math.ceil(wanted / this.step)
+    // A whole number of steps, so the table's points sit symmetrically about the luminaire.
+    this.reach = this.cells * this.step
     this.areas = []
     this.cumulative = []
     this.grids = this.lines.map((_, j) => {
       const g = new Float64Array(2 * this.cells + 2)
-      for (let k = 0; k <= 2 * this.cells; k++) g[k] = this.direct(j, -this.reach + k * this.step)
+      for (let k = 0; k <= 2 * this.cells; k++) g[k] = mirrored && k > this.cells ? g[2 * this.cells - k] : this.direct(j, -this.reach + k * this.step)
       // Running trapezoid integral from −reach, so any stretch of one luminaire's light is two look-ups.
       const c = new Float64Array(2 * this.cells + 2)
       for (let k = 1; k <= 2 * this.cells + 1; k++) c[k] = c[k - 1] + ((g[k - 1] + g[k]) * this.step) / 2
@@ -423,6 +376,9 @@ export class RowSolver {
   feasible(spacing: number, fn: PointFn = this.exact): boolean {
     const { lines } = this
     const { scenarios } = this.o.criteria
+    // The average of an endless row is Σ w·area / S exactly (as statistics() gives it): a
+    // spacing it rules out needs no point-by-point look.
+    if (this.mode === 'row' && spacing > this.averageBound()) return false
     // Quick rejection half-way between luminaires, usually the darkest place.
     for (let j = 0; j < lines.length; j++) {
       const mid = this.rowAt(j, spacing / 2, spacing, fn)

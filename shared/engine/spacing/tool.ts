@@ -10,6 +10,8 @@ import { requirementFor, rowCriteria, type RowCriteria } from './criteria'
 import { glareLimitCd, peakIntensityBetween } from './glare'
 import { spacingInput, type SpacingInput, type SpacingResult, type SpacingTableRow } from './input'
 import { layRoute, type RouteLayout } from './layout'
+import { layRouteWithPoints } from './emphasis'
+import { EMPHASIS_REACH_M } from './emphasis-points'
 import { RowSolver, type RowStatistics } from './row-solver'
 
 const POINT_METHOD: Reference = {
@@ -44,7 +46,12 @@ function solveHeight(input: SpacingInput, table: IntensityTable, criteria: RowCr
   const stats = solver.statistics(spacing)
   const end = solver.endDistance(spacing, stats.max)
   if (input.routeLength === undefined) return { solver, spacing, end, stats }
-  const layout = layRoute(solver, input.routeLength, spacing, input.criteria === 'nfpa101' ? input.endOfDurationFactor : undefined)
+  const endFactor = input.criteria === 'nfpa101' ? input.endOfDurationFactor : undefined
+  let layout = layRoute(solver, input.routeLength, spacing, endFactor)
+  if (input.points?.length) {
+    const points = input.points.map((p) => ({ kind: p.kind, atM: p.at, ...(p.name ? { name: p.name } : {}) }))
+    layout = layRouteWithPoints(solver, input.routeLength, spacing, points, layout, endFactor)
+  }
   return { solver, spacing, end, stats, layout, count: layout?.count ?? null }
 }
 
@@ -62,6 +69,8 @@ function roundLayout(l: RouteLayout): RouteLayout {
     minLx: round(l.minLx, 6),
     maxToMin: l.maxToMin === null ? null : round(l.maxToMin),
   }
+  if (l.even === false) out.even = false
+  if (l.pointsServed) out.pointsServed = l.pointsServed.map((p) => ({ ...p, atM: round(p.atM), distanceM: round(p.distanceM) }))
   if (l.endOfDuration) out.endOfDuration = { factor: l.endOfDuration.factor, averageLx: round(l.endOfDuration.averageLx, 6), minLx: round(l.endOfDuration.minLx, 6) }
   return out
 }
@@ -143,7 +152,14 @@ export function computeSpacing(input: SpacingInput): SpacingResult {
       })
     }
   }
-  if (input.routeLength !== undefined && main.spacing !== null && main.count === null) {
+  if (input.points?.length && main.spacing !== null && main.layout === null) {
+    warnings.push({
+      code: 'points-not-served',
+      severity: 'warning',
+      field: 'points',
+      message: `No row with a luminaire within ${EMPHASIS_REACH_M} m of every marked point passed the check over the whole route; place the luminaires at those points by hand and check the route point by point.`,
+    })
+  } else if (input.routeLength !== undefined && main.spacing !== null && main.count === null) {
     warnings.push({
       code: 'count-not-found',
       severity: 'warning',
@@ -230,6 +246,22 @@ export function computeSpacing(input: SpacingInput): SpacingResult {
         references: [POINT_METHOD],
       },
     )
+    const served = main.layout?.pointsServed
+    if (input.routeLength !== undefined && main.layout && served) {
+      const l = main.layout
+      working.push({
+        id: 'points',
+        label: 'Points that need a luminaire',
+        formula: `|x_point − x_luminaire| ≤ ${EMPHASIS_REACH_M} m for every marked point`,
+        explanation:
+          l.even === false
+            ? `The even row left a marked point more than ${EMPHASIS_REACH_M} m from a luminaire, so a luminaire stands within reach of each group of points, as near an even row's place as it can (one luminaire serves points up to ${2 * EMPHASIS_REACH_M} m apart) and each stretch between is filled with the fewest evenly spaced luminaires for which the whole route still passes.`
+            : `The even row already has a luminaire within ${EMPHASIS_REACH_M} m of every marked point.`,
+        inputs: served.map((p) => ({ symbol: `d${p.point + 1}`, label: `point ${p.point + 1} at ${round(p.atM, 3)} m to luminaire ${p.luminaire + 1}`, value: round(p.distanceM), unit: 'm' })),
+        result: { symbol: 'n', label: 'luminaires', value: l.count, unit: '' },
+        references: [{ source: 'EN 1838 4.1 and BS 5266-1 siting of luminaires near points of emphasis (2 m from secondary summaries; clause from memory: check the standard)', basis: 'from memory' }],
+      })
+    }
     if (input.routeLength !== undefined && main.layout) {
       const l = main.layout
       working.push({

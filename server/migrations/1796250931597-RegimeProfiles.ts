@@ -5,8 +5,8 @@ import type { MigrationInterface, QueryRunner } from 'typeorm'
  * applied from which day, who changed it and why); and a test marked as recorded in error, kept
  * in the log book but left out of the luminaire's state.
  */
-export class RegimeProfiles1796248597244 implements MigrationInterface {
-  name = 'RegimeProfiles1796248597244'
+export class RegimeProfiles1796250931597 implements MigrationInterface {
+  name = 'RegimeProfiles1796250931597'
 
   async up(q: QueryRunner): Promise<void> {
     await q.query(`ALTER TABLE sites DROP CONSTRAINT IF EXISTS sites_regime_check`)
