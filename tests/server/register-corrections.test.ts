@@ -10,6 +10,7 @@ import type { BuiltApp } from '../../server/app'
 import { dataSource } from '../../server/data-source'
 import { addDays } from '../../shared/engine/due'
 import { luminaireIn } from '../helpers/register-fixtures'
+import { pdfText } from '../helpers/pdf-text'
 import { closeTestApp, getTestApp, makeTeam, signIn, type Client, type TestTeam } from '../helpers/test-app'
 
 let built: BuiltApp
@@ -100,6 +101,18 @@ describe('a test recorded in error', () => {
     const row = book.body.tests.find((t: { id: string }) => t.id === wrongId)
     expect(row).toMatchObject({ recordedInErrorReason: 'Entered against the wrong luminaire' })
     expect(book.body.tests).toHaveLength(2)
+
+    // The exports keep it, marked: the CSV's last column gives the reason, the PDF reads "Void" (not "FAIL").
+    const csv = await viewer.get(`/api/sites/${id}/export/logbook.csv?as=json`)
+    const wrongLine = csv.body.content.split('\r\n').find((line: string) => line.includes('Lamp out'))
+    expect(wrongLine).toMatch(/,Entered against the wrong luminaire$/)
+    const pdf = await viewer.get(`/api/sites/${id}/export/logbook.pdf?as=json`)
+    const text = pdfText(Buffer.from(pdf.body.content, 'base64')).replace(/\n/g, ' ')
+    expect(text).toMatch(/Void/)
+    // A narrow cell wraps, and wrapped lines of neighbouring cells interleave: look for the words.
+    expect(text).toMatch(/Recorded in/)
+    expect(text).toMatch(/wrong/)
+    expect(text).not.toMatch(/FAIL/)
 
     const again = await technician.post(`/api/tests/${wrongId}/recorded-in-error`, { reason: 'Second try' })
     expect(again.status).toBe(409)

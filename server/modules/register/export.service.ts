@@ -45,9 +45,11 @@ export async function registerRows(workspaceId: string, siteId: string) {
 
 export async function logBookRows(workspaceId: string, siteId: string) {
   const entries = await siteLogBook(workspaceId, siteId, 100_000)
-  const header = ['tested_on', 'tag', 'test', 'result', 'achieved_duration_h', 'faults', 'remedial_action', 'recorded_by', 'recorded_at']
+  // A test recorded in error stays in the log book with its reason, so the record is complete.
+  const header = ['tested_on', 'tag', 'test', 'result', 'achieved_duration_h', 'faults', 'remedial_action', 'recorded_by', 'recorded_at', 'recorded_in_error']
   const rows = entries.map((e) => [
     e.testedOn, e.tag, e.kind, e.passed ? 'pass' : 'fail', e.achievedDurationH === null ? null : round(e.achievedDurationH), e.faults, e.remedialAction, e.recordedByName ?? '', new Date(e.recordedAt).toISOString(),
+    e.recordedInErrorAt ? e.recordedInErrorReason || 'yes' : '',
   ])
   return { header, rows }
 }
@@ -189,8 +191,10 @@ async function logBookPdf(status: SiteStatus, rows: Array<Array<string | number 
     doc,
     columns,
     rows.map((r) => [
-      formatDate(String(r[0]), prefs), String(r[1]), r[2] === 'duration' ? 'Full duration' : 'Functional', r[3] === 'pass' ? 'Pass' : r[3] === 'fail' ? 'Fail' : String(r[3]),
-      typeof r[4] === 'number' ? formatHours(r[4], prefs) : '', String(r[5] ?? ''), String(r[6] ?? ''), String(r[7] ?? ''),
+      formatDate(String(r[0]), prefs), String(r[1]), r[2] === 'duration' ? 'Full duration' : 'Functional',
+      // Told apart by the word's form as well as its letters, never by colour: "Pass" against "FAIL"; a void entry says so.
+      r[9] ? 'Void' : r[3] === 'pass' ? 'Pass' : r[3] === 'fail' ? 'FAIL' : String(r[3]),
+      typeof r[4] === 'number' ? formatHours(r[4], prefs) : '', r[9] ? `Recorded in error (${String(r[9])}). ${String(r[5] ?? '')}` : String(r[5] ?? ''), String(r[6] ?? ''), String(r[7] ?? ''),
     ]),
   )
   if (!rows.length) write(doc, 'No tests recorded yet.')
