@@ -79,4 +79,23 @@ describe('correcting the register', () => {
       await b.close()
     }
   })
+
+  it('the site and regime tab fits a 375 px phone without sideways scrolling', async () => {
+    const site = await siteIn(team.workspaceId, { name: 'Kestrel Bay Clinic (demo)', regime: 'asnzs2293' })
+    const phone = await newBrowser({ width: 375, height: 740 })
+    try {
+      const { page } = phone
+      await signInThroughForm(page, app.url, team.users.technician.email, TEST_PASSWORD)
+      await page.goto(`${app.url}/sites/${site.id}`)
+      await page.locator('.n-tabs-tab', { hasText: 'Site and regime' }).click()
+      await page.locator('[data-test="regime-profile"]').waitFor()
+      expect(await page.locator('[data-test="regime-profile"]').textContent()).toMatch(/Six-monthly discharge test.*every 6 months, at least 1 h 30 min/)
+      await page.locator('[data-test="myths"] summary').click()
+      expect(await page.locator('[data-test="myths"]').textContent()).toMatch(/always 90 minutes/)
+      await screenshot(page, 'site-regime-phone')
+      expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(375)
+    } finally {
+      await phone.close()
+    }
+  })
 })
