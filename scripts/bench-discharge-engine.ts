@@ -4,6 +4,7 @@
  * 2. The spacing search for a table of 10 mounting heights, for a generated downlight-like
  *    intensity table and for a uniform one (whose slow fall-off makes it the worst case).
  * 3. A 30 m route laid out for the same two tables.
+ * 4. The same route with two points that need a luminaire within 2 m.
  * The data are invented. Medians of several rounds; the first round warms the JIT up.
  */
 import { performance } from 'node:perf_hooks'
@@ -74,4 +75,10 @@ for (const [name, photometry] of [['downlight-like table', downlight], ['uniform
     const input = spacingInput.parse({ photometry, mountingHeight: 2.5, emergencyOutputFactor: criteria === 'nfpa101' ? 1 : 0.5, criteria, routeWidth: 2, routeLength: 30 })
     time(`route layout: ${criteria}, ${name}, 30 m`, () => computeSpacing(input))
   }
+}
+
+// 4. The same 30 m route with an exit door at the far end and a call point at 12 m that the even row misses.
+for (const [name, photometry] of [['downlight-like table', downlight], ['uniform 10 cd (worst case)', uniform]] as const) {
+  const input = spacingInput.parse({ photometry, mountingHeight: 2.5, emergencyOutputFactor: 0.5, criteria: 'en1838-route', routeWidth: 2, routeLength: 30, points: [{ kind: 'exit-door', at: 30 }, { kind: 'call-point', at: 12 }] })
+  time(`route layout with two marked points: en1838-route, ${name}, 30 m`, () => computeSpacing(input))
 }

@@ -13,6 +13,7 @@ const BENCHES = [
   { file: 'scripts/bench-bundle.ts', what: 'client: JavaScript and CSS loaded by the first page after sign-in (needs a build)' },
   { file: 'scripts/bench-discharge-engine.ts', what: 'engine: discharge analysis of 1,000,000 samples and spacing tables' },
   { file: 'scripts/bench-discharge.ts', what: 'discharge logs: a 1,000,000-row log parsed and analysed' },
+  { file: 'scripts/bench-batch.ts', what: 'API: 500 sizings in one batch request against 500 single calls (real app process and database)' },
 ]
 
 console.log(`machine: ${os.cpus()[0]?.model ?? 'unknown CPU'} × ${os.cpus().length}, ${Math.round(os.totalmem() / 2 ** 30)} GiB, Node ${process.version}, ${os.platform()} ${os.release()}`)

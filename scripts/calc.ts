@@ -3,7 +3,7 @@
  * prints the result as JSON. Bad input prints the field errors and exits 2.
  */
 import fs from 'node:fs'
-import { tools } from '../shared/engine/registry'
+import { isToolName, tools } from '../shared/engine/registry'
 import { runTool } from '../shared/engine/tool'
 import { ENGINE_VERSION } from '../shared/engine/version'
 
@@ -14,7 +14,7 @@ function usage(): never {
 
 const [name, file] = process.argv.slice(2)
 if (!name) usage()
-const tool = Object.prototype.hasOwnProperty.call(tools, name) ? tools[name] : undefined
+const tool = isToolName(name) ? tools[name] : undefined
 if (!tool) {
   process.stderr.write(`unknown tool "${name}"\n`)
   usage()

@@ -14,6 +14,7 @@ import { healthRoutes } from './modules/health/health.router'
 import { outboxRoutes } from './modules/mail/outbox.router'
 import { photometryRoutes } from './modules/photometry/photometry.router'
 import { registerRoutes } from './modules/register/register.router'
+import { collectionRoutes } from './modules/register/collections.router'
 import { portfolioRoutes } from './modules/register/portfolio.router'
 import { sheetRoutes } from './modules/sheets/sheets.router'
 import { storageRoutes } from './modules/storage/storage.router'
@@ -36,6 +37,7 @@ export function buildRouteTable(opts: RouteTableOptions): RouteSpec[] {
     ...tokenRoutes,
     ...sheetRoutes,
     ...registerRoutes,
+    ...collectionRoutes,
     ...portfolioRoutes,
     ...auditRoutes,
     ...dischargeRoutes,

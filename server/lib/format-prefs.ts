@@ -3,8 +3,20 @@
  * the locale their browser asks for, so a PDF reads like the screens that offered it.
  */
 import type { Request } from 'express'
-import { localeFromAcceptLanguage, resolvePrefs, type FormatPrefs } from '../../shared/format'
+import { localeFromAcceptLanguage, paperForLocale, resolvePrefs, type FormatPrefs, type PaperSize } from '../../shared/format'
 
 export function formatPrefsOf(req: Request): FormatPrefs {
-  return resolvePrefs({ locale: localeFromAcceptLanguage(req.get('accept-language')), timeZone: 'UTC' })
+  const prefs = resolvePrefs({ locale: localeFromAcceptLanguage(req.get('accept-language')), timeZone: 'UTC' })
+  return { ...prefs, paper: paperOf(req, prefs.locale) }
+}
+
+/**
+ * The signed-in reader's paper: Letter for US customary units, A4 for metric; someone signed out
+ * (a shared link) gets the usual paper of their browser's region.
+ */
+function paperOf(req: Request, locale: string): PaperSize {
+  const user = req.user as { units?: string } | undefined
+  if (user?.units === 'us') return 'letter'
+  if (user?.units === 'si') return 'a4'
+  return paperForLocale(locale)
 }

@@ -1,8 +1,12 @@
 /**
  * The PostgreSQL connections one app process may hold, and how to tell a pool that is merely full
  * (every connection busy: answer 503 "busy", try again in a moment) from a database that is away.
+ * Every pool is opened here or from here: TypeORM's (server/data-source.ts, sized by the same
+ * config), the session store's and the job queue's. tests/shared/source-layout.test.ts fails on a
+ * pool opened anywhere else.
  */
-import type pg from 'pg'
+import pg from 'pg'
+import PgBoss from 'pg-boss'
 import type { AppConfig } from '../config'
 import { dataSource } from '../data-source'
 
@@ -39,6 +43,26 @@ const otherPools = new Set<pg.Pool>()
 export function registerPool(pool: pg.Pool): () => void {
   otherPools.add(pool)
   return () => otherPools.delete(pool)
+}
+
+/** The session store's pool, registered so that its wait timeouts also read as "busy". */
+export function openSessionPool(cfg: AppConfig): { pool: pg.Pool; close: () => Promise<void> } {
+  const pool = new pg.Pool({ connectionString: cfg.db.url, max: cfg.db.sessionPoolMax, connectionTimeoutMillis: cfg.db.poolWaitMs })
+  // A dropped connection must not crash the process; the next query reconnects.
+  pool.on('error', () => undefined)
+  const unregister = registerPool(pool)
+  return {
+    pool,
+    close: () => {
+      unregister()
+      return pool.end()
+    },
+  }
+}
+
+/** The job queue (pg-boss), which keeps its own pool of at most JOBS_POOL_MAX connections. */
+export function openJobQueue(cfg: AppConfig): PgBoss {
+  return new PgBoss({ connectionString: cfg.db.url, max: cfg.db.jobsPoolMax })
 }
 
 function isFull(pool: pg.Pool): boolean {

@@ -1,17 +1,13 @@
 /** express-session in PostgreSQL, so sessions survive restarts and work across app processes. */
 import connectPgSimple from 'connect-pg-simple'
 import session from 'express-session'
-import pg from 'pg'
 import type { AppConfig } from '../config'
 import { hotCache } from './hot-cache'
-import { registerPool } from './pools'
+import { openSessionPool } from './pools'
 
 export function createSessionMiddleware(cfg: AppConfig) {
   const PgStore = connectPgSimple(session)
-  const pool = new pg.Pool({ connectionString: cfg.db.url, max: cfg.db.sessionPoolMax, connectionTimeoutMillis: cfg.db.poolWaitMs })
-  // A dropped connection must not crash the process; the next query reconnects.
-  pool.on('error', () => undefined)
-  const unregister = registerPool(pool)
+  const { pool, close: closePool } = openSessionPool(cfg)
   const store = new PgStore({ pool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: 60 * 15, disableTouch: true })
   store.on?.('error', () => undefined)
   cacheSessions(store)
@@ -26,7 +22,7 @@ export function createSessionMiddleware(cfg: AppConfig) {
     proxy: cfg.trustProxy > 0,
     cookie: { httpOnly: true, sameSite: 'lax', secure: cfg.https, maxAge: 1000 * 60 * 60 * 24 * 14 },
   })
-  return { middleware, close: () => { (store as unknown as { close?: () => void }).close?.(); unregister(); return pool.end() } }
+  return { middleware, close: () => { (store as unknown as { close?: () => void }).close?.(); return closePool() } }
 }
 
 type Callback = (err?: unknown, value?: unknown) => void

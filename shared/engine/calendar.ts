@@ -1,8 +1,16 @@
-/** Calendar arithmetic on ISO days ("YYYY-MM-DD") counted in UTC, so no time zone or daylight-saving shift moves a date. */
-import type { TestInterval } from './regimes'
+/**
+ * Calendar arithmetic on ISO days ("YYYY-MM-DD"), counted in UTC so that no time zone or
+ * daylight-saving shift moves a date. Pure; used by the test calendar and the pack forecast.
+ */
 
 /** A calendar day, "YYYY-MM-DD". */
 export type IsoDate = string
+
+/** A test interval: calendar months, or days. */
+export interface TestInterval {
+  unit: 'month' | 'day'
+  count: number
+}
 
 const ISO_DATE = /^(\d{4})-(\d{2})-(\d{2})$/
 const DAY_MS = 86_400_000
@@ -67,4 +75,3 @@ export function addInterval(date: IsoDate, interval: TestInterval): IsoDate {
 export function daysBetween(from: IsoDate, to: IsoDate): number {
   return Math.round((dayMs(to) - dayMs(from)) / DAY_MS)
 }
-

@@ -22,14 +22,15 @@
 import { chemistryServiceLifeYears } from './battery-models'
 import { getChemistry, type ChemistryId } from './chemistries'
 import { REGIME_LABELS } from '../labels'
-import { addDays, addInterval, addMonthsClamped, daysBetween, daysInMonth, isIsoDate, isLeapYear, parseIsoDate, type IsoDate } from './calendar'
-import { REGIME_IDS, REGIME_PROFILES, shortTestMinimumS, type RegimeId, type RegimeProfile, type RoutineTestKind, type TestInterval, type TestWindow } from './regimes'
+import { REGIME_IDS, REGIME_PROFILES, shortTestMinimumS, type RegimeId, type RegimeProfile, type RoutineTestKind, type TestWindow } from './regimes'
 import type { Reference } from './types'
+import { addDays, addInterval, addMonthsClamped, daysBetween, parseIsoDate, type IsoDate, type TestInterval } from './calendar'
+
+// The calendar arithmetic lives in ./calendar; these names stay importable from here.
+export { addDays, addInterval, addMonthsClamped, daysBetween, daysInMonth, isIsoDate, isLeapYear, parseIsoDate, type IsoDate, type TestInterval } from './calendar'
 
 export type TestRegime = RegimeId
 export type TestKind = RoutineTestKind
-export type { TestInterval }
-export type { IsoDate }
 
 /** The calendar's view of a regime profile (regimes.ts holds the full profile with its sources). */
 export interface RegimeRules {
@@ -58,8 +59,6 @@ function rulesOf(p: RegimeProfile): RegimeRules {
 }
 
 export const REGIMES: Readonly<Record<TestRegime, RegimeRules>> = Object.fromEntries(REGIME_IDS.map((id) => [id, rulesOf(REGIME_PROFILES[id])])) as Record<TestRegime, RegimeRules>
-
-export { addDays, addInterval, addMonthsClamped, daysBetween, daysInMonth, isIsoDate, isLeapYear, parseIsoDate }
 
 const laterOf = (a: IsoDate, b: IsoDate) => (a >= b ? a : b)
 const earlierOf = (a: IsoDate, b: IsoDate) => (a <= b ? a : b)

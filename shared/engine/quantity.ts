@@ -64,6 +64,19 @@ export const DIMENSIONS: Record<Dimension, DimensionSpec> = {
 export type ParseResult = { ok: true; value: number } | { ok: false; reason: string }
 
 /**
+ * A converted value without the noise of binary floating point: 104 °F is 40 °C, not
+ * 40.00000000000016 °C, so a limit at 40 °C is judged on the value and no text shows the tail.
+ * Twelve significant digits are far beyond any reading; a result that is only noise next to the
+ * terms it came from (32 °F → 0 °C) is zero.
+ */
+export function withoutConversionNoise(value: number, ...terms: number[]): number {
+  if (!Number.isFinite(value)) return value
+  const magnitude = Math.max(Math.abs(value), ...terms.map(Math.abs))
+  if (Math.abs(value) <= magnitude * 1e-12) return 0
+  return Number(value.toPrecision(12))
+}
+
+/**
  * The unit symbols people type most, per dimension, with their linear conversion to the base unit
  * (value · scale + offset) taken from mathjs itself when this module loads. "120 mA" then costs a
  * regular expression and a lookup instead of a full mathjs parse; anything else still goes to mathjs.
@@ -134,7 +147,8 @@ export function parseQuantity(input: unknown, dimension: Dimension): ParseResult
   const simple = SIMPLE_QUANTITY.exec(text)
   const fast = simple ? FAST_UNITS.get(`${dimension}|${simple[2]}`) : undefined
   if (simple && fast) {
-    const value = Number(simple[1]) * fast.scale + fast.offset
+    const scaled = Number(simple[1]) * fast.scale
+    const value = withoutConversionNoise(scaled + fast.offset, scaled, fast.offset)
     return Number.isFinite(value) ? { ok: true, value } : { ok: false, reason: 'must be a finite number' }
   }
   let unit: Unit
@@ -151,12 +165,13 @@ export function parseQuantity(input: unknown, dimension: Dimension): ParseResult
   }
   const value = unit.toNumber(spec.base)
   if (!Number.isFinite(value)) return { ok: false, reason: 'must be a finite number' }
-  return { ok: true, value }
+  return { ok: true, value: withoutConversionNoise(value, (unit as unknown as { value: number }).value) }
 }
 
 /** Convert a number between two units with mathjs (used at the edges and as a test reference). */
 export function convert(value: number, from: string, to: string): number {
-  return (math.unit(value, from) as Unit).toNumber(to)
+  if (from === to) return value
+  return withoutConversionNoise((math.unit(value, from) as Unit).toNumber(to), value)
 }
 
 /** Format a base-unit number for display, e.g. formatQuantity(0.12, 'A', 'mA') → "120 mA". */

@@ -9,6 +9,7 @@
  * A profile's `version` changes whenever any of its rules change, so a site's regime history
  * records which rules applied from which day.
  */
+import type { TestInterval } from './calendar'
 import type { Reference } from './types'
 
 export const REGIME_IDS = ['en50172', 'nfpa101', 'ca-nfc', 'asnzs2293'] as const
@@ -16,10 +17,7 @@ export type RegimeId = (typeof REGIME_IDS)[number]
 /** The two kinds of routine test the log book stores: the short (functional) test and the long (discharge) test. */
 export type RoutineTestKind = 'functional' | 'duration'
 
-export interface TestInterval {
-  unit: 'month' | 'day'
-  count: number
-}
+export type { TestInterval }
 
 /**
  * The days after the last test in which the next one counts as on time: not before `earliestDays`

@@ -17,7 +17,7 @@ import { replaceTool } from './replace'
 const asTool = <S extends z.ZodTypeAny, R extends ToolResultBase>(tool: EngineTool<S, R>): EngineTool => tool as unknown as EngineTool
 
 // Each tool module registers itself on a line below.
-export const tools: Record<string, EngineTool> = {
+export const tools = {
   size: asTool(sizeTool),
   charge: asTool(chargeTool),
   compare: asTool(compareTool),
@@ -26,6 +26,14 @@ export const tools: Record<string, EngineTool> = {
   discharge: asTool(dischargeTool),
   spacing: asTool(spacingTool),
   replace: asTool(replaceTool),
-}
+} satisfies Record<string, EngineTool>
 
+/** The name of an engine tool: "size", "charge", … (a typo is a type error). */
 export type ToolName = keyof typeof tools
+
+export const TOOL_NAMES = Object.keys(tools) as ToolName[]
+
+/** True for the name of a tool (own keys only, so "constructor" is no tool). */
+export function isToolName(name: string): name is ToolName {
+  return Object.prototype.hasOwnProperty.call(tools, name)
+}

@@ -6,12 +6,23 @@
  */
 import { unitLabel } from '../labels'
 
+export type PaperSize = 'a4' | 'letter'
+
 export interface FormatPrefs {
   /** BCP 47 tag such as "en-GB", "de-DE", "en-US". */
   locale: string
   /** IANA zone for times of day; dates of the calendar (YYYY-MM-DD) never shift. */
   timeZone: string
+  /** Paper a document is laid out on; A4 unless told. */
+  paper?: PaperSize
 }
+
+/** Letter where it is the usual paper (the United States, Canada, Mexico and a few others), A4 elsewhere. */
+export function paperForLocale(locale: string): PaperSize {
+  const region = /^[a-z]{2,3}(?:-[A-Za-z]{4})?-([A-Z]{2})\b/.exec(locale)?.[1]
+  return region && LETTER_REGIONS.has(region) ? 'letter' : 'a4'
+}
+const LETTER_REGIONS = new Set(['US', 'CA', 'MX', 'PH', 'CL', 'CO', 'VE', 'GT', 'PR'])
 
 export const DEFAULT_PREFS: FormatPrefs = { locale: 'en-GB', timeZone: 'UTC' }
 
@@ -132,16 +143,26 @@ export function formatPercent(fraction: number, prefs: FormatPrefs = DEFAULT_PRE
   return formatNumber(fraction * 100, { digits, unit: '%' }, prefs)
 }
 
-/** Hours as people say them: "3 h", "1 h 30 min", "45 min". */
+/**
+ * A duration as h:mm ("3:00 h", "1:30 h", "0:45 h"), to the minute: the way a stopwatch or a
+ * test record writes it, never a decimal hour such as 3.4699999999999998 h. Under a minute it is
+ * written in seconds ("30 s"), so a short functional test does not read as "0:01 h".
+ */
 export function formatHours(hours: number, prefs: FormatPrefs = DEFAULT_PREFS): string {
   if (!Number.isFinite(hours)) return '—'
-  const totalMinutes = Math.round(hours * 60)
-  const h = Math.floor(Math.abs(totalMinutes) / 60)
-  const m = Math.abs(totalMinutes) % 60
-  const sign = totalMinutes < 0 ? '−' : ''
-  if (h === 0) return `${sign}${m} min`
-  if (m === 0) return `${sign}${formatNumber(h, { integer: true }, prefs)} h`
-  return `${sign}${formatNumber(h, { integer: true }, prefs)} h ${m} min`
+  return formatDuration(hours * 3600, prefs)
+}
+
+/** Seconds written as h:mm (see formatHours); "—" for none. */
+export function formatDuration(seconds: number | null | undefined, prefs: FormatPrefs = DEFAULT_PREFS): string {
+  if (typeof seconds !== 'number' || !Number.isFinite(seconds)) return '—'
+  const sign = seconds < 0 ? '−' : ''
+  const abs = Math.abs(seconds)
+  if (Math.round(abs) < 60) return `${sign}${formatNumber(Math.round(abs), { integer: true }, prefs)} s`
+  const totalMinutes = Math.round(abs / 60)
+  const h = Math.floor(totalMinutes / 60)
+  const m = totalMinutes % 60
+  return `${sign}${formatNumber(h, { integer: true }, prefs)}:${String(m).padStart(2, '0')} h`
 }
 
 /** "1 year", "2 years", "0.5 years" — the noun agrees with the number as written. */

@@ -104,6 +104,13 @@ export const SHEET_STATUS_LABELS = {
   superseded: 'Superseded',
 } as const
 
+/** Whether a read-only link still opens. */
+export const SHARE_STATE_LABELS = {
+  active: 'Active',
+  expired: 'Expired',
+  revoked: 'Revoked',
+} as const
+
 /** When a luminaire's next test falls. */
 export const DUE_STATE_LABELS = {
   overdue: 'Overdue',
@@ -255,6 +262,7 @@ export const UNIT_LABELS: Record<string, string> = {
   mohm: 'mΩ',
   uA: 'µA',
   days: 'days',
+  'in^3': 'in³',
 }
 
 /** Every enumeration's map by name; the no-codes checks read this list. */
@@ -269,6 +277,7 @@ export const ENUMERATIONS = {
   role: ROLE_NAMES,
   testKind: TEST_KIND_LABELS,
   sheetStatus: SHEET_STATUS_LABELS,
+  shareState: SHARE_STATE_LABELS,
   dueState: DUE_STATE_LABELS,
   testState: TEST_STATE_LABELS,
   dueReason: DUE_REASON_LABELS,

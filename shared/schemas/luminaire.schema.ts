@@ -50,6 +50,12 @@ export const LuminaireSchema = z.object({
   specSheetId: referenceId('specSheet', 'is not a specification sheet id').nullable().default(null),
   /** Optional link to a luminaire type. */
   luminaireTypeId: referenceId('luminaireType', 'is not a luminaire type id').nullable().default(null),
+  /** The key an outside schedule knows it by (unique on its site): importing the schedule again updates this luminaire. */
+  externalId: z.string().trim().min(1, 'must not be empty (send null for none)').max(80, 'must be at most 80 characters').nullable().default(null),
+  /** The last functional test done before this register kept its log book, e.g. from the previous contractor's records. */
+  lastFunctionalTestOn: IsoDateSchema.nullable().default(null),
+  /** The last full-duration test done before this register kept its log book. */
+  lastDurationTestOn: IsoDateSchema.nullable().default(null),
 })
 export type LuminaireInput = z.input<typeof LuminaireSchema>
 export type Luminaire = z.output<typeof LuminaireSchema>
@@ -61,7 +67,10 @@ export const PackReplacementSchema = PackSchema.partial({ chemistry: true, cells
 })
 
 /** Columns of an imported luminaire schedule (CSV header names). */
-export const IMPORT_COLUMNS = ['tag', 'area', 'location', 'type', 'purpose', 'mode', 'rated_duration_h', 'chemistry', 'cells', 'capacity_ah', 'pack_fitted_on'] as const
+export const IMPORT_COLUMNS = [
+  'tag', 'area', 'location', 'type', 'purpose', 'mode', 'rated_duration_h', 'chemistry', 'cells', 'capacity_ah', 'pack_fitted_on',
+  'external_id', 'last_functional_test_on', 'last_duration_test_on',
+] as const
 export const REQUIRED_IMPORT_COLUMNS = ['tag', 'purpose', 'mode', 'rated_duration_h', 'chemistry', 'cells', 'capacity_ah', 'pack_fitted_on'] as const
 
 /** One CSV row, cells as text, checked column by column (the key is the CSV column). */
@@ -77,6 +86,11 @@ export const ImportRowSchema = z.object({
   cells: PackSchema.shape.cellsInSeries,
   capacity_ah: PackSchema.shape.capacityAh,
   pack_fitted_on: IsoDateSchema,
+  /** Matches the luminaire on a second import before the tag does (left empty: matched by tag). */
+  external_id: z.string().trim().max(80, 'must be at most 80 characters').optional(),
+  /** Left empty: a luminaire already in the register keeps the date it has. */
+  last_functional_test_on: IsoDateSchema.optional(),
+  last_duration_test_on: IsoDateSchema.optional(),
 })
 export type ImportRow = z.output<typeof ImportRowSchema>
 

@@ -125,14 +125,19 @@ export function sheetInputRows(inputs: Record<string, unknown>): Array<{ path: s
   const rank = (path: string) => (order.includes(path) ? order.indexOf(path) : order.length)
   return flattenInputs(inputs)
     .sort((a, b) => rank(a.path) - rank(b.path))
-    .map(({ path, value }) => {
-      const words = ENUMERATED_INPUTS[path]
-      const number = Number(value)
-      const shown = words
-        ? labelOf(words, value)
-        : FRACTION_INPUTS.has(path) && value.trim() !== '' && Number.isFinite(number)
-          ? `${Number((number * 100).toPrecision(3))} %`
-          : tidyTypedValue(value)
-      return { path, label: PACK_INPUT_LABELS[path] ?? labelOf({}, path), value: shown }
-    })
+    .map(({ path, value }) => ({ path, label: inputLabel(path), value: inputValueText(path, value) }))
+}
+
+/** The words for an input's dotted path ("ambientMax" → "Highest ambient"). */
+export function inputLabel(path: string): string {
+  return PACK_INPUT_LABELS[path] ?? labelOf({}, path)
+}
+
+/** One input's value as people read it: words for codes, usual unit symbols, fractions as percentages. */
+export function inputValueText(path: string, value: string): string {
+  const words = ENUMERATED_INPUTS[path]
+  const number = Number(value)
+  if (words) return labelOf(words, value)
+  if (FRACTION_INPUTS.has(path) && value.trim() !== '' && Number.isFinite(number)) return `${Number((number * 100).toPrecision(3))} %`
+  return tidyTypedValue(value)
 }

@@ -51,6 +51,21 @@ export const RegisterSettingsPatchSchema = z
       .min(1, 'must be at least 1 day')
       .max(365, 'must be at most 365 days')
       .optional(),
+    /** The daily reminder lists tests falling due within this many days. */
+    reminderDaysAhead: z
+      .number({ invalid_type_error: 'must be a whole number of days' })
+      .int('must be a whole number of days')
+      .min(1, 'must be at least 1 day')
+      .max(90, 'must be at most 90 days')
+      .optional(),
+    /** Whether each site's responsible person gets the reminder. */
+    remindSiteContact: z.boolean({ invalid_type_error: 'must be true or false' }).optional(),
+    /** Members with these roles get the reminder (owners, so the person answerable sees it). */
+    remindRoles: z
+      .array(z.enum(['owner', 'designer', 'technician', 'viewer'], { errorMap: () => ({ message: "must be 'owner', 'designer', 'technician' or 'viewer'" }) }))
+      .max(4)
+      .transform((roles) => [...new Set(roles)])
+      .optional(),
   })
-  .strict('give only repairWindowDays')
+  .strict('give only repairWindowDays, reminderDaysAhead, remindSiteContact or remindRoles')
   .refine((v) => Object.keys(v).length > 0, 'give at least one setting to change')

@@ -19,6 +19,8 @@ export type MeResponse = Answer<typeof MeAnswer>
 type Message = Answer<typeof MessageSchema>
 
 export const fetchMe = () => request<MeResponse>('/auth/me', { quiet401: true })
+/** The session on load: 200 with no one when signed out, so a public page logs no failed request. */
+export const fetchSession = () => request<{ me: MeResponse | null }>('/auth/session')
 export const signIn = (body: SignIn) => http.post<MeResponse>('/auth/sign-in', body, { quiet401: true })
 /** With an invitation: signed in at once (the user and workspace). Without: a message to confirm the e-mail address first. */
 export const signUp = (body: SignUp) => http.post<MeResponse | { message: string }>('/auth/sign-up', body)

@@ -1,4 +1,4 @@
-import type { ApiTokenAnswer, ApiTokenListAnswer, NewApiTokenAnswer } from '@shared/schemas/answers/accounts'
+import type { ApiTokenAnswer, ApiTokenListAnswer, MemberTokenListAnswer, NewApiTokenAnswer } from '@shared/schemas/answers/accounts'
 import type { Answer } from '@shared/schemas/answers/common'
 import type { Role } from '@shared/schemas/roles'
 import { http } from './http'
@@ -9,10 +9,6 @@ export const createToken = (name: string, role: Role) => http.post<Answer<typeof
 export const revokeToken = (id: string) => http.del<void>(`/tokens/${id}`)
 
 /** A member's token as its workspace's owners see it (never the secret). */
-export interface MemberTokenInfo extends ApiTokenInfo {
-  userId: string
-  userName: string
-  userEmail: string
-}
-export const fetchMemberTokens = () => http.get<{ tokens: MemberTokenInfo[] }>('/workspace/tokens')
+export type MemberTokenInfo = Answer<typeof MemberTokenListAnswer>['tokens'][number]
+export const fetchMemberTokens = () => http.get<Answer<typeof MemberTokenListAnswer>>('/workspace/tokens')
 export const revokeMemberToken = (id: string) => http.del<void>(`/workspace/tokens/${id}`)

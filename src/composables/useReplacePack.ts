@@ -1,7 +1,8 @@
 /** The Replace a pack form: the engine's schema, the result as you type, the chosen candidate. */
 import { computed, ref, watch } from 'vue'
 import { replaceInputSchema } from '@shared/engine/replace'
-import { useEngineForm } from '@/composables/useEngineForm'
+import { useZodForm } from '@/composables/useZodForm'
+import { useUnits } from '@/composables/useUnits'
 import { recalcReplace } from '@/lib/replace-pack'
 import { withoutEmptyFields } from '@/lib/pack-recalc'
 
@@ -18,7 +19,9 @@ export const REPLACE_DEFAULTS = {
 }
 
 export function useReplacePack() {
-  const form = useEngineForm(replaceInputSchema, structuredClone(REPLACE_DEFAULTS))
+  const units = useUnits()
+  // Temperatures start in the user's units (25 °C is 77 °F); the engine reads either.
+  const form = useZodForm(replaceInputSchema, { ...structuredClone(REPLACE_DEFAULTS), ambientMin: units.text(REPLACE_DEFAULTS.ambientMin), ambientMax: units.text(REPLACE_DEFAULTS.ambientMax) } as never, { keepAsTyped: true })
   const values = computed(() => withoutEmptyFields(form.values))
   const calc = computed(() => recalcReplace(values.value))
   const result = computed(() => calc.value.result)

@@ -24,9 +24,6 @@ export interface RoutePointRow {
   name: string
 }
 
-// Six figures, so a default converted to feet and back stays the same number of metres.
-const round = (v: number) => Number(v.toPrecision(6))
-
 export function useSpacingForm() {
   const route = useRoute()
   const units = useUnits()
@@ -64,10 +61,10 @@ export function useSpacingForm() {
     const fromQuery = typeof route.query.type === 'string' ? `type:${route.query.type}` : typeof route.query.file === 'string' ? `file:${route.query.file}` : null
     const firstType = types.value.find((x) => x.photometricFileId)
     source.value = fromQuery ?? (firstType ? `type:${firstType.id}` : files.value[0] ? `file:${files.value[0].id}` : null)
-    // Lengths shown in the user's units from the start.
-    form.mountingHeight = round(units.toDisplay('length', 2.5))
-    form.routeWidth = round(units.toDisplay('length', 2))
-    form.routeLength = round(units.toDisplay('length', 30))
+    // Lengths shown in the user's units from the start, as round numbers (2.5 m is 8 ft, not 8.2021 ft).
+    form.mountingHeight = units.roundDefault('length', 2.5)
+    form.routeWidth = units.roundDefault('length', 2)
+    form.routeLength = units.roundDefault('length', 30)
   })
 
   const chosenType = computed(() => types.value.find((x) => `type:${x.id}` === source.value) ?? null)

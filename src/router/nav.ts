@@ -45,6 +45,7 @@ export const NAV: NavGroup[] = [
     label: 'Upkeep',
     items: [
       { route: 'sites', label: 'Sites', role: 'viewer' },
+      { route: 'portfolio', label: 'Portfolio', role: 'viewer' },
       { route: 'rounds', label: 'Test rounds', role: 'technician' },
     ],
   },

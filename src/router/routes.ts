@@ -28,6 +28,7 @@ export const routes: RouteRecordRaw[] = [
   { path: '/home', name: 'home', component: () => import('@/views/HomeView.vue'), meta: { role: 'viewer', title: 'Home' } },
   { path: '/team', name: 'team', component: () => import('@/views/TeamView.vue'), meta: { role: 'viewer', title: 'Team' } },
   { path: '/sites', name: 'sites', component: () => import('@/views/SitesView.vue'), meta: { role: 'viewer', title: 'Sites' } },
+  { path: '/portfolio', name: 'portfolio', component: () => import('@/views/PortfolioView.vue'), meta: { role: 'viewer', title: 'Portfolio' } },
   { path: '/rounds', name: 'rounds', component: () => import('@/views/SitesView.vue'), props: { rounds: true }, meta: { role: 'technician', title: 'Test rounds' } },
   { path: '/sites/:id', name: 'site', component: () => import('@/views/SiteView.vue'), meta: { role: 'viewer', title: 'Site' } },
   { path: '/sites/:id/round', name: 'round', component: () => import('@/views/RoundView.vue'), meta: { role: 'technician', title: 'Test round' } },

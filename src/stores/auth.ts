@@ -30,7 +30,7 @@ export const useAuthStore = defineStore('auth', () => {
   async function load(force = false) {
     if (loaded.value && !force) return
     try {
-      apply(await api.fetchMe())
+      apply((await api.fetchSession()).me)
     } catch (err) {
       if (!(err instanceof ApiError) || err.status !== 401) throw err
       apply(null)

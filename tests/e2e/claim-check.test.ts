@@ -36,9 +36,21 @@ describe('claim check', () => {
       const { page } = b
       await signInThroughForm(page, app.url, team.users.technician.email, TEST_PASSWORD)
       await page.goto(`${app.url}/claim-check`)
+      // It opens empty, with examples only as placeholders, and says in words what it still needs.
+      await page.locator('[data-test="incomplete"]').waitFor()
+      expect(await page.locator('#f-measuredPower').inputValue()).toBe('')
+      expect(await page.locator('#f-measuredPower').getAttribute('placeholder')).toMatch(/e\.g\. 2\.6 W/)
+      expect(await page.locator('[data-test="incomplete"]').textContent()).toMatch(/To see the audit, enter .*the measured power/)
+      expect(await page.locator('[data-test="incomplete"]').textContent()).not.toMatch(/marked in red/)
+      // The example fills it; clearing the readings keeps the tariff and the currency as typed.
+      await page.locator('[data-test="use-example"]').click()
       await figure(page, 'measuredPowerW').waitFor()
+      await retype(page, 'tariffPerKWh', '0.31')
       await page.locator('[data-test="clear-readings"]').click()
       await page.locator('[data-test="incomplete"]').waitFor()
+      expect(await page.locator('#f-measuredPower').inputValue()).toBe('')
+      expect(await page.locator('#f-tariffPerKWh').inputValue()).toBe('0.31')
+      expect(await page.locator('#f-currency').inputValue()).toBe('EUR')
 
       for (const name of ['claimedPower', 'measuredPower', 'measuredCurrent', 'ledVoltageMains', 'ledCurrentMains', 'ledVoltageBattery', 'ledCurrentBattery', 'batteryVoltage', 'batteryChargeCurrent'] as const) {
         await retype(page, name, AUDIT_READINGS[name])

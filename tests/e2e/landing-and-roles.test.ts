@@ -32,6 +32,24 @@ describe('landing page', () => {
       await b.close()
     }
   })
+
+  it('logs no console error for a signed-out visitor (the session check on load is not a failed request)', async () => {
+    const b = await newBrowser()
+    const errors: string[] = []
+    b.page.on('console', (m) => {
+      if (m.type() === 'error') errors.push(`${m.text()} @ ${m.location().url}`)
+    })
+    try {
+      for (const path of ['/', '/sign-in', '/sign-up', '/forgot-password']) {
+        await b.page.goto(`${app.url}${path}`)
+        await b.page.locator('h1, .n-card-header').first().waitFor()
+        await b.page.waitForLoadState('networkidle')
+      }
+      expect(errors).toEqual([])
+    } finally {
+      await b.close()
+    }
+  })
 })
 
 describe('roles in the browser', () => {

@@ -153,8 +153,8 @@ describe('route spacing: photometry to a specification sheet', () => {
       await page.locator('#sp-height').blur()
       await page.locator('[data-test="sp-calculate"]').click()
       await page.locator('[data-test="sp-routeAverage"]').waitFor()
-      // The engine's answer for the same route in SI: 100 ft = 30.48 m, 10 ft = 3.048 m, the 2 m default width.
-      const expected = computeSpacing(spacingInput.parse({ photometry: lm63, mountingHeight: 3.048, emergencyOutputFactor: 0.5, maintenanceFactor: 0.8, criteria: 'nfpa101', routeWidth: 2, routeLength: 30.48, endOfDurationFactor: 1 }))
+      // The engine's answer for the same route in SI: 100 ft = 30.48 m, 10 ft = 3.048 m, the default width of 6.5 ft = 1.9812 m.
+      const expected = computeSpacing(spacingInput.parse({ photometry: lm63, mountingHeight: 3.048, emergencyOutputFactor: 0.5, maintenanceFactor: 0.8, criteria: 'nfpa101', routeWidth: 1.9812, routeLength: 30.48, endOfDurationFactor: 1 }))
       const layout = expected.layout!
       expect(await page.locator('[data-test="sp-luminaires"]').textContent()).toBe(String(layout.count))
       expect(await page.locator('[data-test="sp-layoutSpacing"]').textContent()).toBe(formatDisplay('length', 'us', layout.spacingM as number))
@@ -165,6 +165,37 @@ describe('route spacing: photometry to a specification sheet', () => {
       expect(await page.locator('[data-test="sp-endAverage"]').textContent()).toMatch(/ fc$/)
       expect(await page.locator('[data-test="sp-requiredAverage"]').textContent()).toBe(formatDisplay('illuminance', 'us', 10.8))
       await screenshot(page, 'route-spacing-nfpa-us')
+    } finally {
+      await b.close()
+    }
+  })
+
+  it('marks an exit door and a call point, and shows which luminaire serves each, within 2 m', async () => {
+    const b = await newBrowser()
+    try {
+      const { page } = b
+      await signInThroughForm(page, app.url, team.users.designer.email, TEST_PASSWORD)
+      await page.goto(`${app.url}/route-spacing`)
+      await expect.poll(() => page.locator('[data-test="sp-source"]').textContent(), { timeout: 30_000 }).toContain(typeName)
+      // The checklist reminds of the usual points, none looked at yet.
+      await page.locator('[data-test="sp-checklist"] summary').click()
+      expect(await page.locator('[data-test="sp-checklist"] summary').textContent()).toMatch(/10 not looked at yet/)
+      await page.locator('[data-test="sp-check-exit-door"] button').click()
+      await page.locator('[data-test="sp-point-at-0"] input').fill('30')
+      await page.locator('[data-test="sp-check-call-point"] button').click()
+      await page.locator('[data-test="sp-point-at-1"] input').fill('12')
+      await page.locator('[data-test="sp-point-at-1"] input').blur()
+      expect(await page.locator('[data-test="sp-check-exit-door"]').textContent()).toContain('1 marked')
+      await page.locator('[data-test="sp-calculate"]').click()
+      await page.locator('[data-test="sp-served"]').waitFor()
+      const served = await page.locator('[data-test="sp-served"] li').allTextContents()
+      expect(served).toHaveLength(2)
+      expect(served[0]).toMatch(/^Exit door at 30 m: luminaire \d+ at [\d.]+ m, [\d.]+ m away/)
+      expect(served[1]).toMatch(/^Fire alarm call point at 12 m: luminaire \d+/)
+      // Every distance shown is within 2 m.
+      for (const line of served) expect(Number(/, ([\d.]+) m away/.exec(line)![1])).toBeLessThanOrEqual(2)
+      expect(await page.locator('[data-test="diagram-point"]').count()).toBe(2)
+      await screenshot(page, 'route-spacing-points')
     } finally {
       await b.close()
     }

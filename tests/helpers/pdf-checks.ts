@@ -37,7 +37,7 @@ export function layoutProblems(pdf: Buffer): LayoutProblem[] {
 const CODES = tellTaleCodes()
 const escape = (s: string) => s.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')
 /** Codes that are also ordinary hyphenated English, written so in sentences. */
-const ORDINARY_WORDS = new Set(['non-maintained', 'lead-acid', 'high-risk'])
+const ORDINARY_WORDS = new Set(['non-maintained', 'lead-acid', 'high-risk', 'escape-route'])
 const CODE_PATTERN = new RegExp(`(?<![\\w-])(${CODES.filter((c) => !ORDINARY_WORDS.has(c)).map(escape).join('|')})(?![\\w-])`)
 
 /** Enumeration codes, field paths or engine unit names in the text, with the line they are in. */

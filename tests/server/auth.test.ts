@@ -66,6 +66,24 @@ describe('sign-up and sign-in', () => {
   })
 })
 
+describe('the session check a page makes on load', () => {
+  it('answers 200 with no one for a signed-out visitor, so a public page logs no failed request', async () => {
+    const res = await anonymous(built.app).get('/api/auth/session')
+    expect(res.status).toBe(200)
+    expect(res.body).toEqual({ me: null })
+  })
+
+  it('answers with the signed-in user, their workspace and role, as /api/auth/me does', async () => {
+    const team = await makeTeam('Session check team')
+    const designer = await signIn(built.app, team.users.designer.email)
+    const res = await designer.get('/api/auth/session')
+    expect(res.status).toBe(200)
+    expect(res.body.me.user.email).toBe(team.users.designer.email)
+    expect(res.body.me.role).toBe('designer')
+    expect(res.body.me.csrfToken).toBeTruthy()
+  })
+})
+
 describe('failed sign-in limit', () => {
   it('refuses the tenth wrong password in a row with 429 and when to retry; the right password works after the window', async () => {
     const team = await makeTeam()

@@ -178,7 +178,7 @@ describe('luminaire types', () => {
     expect((await technician.post('/api/luminaire-types', body)).status).toBe(403)
     const created = await designer.post('/api/luminaire-types', body)
     expect(created.status, JSON.stringify(created.body)).toBe(201)
-    expect(created.body).toMatchObject({ name: body.name, photometricFileId: file.id, photometricFileName: file.name, ratedDurationS: 10800, modes: ['maintained', 'non-maintained'], capacityAh: 1.6, emergencyPowerW: 1.6, inputPowerW: 1.2 })
+    expect(created.body).toMatchObject({ name: body.name, photometricFileId: file.id, photometricFileName: file.name, ratedDurationS: 10800, ratedDurationH: 3, modes: ['maintained', 'non-maintained'], capacityAh: 1.6, emergencyPowerW: 1.6, inputPowerW: 1.2 })
 
     const list = await viewer.get('/api/luminaire-types')
     expect(list.body.types.map((t: { id: string }) => t.id)).toContain(created.body.id)
@@ -310,7 +310,9 @@ describe('choosing a type for a route', () => {
     const sheet = res.body.sheet
     expect(sheet.status).toBe('draft')
     expect(sheet.currentRevision).toBe(1)
-    expect(sheet.inputs).toMatchObject({ chemistry: 'nicd', cellsInSeries: 4, duration: '3 h', load: { power: '1.6 W', mainsPower: '1.2 W' } })
+    // A non-maintained type: the sheet carries that mode, and no maintained-mode mains power.
+    expect(sheet.inputs).toMatchObject({ chemistry: 'nicd', cellsInSeries: 4, duration: '3 h', mode: 'non-maintained', load: { power: '1.6 W' } })
+    expect(sheet.inputs.load).not.toHaveProperty('mainsPower')
     expect(sheet.luminaire).toContain(`${res.body.selection.luminairesNeeded} luminaires`)
     expect(sheet.luminaire).toContain(t.name)
     // The sheet says where the output factor came from.
@@ -329,6 +331,11 @@ describe('choosing a type for a route', () => {
     expect(typed.status, JSON.stringify(typed.body)).toBe(201)
     expect(typed.body.sheet.luminaire).toContain("emergency output factor 0.7 (typed by the designer over the type's 0.5)")
     expect(typed.body.selection.emergencyOutputFactor).toEqual({ value: 0.7, from: 'typed', typeValue: 0.5 })
+    // A 3 h type on a 1 h route: the sheet carries the 1 h it was sized for and says so beside the rating.
+    const shorter = await designer.post('/api/route-spacing/pick', { typeId: t.id, route: { ...ROUTE_EXAMPLE, ratedDuration: '1 h' } })
+    expect(shorter.status, JSON.stringify(shorter.body)).toBe(201)
+    expect(shorter.body.sheet.inputs.duration).toBe('1 h')
+    expect(shorter.body.sheet.luminaire).toContain("rated 3 h; the pack on this sheet is sized for the route's 1 h")
     // A stale version is refused like any sheet save.
     const stale = await designer.post('/api/route-spacing/pick', { typeId: t.id, route: ROUTE_EXAMPLE, sheetId: sheet.id, version: sheet.version })
     expect(stale.status).toBe(409)

@@ -79,4 +79,9 @@ export const registerRouteExamples: Record<string, ExampleFn> = {
     // ?as=json: the same file wrapped in JSON (the plain download is checked in register.test.ts).
     return { path: `/api/sites/${site.id}/export/register.csv?as=json`, foreignPath: `/api/sites/${await siteId(other.workspaceId)}/export/register.csv` }
   },
+  // lists across sites and batches
+  'get /api/luminaires': async () => ({ path: '/api/luminaires?state=overdue,failed&limit=50' }),
+  'get /api/tests': async () => ({ path: '/api/tests?from=2025-01-01&to=2025-12-31' }),
+  'post /api/calc/size/batch': async ({ team }) => ({ path: '/api/calc/size/batch', body: { items: [{ luminaireId: await luminaireId(team.workspaceId), input: { load: { power: '2 W' } } }] } }),
+  'patch /api/luminaires': async ({ team }) => ({ path: '/api/luminaires', body: { items: [{ id: await luminaireId(team.workspaceId), changes: { location: 'Stair 3 landing' } }] } }),
 }

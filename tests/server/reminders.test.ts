@@ -14,7 +14,7 @@ beforeAll(async () => {
 afterAll(closeTestApp)
 
 describe('daily reminders', () => {
-  it('sends one mail per site and day to the responsible person and the technicians, listing the right luminaires', async () => {
+  it('sends one mail per site and day to the responsible person, the technicians and the owner (the default), listing the right luminaires', async () => {
     // A fixed day: the job takes the day as input, so the test does not depend on the clock.
     const day = '2025-06-16'
     const responsible = `keeper-${Date.now()}@example.test`
@@ -54,7 +54,7 @@ describe('daily reminders', () => {
     const mails = mailTo(responsible)
     expect(mails).toHaveLength(1)
     expect(mailTo(team.users.technician.email).filter((m) => m.subject.includes('Reminder library'))).toHaveLength(1)
-    expect(mails[0].to.sort()).toEqual([responsible, team.users.technician.email].sort())
+    expect(mails[0].to.sort()).toEqual([responsible, team.users.technician.email, team.users.owner.email].sort())
     expect(mailTo(team.users.viewer.email)).toHaveLength(0)
     const text = mails[0].text
     expect(text).toMatch(/OVR-1 \(Corridor\): functional test overdue \(was due by 2025-05-20, 27 days ago\)/)
@@ -75,7 +75,8 @@ describe('daily reminders', () => {
     const t = await makeTeam('Unreachable team')
     const site = await siteIn(t.workspaceId, { name: 'Unreachable hall', responsibleEmail: 'not a valid address@@' })
     await luminaireIn(t.workspaceId, site.id, { tag: 'U-1', packFittedOn: '2020-01-01' })
-    await dataSource.query(`DELETE FROM memberships WHERE workspace_id = $1 AND role = 'technician'`, [t.workspaceId])
+    // Only the unreachable address is left to receive it: no technicians, no owners.
+    await dataSource.query(`DELETE FROM memberships WHERE workspace_id = $1 AND role IN ('technician', 'owner')`, [t.workspaceId])
     const run = await runReminders('2025-06-16', { workspaceId: t.workspaceId })
     expect(run.sent).toEqual([])
     expect(run.failed.map((f) => f.siteId)).toEqual([site.id])

@@ -87,6 +87,7 @@ export const routeExamples: Record<string, ExampleFn> = {
   'post /api/auth/sign-in': async ({ team }) => ({ path: '/api/auth/sign-in', body: { email: team.users.viewer.email, password: 'correct-horse-lamp-42' } }),
   'post /api/auth/sign-out': async () => ({ path: '/api/auth/sign-out' }),
   'get /api/auth/me': async () => ({ path: '/api/auth/me' }),
+  'get /api/auth/session': async () => ({ path: '/api/auth/session' }),
   'patch /api/auth/me': async () => ({ path: '/api/auth/me', body: { units: 'us' } }),
   'post /api/auth/password': async () => ({ path: '/api/auth/password', body: { currentPassword: TEST_PASSWORD, newPassword: 'a changed passphrase today' } }),
   'get /api/auth/csrf': async () => ({ path: '/api/auth/csrf' }),

@@ -339,6 +339,19 @@ describe('sharing', () => {
     expect(mail.text).toContain('Please check the stair cores.')
     expect(mail.text).toContain(`/s/${made.body.token}`)
   })
+
+  it("writes the link's last day in the e-mail with the month as a word, never as 2031-03-04", async () => {
+    const sheet = await issuedSheet('Mailed sheet with an expiry')
+    const made = await designer.post(`/api/sheets/${sheet.id}/shares`, { expiresAt: '2031-03-04T12:00:00.000Z' })
+    expect(made.status).toBe(201)
+    const to = uniqueEmail('client')
+    const res = await designer.post(`/api/sheets/${sheet.id}/shares/${made.body.id}/email`, { to, message: '', token: made.body.token }).set('Accept-Language', 'en-GB')
+    expect(res.status).toBe(202)
+    await expect.poll(() => mailTo(to).length).toBe(1)
+    const mail = mailTo(to)[0]
+    expect(mail.text).toContain('4 Mar 2031')
+    expect(mail.text).not.toMatch(/\d{4}-\d{2}-\d{2}/)
+  })
 })
 
 describe('the PDF', () => {

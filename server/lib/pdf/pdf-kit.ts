@@ -61,8 +61,8 @@ export type PdfSection<D> = (doc: Doc, data: D) => void
  */
 export const BANDS = { header: 34, footer: 38, gap: 14 } as const
 
-/** A new A4 document with the font subsets registered (portrait with wide margins unless told). */
-export function newDocument(info: { title: string; subject?: string }, page: { layout?: 'portrait' | 'landscape'; margin?: number } = {}): Doc {
+/** A new A4 or Letter document with the font subsets registered (A4, portrait with wide margins unless told). */
+export function newDocument(info: { title: string; subject?: string }, page: { layout?: 'portrait' | 'landscape'; margin?: number; paper?: 'a4' | 'letter' } = {}): Doc {
   const side = page.margin ?? 56
   const margins = {
     top: Math.max(page.margin ?? 56, BANDS.header + BANDS.gap),
@@ -70,7 +70,7 @@ export function newDocument(info: { title: string; subject?: string }, page: { l
     left: side,
     right: side,
   }
-  const doc = new PDFDocument({ size: 'A4', layout: page.layout ?? 'portrait', margins, bufferPages: true, info: { Title: info.title, Subject: info.subject ?? '', Creator: 'Lampwright' } })
+  const doc = new PDFDocument({ size: page.paper === 'letter' ? 'LETTER' : 'A4', layout: page.layout ?? 'portrait', margins, bufferPages: true, info: { Title: info.title, Subject: info.subject ?? '', Creator: 'Lampwright' } })
   const subsets = loadSubsets()
   for (const weight of Object.keys(subsets) as Weight[]) for (const s of subsets[weight]) doc.registerFont(fontName(weight, s.name), s.file)
   doc.font(fontName('regular', 'latin'))

@@ -20,7 +20,7 @@ import { afterAnswer } from '../../lib/after-answer'
 import { perAddress, perEmail, type Limits } from '../../lib/limits'
 import { signInGate, stillLocked } from './sign-in-gate'
 import { ensureCsrfToken, meResponse } from './me.service'
-import { CsrfAnswer, MeAnswer } from '../../../shared/schemas/answers/accounts'
+import { CsrfAnswer, MeAnswer, SessionAnswer } from '../../../shared/schemas/answers/accounts'
 import { MessageSchema } from '../../../shared/schemas/answers/common'
 
 function login(req: Request, user: User): Promise<void> {
@@ -108,6 +108,10 @@ export function authRoutes(opts: { signInWindowMs: number; limits: Limits }): Ro
         if (!req.user && !req.ctx?.viaToken) throw new UnauthorizedError()
         return meResponse(req)
       },
+    }),
+    defineRoute({
+      method: 'get', path: '/api/auth/session', response: SessionAnswer, access: 'public', summary: 'The signed-in user, or none: a page checks this on load without a failed request when signed out',
+      handler: async (_input, req) => ({ me: req.user ? await meResponse(req) : null }),
     }),
     defineRoute({
       method: 'patch', path: '/api/auth/me', response: MeAnswer, access: 'signed-in', summary: 'Change name or unit preference',

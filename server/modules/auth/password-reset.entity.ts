@@ -1,23 +1,6 @@
-import { Column, CreateDateColumn, Entity, PrimaryGeneratedColumn } from 'typeorm'
+import { Entity } from 'typeorm'
+import { SingleUseLink } from './single-use-link.entity'
 
-/** A single-use password reset. Only the token's SHA-256 is stored. */
+/** A single-use password reset link. */
 @Entity('password_resets')
-export class PasswordReset {
-  @PrimaryGeneratedColumn('uuid')
-  id!: string
-
-  @Column({ type: 'uuid', name: 'user_id' })
-  userId!: string
-
-  @Column({ type: 'varchar', length: 64, name: 'token_hash', unique: true })
-  tokenHash!: string
-
-  @Column({ type: 'timestamptz', name: 'expires_at' })
-  expiresAt!: Date
-
-  @Column({ type: 'timestamptz', name: 'used_at', nullable: true })
-  usedAt!: Date | null
-
-  @CreateDateColumn({ type: 'timestamptz', name: 'created_at' })
-  createdAt!: Date
-}
+export class PasswordReset extends SingleUseLink {}

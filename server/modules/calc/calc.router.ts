@@ -1,15 +1,14 @@
 /** POST /api/calc/:tool runs an engine tool on JSON input, exactly as the CLI does. */
 import { ToolListAnswer, ToolRunAnswer } from '../../../shared/schemas/answers/system'
 import { z } from 'zod'
-import { tools } from '../../../shared/engine/registry'
+import { isToolName, tools } from '../../../shared/engine/registry'
 import { runTool } from '../../../shared/engine/tool'
 import { ENGINE_VERSION } from '../../../shared/engine/version'
 import { CalcQuerySchema } from '../../../shared/schemas/calc.schema'
 import { AppError } from '../../errors/app-error'
 import { defineRoute, type RouteSpec } from '../../policy/access'
 
-const hasTool = (name: string) => Object.prototype.hasOwnProperty.call(tools, name)
-const ToolParams = z.object({ tool: z.string().refine(hasTool) })
+const ToolParams = z.object({ tool: z.string().refine(isToolName) })
 
 /**
  * Which input schema applies depends on the tool in the path, so the body is checked by that
@@ -29,7 +28,7 @@ export const calcRoutes: RouteSpec[] = [
     params: ToolParams, notFound: (raw) => `The engine tool "${raw.tool}"`, query: CalcQuerySchema, body: ToolInputBody,
     handler: ({ params, query, body }) => {
       const name = params.tool
-      const outcome = runTool(tools[name]!, body, { explain: query.working === 'true' })
+      const outcome = runTool(tools[name], body, { explain: query.working === 'true' })
       if (!outcome.ok) {
         throw new AppError(400, 'invalid_input', `Invalid input for ${name}: ${outcome.fields.slice(0, 3).map((f) => `${f.path} ${f.message}`).join('; ')}`, outcome.fields)
       }

@@ -38,7 +38,7 @@ export const photometryRoutes: RouteSpec[] = [
   }),
   defineRoute({
     method: 'post', path: '/api/photometry', response: PhotometryFileAnswer, access: 'designer', upload: true,
-    summary: 'Upload an IES LM-63 file (multipart field "file", or JSON { name, text }); a malformed file is refused naming the line',
+    summary: 'Upload an IES LM-63 or EULUMDAT (.ldt) file (multipart field "file", or JSON { name, text }); a malformed file is refused naming the line',
     before: [upload.single('file'), requireFile], body: PhotometryUploadSchema, status: 201,
     handler: ({ body, file }, req) => {
       const s = scope(req)

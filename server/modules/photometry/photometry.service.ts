@@ -7,6 +7,7 @@ import type { EntityManager } from 'typeorm'
 import { In, QueryFailedError } from 'typeorm'
 import { parsePhotometricFile, PHOTOMETRIC_FORMAT_NAMES } from '../../../shared/engine/photometric-file'
 import { assessType, selectTypesForRoute, type RouteNeed, type TypeCandidate } from '../../../shared/engine/route-select'
+import { MODE_LABELS } from '../../../shared/labels'
 import { CRITERIA_LABELS, type LuminaireTypeInput, type LuminaireTypePatch, type PickInput, type RouteNeedInput } from '../../../shared/schemas/photometry.schema'
 import { dataSource } from '../../data-source'
 import { BadRequestError, ConflictError, NotFoundError } from '../../errors/app-error'
@@ -148,6 +149,8 @@ function typeView(t: LuminaireType, fileNames: Map<string, string>) {
     photometricFileName: t.photometricFileId ? (fileNames.get(t.photometricFileId) ?? null) : null,
     emergencyOutputFactor: t.emergencyOutputFactor,
     ratedDurationS: t.ratedDurationS,
+    /** The same rated duration in hours, under the name and unit the register uses. */
+    ratedDurationH: t.ratedDurationS / 3600,
     modes: t.modes,
     chemistry: t.chemistry,
     cellsInSeries: t.cellsInSeries,
@@ -294,7 +297,7 @@ export async function pickIntoSheet(workspaceId: string, userId: string, input: 
   }
   const fileName = t.photometricFileId ? (await fileNamesOf(workspaceId, [t.photometricFileId])).get(t.photometricFileId) : undefined
   const description = [
-    `${t.name} (${t.modes.join(' / ')}, rated ${hoursText(t.ratedDurationS)}), emergency output factor ${a.emergencyOutputFactor.value} (${a.emergencyOutputFactor.from === 'type' ? 'taken from the type' : `typed by the designer over the type's ${a.emergencyOutputFactor.typeValue}`}).`,
+    `${t.name} (${t.modes.map((m) => MODE_LABELS[m].toLowerCase()).join(' / ')}, rated ${hoursText(t.ratedDurationS)}; the pack on this sheet is sized for the route's ${hoursText(need.ratedDurationS)}), emergency output factor ${a.emergencyOutputFactor.value} (${a.emergencyOutputFactor.from === 'type' ? 'taken from the type' : `typed by the designer over the type's ${a.emergencyOutputFactor.typeValue}`}).`,
     `Route ${fig(need.routeLengthM, 'm')} long, ${fig(need.routeWidthM, 'm')} wide, mounted at ${fig(need.mountingHeightM, 'm')}; ${CRITERIA_LABELS[need.criteria]}, maintenance factor ${need.maintenanceFactor}.`,
     a.layout
       ? `${a.layout.count} luminaires evenly spaced ${fig(a.layout.spacingM, 'm')} apart, ${fig(a.layout.endDistanceM, 'm')} from each end; over the route minimum ${fig(a.layout.minLx, 'lx')}, average ${fig(a.layout.averageLx, 'lx')}, max:min ${fig(a.layout.maxToMin, '')}.`.replace(' .', '.')
@@ -305,12 +308,16 @@ export async function pickIntoSheet(workspaceId: string, userId: string, input: 
   ]
     .filter(Boolean)
     .join('\n')
+  // The sheet carries the duration the pack was sized for (the route's) and the type's mode; the
+  // maintained-mode mains power belongs only on a luminaire that is lit from the mains.
+  const mode = t.modes.includes('maintained') ? 'maintained' : 'non-maintained'
   const inputs: Record<string, unknown> = {
     chemistry: t.chemistry,
     cellsInSeries: t.cellsInSeries,
     duration: hoursText(need.ratedDurationS),
+    mode,
     driver: 'converter',
-    load: { power: `${t.emergencyPowerW} W`, ...(t.inputPowerW > 0 ? { mainsPower: `${t.inputPowerW} W` } : {}) },
+    load: { power: `${t.emergencyPowerW} W`, ...(mode === 'maintained' && t.inputPowerW > 0 ? { mainsPower: `${t.inputPowerW} W` } : {}) },
   }
   const title = input.title?.trim() || `${t.name}: ${CRITERIA_LABELS[need.criteria]}, ${fig(need.routeLengthM, 'm')}`
   let sheet

@@ -43,8 +43,14 @@ export async function registerRows(workspaceId: string, siteId: string) {
   return { status, header, rows }
 }
 
-export async function logBookRows(workspaceId: string, siteId: string) {
-  const entries = await siteLogBook(workspaceId, siteId, 100_000)
+/** Days of the log book to include (YYYY-MM-DD, both included); either end may be open. */
+export interface LogBookPeriod {
+  from?: string
+  to?: string
+}
+
+export async function logBookRows(workspaceId: string, siteId: string, period: LogBookPeriod = {}) {
+  const entries = (await siteLogBook(workspaceId, siteId, 100_000)).filter((e) => (!period.from || e.testedOn >= period.from) && (!period.to || e.testedOn <= period.to))
   // A test recorded in error stays in the log book with its reason, so the record is complete.
   const header = ['tested_on', 'tag', 'test', 'result', 'achieved_duration_h', 'faults', 'remedial_action', 'recorded_by', 'recorded_at', 'recorded_in_error']
   const rows = entries.map((e) => [
@@ -65,13 +71,15 @@ export interface ExportResult {
 
 const slug = (s: string) => s.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '').slice(0, 60) || 'site'
 
-export async function exportFile(workspaceId: string, siteId: string, file: ExportFile, prefs: FormatPrefs = DEFAULT_PREFS): Promise<ExportResult> {
+/** `period` limits the log book files to the tests between two days (the register files ignore it). */
+export async function exportFile(workspaceId: string, siteId: string, file: ExportFile, prefs: FormatPrefs = DEFAULT_PREFS, period: LogBookPeriod = {}): Promise<ExportResult> {
   const reg = await registerRows(workspaceId, siteId)
-  const base = `${slug(reg.status.site.name)}-${file.startsWith('register') ? 'register' : 'log-book'}-${reg.status.today}`
+  const span = file.startsWith('logbook') && (period.from || period.to) ? `${period.from ?? 'start'}-to-${period.to ?? reg.status.today}` : reg.status.today
+  const base = `${slug(reg.status.site.name)}-${file.startsWith('register') ? 'register' : 'log-book'}-${span}`
   if (file === 'register.csv') return { filename: `${base}.csv`, mediaType: 'text/csv; charset=utf-8', body: Buffer.from(toCsv(reg.header, reg.rows), 'utf8') }
-  const log = await logBookRows(workspaceId, siteId)
+  const log = await logBookRows(workspaceId, siteId, period)
   if (file === 'logbook.csv') return { filename: `${base}.csv`, mediaType: 'text/csv; charset=utf-8', body: Buffer.from(toCsv(log.header, log.rows), 'utf8') }
-  const body = file === 'register.pdf' ? await registerPdf(reg, prefs) : await logBookPdf(reg.status, log.rows, prefs)
+  const body = file === 'register.pdf' ? await registerPdf(reg, prefs) : await logBookPdf(reg.status, log.rows, prefs, period)
   return { filename: `${base}.pdf`, mediaType: 'application/pdf', body }
 }
 
@@ -87,7 +95,7 @@ function dueWords(t: LuminaireStatus['due']['functional'], prefs: FormatPrefs): 
 }
 
 // Landscape with narrow margins: the register is a wide table.
-const newDoc = (title: string) => newDocument({ title }, { layout: 'landscape', margin: 36 })
+const newDoc = (title: string, prefs: FormatPrefs) => newDocument({ title }, { layout: 'landscape', margin: 36, paper: prefs.paper })
 
 function heading(doc: Doc, title: string, status: SiteStatus, prefs: FormatPrefs) {
   write(doc, title, { weight: 'semibold', size: 16 })
@@ -108,8 +116,12 @@ interface Column {
 }
 
 /** A plain table that starts a new page (with its header again) when the page is full. */
-function table(doc: Doc, columns: Column[], rows: string[][]) {
+function table(doc: Doc, given: Column[], rows: string[][]) {
   const left = doc.page.margins.left
+  // Widths are set for A4; on narrower paper (Letter) every column shrinks in proportion so the table stays on the page.
+  const room = doc.page.width - left - doc.page.margins.right
+  const total = given.reduce((sum, c) => sum + c.width, 0)
+  const columns = total > room ? given.map((c) => ({ ...c, width: (c.width * room) / total })) : given
   const size = 8.5
   const drawHeader = () => {
     const y = doc.y
@@ -144,7 +156,7 @@ function table(doc: Doc, columns: Column[], rows: string[][]) {
 async function registerPdf(reg: Awaited<ReturnType<typeof registerRows>>, prefs: FormatPrefs): Promise<Buffer> {
   const s = reg.status
   const date = (d: string | null) => formatDate(d, prefs)
-  const doc = newDoc(`Emergency lighting register — ${s.site.name}`)
+  const doc = newDoc(`Emergency lighting register — ${s.site.name}`, prefs)
   heading(doc, 'Emergency lighting register', s, prefs)
   write(doc, `${s.counts.luminaires} luminaires: ${s.counts.failed} with a failure not yet put right (${s.counts.retestOverdue} of them past the ${s.settings.repairWindowDays}-day repair window), ${s.counts.overdue} overdue, ${s.counts.dueNow} with a test due now, ${s.counts.dueSoon} due within 14 days.`)
   doc.moveDown(0.6)
@@ -180,9 +192,12 @@ async function registerPdf(reg: Awaited<ReturnType<typeof registerRows>>, prefs:
   return toBuffer(doc)
 }
 
-async function logBookPdf(status: SiteStatus, rows: Array<Array<string | number | boolean | null>>, prefs: FormatPrefs): Promise<Buffer> {
-  const doc = newDoc(`Emergency lighting log book — ${status.site.name}`)
+async function logBookPdf(status: SiteStatus, rows: Array<Array<string | number | boolean | null>>, prefs: FormatPrefs, period: LogBookPeriod = {}): Promise<Buffer> {
+  const doc = newDoc(`Emergency lighting log book — ${status.site.name}`, prefs)
   heading(doc, 'Emergency lighting log book', status, prefs)
+  if (period.from || period.to) {
+    write(doc, `Tests ${period.from ? `from ${formatDate(period.from, prefs)} ` : ''}${period.to ? `to ${formatDate(period.to, prefs)}` : 'to today'}.`)
+  }
   const columns: Column[] = [
     { title: 'Date', width: 58 }, { title: 'Tag', width: 52 }, { title: 'Test', width: 56 }, { title: 'Result', width: 36 }, { title: 'Lit for', width: 40 },
     { title: 'Faults found', width: 170 }, { title: 'Remedial action', width: 170 }, { title: 'By', width: 90 },
@@ -197,7 +212,7 @@ async function logBookPdf(status: SiteStatus, rows: Array<Array<string | number 
       typeof r[4] === 'number' ? formatHours(r[4], prefs) : '', r[9] ? `Recorded in error (${String(r[9])}). ${String(r[5] ?? '')}` : String(r[5] ?? ''), String(r[6] ?? ''), String(r[7] ?? ''),
     ]),
   )
-  if (!rows.length) write(doc, 'No tests recorded yet.')
+  if (!rows.length) write(doc, period.from || period.to ? 'No tests recorded in this period.' : 'No tests recorded yet.')
   frameSiteDocument(doc, 'Emergency lighting log book', status, prefs)
   return toBuffer(doc)
 }

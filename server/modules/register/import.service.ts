@@ -1,6 +1,8 @@
 /**
  * Bulk import of a luminaire schedule from CSV: a preview with a report per row (row, column,
- * reason), then an all-or-nothing commit in one transaction. The file is read a chunk at a time
+ * reason), then an all-or-nothing commit in one transaction. The import can run again: a row
+ * matches the luminaire with its `external_id` (else its tag) and updates it, and a row that
+ * changes nothing touches nothing, so the same schedule imported twice changes nothing. The file is read a chunk at a time
  * (papaparse), yielding to the event loop between chunks, at most two files at once per process;
  * the answer lists the first rows and problems and counts them all, so its size stays bounded. Rows are numbered as a spreadsheet
  * shows them: the header is row 1, the first luminaire row 2.
@@ -12,7 +14,18 @@ import { AppError } from '../../errors/app-error'
 import { recordAudit } from '../audit/audit.service'
 import { AreaEntity } from './area.entity'
 import { LuminaireEntity } from './luminaire.entity'
-import { findSite } from './register.service'
+import { findSite, todayIso } from './register.service'
+
+/** What a row does: add a luminaire, change the one it matches, or nothing (it already says the same). */
+export type RowAction = 'create' | 'update' | 'unchanged'
+
+/** A luminaire already on the site, as a row is compared with it. */
+interface Existing {
+  id: string
+  tag: string
+  areaName: string | null
+  values: LuminaireEntity
+}
 
 export interface ImportIssue {
   row: number
@@ -32,6 +45,10 @@ export interface ImportPreview {
   /** Luminaire rows in the file. */
   totalRows: number
   newAreas: string[]
+  /** Valid rows that add a luminaire, change one, or change nothing. */
+  creates: number
+  updates: number
+  unchanged: number
 }
 
 /** "Rated duration (h)" → "rated_duration_h": header names are forgiving about case, spaces and units in brackets. */
@@ -102,21 +119,55 @@ function streamRecords(csv: string, onRecord: (cells: string[]) => void): Promis
 }
 
 export async function previewImport(workspaceId: string, siteId: string, csv: string): Promise<ImportPreview> {
-  const { values: _values, ...preview } = await checkSchedule(workspaceId, siteId, csv)
+  const { values: _values, plan: _plan, ...preview } = await checkSchedule(workspaceId, siteId, csv)
   return preview
 }
 
 /** The preview and, when the file is clean, the values of every row (for the commit). */
 async function checkSchedule(workspaceId: string, siteId: string, csv: string) {
   await findSite(workspaceId, siteId)
-  const existingTags = new Set(
-    (await dataSource.getRepository(LuminaireEntity).find({ where: { workspaceId, siteId }, select: { tag: true } })).map((l) => l.tag.toLowerCase()),
+  const areas = await dataSource.getRepository(AreaEntity).find({ where: { workspaceId, siteId } })
+  const areaName = new Map(areas.map((a) => [a.id, a.name]))
+  const existing = (await dataSource.getRepository(LuminaireEntity).find({ where: { workspaceId, siteId } })).map(
+    (l): Existing => ({ id: l.id, tag: l.tag, areaName: l.areaId ? (areaName.get(l.areaId) ?? null) : null, values: l }),
   )
-  const existingAreas = new Set((await dataSource.getRepository(AreaEntity).find({ where: { workspaceId, siteId } })).map((a) => a.name.toLowerCase()))
-  return parseSlot(() => checkRows(csv, existingTags, existingAreas))
+  const existingAreas = new Set(areas.map((a) => a.name.toLowerCase()))
+  return parseSlot(() => checkRows(csv, existing, existingAreas, todayIso()))
 }
 
-async function checkRows(csv: string, existingTags: Set<string>, existingAreas: Set<string>): Promise<ImportPreview & { values?: ImportRow[] }> {
+/** The luminaire fields a row sets (dates and external id only when the row gives them). */
+function fieldsOf(v: ImportRow): Partial<LuminaireEntity> {
+  return {
+    tag: v.tag,
+    location: v.location,
+    typeLabel: v.type,
+    purpose: v.purpose,
+    mode: v.mode,
+    ratedDurationH: v.rated_duration_h,
+    chemistry: v.chemistry,
+    cellsInSeries: v.cells,
+    capacityAh: v.capacity_ah,
+    packFittedOn: v.pack_fitted_on,
+    ...(v.external_id ? { externalId: v.external_id } : {}),
+    ...(v.last_functional_test_on ? { lastFunctionalTestOn: v.last_functional_test_on } : {}),
+    ...(v.last_duration_test_on ? { lastDurationTestOn: v.last_duration_test_on } : {}),
+  }
+}
+
+/** { field: { from, to } } for what the row would change on the luminaire (the area by name). */
+export function rowChanges(v: ImportRow, e: Existing): Record<string, { from: unknown; to: unknown }> {
+  const out: Record<string, { from: unknown; to: unknown }> = {}
+  for (const [k, to] of Object.entries(fieldsOf(v))) {
+    const from = (e.values as unknown as Record<string, unknown>)[k] ?? null
+    if (from !== to) out[k] = { from, to }
+  }
+  if ((e.areaName ?? '').toLowerCase() !== v.area.toLowerCase()) out.area = { from: e.areaName, to: v.area || null }
+  return out
+}
+
+async function checkRows(csv: string, existing: Existing[], existingAreas: Set<string>, today: string): Promise<ImportPreview & { values?: ImportRow[]; plan?: Array<{ action: RowAction; target: Existing | null }> }> {
+  const byTag = new Map(existing.map((e) => [e.tag.toLowerCase(), e]))
+  const byExternalId = new Map(existing.flatMap((e) => (e.values.externalId ? [[e.values.externalId, e] as const] : [])))
   const errors: ImportIssue[] = []
   let errorCount = 0
   const badRows = new Set<number>()
@@ -125,7 +176,10 @@ async function checkRows(csv: string, existingTags: Set<string>, existingAreas: 
     badRows.add(issue.row)
     if (errors.length < LISTED_IMPORT_ERRORS) errors.push(issue)
   }
-  const answer = (extra: Partial<ImportPreview> = {}): ImportPreview => ({ columns: [], rows: [], errors, errorCount, validRows: 0, totalRows: 0, newAreas: [], ...extra })
+  const answer = (extra: Partial<ImportPreview> = {}): ImportPreview => ({ columns: [], rows: [], errors, errorCount, validRows: 0, totalRows: 0, newAreas: [], creates: 0, updates: 0, unchanged: 0, ...extra })
+  const plan: Array<{ action: RowAction; target: Existing | null }> = []
+  const externalIdRow = new Map<string, number>()
+  const claimed = new Map<string, number>()
 
   let header: string[] | null = null
   let rawHeader: string[] = []
@@ -174,12 +228,34 @@ async function checkRows(csv: string, existingTags: Set<string>, existingAreas: 
     }
     const v = parsed.data
     const key = v.tag.toLowerCase()
-    if (existingTags.has(key)) problem({ row, column: 'tag', reason: `"${v.tag}" is already in this site's register` })
-    else if (tagRow.has(key)) problem({ row, column: 'tag', reason: `"${v.tag}" repeats the tag of row ${tagRow.get(key)}` })
+    if (tagRow.has(key)) problem({ row, column: 'tag', reason: `"${v.tag}" repeats the tag of row ${tagRow.get(key)}` })
     tagRow.set(key, tagRow.get(key) ?? row)
+    if (v.external_id) {
+      if (externalIdRow.has(v.external_id)) problem({ row, column: 'external_id', reason: `"${v.external_id}" repeats the external id of row ${externalIdRow.get(v.external_id)}` })
+      externalIdRow.set(v.external_id, externalIdRow.get(v.external_id) ?? row)
+    }
+    for (const column of ['last_functional_test_on', 'last_duration_test_on'] as const) {
+      if (v[column] && v[column]! > today) problem({ row, column, reason: `is after today (${today}): a test not yet done cannot be carried over` })
+    }
+    // The luminaire this row stands for: its external id first, else its tag.
+    const byId = v.external_id ? byExternalId.get(v.external_id) : undefined
+    const byName = byTag.get(key)
+    const target = byId ?? (byName && (!v.external_id || !byName.values.externalId) ? byName : undefined)
+    if (!byId && byName && v.external_id && byName.values.externalId) {
+      problem({ row, column: 'tag', reason: `"${v.tag}" is already in this site's register with another external id (${byName.values.externalId})` })
+    } else if (byId && byName && byName.id !== byId.id) {
+      problem({ row, column: 'tag', reason: `"${v.tag}" is the tag of another luminaire in this site's register` })
+    }
+    if (target) {
+      if (claimed.has(target.id)) problem({ row, column: 'tag', reason: `matches the same luminaire as row ${claimed.get(target.id)}` })
+      claimed.set(target.id, claimed.get(target.id) ?? row)
+    }
     if (v.area && !existingAreas.has(v.area.toLowerCase()) && !newAreas.has(v.area.toLowerCase())) newAreas.set(v.area.toLowerCase(), v.area)
     if (rows.length < LISTED_IMPORT_ROWS) rows.push({ row, values: v })
-    if (!badRows.has(row)) values.push(v)
+    if (!badRows.has(row)) {
+      values.push(v)
+      plan.push({ action: !target ? 'create' : Object.keys(rowChanges(v, target)).length ? 'update' : 'unchanged', target: target ?? null })
+    }
   }
 
   try {
@@ -199,7 +275,12 @@ async function checkRows(csv: string, existingTags: Set<string>, existingAreas: 
     return answer({ columns: header })
   }
   // Every problem of a row is found before its values are kept, so `values` holds the valid rows only.
-  return { ...answer({ columns: header, rows, validRows: values.length, totalRows, newAreas: [...newAreas.values()] }), values }
+  const count = (a: RowAction) => plan.filter((p) => p.action === a).length
+  return {
+    ...answer({ columns: header, rows, validRows: values.length, totalRows, newAreas: [...newAreas.values()], creates: count('create'), updates: count('update'), unchanged: count('unchanged') }),
+    values,
+    plan,
+  }
 }
 
 /** Stores every row or none: any issue answers 400 with the report, and the insert runs in one transaction. */
@@ -224,22 +305,30 @@ export async function commitImport(workspaceId: string, actorId: string, siteId:
       await recordAudit({ workspaceId, actorId, action: 'area.created', entityType: 'area', entityId: area.id, data: { siteId, name, source: 'import' } }, m)
     }
     const created: string[] = []
-    for (const v of preview.values ?? []) {
+    const updated: string[] = []
+    const values = preview.values ?? []
+    for (const [i, v] of values.entries()) {
+      const { action, target } = preview.plan![i]!
+      const areaId = v.area ? (areaIds.get(v.area.toLowerCase()) ?? null) : null
+      if (action === 'unchanged') continue
+      if (action === 'update' && target) {
+        const changes = rowChanges(v, target)
+        const l = await m.getRepository(LuminaireEntity).findOneOrFail({ where: { id: target.id, workspaceId } })
+        Object.assign(l, fieldsOf(v), { areaId })
+        await m.getRepository(LuminaireEntity).save(l)
+        updated.push(l.id)
+        await recordAudit({ workspaceId, actorId, action: 'luminaire.updated', entityType: 'luminaire', entityId: l.id, data: { tag: l.tag, changes, source: 'import' } }, m)
+        continue
+      }
       const l = await m.getRepository(LuminaireEntity).save(
         m.getRepository(LuminaireEntity).create({
+          externalId: null,
+          lastFunctionalTestOn: null,
+          lastDurationTestOn: null,
+          ...fieldsOf(v),
           workspaceId,
           siteId,
-          areaId: v.area ? (areaIds.get(v.area.toLowerCase()) ?? null) : null,
-          tag: v.tag,
-          location: v.location,
-          typeLabel: v.type,
-          purpose: v.purpose,
-          mode: v.mode,
-          ratedDurationH: v.rated_duration_h,
-          chemistry: v.chemistry,
-          cellsInSeries: v.cells,
-          capacityAh: v.capacity_ah,
-          packFittedOn: v.pack_fitted_on,
+          areaId,
           specSheetId: null,
           luminaireTypeId: null,
         }),
@@ -247,8 +336,9 @@ export async function commitImport(workspaceId: string, actorId: string, siteId:
       created.push(l.id)
       await recordAudit({ workspaceId, actorId, action: 'luminaire.created', entityType: 'luminaire', entityId: l.id, data: { siteId, tag: l.tag, source: 'import' } }, m)
     }
-    await recordAudit({ workspaceId, actorId, action: 'register.imported', entityType: 'site', entityId: siteId, data: { luminaires: created.length, areas: preview.newAreas } }, m)
-    return { imported: created.length, areasCreated: preview.newAreas.length, ids: created }
+    await recordAudit({ workspaceId, actorId, action: 'register.imported', entityType: 'site', entityId: siteId, data: { luminaires: created.length, updated: updated.length, unchanged: preview.unchanged, areas: preview.newAreas } }, m)
+    // `imported` counts the luminaires added (as before re-running was possible); updated and unchanged say the rest.
+    return { imported: created.length, updated: updated.length, unchanged: preview.unchanged, areasCreated: preview.newAreas.length, ids: created, updatedIds: updated }
   }).catch((err) => {
     // Someone added the same tag or area while this import ran: the transaction is already rolled back.
     if ((err as { driverError?: { code?: string } })?.driverError?.code === '23505') throw new AppError(409, 'conflict', 'Nothing was imported: a tag or area in the file was added to the site meanwhile. Preview again.')

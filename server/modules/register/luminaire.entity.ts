@@ -66,6 +66,18 @@ export class LuminaireEntity {
   @Column({ type: 'double precision', name: 'recharge_h', nullable: true })
   rechargeH!: number | null
 
+  /** The key an outside schedule knows it by; a schedule imported again updates the luminaire with the same key. */
+  @Column({ type: 'varchar', length: 80, name: 'external_id', nullable: true })
+  externalId!: string | null
+
+  /** The last functional test done before this register kept its log book ("YYYY-MM-DD"), as a schedule carried it. */
+  @Column({ type: 'date', name: 'last_functional_test_on', nullable: true })
+  lastFunctionalTestOn!: string | null
+
+  /** The last full-duration test done before this register kept its log book ("YYYY-MM-DD"). */
+  @Column({ type: 'date', name: 'last_duration_test_on', nullable: true })
+  lastDurationTestOn!: string | null
+
   @CreateDateColumn({ type: 'timestamptz', name: 'created_at' })
   createdAt!: Date
 

@@ -13,7 +13,7 @@ import { PackPriceEntity } from './pack-price.entity'
 import { findSite, todayIso, workspaceStatuses, type LuminaireStatus } from './register.service'
 
 /** Which of the asked states a luminaire is in (failed first), or null when none. */
-function stateOf(due: LuminaireDue, wanted: readonly PortfolioState[]): PortfolioState | null {
+export function stateOf(due: LuminaireDue, wanted: readonly PortfolioState[]): PortfolioState | null {
   if (due.failed) return wanted.includes('failed') ? 'failed' : null
   if (due.state === 'overdue') return wanted.includes('overdue') ? 'overdue' : null
   // A test due now (a retest or commissioning test inside its window) is as close as due soon.

@@ -2,7 +2,7 @@
 import { AreaAnswer, ExportAnswer, ImportPreviewAnswer, ImportResultAnswer, LogBookAnswer, LogBookEntryAnswer, LuminaireAnswer, LuminaireDetailAnswer, RegisterOverviewAnswer, RegimeHistoryAnswer, RegisterSettingsAnswer, RoundSignOffAnswer, SiteAnswer, SiteStatusAnswer, TestBatchAnswer } from '../../../shared/schemas/answers/register'
 import multer from 'multer'
 import { z } from 'zod'
-import { ImportRequestSchema, LuminairePatchSchema, LuminaireSchema, PackReplacementSchema } from '../../../shared/schemas/luminaire.schema'
+import { ImportRequestSchema, IsoDateSchema, LuminairePatchSchema, LuminaireSchema, PackReplacementSchema } from '../../../shared/schemas/luminaire.schema'
 import { AreaPatchSchema, AreaSchema, RegisterSettingsPatchSchema, SitePatchSchema, SiteSchema } from '../../../shared/schemas/site.schema'
 import { RecordedInErrorSchema, RoundSignOffSchema, TestBatchSchema } from '../../../shared/schemas/test-record.schema'
 import { IdParams, Uuid } from '../../lib/parse'
@@ -20,7 +20,14 @@ const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: 2 *
 
 const DaysQuery = z.object({ days: z.coerce.number().int().min(1).max(366).default(60) })
 const SiteExportParams = z.object({ id: Uuid, file: z.enum(EXPORT_FILES) })
-const ExportQuery = z.object({ as: z.enum(['json'], { message: 'must be "json" or left out' }).optional() })
+const ExportQuery = z
+  .object({
+    as: z.enum(['json'], { message: 'must be "json" or left out' }).optional(),
+    /** The log book files only: first and last day of the tests to include. */
+    from: IsoDateSchema.optional(),
+    to: IsoDateSchema.optional(),
+  })
+  .refine((q) => !q.from || !q.to || q.from <= q.to, { path: ['to'], message: 'must not be before from' })
 
 /** The CSV of an import: the uploaded file (field "file"), else the JSON body's `csv`. */
 function csvOf(input: { file?: Express.Multer.File; body?: { csv: string } }): string {
@@ -209,19 +216,22 @@ export const registerRoutes: RouteSpec[] = [
     handler: (input, req) => previewImport(scope(req).workspaceId, input.params.id, csvOf(input)),
   }),
   defineRoute({
-    method: 'post', path: '/api/sites/:id/import', response: ImportResultAnswer, access: 'designer', summary: 'Import a luminaire schedule (CSV): every row or none',
+    method: 'post', path: '/api/sites/:id/import', response: ImportResultAnswer, access: 'designer', summary: 'Import a luminaire schedule (CSV): every row or none; runs again safely (rows match by external_id, else tag, and update)',
     upload: true, before: [upload.single('file')], params: IdParams, body: ImportRequestSchema, status: 201,
-    handler: (input, req) => {
+    handler: async (input, req, res) => {
       const s = scope(req)
-      return commitImport(s.workspaceId, s.userId, input.params.id, csvOf(input))
+      const out = await commitImport(s.workspaceId, s.userId, input.params.id, csvOf(input))
+      // 201 when the import added a luminaire; 200 when it only updated or found nothing to change.
+      if (!out.imported) res.status(200)
+      return out
     },
   }),
   defineRoute({
-    method: 'get', path: '/api/sites/:id/export/:file', response: ExportAnswer, access: 'viewer', summary: 'Download the register or log book as CSV or PDF (?as=json wraps it in JSON)',
+    method: 'get', path: '/api/sites/:id/export/:file', response: ExportAnswer, access: 'viewer', summary: 'Download the register or log book as CSV or PDF (?as=json wraps it in JSON; from/to limit the log book to those days)',
     params: SiteExportParams, query: ExportQuery,
     notFound: (raw) => ((EXPORT_FILES as readonly string[]).includes(raw.file ?? '') ? 'That record' : `The export "${raw.file}"`),
     handler: async ({ params, query }, req, res) => {
-      const out = await exportFile(scope(req).workspaceId, params.id, params.file, formatPrefsOf(req))
+      const out = await exportFile(scope(req).workspaceId, params.id, params.file, formatPrefsOf(req), { from: query.from, to: query.to })
       if (query.as === 'json') {
         const text = out.mediaType.startsWith('text/')
         return { filename: out.filename, mediaType: out.mediaType, encoding: text ? ('utf8' as const) : ('base64' as const), content: out.body.toString(text ? 'utf8' : 'base64') }

@@ -87,13 +87,29 @@ function changedFields(before: Record<string, unknown>, patch: Record<string, un
 
 // ---------------------------------------------------------------- workspace log-book settings
 
+export type ReminderRole = 'owner' | 'designer' | 'technician' | 'viewer'
+
 export interface RegisterSettings {
   repairWindowDays: number
+  /** The daily reminder lists tests falling due within this many days. */
+  reminderDaysAhead: number
+  /** Whether each site's responsible person gets the reminder. */
+  remindSiteContact: boolean
+  /** Members with these roles get it. */
+  remindRoles: ReminderRole[]
 }
+
+/** Reminders by default: 14 days ahead, to the site contact, the technicians and the owners (the person answerable). */
+export const DEFAULT_REMINDERS = { reminderDaysAhead: 14, remindSiteContact: true, remindRoles: ['owner', 'technician'] as ReminderRole[] }
 
 export async function registerSettings(workspaceId: string, m: EntityManager = dataSource.manager): Promise<RegisterSettings> {
   const row = await m.getRepository(RegisterSettingsEntity).findOne({ where: { workspaceId } })
-  return { repairWindowDays: row?.repairWindowDays ?? DEFAULT_REPAIR_WINDOW_DAYS }
+  return {
+    repairWindowDays: row?.repairWindowDays ?? DEFAULT_REPAIR_WINDOW_DAYS,
+    reminderDaysAhead: row?.reminderDaysAhead ?? DEFAULT_REMINDERS.reminderDaysAhead,
+    remindSiteContact: row?.remindSiteContact ?? DEFAULT_REMINDERS.remindSiteContact,
+    remindRoles: (row?.remindRoles as ReminderRole[] | undefined) ?? DEFAULT_REMINDERS.remindRoles,
+  }
 }
 
 export async function updateRegisterSettings(workspaceId: string, actorId: string, patch: Partial<RegisterSettings>) {
@@ -184,6 +200,9 @@ export function luminaireDto(l: LuminaireEntity, areaName: string | null = null)
     rechargeH: l.rechargeH,
     specSheetId: l.specSheetId,
     luminaireTypeId: l.luminaireTypeId,
+    externalId: l.externalId ?? null,
+    lastFunctionalTestOn: l.lastFunctionalTestOn ?? null,
+    lastDurationTestOn: l.lastDurationTestOn ?? null,
     createdAt: l.createdAt,
     updatedAt: l.updatedAt,
   }
@@ -196,6 +215,8 @@ export async function findLuminaire(workspaceId: string, id: string, m: EntityMa
   return l
 }
 
+const externalIdClash = (err: unknown) => (err as { driverError?: { constraint?: string } })?.driverError?.constraint === 'luminaires_site_external_id'
+const externalIdTaken = (id: string | null | undefined) => new AppError(409, 'conflict', `A luminaire with the external id "${id ?? ''}" is already in this site's register.`, [{ path: 'externalId', message: 'is already used on this site' }])
 const tagTaken = (tag: string) => new AppError(409, 'conflict', `A luminaire tagged "${tag}" is already in this site's register.`, [{ path: 'tag', message: 'is already used on this site' }])
 
 /** The area must lie in the luminaire's site (that every id is of this workspace is checked before the handler, server/lib/references.ts). */
@@ -221,7 +242,7 @@ export async function createLuminaire(workspaceId: string, actorId: string, site
       return luminaireDto(l, await areaNameOf(m, l.areaId))
     })
     .catch((err) => {
-      throw isUniqueViolation(err) ? tagTaken(input.tag) : err
+      throw isUniqueViolation(err) ? (externalIdClash(err) ? externalIdTaken(input.externalId) : tagTaken(input.tag)) : err
     })
 }
 
@@ -242,7 +263,7 @@ export async function updateLuminaire(workspaceId: string, actorId: string, id: 
       return luminaireDto(l, await areaNameOf(m, l.areaId))
     })
     .catch((err) => {
-      throw isUniqueViolation(err) ? tagTaken(patch.tag ?? '') : err
+      throw isUniqueViolation(err) ? (externalIdClash(err) ? externalIdTaken(patch.externalId) : tagTaken(patch.tag ?? '')) : err
     })
 }
 
@@ -299,6 +320,18 @@ async function testsOf(workspaceId: string, luminaireIds: string[], m: EntityMan
   return byLuminaire
 }
 
+/**
+ * The last tests done before this register kept the log book (carried by an imported schedule)
+ * count as passed tests on those days for the calendar, so a first import does not make every
+ * luminaire overdue; they are not log-book entries and appear in no log book.
+ */
+function testsBeforeRegister(l: Pick<LuminaireEntity, 'lastFunctionalTestOn' | 'lastDurationTestOn'>): TestEvent[] {
+  return [
+    ...(l.lastFunctionalTestOn ? [{ kind: 'functional' as const, testedOn: l.lastFunctionalTestOn, passed: true }] : []),
+    ...(l.lastDurationTestOn ? [{ kind: 'duration' as const, testedOn: l.lastDurationTestOn, passed: true }] : []),
+  ]
+}
+
 export interface LuminaireStatus extends LuminaireDto {
   due: LuminaireDue
   forecast: PackForecast
@@ -306,7 +339,7 @@ export interface LuminaireStatus extends LuminaireDto {
 
 /** Due dates and pack forecast of each luminaire, from the engine. */
 export function statusOf(site: Pick<SiteEntity, 'regime' | 'ceilingTemperatureC'>, l: LuminaireEntity, areaName: string | null, tests: TestRow[], today: string, settings: RegisterSettings): LuminaireStatus {
-  const events: TestEvent[] = tests.map((t) => ({ kind: t.kind, testedOn: t.tested_on, passed: t.passed, faults: t.faults, remedialAction: t.remedial_action }))
+  const events: TestEvent[] = [...testsBeforeRegister(l), ...tests.map((t) => ({ kind: t.kind, testedOn: t.tested_on, passed: t.passed, faults: t.faults, remedialAction: t.remedial_action }))]
   const registeredOn = l.createdAt.toISOString().slice(0, 10)
   const since = l.packFittedOn < registeredOn ? l.packFittedOn : registeredOn
   const due = luminaireDue({ regime: site.regime, since, packFittedOn: l.packFittedOn, registeredOn, tests: events }, today, { repairWindowDays: settings.repairWindowDays })

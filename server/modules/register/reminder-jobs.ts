@@ -3,9 +3,9 @@
  * once at start-up in case the server was down at the scheduled time. Several processes may run
  * this; the per-site-per-day claim in runReminders keeps every mail single.
  */
-import PgBoss from 'pg-boss'
 import { config } from '../../config'
 import { logger } from '../../lib/logger'
+import { openJobQueue } from '../../lib/pools'
 import { todayIso } from './register.service'
 import { runReminders } from './reminders.service'
 
@@ -18,7 +18,7 @@ export interface JobRunner {
 }
 
 export async function startReminderJobs(): Promise<JobRunner> {
-  const boss = new PgBoss({ connectionString: config().db.url, max: config().db.jobsPoolMax })
+  const boss = openJobQueue(config())
   boss.on('error', (err) => logger.error({ err }, 'job queue error'))
   await boss.start()
   await boss.createQueue(REMINDER_QUEUE)

@@ -1,7 +1,8 @@
 /**
- * The daily reminder: one mail per site per day to the site's responsible person and the
- * workspace's technicians, listing luminaires whose tests are overdue or fall due within 14 days
- * (and those with a failure not yet put right, with the retest's deadline). "Once" holds across processes: a row in reminder_sends
+ * The daily reminder: one mail per site per day to whom the workspace chose (by default the site's
+ * responsible person, the technicians and the owners), listing luminaires whose tests are overdue or
+ * fall due within the days ahead it set (14 by default), and those with a failure not yet put
+ * right, with the retest's deadline. "Once" holds across processes: a row in reminder_sends
  * with a unique (site_id, day) key is claimed inside a transaction before the mail goes out; a
  * second worker waits on that key and then finds it taken. If sending fails the transaction rolls
  * back and the claim is released for the next run.
@@ -11,9 +12,9 @@ import { dataSource } from '../../data-source'
 import { logger } from '../../lib/logger'
 import { composeMail, sendMail } from '../mail/mail.service'
 import { SiteEntity } from './site.entity'
-import { siteStatus, type LuminaireStatus } from './register.service'
+import { registerSettings, siteStatus, type LuminaireStatus, type ReminderRole } from './register.service'
 
-/** Tests due within this many days are in the reminder. */
+/** Tests due within this many days are in the reminder, unless the workspace sets its own. */
 export const REMINDER_WINDOW_DAYS = 14
 /** Lines listed per section before "and N more". */
 const MAX_LINES = 80
@@ -30,7 +31,7 @@ const where = (l: LuminaireStatus) => [l.areaName, l.location].filter(Boolean).j
 const testName = (kind: 'functional' | 'duration') => (kind === 'functional' ? 'functional test' : 'full-duration test')
 
 /** The luminaires a site's reminder is about, worst first. */
-export function reminderItems(luminaires: LuminaireStatus[]) {
+export function reminderItems(luminaires: LuminaireStatus[], daysAhead = REMINDER_WINDOW_DAYS) {
   const overdue: string[] = []
   const soon: string[] = []
   const failed: string[] = []
@@ -47,7 +48,7 @@ export function reminderItems(luminaires: LuminaireStatus[]) {
       const what = t.reason === 'commissioning' ? 'first full-duration test of the pack now fitted' : testName(t.kind)
       if (t.state === 'overdue') overdue.push(`${label}: ${what} overdue (was due by ${t.overdueAfter}, ${-t.daysUntilDue} days ago)`)
       else if (t.state === 'due-now') soon.push(`${label}: ${what} due now, by ${t.overdueAfter}`)
-      else if (t.state === 'due-soon') soon.push(`${label}: ${what} due ${t.nextDueOn}${t.daysUntilDue === 0 ? ' (today)' : ` (in ${t.daysUntilDue} days)`}`)
+      else if ((t.state === 'due-soon' || t.state === 'scheduled') && t.daysUntilDue <= daysAhead) soon.push(`${label}: ${what} due ${t.nextDueOn}${t.daysUntilDue === 0 ? ' (today)' : ` (in ${t.daysUntilDue} days)`}`)
       else continue
       tags.add(l.tag)
     }
@@ -57,10 +58,11 @@ export function reminderItems(luminaires: LuminaireStatus[]) {
 
 const capped = (lines: string[]) => (lines.length > MAX_LINES ? [...lines.slice(0, MAX_LINES), `… and ${lines.length - MAX_LINES} more`] : lines)
 
-async function technicianEmails(workspaceId: string): Promise<string[]> {
+async function memberEmails(workspaceId: string, roles: ReminderRole[]): Promise<string[]> {
+  if (!roles.length) return []
   const rows: Array<{ email: string }> = await dataSource.query(
-    `SELECT u.email FROM memberships m JOIN users u ON u.id = m.user_id WHERE m.workspace_id = $1 AND m.role = 'technician' ORDER BY u.email`,
-    [workspaceId],
+    `SELECT u.email FROM memberships m JOIN users u ON u.id = m.user_id WHERE m.workspace_id = $1 AND m.role = ANY($2::text[]) ORDER BY u.email`,
+    [workspaceId, roles],
   )
   return rows.map((r) => r.email)
 }
@@ -76,9 +78,10 @@ export async function runReminders(day: string, opts: ReminderOptions = {}): Pro
   const sites = await dataSource.getRepository(SiteEntity).find({ where: opts.workspaceId ? { workspaceId: opts.workspaceId } : {}, order: { createdAt: 'ASC' } })
   for (const site of sites) {
     const status = await siteStatus(site.workspaceId, site.id, day)
-    const items = reminderItems(status.luminaires)
+    const settings = await registerSettings(site.workspaceId)
+    const items = reminderItems(status.luminaires, settings.reminderDaysAhead)
     if (!items.tags.size) continue
-    const to = [...new Set([site.responsibleEmail, ...(await technicianEmails(site.workspaceId))].filter(Boolean))]
+    const to = [...new Set([settings.remindSiteContact ? site.responsibleEmail : '', ...(await memberEmails(site.workspaceId, settings.remindRoles))].filter(Boolean))]
     if (!to.length) continue
     try {
       const claimed = await dataSource.transaction(async (m) => {
@@ -91,7 +94,7 @@ export async function runReminders(day: string, opts: ReminderOptions = {}): Pro
         const paragraphs = [
           `Emergency lighting at ${site.name}: ${items.tags.size} luminaire${items.tags.size === 1 ? ' needs' : 's need'} attention (checked ${day}).`,
           ...(items.overdue.length ? ['Overdue:', ...capped(items.overdue)] : []),
-          ...(items.soon.length ? [`Due within ${REMINDER_WINDOW_DAYS} days:`, ...capped(items.soon)] : []),
+          ...(items.soon.length ? [`Due within ${settings.reminderDaysAhead} days:`, ...capped(items.soon)] : []),
           ...(items.failed.length ? ['Failed, not yet put right by a passing retest:', ...capped(items.failed)] : []),
           'Before working on a luminaire, isolate the mains; a charged pack can still deliver a high current. Local codes and a competent, licensed person decide what the installation needs.',
         ]

@@ -117,7 +117,7 @@ export async function recordTests(workspaceId: string, actorId: string, records:
   })
 }
 
-const LOG_SELECT = `SELECT t.id, t.client_id AS "clientId", t.luminaire_id AS "luminaireId", l.tag, l.site_id AS "siteId", t.kind,
+export const LOG_SELECT = `SELECT t.id, t.client_id AS "clientId", t.luminaire_id AS "luminaireId", l.tag, l.site_id AS "siteId", t.kind,
     t.tested_on::text AS "testedOn", t.passed, t.achieved_duration_h AS "achievedDurationH", t.faults, t.remedial_action AS "remedialAction",
     t.discharge_log_id AS "dischargeLogId", t.checklist, t.verdict_override_reason AS "verdictOverrideReason", t.runtime_note AS "runtimeNote", t.round_client_id AS "roundClientId",
     t.recorded_by AS "recordedBy", u.name AS "recordedByName", t.recorded_at AS "recordedAt",

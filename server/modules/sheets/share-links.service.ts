@@ -2,6 +2,7 @@
  * Read-only links to a sheet's issued revision: made, listed, revoked and e-mailed by the
  * workspace; opened by anyone holding the token until it expires or is withdrawn.
  */
+import { DEFAULT_PREFS, formatDateTime, type FormatPrefs } from '../../../shared/format'
 import { SHEET_CAUTIONS } from '../../../shared/schemas/sheet.schema'
 import { config } from '../../config'
 import { AppError, BadRequestError, ConflictError, NotFoundError } from '../../errors/app-error'
@@ -54,7 +55,7 @@ export async function revokeShare(workspaceId: string, userId: string, sheetId: 
   await recordAudit({ workspaceId, actorId: userId, action: 'sheet.share-revoked', entityType: 'spec_sheet', entityId: sheetId, data: { shareId } })
 }
 
-export async function emailShare(workspaceId: string, userId: string, sheetId: string, shareId: string, mail: { to: string; message: string; token: string }) {
+export async function emailShare(workspaceId: string, userId: string, sheetId: string, shareId: string, mail: { to: string; message: string; token: string }, prefs: FormatPrefs = DEFAULT_PREFS) {
   const { sheet, link } = await findShare(workspaceId, sheetId, shareId)
   if (!safeEqual(hashToken(mail.token), link.tokenHash)) throw new BadRequestError('That token does not belong to this share link.', [{ path: 'token', message: 'does not match this link' }])
   const state = shareState(link)
@@ -63,7 +64,7 @@ export async function emailShare(workspaceId: string, userId: string, sheetId: s
   const paragraphs = [
     `${sender} has shared the emergency-lighting specification sheet "${sheet.title}"${sheet.reference ? ` (${sheet.reference})` : ''} with you.`,
     ...(mail.message ? [`Their message: ${mail.message}`] : []),
-    `The link opens a read-only copy of the issued revision; no account is needed.${link.expiresAt ? ` It works until ${link.expiresAt.toISOString().slice(0, 10)}.` : ''}`,
+    `The link opens a read-only copy of the issued revision; no account is needed.${link.expiresAt ? ` It works until ${formatDateTime(link.expiresAt, prefs)}${prefs.timeZone === 'UTC' ? ' UTC' : ''}.` : ''}`,
   ]
   await sendMail({ to: mail.to, subject: `Specification sheet: ${sheet.title}`, ...composeMail(paragraphs, { label: 'Open the sheet', url: shareUrl(mail.token) }) }, { kind: 'share', workspaceId })
   await recordAudit({ workspaceId, actorId: userId, action: 'sheet.share-emailed', entityType: 'spec_sheet', entityId: sheetId, data: { shareId, to: mail.to } })

@@ -115,7 +115,7 @@ export const referencesSection: PdfSection = (doc, d) => {
 export const SHEET_SECTIONS: PdfSection[] = [titleSection, projectSection, packToOrderSection, inputsSection, resultsSection, chargerCheckSection, warningsSection, workingSection, cautionsSection, referencesSection]
 
 export async function buildSheetPdf(data: SheetPdfData, sections: PdfSection[] = SHEET_SECTIONS): Promise<Buffer> {
-  const doc = newDocument({ title: data.title, subject: `Revision ${data.number}` })
+  const doc = newDocument({ title: data.title, subject: `Revision ${data.number}` }, { paper: prefsOf(data).paper })
   for (const section of sections) section(doc, data)
   frame(doc, {
     header: `Emergency battery specification · ${data.title}`,

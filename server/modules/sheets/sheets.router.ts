@@ -155,7 +155,7 @@ export const sheetRoutes: RouteSpec[] = [
     params: ShareParams, body: ShareEmailSchema, status: 202,
     handler: async ({ params, body }, req) => {
       const s = scope(req)
-      await shareLinks.emailShare(s.workspaceId, s.userId, params.id, params.shareId, body)
+      await shareLinks.emailShare(s.workspaceId, s.userId, params.id, params.shareId, body, formatPrefsOf(req))
       return { sent: true }
     },
   }),

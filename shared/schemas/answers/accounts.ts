@@ -14,6 +14,9 @@ export const MeAnswer = z.object({
   csrfToken: z.string(),
 })
 
+/** The session a page checks on load: the same as MeAnswer when signed in, none when not (200 either way). */
+export const SessionAnswer = z.object({ me: MeAnswer.nullable() })
+
 export const CsrfAnswer = z.object({ csrfToken: z.string() })
 export const WorkspaceAnswer = WorkspaceRole
 export const WorkspaceListAnswer = z.object({ workspaces: z.array(WorkspaceRole) })

@@ -7,7 +7,15 @@ import { IsoDay, ReferenceSchema, StoredJson, Timestamp } from './common'
 
 const TestKind = z.enum(TEST_KINDS)
 
-export const RegisterSettingsAnswer = z.object({ repairWindowDays: z.number().int() })
+export const RegisterSettingsAnswer = z.object({
+  repairWindowDays: z.number().int(),
+  /** The daily reminder lists tests falling due within this many days. */
+  reminderDaysAhead: z.number().int(),
+  /** Whether each site's responsible person gets the reminder. */
+  remindSiteContact: z.boolean(),
+  /** Members with these roles get it. */
+  remindRoles: z.array(z.enum(['owner', 'designer', 'technician', 'viewer'])),
+})
 
 export const SiteAnswer = z.object({
   id: z.string(),
@@ -43,6 +51,11 @@ export const LuminaireAnswer = z.object({
   rechargeH: z.number().nullable(),
   specSheetId: z.string().nullable(),
   luminaireTypeId: z.string().nullable(),
+  /** The key an outside schedule knows it by (a second import matches on it). */
+  externalId: z.string().nullable(),
+  /** The last tests done before this register kept the log book, as a schedule carried them. */
+  lastFunctionalTestOn: IsoDay.nullable(),
+  lastDurationTestOn: IsoDay.nullable(),
   createdAt: Timestamp,
   updatedAt: Timestamp,
 })
@@ -240,9 +253,21 @@ export const ImportPreviewAnswer = z.object({
   validRows: z.number().int(),
   totalRows: z.number().int(),
   newAreas: z.array(z.string()),
+  /** Valid rows that add a luminaire, change the one they match, or change nothing. */
+  creates: z.number().int(),
+  updates: z.number().int(),
+  unchanged: z.number().int(),
 })
 
-export const ImportResultAnswer = z.object({ imported: z.number().int(), areasCreated: z.number().int(), ids: z.array(z.string()) })
+/** `imported` counts the luminaires added; `updated` and `unchanged` the rows that matched one (201 when any was added, else 200). */
+export const ImportResultAnswer = z.object({
+  imported: z.number().int(),
+  updated: z.number().int(),
+  unchanged: z.number().int(),
+  areasCreated: z.number().int(),
+  ids: z.array(z.string()),
+  updatedIds: z.array(z.string()),
+})
 
 /** An export wrapped in JSON (?as=json): text files as UTF-8, PDFs as base64. */
 export const ExportAnswer = z.object({ filename: z.string(), mediaType: z.string(), encoding: z.enum(['utf8', 'base64']), content: z.string() })

@@ -5,7 +5,7 @@
  * tool, never a result or a crash. Common practice: refuse what cannot be read unambiguously.
  */
 import { describe, expect, it, test } from 'vitest'
-import { tools } from '../../../shared/engine/registry'
+import { tools, type ToolName } from '../../../shared/engine/registry'
 import { runTool } from '../../../shared/engine/tool'
 
 const samples = Array.from({ length: 40 }, (_, k) => ({ t: k * 300, v: 6.3 - k * 0.008, i: 0.5 }))
@@ -54,7 +54,7 @@ function withValue(input: unknown, path: Array<string | number>, value: unknown)
 
 describe('each base input is valid', () => {
   test.each(Object.keys(VALID))('%s', (name) => {
-    const outcome = runTool(tools[name], VALID[name])
+    const outcome = runTool(tools[name as ToolName], VALID[name])
     if (!outcome.ok) throw new Error(JSON.stringify(outcome.fields))
   })
 })
@@ -72,7 +72,7 @@ describe('bare-number durations and capacities are refused in every tool, naming
     ['discharge', 'ratedDuration', 3],
     ['discharge', 'ratedCapacity', 1.6],
   ])('%s: %s = %j', (name, field, bare) => {
-    const outcome = runTool(tools[name], { ...VALID[name], [field]: bare })
+    const outcome = runTool(tools[name as ToolName], { ...VALID[name], [field]: bare })
     expect(outcome.ok).toBe(false)
     if (!outcome.ok) expect(outcome.fields).toContainEqual({ path: field, message: expect.stringMatching(/^needs a unit: .* could be/) })
   })
@@ -87,7 +87,7 @@ describe('absurd magnitudes are field errors in every field of every tool', () =
   const cases = Object.entries(VALID).flatMap(([name, input]) => numericLeaves(input).map((path) => [name, path.join('.'), path] as const))
   test.each(cases)('%s: %s = 1e300', (name, dotted, path) => {
     for (const absurd of [1e300, -1e300, '1e300', typeof (path.reduce<unknown>((o, k) => (o as Record<string | number, unknown>)[k], VALID[name])) === 'string' ? `1e300 ${String(path.reduce<unknown>((o, k) => (o as Record<string | number, unknown>)[k], VALID[name])).replace(/^[\d.+-]+\s*/, '')}` : 1e300]) {
-      const outcome = runTool(tools[name], withValue(VALID[name], path, absurd))
+      const outcome = runTool(tools[name as ToolName], withValue(VALID[name], path, absurd))
       expect(outcome.ok, `${dotted} = ${String(absurd)}`).toBe(false)
       if (!outcome.ok) expect(outcome.fields.map((f) => f.path)).toContain(dotted)
     }

@@ -5,7 +5,7 @@
  */
 import { describe, expect, it } from 'vitest'
 import { convert } from '../../../shared/engine/quantity'
-import { formatCount, formatDate, formatDateTime, formatHours, formatNumber, localeFromAcceptLanguage, resolvePrefs } from '../../../shared/format'
+import { formatCount, formatDate, formatDateTime, formatDuration, formatHours, formatNumber, localeFromAcceptLanguage, resolvePrefs } from '../../../shared/format'
 import { readNumber, readQuantity } from '../../../shared/format/input'
 import { CHEMISTRY_LABELS, ENUMERATIONS, labelOf, tellTaleCodes, unitLabel } from '../../../shared/labels'
 import { CHEMISTRIES, CHEMISTRY_IDS } from '../../../shared/engine/chemistries'
@@ -52,10 +52,20 @@ describe('numbers', () => {
     expect(formatCount(1.004, 'year')).toBe('1 year')
     expect(formatCount(2.5, 'year')).toBe('2.5 years')
   })
-  it('writes hours as people say them', () => {
-    expect(formatHours(3)).toBe('3 h')
-    expect(formatHours(1.5)).toBe('1 h 30 min')
-    expect(formatHours(0.75)).toBe('45 min')
+  it('writes durations as h:mm, to the minute, with no decimal hours', () => {
+    expect(formatHours(3)).toBe('3:00 h')
+    expect(formatHours(1.5)).toBe('1:30 h')
+    expect(formatHours(0.75)).toBe('0:45 h')
+    // A decimal hour with binary residue (3.47 h) is 3 h 28 min 12 s: written to the minute.
+    expect(formatHours(3.4699999999999998)).toBe('3:28 h')
+    expect(formatHours(2.9999999)).toBe('3:00 h')
+    expect(formatHours(Number.NaN)).toBe('—')
+    expect(formatDuration(30)).toBe('30 s')
+    expect(formatDuration(90 * 60)).toBe('1:30 h')
+    expect(formatDuration(59.6)).toBe('0:01 h')
+    expect(formatDuration(-600)).toBe('−0:10 h')
+    expect(formatDuration(null)).toBe('—')
+    expect(formatDuration(1000 * 3600, US)).toBe('1,000:00 h')
   })
 })
 
