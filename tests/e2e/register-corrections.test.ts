@@ -89,7 +89,7 @@ describe('correcting the register', () => {
       await page.goto(`${app.url}/sites/${site.id}`)
       await page.locator('.n-tabs-tab', { hasText: 'Site and regime' }).click()
       await page.locator('[data-test="regime-profile"]').waitFor()
-      expect(await page.locator('[data-test="regime-profile"]').textContent()).toMatch(/Six-monthly discharge test.*every 6 months, at least 1 h 30 min/)
+      expect(await page.locator('[data-test="regime-profile"]').textContent()).toMatch(/Six-monthly discharge test.*every 6 months, at least 1:30 h/)
       await page.locator('[data-test="myths"] summary').click()
       expect(await page.locator('[data-test="myths"]').textContent()).toMatch(/always 90 minutes/)
       await screenshot(page, 'site-regime-phone')
