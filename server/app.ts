@@ -2,15 +2,19 @@
 import fs from 'node:fs'
 import path from 'node:path'
 import express, { Router, type Express, type RequestHandler } from 'express'
+import compression from 'compression'
 import helmet from 'helmet'
 import passport from 'passport'
 import { config, type AppConfig } from './config'
 import { apiTokenAuth } from './middleware/api-token'
+import { apiVersion } from './middleware/api-version'
+import { tokenRateLimit } from './middleware/token-rate-limit'
 import { csrfProtection } from './middleware/csrf'
 import { errorHandler, notFoundApi } from './middleware/error-handler'
+import { methodNotAllowed } from './middleware/method-not-allowed'
 import { requestLog } from './middleware/request-log'
 import { authorize, type RouteSpec } from './policy/access'
-import { routeChain } from './policy/route'
+import { routeChain, tokenScopeOf } from './policy/route'
 import { configurePassport } from './modules/auth/passport'
 import { buildRouteTable } from './routes'
 import { DEFAULT_LIMITS, type Limits } from './lib/limits'
@@ -72,18 +76,22 @@ export function createApp(opts: AppOptions = {}): BuiltApp {
   app.set('query parser', 'simple')
 
   app.use(securityHeaders(cfg))
-  // API answers are private to the signed-in team: never cached (so no ETag to hash either).
-  app.set('etag', false)
+  app.use(apiVersion)
+  // gzip or deflate when the client accepts it (answers over 1 kB: lists, OpenAPI, CSV, the bundle).
+  app.use(compression())
+  // API answers are private to the signed-in team and never stored by caches; a weak ETag still
+  // lets a script that kept an answer ask "If-None-Match" and get 304 without the body again.
+  app.set('etag', 'weak')
   app.use('/api', noStore)
   if (cfg.logLevel !== 'silent') app.use('/api', requestLog)
   app.use('/api', express.json({ limit: '1mb', strict: true }))
   const session = createSessionMiddleware(cfg)
   app.use('/api', session.middleware)
   configurePassport()
-  app.use('/api', passport.initialize({ compat: false }), passport.session(), apiTokenAuth)
+  const limits: Limits = { ...DEFAULT_LIMITS, ...opts.limits }
+  app.use('/api', passport.initialize({ compat: false }), passport.session(), apiTokenAuth, tokenRateLimit(limits.tokenRequests))
   app.use('/api', csrfProtection(cfg.session.cookieName, cfg.origin))
 
-  const limits: Limits = { ...DEFAULT_LIMITS, ...opts.limits }
   setMailLimit(limits.mailPerRecipient)
   const routeTable = buildRouteTable({ signInWindowMs: opts.signInWindowMs ?? 15 * 60 * 1000, limits })
   // One router per resource (/api/sheets, /api/calc, …): a request is matched against its own
@@ -97,9 +105,9 @@ export function createApp(opts: AppOptions = {}): BuiltApp {
       groups.set(prefix, group)
       app.use(prefix, group)
     }
-    group[route.method](route.path.slice(prefix.length) || '/', authorize(route.access, { tokens: route.tokens }), ...routeChain(route))
+    group[route.method](route.path.slice(prefix.length) || '/', authorize(route.access, { tokens: route.tokens, scope: tokenScopeOf(route) }), ...routeChain(route))
   }
-  app.use('/api', notFoundApi)
+  app.use('/api', methodNotAllowed(routeTable), notFoundApi)
 
   const clientDir = opts.clientDir === undefined ? path.resolve('dist') : opts.clientDir
   if (clientDir && fs.existsSync(path.join(clientDir, 'index.html'))) {

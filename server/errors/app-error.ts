@@ -1,7 +1,14 @@
 /** Errors the API answers with on purpose: a status, a machine code, and a message for people. */
 export interface FieldIssue {
+  /** Dotted path ("records.0.note"); "(body)" for the whole body. */
   path: string
   message: string
+  /** RFC 6901 pointer; made from `path` when not given. */
+  pointer?: string
+  /** A code of FIELD_ERROR_CODES (shared/schemas/problem.schema.ts); "invalid" when not given. */
+  code?: string
+  /** Where the value was: the JSON body unless said otherwise. */
+  in?: 'body' | 'query' | 'header'
 }
 
 export class AppError extends Error {
@@ -38,8 +45,14 @@ export class NotFoundError extends AppError {
   }
 }
 export class ConflictError extends AppError {
-  constructor(message: string, details?: Record<string, unknown>) {
-    super(409, 'conflict', message, undefined, details)
+  constructor(message: string, details?: Record<string, unknown>, fields?: FieldIssue[]) {
+    super(409, 'conflict', message, fields, details)
+  }
+}
+/** The body is valid but cannot be carried out (a date in the future, a reused key). */
+export class UnprocessableError extends AppError {
+  constructor(message: string, fields?: FieldIssue[], code = 'unprocessable') {
+    super(422, code, message, fields)
   }
 }
 export class ServiceUnavailableError extends AppError {

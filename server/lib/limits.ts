@@ -36,6 +36,8 @@ export const DEFAULT_LIMITS = {
    * address is locked, for the whole address). The right password gets in after this wait.
    */
   signInSlowLane: { max: 1, windowMs: 15 * 1000 },
+  /** Requests made with one API token (common practice for a script: ten a second on average). */
+  tokenRequests: { max: 600, windowMs: 60 * 1000 },
 } satisfies Record<string, Limit>
 
 export type Limits = typeof DEFAULT_LIMITS

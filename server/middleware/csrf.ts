@@ -23,7 +23,7 @@ export function csrfProtection(cookieName: string, allowedOrigin: string): Reque
   const allowedHost = new URL(allowedOrigin).host
   return (req, _res, next) => {
     if (SAFE.has(req.method)) return next()
-    if (req.headers.authorization?.startsWith('Bearer ')) return next()
+    if (/^bearer\b/i.test(req.headers.authorization ?? '')) return next()
     const originHost = originOf(req.headers.origin) ?? originOf(req.headers.referer)
     const sameOrigin = originHost !== null && (originHost === req.headers.host || originHost === allowedHost)
     if (originHost !== null && !sameOrigin) {

@@ -16,8 +16,10 @@ import { StagedUploads1796223702801 } from './1796223702801-StagedUploads'
 import { EmailConfirmation1796225153018 } from './1796225153018-EmailConfirmation'
 import { HandoverPacks1796248501779 } from './1796248501779-HandoverPacks'
 import { LuminaireImportKeys1796249023378 } from './1796249023378-LuminaireImportKeys'
+import { IdempotencyKeys1796249034800 } from './1796249034800-IdempotencyKeys'
+import { TokenScopes1796249282893 } from './1796249282893-TokenScopes'
 import { PackPrices1796250036316 } from './1796250036316-PackPrices'
 import { ReminderSettings1796250509506 } from './1796250509506-ReminderSettings'
 import { RegimeProfiles1796250931597 } from './1796250931597-RegimeProfiles'
 
-export const migrations = [Accounts1764633600000, Sheets1764633700000, Register1764633800000, DischargeLogs1764633900000, Photometry1764634000000, WattageAudits1764634100000, ApiTokens1764634200000, SheetListFigures1764634300000, RateLimitHits1764634400000, StoredResultsLz41764634500000, SheetListOrder1764634600000, LogBookState1796222520139, SessionValidity1796223098847, StagedUploads1796223702801, EmailConfirmation1796225153018, HandoverPacks1796248501779, LuminaireImportKeys1796249023378, PackPrices1796250036316, ReminderSettings1796250509506, RegimeProfiles1796250931597]
+export const migrations = [Accounts1764633600000, Sheets1764633700000, Register1764633800000, DischargeLogs1764633900000, Photometry1764634000000, WattageAudits1764634100000, ApiTokens1764634200000, SheetListFigures1764634300000, RateLimitHits1764634400000, StoredResultsLz41764634500000, SheetListOrder1764634600000, LogBookState1796222520139, SessionValidity1796223098847, StagedUploads1796223702801, EmailConfirmation1796225153018, HandoverPacks1796248501779, LuminaireImportKeys1796249023378, IdempotencyKeys1796249034800, TokenScopes1796249282893, PackPrices1796250036316, ReminderSettings1796250509506, RegimeProfiles1796250931597]

@@ -5,11 +5,14 @@
  * document, the fuzzer and the access-control tests read the same declarations.
  */
 import type { NextFunction, Request, RequestHandler, Response } from 'express'
-import type { z, ZodTypeAny } from 'zod'
-import { ZodError } from 'zod'
+import { z, type ZodError, type ZodTypeAny } from 'zod'
 import type { Role } from '../../shared/schemas/roles'
-import { NotFoundError } from '../errors/app-error'
+import type { TokenScope } from '../../shared/schemas/token.schema'
+import { strictSchema } from '../../shared/lib/strict-schema'
+import { AppError, NotFoundError } from '../errors/app-error'
+import { InvalidInputError } from '../errors/problem'
 import { referenceCheck } from '../lib/references'
+import { idempotency } from '../middleware/idempotency'
 
 /** public: anyone; signed-in: any signed-in user; a role: that role or higher in the current workspace. */
 export type Access = 'public' | 'signed-in' | Role
@@ -68,6 +71,13 @@ export interface RouteDefinition<P extends Schema, Q extends Schema, B extends S
    * (profile, password, workspaces, invitations) and refuse tokens: they need a signed-in session.
    */
   tokens?: boolean
+  /** The API token scope this route needs; by default read for GET and write for every other method. */
+  scope?: TokenScope
+  /**
+   * The answer carries a secret shown once (a token, a share link): it is never stored, so an
+   * Idempotency-Key on this POST is refused instead of honoured.
+   */
+  secretAnswer?: boolean
   /** Express middleware run before validation (uploads, rate limits). */
   before?: RequestHandler[]
   handler: (input: RouteInput<P, Q, B>, req: Request, res: Response, next: NextFunction) => Answer<R> | void | Promise<Answer<R> | void>
@@ -101,17 +111,40 @@ function guardUndeclaredBody(req: Request, route: RouteSpec) {
 
 function failPart(route: RouteSpec, part: 'params' | 'query', error: ZodError, raw: Record<string, string>): never {
   const answer = route.invalid?.[part] ?? (part === 'params' ? 404 : 400)
-  if (answer === 400) throw error
+  if (answer === 400) throw part === 'query' ? new InvalidInputError(error, 'query') : error
   const what = typeof route.notFound === 'function' ? route.notFound(raw) : route.notFound
   throw new NotFoundError(what)
+}
+
+/** A route without a query schema reads no query parameters: any that come are refused. */
+const NO_QUERY = z.object({})
+
+const JSON_TYPES = ['application/json', '+json']
+
+/**
+ * A body in a media type the route does not read is refused with 415 before anything else is
+ * said about it (express.json leaves such a body unread, so it would otherwise look empty).
+ */
+function checkMediaType(route: RouteSpec, req: Request, res: Response) {
+  if (!route.body || req.is(route.upload ? [...JSON_TYPES, 'multipart/form-data'] : JSON_TYPES) !== false) return
+  const accepted = route.upload ? 'application/json, multipart/form-data' : 'application/json'
+  if (route.method === 'patch') res.set('Accept-Patch', accepted)
+  else res.set('Accept-Post', accepted)
+  throw new AppError(415, 'unsupported_media_type', `This route reads a body of type ${accepted}, not ${req.get('content-type') ?? 'an unnamed type'}.`, [
+    { path: 'Content-Type', pointer: '/Content-Type', in: 'header', code: 'not_allowed', message: `must be ${accepted}` },
+  ])
 }
 
 /**
  * Checks params, query and body against the route's schemas (in that order: a malformed id
  * answers 404 before anything about the body is said) and keeps the parsed values for the handler.
+ * Query and body are checked strictly: a name the schema does not declare is refused with its
+ * pointer, never dropped, so a misspelt field cannot be accepted and ignored.
  */
 export function validateRequest(route: RouteSpec): RequestHandler {
-  return (req: Request, _res: Response, next: NextFunction) => {
+  const query = strictSchema((route.query as ZodTypeAny | undefined) ?? NO_QUERY)
+  const body = route.body ? strictSchema(route.body as ZodTypeAny) : null
+  return (req: Request, res: Response, next: NextFunction) => {
     const params = req.params as Record<string, string>
     const input: RouteInput<Schema, Schema, Schema> = { params: undefined, query: undefined, body: undefined }
     if (route.params) {
@@ -119,16 +152,17 @@ export function validateRequest(route: RouteSpec): RequestHandler {
       if (!r.success) failPart(route, 'params', r.error, params)
       input.params = r.data
     }
-    if (route.query) {
-      const r = (route.query as ZodTypeAny).safeParse(req.query ?? {})
-      if (!r.success) failPart(route, 'query', r.error, params)
-      input.query = r.data
-    }
+    const q = query.safeParse(req.query ?? {})
+    if (!q.success) failPart(route, 'query', q.error, params)
+    if (route.query) input.query = q.data
+    checkMediaType(route, req, res)
     const file = (req as Request & { file?: Express.Multer.File }).file
     if (file) input.file = file
-    if (route.body) {
+    if (body) {
       if (!(route.upload && file)) {
-        input.body = (route.body as ZodTypeAny).parse(req.body ?? {})
+        const b = body.safeParse(req.body ?? {})
+        if (!b.success) throw new InvalidInputError(b.error, 'body')
+        input.body = b.data
         req.body = input.body
       }
     } else {
@@ -149,13 +183,25 @@ export function runHandler(route: RouteSpec): RequestHandler {
   }
 }
 
+/** The API token scope a route needs. */
+export function tokenScopeOf(route: RouteSpec): TokenScope {
+  return route.scope ?? (route.method === 'get' ? 'read' : 'write')
+}
+
+/** A POST by a signed-in caller may carry an Idempotency-Key (server/middleware/idempotency.ts). */
+export function takesIdempotencyKey(route: RouteSpec): boolean {
+  return route.method === 'post' && route.access !== 'public'
+}
+
 /**
  * The Express handler chain of a route after access: its own middleware, validation, the check that
- * every id in the body names a record of the caller's workspace (server/lib/references.ts), the handler.
+ * every id in the body names a record of the caller's workspace (server/lib/references.ts), the
+ * Idempotency-Key replay on POST, the handler.
  */
 export function routeChain(route: RouteSpec): RequestHandler[] {
   const references = route.body ? referenceCheck(route.body as ZodTypeAny) : null
-  return [...(route.before ?? []), validateRequest(route), ...(references ? [references] : []), runHandler(route)]
+  const replay = takesIdempotencyKey(route) ? [idempotency({ secret: route.secretAnswer })] : []
+  return [...(route.before ?? []), validateRequest(route), ...(references ? [references] : []), ...replay, runHandler(route)]
 }
 
 /** Routes whose method carries a body must say what body they take (a schema, or false for none). */

@@ -177,3 +177,12 @@ export function decimalMark(locale: string): string {
   const part = new Intl.NumberFormat(locale).formatToParts(1.5).find((p) => p.type === 'decimal')
   return part?.value ?? '.'
 }
+
+/**
+ * A site's wall-clock time "YYYY-MM-DDTHH:MM" (no zone: a plan made in the building's own time)
+ * as the reader writes date and time, without moving it to any time zone.
+ */
+export function formatWallClock(stamp: string | null | undefined, prefs: FormatPrefs = DEFAULT_PREFS, empty = '—'): string {
+  if (!stamp || !/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}$/.test(stamp)) return empty
+  return formatDateTime(new Date(`${stamp}:00Z`), { ...prefs, timeZone: 'UTC' }, empty)
+}

@@ -93,6 +93,13 @@ export const ROLE_LABELS: Record<keyof typeof ROLE_NAMES, string> = {
   owner: 'Owner: also manages members and the workspace',
 }
 
+/** What an API token may do. */
+export const TOKEN_SCOPE_LABELS = {
+  read: 'Read records',
+  write: 'Change records',
+  calc: 'Run calculations',
+} as const
+
 export const TEST_KIND_LABELS = {
   functional: 'Functional test',
   duration: 'Full-duration test',
@@ -265,6 +272,13 @@ export const UNIT_LABELS: Record<string, string> = {
   'in^3': 'in³',
 }
 
+/** How the full-duration tests of a site are put in groups. */
+export const PLAN_GROUPING_LABELS = {
+  alternate: 'Alternate luminaires in every area',
+  area: 'One area at a time',
+  circuit: 'One circuit at a time',
+} as const
+
 /** Every enumeration's map by name; the no-codes checks read this list. */
 export const ENUMERATIONS = {
   chemistry: CHEMISTRY_LABELS,
@@ -275,6 +289,7 @@ export const ENUMERATIONS = {
   criteria: CRITERIA_LABELS,
   emphasisPoint: EMPHASIS_POINT_LABELS,
   role: ROLE_NAMES,
+  tokenScope: TOKEN_SCOPE_LABELS,
   testKind: TEST_KIND_LABELS,
   sheetStatus: SHEET_STATUS_LABELS,
   shareState: SHARE_STATE_LABELS,
@@ -297,6 +312,7 @@ export const ENUMERATIONS = {
   sizeRule: SIZE_RULE_LABELS,
   chargerType: CHARGER_TYPE_LABELS,
   chargerFit: CHARGER_FIT_LABELS,
+  planGrouping: PLAN_GROUPING_LABELS,
 } as const
 
 export type EnumerationName = keyof typeof ENUMERATIONS

@@ -50,6 +50,12 @@ export const LuminaireSchema = z.object({
   specSheetId: referenceId('specSheet', 'is not a specification sheet id').nullable().default(null),
   /** Optional link to a luminaire type. */
   luminaireTypeId: referenceId('luminaireType', 'is not a luminaire type id').nullable().default(null),
+  /** Place in the site's walking order for a round (1 first); null: after those with a place. */
+  walkOrder: z.number({ invalid_type_error: 'must be a whole number' }).int('must be a whole number').min(1, 'must be at least 1').max(100_000, 'must be at most 100000').nullable().default(null),
+  /** The final circuit it is on, as marked at the distribution board (the test planner can group by it). */
+  circuit: z.string({ invalid_type_error: 'must be text' }).trim().max(40, 'must be at most 40 characters').default(''),
+  /** Hours to full charge from a charger check, when known (else 24 h is assumed for planning). */
+  rechargeH: z.number({ invalid_type_error: 'must be a number of hours' }).finite('must be a finite number').gt(0, 'must be more than 0 hours').max(72, 'must be at most 72 hours').nullable().default(null),
   /** The key an outside schedule knows it by (unique on its site): importing the schedule again updates this luminaire. */
   externalId: z.string().trim().min(1, 'must not be empty (send null for none)').max(80, 'must be at most 80 characters').nullable().default(null),
   /** The last functional test done before this register kept its log book, e.g. from the previous contractor's records. */

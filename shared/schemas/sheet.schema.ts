@@ -5,6 +5,7 @@
  * engine would refuse.
  */
 import { z } from 'zod'
+import { refuseKeysOutside } from '../lib/strict-schema'
 import { sizeInputObject, sizeInputSchema } from '../engine/size'
 import { CHEMISTRY_IDS } from '../engine/chemistries'
 import { EmailSchema } from './auth.schema'
@@ -13,15 +14,16 @@ export * from './sheet-text'
 
 const text = (max: number) => z.string({ invalid_type_error: 'must be text' }).trim().max(max, `must be at most ${max} characters`)
 
-/** Keys the size tool knows; anything else in a saved input is dropped rather than stored. */
+/** Keys the size tool knows; anything else in saved inputs is refused. */
 export const PACK_INPUT_KEYS = Object.keys(sizeInputObject.shape) as Array<keyof typeof sizeInputObject.shape>
 
 /**
  * The pack inputs exactly as typed ("120 mA", "3 h"), so a reopened sheet shows what its author wrote.
- * Validated with the engine's schema; stored raw (unknown keys dropped).
+ * Validated with the engine's schema; stored raw (an unknown key is refused, blanks are left out).
  */
 export const PackInputsSchema = z
   .record(z.unknown(), { invalid_type_error: 'must be an object of pack inputs', required_error: 'is required' })
+  .superRefine(refuseKeysOutside(PACK_INPUT_KEYS))
   .transform((raw) => Object.fromEntries(Object.entries(raw).filter(([k, v]) => (PACK_INPUT_KEYS as string[]).includes(k) && v !== undefined && v !== null && v !== '')))
   .superRefine((raw, ctx) => {
     const parsed = sizeInputSchema.safeParse(raw)

@@ -66,6 +66,10 @@ export const TestRecordSchema = z
   })
   .superRefine((v, ctx) => {
     if (!v.passed && !v.faults) ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['faults'], message: 'say what failed' })
+    // A full-duration result is only as good as the time it stayed lit: no runtime, no result.
+    if (v.kind === 'duration' && v.achievedDurationH === null && !v.dischargeLogId) {
+      ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['achievedDurationH'], message: 'a full-duration test needs the time the luminaire stayed lit (hours), or its discharge log' })
+    }
     if (v.kind === 'functional' && v.achievedDurationH !== null && v.achievedDurationH > 1) {
       ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['achievedDurationH'], message: 'a functional test is short; record long runs as a duration test' })
     }

@@ -5,6 +5,7 @@
  * engine would refuse.
  */
 import { z } from 'zod'
+import { refuseKeysOutside } from '../lib/strict-schema'
 import { referenceId, type ReferenceKind } from './reference'
 import { auditInput } from '../engine/audit'
 
@@ -13,12 +14,13 @@ export * from './wattage-audit-text'
 const text = (max: number) => z.string({ invalid_type_error: 'must be text' }).trim().max(max, `must be at most ${max} characters`)
 const optionalId = (kind: ReferenceKind, what: string) => referenceId(kind, `must be the id of a ${what}`, { invalidType: `must be the id of a ${what}` }).nullable()
 
-/** Keys the audit tool knows; anything else in saved readings is dropped rather than stored. */
+/** Keys the audit tool knows; anything else in saved readings is refused. */
 export const AUDIT_INPUT_KEYS: string[] = Object.keys((auditInput as unknown as z.ZodEffects<z.AnyZodObject>).innerType().shape)
 
 /** The readings exactly as typed ("25 mA", "230 V"), checked with the engine's schema, stored raw. */
 export const AuditReadingsSchema = z
   .record(z.unknown(), { invalid_type_error: 'must be an object of readings', required_error: 'is required' })
+  .superRefine(refuseKeysOutside(AUDIT_INPUT_KEYS))
   .transform((raw) => Object.fromEntries(Object.entries(raw).filter(([k, v]) => AUDIT_INPUT_KEYS.includes(k) && v !== undefined && v !== null && v !== '')))
   .superRefine((raw, ctx) => {
     const parsed = auditInput.safeParse(raw)

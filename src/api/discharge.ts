@@ -2,7 +2,7 @@
 import type { Answer } from '@shared/schemas/answers/common'
 import type { AnalyseAnswer, CurveAnswer, LogComparisonAnswer, LogListAnswer, LogMapping, LogOptions, SavedLogAnswer, UploadPreviewAnswer } from '@shared/schemas/answers/discharge'
 import { CONFIG } from '@/config'
-import { ApiError, http, type FieldMessage } from './http'
+import { ApiError, http, problemToError } from './http'
 
 export type { BadRow, DischargeSummary as Summary, LogMapping as Mapping, LogOptions as Options } from '@shared/schemas/answers/discharge'
 
@@ -52,7 +52,7 @@ export async function uploadLog(file: File, onProgress: Progress, signal?: Abort
     xhr.onload = () => {
       const body = (xhr.response ?? {}) as Record<string, unknown>
       if (xhr.status >= 200 && xhr.status < 300) resolve(body as unknown as UploadPreview)
-      else reject(new ApiError(xhr.status, String(body.error ?? xhr.statusText ?? 'Upload failed'), String(body.code ?? 'error'), (body.fields as FieldMessage[]) ?? [], body))
+      else reject(problemToError(xhr.status, xhr.statusText || 'Upload failed', body))
     }
     xhr.onerror = () => reject(new ApiError(0, 'No connection to Lampwright. Check the network and try again.', 'offline'))
     xhr.onabort = () => reject(new DOMException('Upload cancelled', 'AbortError'))

@@ -3,6 +3,7 @@
  * into an ApiError whose field messages a form can show next to its inputs.
  */
 import { CONFIG } from '@/config'
+import { pointerToPath } from '@shared/schemas/problem.schema'
 
 export interface FieldMessage {
   path: string
@@ -23,6 +24,17 @@ export class ApiError extends Error {
   fieldMap(): Record<string, string> {
     return Object.fromEntries(this.fields.map((f) => [f.path, f.message]))
   }
+}
+
+/**
+ * A problem details answer as an ApiError: its `detail` is the message, and each refused value
+ * (named by a JSON Pointer) becomes the dotted field path a form's inputs are keyed by.
+ */
+export function problemToError(status: number, statusText: string, body: Record<string, unknown>): ApiError {
+  const errors = Array.isArray(body.errors) ? (body.errors as Array<{ pointer?: string; detail?: string; in?: string }>) : []
+  const fields = errors.filter((e) => (e.in ?? 'body') === 'body').map((e) => ({ path: pointerToPath(String(e.pointer ?? '')), message: String(e.detail ?? '') }))
+  const message = body.detail ?? body.error ?? statusText
+  return new ApiError(status, String(message), String(body.code ?? 'error'), fields, body)
 }
 
 let csrfToken = ''
@@ -58,7 +70,7 @@ export async function request<T>(path: string, opts: RequestOptions = {}): Promi
   const qs = opts.query
     ? '?' + new URLSearchParams(Object.entries(opts.query).filter(([, v]) => v !== undefined && v !== null && v !== '').map(([k, v]) => [k, String(v)])).toString()
     : ''
-  const headers: Record<string, string> = { Accept: 'application/json', ...opts.headers }
+  const headers: Record<string, string> = { Accept: 'application/json, application/problem+json', ...opts.headers }
   const isForm = typeof FormData !== 'undefined' && opts.body instanceof FormData
   if (opts.body !== undefined && !isForm) headers['Content-Type'] = 'application/json'
   if (method !== 'GET') {
@@ -80,11 +92,12 @@ export async function request<T>(path: string, opts: RequestOptions = {}): Promi
   }
   if (res.status === 204) return undefined as T
   const type = res.headers.get('content-type') ?? ''
-  const body = type.includes('application/json') ? ((await res.json()) as Record<string, unknown>) : {}
+  // Answers are application/json; errors are problem details (application/problem+json).
+  const body = /[/+]json\b/.test(type) ? ((await res.json()) as Record<string, unknown>) : {}
   if (!res.ok) {
     if (res.status === 401 && !opts.quiet401) onUnauthorized?.()
     if (res.status === 403 && body.code === 'csrf') csrfToken = ''
-    throw new ApiError(res.status, String(body.error ?? res.statusText), String(body.code ?? 'error'), (body.fields as FieldMessage[]) ?? [], body)
+    throw problemToError(res.status, res.statusText, body)
   }
   return body as T
 }

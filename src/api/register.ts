@@ -22,6 +22,7 @@ import type {
   SiteStatusAnswer,
   SiteSummaryAnswer,
   TestBatchAnswer,
+  RoundSignOffAnswer,
   UpcomingTestAnswer,
 } from '@shared/schemas/answers/register'
 import { http } from './http'
@@ -74,3 +75,9 @@ export const previewImport = (siteId: string, csv: string) => http.post<ImportPr
 export const commitImport = (siteId: string, csv: string) => http.post<ImportResult>(`/sites/${siteId}/import`, { csv })
 /** A plain link: the browser downloads the file with the session cookie. */
 export const exportUrl = (siteId: string, file: 'register.csv' | 'logbook.csv' | 'register.pdf' | 'logbook.pdf') => `/api/sites/${siteId}/export/${file}`
+
+export type RoundSignOffResult = Answer<typeof RoundSignOffAnswer>
+export const signOffRound = (siteId: string, body: { clientId: string; signedOffByName: string; signedOffOn: string; notes?: string }) =>
+  http.post<RoundSignOffResult>(`/sites/${siteId}/rounds`, body)
+/** The printable record of a signed-off round (a plain link, like the exports). */
+export const roundRecordUrl = (siteId: string, roundId: string) => `/api/sites/${siteId}/rounds/${roundId}/record.pdf`

@@ -1,11 +1,11 @@
 import type { ApiTokenAnswer, ApiTokenListAnswer, MemberTokenListAnswer, NewApiTokenAnswer } from '@shared/schemas/answers/accounts'
 import type { Answer } from '@shared/schemas/answers/common'
-import type { Role } from '@shared/schemas/roles'
+import type { CreateApiToken } from '@shared/schemas/token.schema'
 import { http } from './http'
 
 export type ApiTokenInfo = Answer<typeof ApiTokenAnswer>
 export const fetchTokens = () => http.get<Answer<typeof ApiTokenListAnswer>>('/tokens')
-export const createToken = (name: string, role: Role) => http.post<Answer<typeof NewApiTokenAnswer>>('/tokens', { name, role })
+export const createToken = (body: CreateApiToken) => http.post<Answer<typeof NewApiTokenAnswer>>('/tokens', body)
 export const revokeToken = (id: string) => http.del<void>(`/tokens/${id}`)
 
 /** A member's token as its workspace's owners see it (never the secret). */

@@ -32,6 +32,7 @@ export const routes: RouteRecordRaw[] = [
   { path: '/rounds', name: 'rounds', component: () => import('@/views/SitesView.vue'), props: { rounds: true }, meta: { role: 'technician', title: 'Test rounds' } },
   { path: '/sites/:id', name: 'site', component: () => import('@/views/SiteView.vue'), meta: { role: 'viewer', title: 'Site' } },
   { path: '/sites/:id/round', name: 'round', component: () => import('@/views/RoundView.vue'), meta: { role: 'technician', title: 'Test round' } },
+  { path: '/sites/:id/test-plan', name: 'site-test-plan', component: () => import('@/views/TestPlanView.vue'), meta: { role: 'viewer', title: 'Plan the full-duration tests' } },
   { path: '/sites/:id/handover', name: 'site-handover', component: () => import('@/views/HandoverView.vue'), meta: { role: 'viewer', title: 'Handover packs' } },
   { path: '/sites/:id/import', name: 'site-import', component: () => import('@/views/ImportView.vue'), meta: { role: 'designer', title: 'Import a schedule' } },
   { path: '/luminaires/:id', name: 'luminaire', component: () => import('@/views/LuminaireView.vue'), meta: { role: 'viewer', title: 'Luminaire' } },

@@ -1,5 +1,6 @@
 /** The shared result components: headline figures that open their working, and warnings in words. */
-import { mount, flushPromises } from '@vue/test-utils'
+import { mount as mountBare, flushPromises } from '@vue/test-utils'
+import { createPinia } from 'pinia'
 import { afterEach, describe, expect, it } from 'vitest'
 import type { EngineWarning, WorkingStep } from '../../shared/engine/types'
 import FigureGrid from '../../src/components/results/FigureGrid.vue'
@@ -17,6 +18,10 @@ const STEP: WorkingStep = {
   result: { symbol: 'S', label: 'Apparent power', value: 5.911, unit: 'VA' },
   references: [{ source: 'IEC 60050-131, apparent power', basis: 'published' }],
 }
+
+/** The components read the reader's unit preference from the auth store: a fresh store, signed out (SI). */
+const mount: typeof mountBare = ((component: Parameters<typeof mountBare>[0], options: Record<string, unknown> = {}) =>
+  mountBare(component, { ...options, global: { plugins: [createPinia()] } })) as typeof mountBare
 
 afterEach(() => {
   document.body.innerHTML = ''

@@ -54,7 +54,8 @@ describe('pack bench to shared sheet', () => {
       await poll(() => page.locator('[data-test="understood-duration"]').textContent()).toBe('= 1.5 h')
       await poll(() => figure(page, 'requiredCapacityAh').textContent()).not.toBe(afterPower)
       await retype(page, 'f-ambientMin', '-10 °C')
-      await poll(() => page.locator('[data-test="understood-ambientMin"]').textContent()).toBe('= -10 °C')
+      // Written with the typographic minus, as every figure the app shows.
+      await poll(() => page.locator('[data-test="understood-ambientMin"]').textContent()).toBe('= −10 °C')
       await retype(page, 'f-load-ledCurrent', '350 mA')
       await poll(() => page.locator('[data-test="understood-load.ledCurrent"]').textContent()).toBe('= 350 mA')
 

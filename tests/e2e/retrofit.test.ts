@@ -52,7 +52,7 @@ describe('retrofit planner', () => {
       await retype(page, 'f-trickleCurrent', '300 mA')
       await retype(page, 'f-batteryVoltage', '4.3 V')
       await retype(page, 'f-secondReading-resistance', '10 Ω')
-      await expect.poll(() => page.locator('[data-test="understood-secondReading.resistance"]').textContent()).toBe('= 10 ohm')
+      await expect.poll(() => page.locator('[data-test="understood-secondReading.resistance"]').textContent()).toBe('= 10 Ω')
       await retype(page, 'f-secondReading-current', '180 mA')
       await retype(page, 'f-targetTrickleRateC', '0.04')
       await page.locator('[data-test="retrofit-summary"]').waitFor()

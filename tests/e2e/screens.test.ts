@@ -75,7 +75,7 @@ describe('main screens', () => {
             : undefined
           const screens = [
             '/home', '/replace-pack', '/pack-bench', '/charger-check', '/charger-check/retrofit', '/claim-check', '/sheets', sheetId ? `/sheets/${sheetId}` : null,
-            '/sites', '/portfolio', siteId ? `/sites/${siteId}` : null, siteId ? `/sites/${siteId}/round` : null, '/rounds', '/team', '/account', '/glossary', '/cautions', '/api-docs',
+            '/sites', '/portfolio', siteId ? `/sites/${siteId}` : null, siteId ? `/sites/${siteId}/round` : null, siteId ? `/sites/${siteId}/test-plan` : null, '/rounds', '/team', '/account', '/glossary', '/cautions', '/api-docs',
             luminaireId ? `/luminaires/${luminaireId}` : null,
             '/discharge', '/discharge/new', logId ? `/discharge/${logId}` : null, otherLogId ? `/discharge/compare?a=${logId}&b=${otherLogId}` : null,
             siteId ? `/sites/${siteId}/import` : null, siteId ? `/sites/${siteId}/handover` : null, '/outbox',

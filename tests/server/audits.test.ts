@@ -92,10 +92,10 @@ describe('saving an audit', () => {
     expect(res.body.results.warnings[0]).toMatchObject({ code: 'power-current-inconsistent', severity: 'critical' })
   })
 
-  it('drops keys the engine does not know and rejects a missing title', async () => {
+  it('refuses a reading the engine does not know (never stores it silently dropped) and rejects a missing title', async () => {
     const res = await tech.post('/api/audits', auditBody({ inputs: { ...AUDIT_READINGS, colour: 'red' } }))
-    expect(res.status).toBe(201)
-    expect(res.body.inputs.colour).toBeUndefined()
+    expect(res.status).toBe(400)
+    expect(res.body.errors).toEqual([expect.objectContaining({ pointer: '/inputs/colour', code: 'unknown_field' })])
     const bad = await tech.post('/api/audits', auditBody({ title: '  ' }))
     expect(bad.status).toBe(400)
     expect(bad.body.fields).toEqual([{ path: 'title', message: 'is required' }])

@@ -100,6 +100,6 @@ describe('a discharge log saved for a luminaire', () => {
     expect(noted.status).toBe(201)
     // A pass typed against a runtime short of the rating needs its own reason.
     const override = await tech.post('/api/tests', { records: [{ ...base, clientId: crypto.randomUUID(), dischargeLogId: null, achievedDurationH: 2.5 }] })
-    expect(override.body.fields).toEqual([{ path: 'records.0.verdictOverrideReason', message: '2.5 h against the rated 3 h is a fail: give a reason to record a pass' }])
+    expect(override.body.fields).toEqual([{ path: 'records.0.verdictOverrideReason', message: '2.5 h against the required 3 h is a fail: give a reason to record a pass' }])
   })
 })

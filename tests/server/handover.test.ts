@@ -152,7 +152,7 @@ describe('the handover pack PDF', () => {
     expect(text()).toContain('Ground floor corridor: meets the route')
     expect(text()).toMatch(/Layout: \d+ luminaires, [\d.]+ m apart/)
     expect(text()).toContain('5. First full-duration tests')
-    expect(lines.some((l) => l.startsWith('EL-01') && l.includes('12 Jun 2025') && l.includes('3 h 15 min') && l.includes('Pass'))).toBe(true)
+    expect(lines.some((l) => l.startsWith('EL-01') && l.includes('12 Jun 2025') && l.includes('3:15 h') && l.includes('Pass'))).toBe(true)
     expect(lines.some((l) => l.startsWith('EL-02') && l.includes('Fail'))).toBe(true)
     expect(lines.some((l) => l.startsWith('EL-03') && l.includes('Not yet tested'))).toBe(true)
     expect(text()).toContain('6. Log book: opening page')

@@ -3,6 +3,7 @@
  * site's register, log book and handover pack. Each must keep its text out of the header and footer bands, never
  * print text over text, number its pages "n of N", and show words instead of codes.
  */
+import crypto from 'node:crypto'
 import fs from 'node:fs'
 import nodePath from 'node:path'
 import type { Response } from 'superagent'
@@ -40,6 +41,25 @@ beforeAll(async () => {
     await fetchPdf(`register of ${site.name}`, `/api/sites/${site.id}/export/register.pdf`)
     await fetchPdf(`log book of ${site.name}`, `/api/sites/${site.id}/export/logbook.pdf`)
   }
+  // A round on the first demo site (a full-duration fail with its checklist among passes), signed off and printed.
+  const status = (await owner.get(`/api/sites/${sites[0].id}`)).body as { today: string; luminaires: Array<{ id: string; ratedDurationH: number }> }
+  const roundId = crypto.randomUUID()
+  const records = status.luminaires.slice(0, 12).map((l, i) => ({
+    clientId: crypto.randomUUID(), luminaireId: l.id, kind: i === 2 ? 'duration' : 'functional', testedOn: status.today, passed: i !== 2,
+    achievedDurationH: i === 2 ? l.ratedDurationH - 0.8 : null, faults: i === 2 ? 'Went dark before the end of the rated duration' : '',
+    remedialAction: i === 2 ? 'Replacement pack ordered' : '', roundClientId: roundId,
+    checklist: i === 2 ? { 'lamp-lit': true, 'lit-full-duration': false } : { 'lamp-lit': true, 'charge-indicator': true, 'no-damage': true },
+  }))
+  expect((await owner.post('/api/tests').send({ records })).status).toBe(201)
+  const signed = await owner.post(`/api/sites/${sites[0].id}/rounds`).send({ clientId: roundId, signedOffByName: 'Demo technician', signedOffOn: status.today, notes: 'Monthly round' })
+  expect(signed.status).toBe(201)
+  await fetchPdf(`round record of ${sites[0].name}`, `/api/sites/${sites[0].id}/rounds/${signed.body.id}/record.pdf`)
+  // A plan of the full-duration tests of every site, printed as a work order.
+  for (const [i, site] of sites.entries()) {
+    const plan = await owner.post(`/api/sites/${site.id}/test-plans`).send({ grouping: (['alternate', 'area', 'circuit'] as const)[i % 3], firstDay: status.today, windowStart: '19:00', windowEnd: '07:00' })
+    expect(plan.status).toBe(201)
+    await fetchPdf(`work order of ${site.name}`, `/api/sites/${site.id}/test-plans/${plan.body.id}/work-order.pdf`)
+  }
   // A handover pack of each demo site, with a corridor laid out with the first catalogue type.
   const types = (await owner.get('/api/luminaire-types')).body.types as Array<{ id: string }>
   const routes = types.length ? [{ name: 'Main corridor', typeId: types[0].id, route: { routeLength: '24 m', routeWidth: '2 m', mountingHeight: '2.6 m', criteria: 'en1838-route', ratedDuration: '3 h' } }] : []
@@ -56,6 +76,8 @@ describe('every PDF of the demo workspace', () => {
     expect(documents.filter((d) => d.name.startsWith('sheet')).length).toBeGreaterThanOrEqual(3)
     expect(documents.filter((d) => d.name.startsWith('register')).length).toBeGreaterThanOrEqual(3)
     expect(documents.filter((d) => d.name.startsWith('log book')).length).toBeGreaterThanOrEqual(3)
+    expect(documents.filter((d) => d.name.startsWith('round record')).length).toBe(1)
+    expect(documents.filter((d) => d.name.startsWith('work order')).length).toBeGreaterThanOrEqual(3)
     expect(documents.filter((d) => d.name.startsWith('handover pack')).length).toBeGreaterThanOrEqual(3)
   })
 

@@ -2,6 +2,8 @@
 import crypto from 'node:crypto'
 import { areaIn, CSV_OK, luminaireIn, siteIn, siteWithLuminaire, testIn } from '../helpers/register-fixtures'
 import type { Example, ExampleContext } from './route-examples'
+import { dataSource } from '../../server/data-source'
+import { planDurationTests } from '../../shared/engine/test-plan'
 
 type ExampleFn = (ctx: ExampleContext) => Promise<Example>
 
@@ -19,6 +21,22 @@ const luminaireBody = () => ({
 const siteId = async (workspaceId: string) => (await siteIn(workspaceId)).id
 const luminaireId = async (workspaceId: string) => (await siteWithLuminaire(workspaceId)).luminaire.id
 const areaId = async (workspaceId: string) => (await areaIn(workspaceId, await siteId(workspaceId))).id
+/** A site with a signed-off round of one passed test. */
+async function roundIn(workspaceId: string) {
+  const { site, luminaire } = await siteWithLuminaire(workspaceId)
+  const clientId = crypto.randomUUID()
+  await dataSource.query(`INSERT INTO test_records (workspace_id, luminaire_id, client_id, kind, tested_on, passed, round_client_id) VALUES ($1, $2, $3, 'functional', '2025-03-01', true, $4)`, [workspaceId, luminaire.id, crypto.randomUUID(), clientId])
+  const rows: Array<{ id: string }> = await dataSource.query(`INSERT INTO test_rounds (workspace_id, site_id, client_id, signed_off_by_name, signed_off_on) VALUES ($1, $2, $3, 'Example Tester', '2025-03-01') RETURNING id`, [workspaceId, site.id, clientId])
+  return { siteId: site.id, roundId: rows[0].id }
+}
+/** A site with a stored plan of its full-duration tests. */
+async function planIn(workspaceId: string) {
+  const { site, luminaire } = await siteWithLuminaire(workspaceId)
+  const input = { grouping: 'alternate' as const, firstDay: '2025-03-01', windowStart: '18:00', windowEnd: '23:00', defaultRechargeH: 24 }
+  const plan = planDurationTests({ ...input, regime: 'en50172', luminaires: [{ id: luminaire.id, tag: luminaire.tag, areaId: null, areaName: null, circuit: '', walkOrder: null, ratedDurationH: 3, rechargeH: null }] })
+  const rows: Array<{ id: string }> = await dataSource.query(`INSERT INTO test_plans (workspace_id, site_id, input, plan) VALUES ($1, $2, $3, $4) RETURNING id`, [workspaceId, site.id, JSON.stringify(input), JSON.stringify(plan)])
+  return { siteId: site.id, planId: rows[0].id }
+}
 
 export const registerRouteExamples: Record<string, ExampleFn> = {
   'get /api/sites': async () => ({ path: '/api/sites?days=30' }),
@@ -78,6 +96,27 @@ export const registerRouteExamples: Record<string, ExampleFn> = {
     await luminaireIn(team.workspaceId, site.id)
     // ?as=json: the same file wrapped in JSON (the plain download is checked in register.test.ts).
     return { path: `/api/sites/${site.id}/export/register.csv?as=json`, foreignPath: `/api/sites/${await siteId(other.workspaceId)}/export/register.csv` }
+  },
+  'get /api/sites/:id/rounds/:roundId/record.pdf': async ({ team, other }) => {
+    const mine = await roundIn(team.workspaceId)
+    const theirs = await roundIn(other.workspaceId)
+    return { path: `/api/sites/${mine.siteId}/rounds/${mine.roundId}/record.pdf`, foreignPath: `/api/sites/${theirs.siteId}/rounds/${theirs.roundId}/record.pdf` }
+  },
+  'post /api/sites/:id/test-plans': async ({ team, other }) => ({
+    path: `/api/sites/${(await siteWithLuminaire(team.workspaceId)).site.id}/test-plans`,
+    body: { grouping: 'alternate', firstDay: '2025-03-01', windowStart: '18:00', windowEnd: '23:00' },
+    foreignPath: `/api/sites/${await siteId(other.workspaceId)}/test-plans`,
+  }),
+  'get /api/sites/:id/test-plans': async ({ team, other }) => ({ path: `/api/sites/${(await planIn(team.workspaceId)).siteId}/test-plans`, foreignPath: `/api/sites/${await siteId(other.workspaceId)}/test-plans` }),
+  'get /api/sites/:id/test-plans/:planId': async ({ team, other }) => {
+    const mine = await planIn(team.workspaceId)
+    const theirs = await planIn(other.workspaceId)
+    return { path: `/api/sites/${mine.siteId}/test-plans/${mine.planId}`, foreignPath: `/api/sites/${theirs.siteId}/test-plans/${theirs.planId}` }
+  },
+  'get /api/sites/:id/test-plans/:planId/work-order.pdf': async ({ team, other }) => {
+    const mine = await planIn(team.workspaceId)
+    const theirs = await planIn(other.workspaceId)
+    return { path: `/api/sites/${mine.siteId}/test-plans/${mine.planId}/work-order.pdf`, foreignPath: `/api/sites/${theirs.siteId}/test-plans/${theirs.planId}/work-order.pdf` }
   },
   // lists across sites and batches
   'get /api/luminaires': async () => ({ path: '/api/luminaires?state=overdue,failed&limit=50' }),

@@ -148,10 +148,11 @@ describe('test records', () => {
     await Promise.all([technician.post('/api/tests', { records }), technician.post('/api/tests', { records })])
     const rows = await dataSource.query('SELECT client_id FROM test_records WHERE luminaire_id = ANY($1::uuid[])', [[a.id, b.id]])
     expect(rows).toHaveLength(2)
-    // A correction sent under the same clientId updates the record and is audited.
-    const fixed = await technician.post('/api/tests', { records: [{ ...records[1], remedialAction: 'Pack replaced the same day' }] })
-    expect(fixed.body.records[0].outcome).toBe('updated')
-    expect(await auditCount(fixed.body.records[0].id, 'test.updated')).toBe(1)
+    // Other content under the same clientId is a conflict: the log-book entry is never rewritten.
+    const changed = await technician.post('/api/tests', { records: [{ ...records[1], remedialAction: 'Pack replaced the same day' }] })
+    expect(changed.status).toBe(409)
+    expect(changed.body.errors).toEqual([expect.objectContaining({ pointer: '/records/0/clientId', code: 'conflict' })])
+    expect(await auditCount(first.body.records[1].id, 'test.updated')).toBe(0)
     expect(await auditCount(first.body.records[0].id, 'test.recorded')).toBe(1)
 
     const log = await viewer.get(`/api/sites/${site.id}/tests`)

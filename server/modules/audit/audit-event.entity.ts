@@ -26,6 +26,14 @@ export class AuditEvent {
   @Column({ type: 'jsonb', default: () => "'{}'" })
   data!: Record<string, unknown>
 
+  /** The API token the change was made with (null: a signed-in session or the system). */
+  @Column({ type: 'uuid', name: 'api_token_id', nullable: true })
+  apiTokenId!: string | null
+
+  /** The token's name at the time, so the trail reads even after the token is revoked. */
+  @Column({ type: 'varchar', length: 80, name: 'api_token_name', nullable: true })
+  apiTokenName!: string | null
+
   @CreateDateColumn({ type: 'timestamptz' })
   at!: Date
 }

@@ -7,6 +7,7 @@
 import { extendZodWithOpenApi, OpenAPIRegistry, OpenApiGeneratorV31, type ResponseConfig, type RouteConfig } from '@asteasolutions/zod-to-openapi'
 import { z, type ZodTypeAny } from 'zod'
 import { tools } from '../../../shared/engine/registry'
+import { strictSchema } from '../../../shared/lib/strict-schema'
 import { APP_VERSION } from '../../config'
 import type { RouteSpec } from '../../policy/access'
 
@@ -24,17 +25,31 @@ const ACCESS_TEXT: Record<string, string> = {
   owner: 'Role owner of the current workspace.',
 }
 
-const ErrorSchema: Json = {
+/** RFC 9457 problem details: the body of every error answer (docs/api.md lists the codes). */
+const ProblemSchema: Json = {
   type: 'object',
-  required: ['error', 'code'],
+  required: ['type', 'title', 'status', 'detail', 'code'],
   properties: {
-    error: { type: 'string', description: 'A sentence for people' },
-    code: { type: 'string', description: 'A machine code (invalid_input, not_found, …)' },
-    fields: { type: 'array', items: { type: 'object', required: ['path', 'message'], properties: { path: { type: 'string' }, message: { type: 'string' } } } },
+    type: { type: 'string', format: 'uri-reference', description: 'The kind of problem, /api/problems/<code>' },
+    title: { type: 'string', description: 'The fixed sentence of this kind of problem' },
+    status: { type: 'integer', description: 'The HTTP status' },
+    detail: { type: 'string', description: 'What went wrong this time, for people' },
+    code: { type: 'string', description: 'The kind as a short word (invalid_input, not_found, …)' },
+    errors: {
+      type: 'array',
+      description: 'Each refused value, named by an RFC 6901 JSON Pointer into the body (or into the query parameters when `in` is "query")',
+      items: {
+        type: 'object',
+        required: ['pointer', 'code', 'detail'],
+        properties: { pointer: { type: 'string' }, code: { type: 'string' }, detail: { type: 'string' }, in: { type: 'string', enum: ['body', 'query', 'header'] } },
+      },
+    },
+    error: { type: 'string', deprecated: true, description: 'The same as `detail` (removed in v2)' },
+    fields: { type: 'array', deprecated: true, description: '`errors` with dotted paths (removed in v2)', items: { type: 'object', properties: { path: { type: 'string' }, message: { type: 'string' } } } },
   },
 }
 
-const errorResponse = (description: string): ResponseConfig => ({ description, content: { 'application/json': { schema: { $ref: '#/components/schemas/Error' } } } })
+const errorResponse = (description: string): ResponseConfig => ({ description, content: { 'application/problem+json': { schema: { $ref: '#/components/schemas/Problem' } } } })
 
 /** The body of POST /api/calc/:tool is the input of the tool named in the path. */
 function calcBody(): ZodTypeAny {
@@ -50,7 +65,7 @@ function successResponse(route: RouteSpec): ResponseConfig {
 }
 
 function requestBody(route: RouteSpec): RouteConfig['request'] extends infer R ? (R extends { body?: infer B } ? B : never) : never {
-  const json = route.path === '/api/calc/:tool' ? calcBody() : (route.body as ZodTypeAny)
+  const json = strictSchema(route.path === '/api/calc/:tool' ? calcBody() : (route.body as ZodTypeAny))
   if (!route.upload) return { required: true, content: { 'application/json': { schema: json } } }
   return {
     required: true,
@@ -63,7 +78,7 @@ function requestBody(route: RouteSpec): RouteConfig['request'] extends infer R ?
 
 export function buildOpenApi(routes: RouteSpec[]): Json {
   const registry = new OpenAPIRegistry()
-  registry.registerComponent('schemas', 'Error', ErrorSchema)
+  registry.registerComponent('schemas', 'Problem', ProblemSchema)
   registry.registerComponent('securitySchemes', 'session', { type: 'apiKey', in: 'cookie', name: 'lw.sid' })
   registry.registerComponent('securitySchemes', 'bearer', { type: 'http', scheme: 'bearer', description: 'A personal API token (lw_…) made on the account page.' })
 
@@ -81,14 +96,16 @@ export function buildOpenApi(routes: RouteSpec[]): Json {
       ...(route.access === 'public' ? { security: [] } : {}),
       request: {
         ...(route.params ? { params: route.params } : {}),
-        ...(route.query ? { query: route.query } : {}),
+        // Strict copies: the document says `additionalProperties: false`, as the server behaves.
+        ...(route.query ? { query: strictSchema(route.query as z.AnyZodObject) } : {}),
         ...(route.body ? { body: requestBody(route) } : {}),
       },
       responses: {
         [status]: successResponse(route),
-        '400': errorResponse('The request is not valid: `fields` names each field and the reason'),
-        ...(route.access === 'public' ? {} : { '401': errorResponse('Not signed in'), '403': errorResponse('Your role does not allow this') }),
+        '400': errorResponse('The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused'),
+        ...(route.access === 'public' ? {} : { '401': errorResponse('Not signed in, or the API token is not valid (WWW-Authenticate: Bearer)'), '403': errorResponse('Your role does not allow this') }),
         '404': errorResponse('No such record in this workspace'),
+        ...(route.body ? { '415': errorResponse('The body is not application/json') } : {}),
       },
     }
     registry.registerPath(config)

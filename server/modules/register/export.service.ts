@@ -5,10 +5,11 @@
  */
 import Papa from 'papaparse'
 import { DEFAULT_PREFS, formatDate, formatHours, formatNumber, type FormatPrefs } from '../../../shared/format'
-import { frame, heightOf, newDocument, toBuffer, write, writeAt, type Doc, type WriteOptions } from '../../lib/pdf/pdf-kit'
+import { frame, newDocument, toBuffer, write, type Doc, type WriteOptions } from '../../lib/pdf/pdf-kit'
+import { resultCell, table, type Column } from './register-pdf'
 import { PURPOSE_LABELS } from '../../../shared/schemas/luminaire.schema'
 import { REGIME_LABELS } from '../../../shared/schemas/site.schema'
-import { chemistryName, DUE_REASON_LABELS, PACK_STATE_LABELS, TEST_STATE_LABELS, MODE_LABELS, testKindWords } from '../../../shared/labels'
+import { chemistryName, DUE_REASON_LABELS, labelOf, PACK_STATE_LABELS, TEST_KIND_LABELS, TEST_STATE_LABELS, MODE_LABELS, testKindWords } from '../../../shared/labels'
 import type { LuminaireStatus } from './register.service'
 import { siteStatus, todayIso } from './register.service'
 import { siteLogBook } from './tests.service'
@@ -110,49 +111,6 @@ function frameSiteDocument(doc: Doc, title: string, status: SiteStatus, prefs: F
   frame(doc, { header: `${title} — ${status.site.name}`, footer: `Printed ${formatDate(status.today, prefs)} · Lampwright` })
 }
 
-interface Column {
-  title: string
-  width: number
-}
-
-/** A plain table that starts a new page (with its header again) when the page is full. */
-function table(doc: Doc, given: Column[], rows: string[][]) {
-  const left = doc.page.margins.left
-  // Widths are set for A4; on narrower paper (Letter) every column shrinks in proportion so the table stays on the page.
-  const room = doc.page.width - left - doc.page.margins.right
-  const total = given.reduce((sum, c) => sum + c.width, 0)
-  const columns = total > room ? given.map((c) => ({ ...c, width: (c.width * room) / total })) : given
-  const size = 8.5
-  const drawHeader = () => {
-    const y = doc.y
-    const height = Math.max(...columns.map((c) => heightOf(doc, c.title, c.width - 4, { weight: 'semibold', size })))
-    let x = left
-    for (const c of columns) {
-      writeAt(doc, c.title, x, y, { weight: 'semibold', size, width: c.width - 4 })
-      x += c.width
-    }
-    doc.moveTo(left, y + height + 2).lineTo(left + columns.reduce((s, c) => s + c.width, 0), y + height + 2).lineWidth(0.5).stroke()
-    doc.x = left
-    doc.y = y + height + 5
-  }
-  drawHeader()
-  for (const row of rows) {
-    const height = Math.max(...row.map((cell, i) => heightOf(doc, cell, columns[i].width - 4, { size })))
-    if (doc.y + height > doc.page.height - doc.page.margins.bottom - 14) {
-      doc.addPage()
-      drawHeader()
-    }
-    const y = doc.y
-    let x = left
-    row.forEach((cell, i) => {
-      writeAt(doc, cell, x, y, { size, width: columns[i].width - 4 })
-      x += columns[i].width
-    })
-    doc.x = left
-    doc.y = y + height + 3
-  }
-}
-
 async function registerPdf(reg: Awaited<ReturnType<typeof registerRows>>, prefs: FormatPrefs): Promise<Buffer> {
   const s = reg.status
   const date = (d: string | null) => formatDate(d, prefs)
@@ -199,16 +157,15 @@ async function logBookPdf(status: SiteStatus, rows: Array<Array<string | number 
     write(doc, `Tests ${period.from ? `from ${formatDate(period.from, prefs)} ` : ''}${period.to ? `to ${formatDate(period.to, prefs)}` : 'to today'}.`)
   }
   const columns: Column[] = [
-    { title: 'Date', width: 58 }, { title: 'Tag', width: 52 }, { title: 'Test', width: 56 }, { title: 'Result', width: 36 }, { title: 'Lit for', width: 40 },
-    { title: 'Faults found', width: 170 }, { title: 'Remedial action', width: 170 }, { title: 'By', width: 90 },
+    { title: 'Date', width: 58 }, { title: 'Tag', width: 52 }, { title: 'Test', width: 70 }, { title: 'Result', width: 44 }, { title: 'Lit for', width: 40 },
+    { title: 'Faults found', width: 160 }, { title: 'Remedial action', width: 160 }, { title: 'By', width: 90 },
   ]
   table(
     doc,
     columns,
     rows.map((r) => [
-      formatDate(String(r[0]), prefs), String(r[1]), r[2] === 'duration' ? 'Full duration' : 'Functional',
-      // Told apart by the word's form as well as its letters, never by colour: "Pass" against "FAIL"; a void entry says so.
-      r[9] ? 'Void' : r[3] === 'pass' ? 'Pass' : r[3] === 'fail' ? 'FAIL' : String(r[3]),
+      // The CSV's machine values turned into words, the result with a mark that needs no colour; a test recorded in error reads "Void" with its reason.
+      formatDate(String(r[0]), prefs), String(r[1]), labelOf(TEST_KIND_LABELS, String(r[2])), r[9] ? 'Void' : resultCell(r[3] === 'pass'),
       typeof r[4] === 'number' ? formatHours(r[4], prefs) : '', r[9] ? `Recorded in error (${String(r[9])}). ${String(r[5] ?? '')}` : String(r[5] ?? ''), String(r[6] ?? ''), String(r[7] ?? ''),
     ]),
   )

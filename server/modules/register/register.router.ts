@@ -10,6 +10,11 @@ import { defineRoute, scope, type RouteSpec } from '../../policy/access'
 import { formatPrefsOf } from '../../lib/format-prefs'
 import { EXPORT_FILES, exportFile } from './export.service'
 import { commitImport, previewImport } from './import.service'
+import { roundRecordPdf } from './round-record'
+import { findPlan, listPlans, makePlan } from './test-plans.service'
+import { workOrderPdf } from './work-order-pdf'
+import { TestPlanRequestSchema } from '../../../shared/schemas/test-plan.schema'
+import { TestPlanAnswer, TestPlanListAnswer } from '../../../shared/schemas/answers/test-plans'
 import * as register from './register.service'
 import * as tests from './tests.service'
 import { regimeHistory } from './regime-history.service'
@@ -20,6 +25,8 @@ const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: 2 *
 
 const DaysQuery = z.object({ days: z.coerce.number().int().min(1).max(366).default(60) })
 const SiteExportParams = z.object({ id: Uuid, file: z.enum(EXPORT_FILES) })
+const RoundParams = z.object({ id: Uuid, roundId: Uuid })
+const PlanParams = z.object({ id: Uuid, planId: Uuid })
 const ExportQuery = z
   .object({
     as: z.enum(['json'], { message: 'must be "json" or left out' }).optional(),
@@ -207,6 +214,47 @@ export const registerRoutes: RouteSpec[] = [
       const out = await tests.signOffRound(s.workspaceId, s.userId, params.id, body)
       res.status(out.created ? 201 : 200)
       return out
+    },
+  }),
+  defineRoute({
+    method: 'get', path: '/api/sites/:id/rounds/:roundId/record.pdf', access: 'viewer', summary: 'The printable record of a signed-off round (PDF)',
+    params: RoundParams, produces: 'application/pdf', notFound: 'That round',
+    handler: async ({ params }, req, res) => {
+      const out = await roundRecordPdf(scope(req).workspaceId, params.id, params.roundId, formatPrefsOf(req))
+      res.setHeader('Content-Type', 'application/pdf')
+      res.setHeader('Content-Disposition', `attachment; filename="${out.filename}"`)
+      res.setHeader('Cache-Control', 'private, no-store')
+      res.send(out.body)
+    },
+  }),
+  // planning the full-duration tests
+  defineRoute({
+    method: 'post', path: '/api/sites/:id/test-plans', access: 'designer', summary: "Plan a site's full-duration tests in groups that leave no area dark",
+    params: IdParams, body: TestPlanRequestSchema, response: TestPlanAnswer, status: 201,
+    handler: ({ params, body }, req) => {
+      const s = scope(req)
+      return makePlan(s.workspaceId, s.userId, params.id, body)
+    },
+  }),
+  defineRoute({
+    method: 'get', path: '/api/sites/:id/test-plans', access: 'viewer', summary: "A site's test plans, newest first",
+    params: IdParams, response: TestPlanListAnswer,
+    handler: async ({ params }, req) => ({ plans: await listPlans(scope(req).workspaceId, params.id) }),
+  }),
+  defineRoute({
+    method: 'get', path: '/api/sites/:id/test-plans/:planId', access: 'viewer', summary: 'One test plan with its groups and times',
+    params: PlanParams, response: TestPlanAnswer, notFound: 'That test plan',
+    handler: ({ params }, req) => findPlan(scope(req).workspaceId, params.id, params.planId),
+  }),
+  defineRoute({
+    method: 'get', path: '/api/sites/:id/test-plans/:planId/work-order.pdf', access: 'viewer', summary: 'A test plan printed as a work order (PDF)',
+    params: PlanParams, produces: 'application/pdf', notFound: 'That test plan',
+    handler: async ({ params }, req, res) => {
+      const out = await workOrderPdf(scope(req).workspaceId, params.id, params.planId, formatPrefsOf(req))
+      res.setHeader('Content-Type', 'application/pdf')
+      res.setHeader('Content-Disposition', `attachment; filename="${out.filename}"`)
+      res.setHeader('Cache-Control', 'private, no-store')
+      res.send(out.body)
     },
   }),
   // import and export

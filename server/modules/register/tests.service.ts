@@ -1,11 +1,14 @@
 /**
  * The log book: routine tests recorded one at a time or a round at a time. Each record carries a
- * client-made UUID; the server upserts on (workspace, clientId), so a retried send never adds a row.
+ * client-made UUID naming that record: a retried send never adds a row, and the same clientId with
+ * other content is a conflict (409), never a rewrite of the log book.
  */
 import type { EntityManager } from 'typeorm'
 import { durationVerdict, runtimeMismatch, type RoundSignOff, type TestRecordData } from '../../../shared/schemas/test-record.schema'
+import { requiredDurationH } from '../../../shared/engine/round-order'
+import type { TestRegime } from '../../../shared/engine/due'
 import { dataSource } from '../../data-source'
-import { BadRequestError, ConflictError, NotFoundError } from '../../errors/app-error'
+import { BadRequestError, ConflictError, NotFoundError, UnprocessableError } from '../../errors/app-error'
 import { recordAudit } from '../audit/audit.service'
 import { findLuminaire, findSite } from './register.service'
 
@@ -37,38 +40,53 @@ export interface LogBookEntry {
   recordedInErrorByName: string | null
 }
 
-async function upsertOne(m: EntityManager, workspaceId: string, actorId: string, r: TestRecordData): Promise<{ id: string; outcome: SaveOutcome }> {
-  // Insert, or update the same client record when something in it changed; an identical retry touches nothing.
-  const rows: Array<{ id: string; inserted: boolean }> = await m.query(
-    `INSERT INTO test_records (workspace_id, luminaire_id, client_id, kind, tested_on, passed, achieved_duration_h, faults, remedial_action, discharge_log_id, recorded_by,
+async function upsertOne(m: EntityManager, workspaceId: string, actorId: string, r: TestRecordData, index: number): Promise<{ id: string; outcome: SaveOutcome }> {
+  const values = [r.luminaireId, r.kind, r.testedOn, r.passed, r.achievedDurationH, r.faults, r.remedialAction, r.dischargeLogId,
+    JSON.stringify(r.checklist), r.verdictOverrideReason, r.runtimeNote, r.roundClientId]
+  // Insert, or find the record this clientId already names: a clientId stands for one record, so a
+  // retry with the same content changes nothing and different content is a conflict, never a rewrite.
+  const rows: Array<{ id: string }> = await m.query(
+    `INSERT INTO test_records (workspace_id, client_id, recorded_by, luminaire_id, kind, tested_on, passed, achieved_duration_h, faults, remedial_action, discharge_log_id,
        checklist, verdict_override_reason, runtime_note, round_client_id)
      VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12, $13, $14, $15)
-     ON CONFLICT (workspace_id, client_id) DO UPDATE SET
-       kind = EXCLUDED.kind, tested_on = EXCLUDED.tested_on, passed = EXCLUDED.passed,
-       achieved_duration_h = EXCLUDED.achieved_duration_h, faults = EXCLUDED.faults,
-       remedial_action = EXCLUDED.remedial_action, discharge_log_id = EXCLUDED.discharge_log_id,
-       checklist = EXCLUDED.checklist, verdict_override_reason = EXCLUDED.verdict_override_reason, runtime_note = EXCLUDED.runtime_note,
-       round_client_id = EXCLUDED.round_client_id, updated_at = now()
-     WHERE test_records.luminaire_id = EXCLUDED.luminaire_id
-       AND (test_records.kind, test_records.tested_on, test_records.passed, test_records.achieved_duration_h, test_records.faults, test_records.remedial_action, test_records.discharge_log_id,
-            test_records.checklist, test_records.verdict_override_reason, test_records.runtime_note, test_records.round_client_id)
-           IS DISTINCT FROM (EXCLUDED.kind, EXCLUDED.tested_on, EXCLUDED.passed, EXCLUDED.achieved_duration_h, EXCLUDED.faults, EXCLUDED.remedial_action, EXCLUDED.discharge_log_id,
-            EXCLUDED.checklist, EXCLUDED.verdict_override_reason, EXCLUDED.runtime_note, EXCLUDED.round_client_id)
-     RETURNING id, (xmax = 0) AS inserted`,
-    [workspaceId, r.luminaireId, r.clientId, r.kind, r.testedOn, r.passed, r.achievedDurationH, r.faults, r.remedialAction, r.dischargeLogId, actorId,
-      JSON.stringify(r.checklist), r.verdictOverrideReason, r.runtimeNote, r.roundClientId],
+     ON CONFLICT (workspace_id, client_id) DO NOTHING
+     RETURNING id`,
+    [workspaceId, r.clientId, actorId, ...values],
   )
-  const data = { luminaireId: r.luminaireId, kind: r.kind, testedOn: r.testedOn, passed: r.passed, achievedDurationH: r.achievedDurationH, faults: r.faults, remedialAction: r.remedialAction }
   if (rows.length) {
-    const outcome: SaveOutcome = rows[0].inserted ? 'created' : 'updated'
-    await recordAudit({ workspaceId, actorId, action: outcome === 'created' ? 'test.recorded' : 'test.updated', entityType: 'test', entityId: rows[0].id, data }, m)
-    return { id: rows[0].id, outcome }
+    const data = { luminaireId: r.luminaireId, kind: r.kind, testedOn: r.testedOn, passed: r.passed, achievedDurationH: r.achievedDurationH, faults: r.faults, remedialAction: r.remedialAction }
+    await recordAudit({ workspaceId, actorId, action: 'test.recorded', entityType: 'test', entityId: rows[0].id, data }, m)
+    return { id: rows[0].id, outcome: 'created' }
   }
-  const existing: Array<{ id: string; luminaire_id: string }> = await m.query('SELECT id, luminaire_id FROM test_records WHERE workspace_id = $1 AND client_id = $2', [workspaceId, r.clientId])
-  if (existing[0] && existing[0].luminaire_id !== r.luminaireId) {
-    throw new ConflictError(`The record ${r.clientId} was already saved for another luminaire; make a new record instead.`)
+  const existing: Array<{ id: string; same: boolean }> = await m.query(
+    `SELECT id, (luminaire_id, kind, tested_on, passed, achieved_duration_h, faults, remedial_action, discharge_log_id, checklist, verdict_override_reason, runtime_note, round_client_id)
+              IS NOT DISTINCT FROM ($3::uuid, $4::varchar, $5::date, $6::boolean, $7::float8, $8::text, $9::text, $10::uuid, $11::jsonb, $12::text, $13::text, $14::uuid) AS same
+       FROM test_records WHERE workspace_id = $1 AND client_id = $2`,
+    [workspaceId, r.clientId, ...values],
+  )
+  if (!existing[0]) throw new ConflictError(`The record ${r.clientId} is being saved by another request; try again.`)
+  if (!existing[0].same) {
+    throw new ConflictError(
+      `The log book already holds a different record under clientId ${r.clientId}. A clientId names one record: send a new clientId for a new record.`,
+      undefined,
+      [{ path: `records.${index}.clientId`, code: 'conflict', message: 'already names a record with other values' }],
+    )
   }
   return { id: existing[0].id, outcome: 'unchanged' }
+}
+
+/** Latest calendar day it is anywhere on Earth (UTC+14), so a test recorded just after local midnight is never "in the future". */
+export function latestTodayAnywhere(now: Date = new Date()): string {
+  return new Date(now.getTime() + 14 * 3600_000).toISOString().slice(0, 10)
+}
+
+/** A test cannot be dated after today: such a record is refused (422) with the field named. */
+function refuseFutureDates(records: TestRecordData[]) {
+  const today = latestTodayAnywhere()
+  const fields = records.flatMap((r, i) =>
+    r.testedOn > today ? [{ path: `records.${i}.testedOn`, code: 'future_date', message: `is later than today (${r.testedOn}); a test can only be recorded once it has been done` }] : [],
+  )
+  if (fields.length) throw new UnprocessableError('A test is dated in the future; see the fields.', fields)
 }
 
 /**
@@ -76,7 +94,7 @@ async function upsertOne(m: EntityManager, workspaceId: string, actorId: string,
  * against the rated duration unless a reason is given, and a typed runtime agrees with its discharge
  * log within a few minutes unless a reason is given. Every broken rule is listed by field.
  */
-async function checkAgainstRules(m: EntityManager, workspaceId: string, records: TestRecordData[], ratedById: Map<string, number>) {
+async function checkAgainstRules(m: EntityManager, workspaceId: string, records: TestRecordData[], requiredById: Map<string, number>) {
   const logIds = [...new Set(records.map((r) => r.dischargeLogId).filter((x): x is string => !!x))]
   const runtimes = new Map<string, number>()
   if (logIds.length) {
@@ -94,10 +112,10 @@ async function checkAgainstRules(m: EntityManager, workspaceId: string, records:
       }
     }
     if (r.kind === 'duration') {
-      const rated = ratedById.get(r.luminaireId)!
-      const verdict = durationVerdict(r.achievedDurationH, rated)
+      const required = requiredById.get(r.luminaireId)!
+      const verdict = durationVerdict(r.achievedDurationH, required)
       if (verdict !== null && verdict !== r.passed && !r.verdictOverrideReason) {
-        fields.push({ path: `records.${i}.verdictOverrideReason`, message: `${r.achievedDurationH} h against the rated ${rated} h is a ${verdict ? 'pass' : 'fail'}: give a reason to record a ${r.passed ? 'pass' : 'fail'}` })
+        fields.push({ path: `records.${i}.verdictOverrideReason`, message: `${r.achievedDurationH} h against the required ${required} h is a ${verdict ? 'pass' : 'fail'}: give a reason to record a ${r.passed ? 'pass' : 'fail'}` })
       }
     }
   })
@@ -106,13 +124,18 @@ async function checkAgainstRules(m: EntityManager, workspaceId: string, records:
 
 /** Saves a batch in one transaction: all records or none. */
 export async function recordTests(workspaceId: string, actorId: string, records: TestRecordData[]) {
+  refuseFutureDates(records)
   return dataSource.transaction(async (m) => {
     const ids = [...new Set(records.map((r) => r.luminaireId))]
-    const found: Array<{ id: string; rated_duration_h: number }> = await m.query('SELECT id, rated_duration_h FROM luminaires WHERE workspace_id = $1 AND id = ANY($2::uuid[])', [workspaceId, ids])
+    const found: Array<{ id: string; rated_duration_h: number; regime: TestRegime }> = await m.query(
+      'SELECT l.id, l.rated_duration_h, s.regime FROM luminaires l JOIN sites s ON s.id = l.site_id WHERE l.workspace_id = $1 AND l.id = ANY($2::uuid[])',
+      [workspaceId, ids],
+    )
     if (found.length !== ids.length) throw new NotFoundError('A luminaire in these records')
-    await checkAgainstRules(m, workspaceId, records, new Map(found.map((f) => [f.id, f.rated_duration_h])))
+    // The time a full-duration test must last depends on the site's regime (rated duration, or a fixed time).
+    await checkAgainstRules(m, workspaceId, records, new Map(found.map((f) => [f.id, requiredDurationH(f.regime, f.rated_duration_h)])))
     const saved: Array<{ clientId: string; id: string; outcome: SaveOutcome }> = []
-    for (const r of records) saved.push({ clientId: r.clientId, ...(await upsertOne(m, workspaceId, actorId, r)) })
+    for (const [i, r] of records.entries()) saved.push({ clientId: r.clientId, ...(await upsertOne(m, workspaceId, actorId, r, i)) })
     return saved
   })
 }
@@ -201,6 +224,9 @@ export async function markRecordedInError(workspaceId: string, actorId: string, 
 
 /** Signs off a round (retries with the same clientId answer the same row); lists its records' failures. */
 export async function signOffRound(workspaceId: string, actorId: string, siteId: string, input: RoundSignOff) {
+  if (input.signedOffOn > latestTodayAnywhere()) {
+    throw new UnprocessableError('A round cannot be signed off with a date in the future.', [{ path: 'signedOffOn', code: 'future_date', message: `is later than today (${input.signedOffOn})` }])
+  }
   await findSite(workspaceId, siteId)
   return dataSource.transaction(async (m) => {
     const rows: Array<{ id: string; inserted: boolean }> = await m.query(

@@ -129,7 +129,7 @@ export const sheetRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'post', path: '/api/sheets/:id/shares', response: NewShareAnswer, access: 'designer', summary: 'Make a read-only share link (token shown once)',
+    method: 'post', path: '/api/sheets/:id/shares', response: NewShareAnswer, secretAnswer: true, access: 'designer', summary: 'Make a read-only share link (token shown once)',
     params: SheetParams, body: ShareCreateSchema, status: 201,
     handler: ({ params, body }, req) => {
       const s = scope(req)

@@ -1,5 +1,6 @@
 import { Column, CreateDateColumn, Entity, PrimaryGeneratedColumn } from 'typeorm'
 import type { Role } from '../../../shared/schemas/roles'
+import type { TokenScope } from '../../../shared/schemas/token.schema'
 
 /** A personal API token for scripts: one workspace, a role no higher than its owner's, stored hashed. */
 @Entity('api_tokens')
@@ -28,6 +29,14 @@ export class ApiToken {
 
   @Column({ type: 'timestamptz', name: 'last_used_at', nullable: true })
   lastUsedAt!: Date | null
+
+  /** After this moment the token no longer works (null: until revoked). */
+  @Column({ type: 'timestamptz', name: 'expires_at', nullable: true })
+  expiresAt!: Date | null
+
+  /** What the token may do: read (GET), write (changes), calc (engine tools). */
+  @Column({ type: 'text', array: true, default: () => "'{read,write,calc}'" })
+  scopes!: TokenScope[]
 
   @Column({ type: 'timestamptz', name: 'revoked_at', nullable: true })
   revokedAt!: Date | null

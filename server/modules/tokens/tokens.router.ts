@@ -23,11 +23,11 @@ export const tokenRoutes: RouteSpec[] = [
   }),
   defineRoute({
     method: 'post', path: '/api/tokens', response: NewApiTokenAnswer, access: 'viewer', summary: 'Make an API token (role at most mine); the secret is shown once',
-    body: CreateApiTokenSchema, status: 201,
+    body: CreateApiTokenSchema, status: 201, secretAnswer: true,
     handler: ({ body }, req) => {
       sessionOnly(req)
       const s = scope(req)
-      return createToken(s.userId, s.workspaceId, s.role, body.name, body.role)
+      return createToken(s.userId, s.workspaceId, s.role, body)
     },
   }),
   defineRoute({

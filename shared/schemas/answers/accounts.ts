@@ -1,5 +1,6 @@
 /** Answers of /api/auth, /api/workspaces, /api/workspace, /api/invitations, /api/tokens and /api/outbox. */
 import { z } from 'zod'
+import { TokenScopeSchema } from '../token.schema'
 import { RoleSchema } from '../roles'
 import { Timestamp } from './common'
 
@@ -35,6 +36,8 @@ export const ApiTokenAnswer = z.object({
   name: z.string(),
   role: RoleSchema,
   prefix: z.string(),
+  scopes: z.array(TokenScopeSchema),
+  expiresAt: Timestamp.nullable(),
   createdAt: Timestamp,
   lastUsedAt: Timestamp.nullable(),
   revokedAt: Timestamp.nullable(),
@@ -45,7 +48,7 @@ export const MemberTokenListAnswer = z.object({
   tokens: z.array(ApiTokenAnswer.extend({ userId: z.string().uuid(), userName: z.string(), userEmail: z.string() })),
 })
 /** A new API token: the secret is shown this once. */
-export const NewApiTokenAnswer = ApiTokenAnswer.pick({ id: true, name: true, role: true, prefix: true, createdAt: true }).extend({ token: z.string() })
+export const NewApiTokenAnswer = ApiTokenAnswer.pick({ id: true, name: true, role: true, prefix: true, scopes: true, expiresAt: true, createdAt: true }).extend({ token: z.string() })
 
 export const CaughtMailAnswer = z.object({ id: z.string(), receivedAt: Timestamp, to: z.array(z.string()), subject: z.string(), text: z.string() })
 export const OutboxAnswer = z.object({ messages: z.array(CaughtMailAnswer) })
