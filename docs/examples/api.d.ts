@@ -1168,6 +1168,46 @@ export interface paths {
         patch?: never;
         trace?: never;
     };
+    "/api/tests/{id}/recorded-in-error": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        /**
+         * Mark a test as recorded in error: kept in the log book struck through, left out of the state
+         * @description Role technician or higher in the current workspace. State-changing requests with a session cookie need the X-CSRF-Token header (or a same-origin Origin).
+         */
+        post: operations["postApiTestsIdRecordedInError"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/sites/{id}/regime-history": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * A site's testing regimes over time, oldest first
+         * @description Role viewer or higher in the current workspace. State-changing requests with a session cookie need the X-CSRF-Token header (or a same-origin Origin).
+         */
+        get: operations["getApiSitesIdRegimeHistory"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
     "/api/sites/{id}/tests": {
         parameters: {
             query?: never;
@@ -6094,7 +6134,7 @@ export interface operations {
                             responsibleName: string;
                             responsibleEmail: string;
                             /** @enum {string} */
-                            regime: "en50172" | "nfpa101";
+                            regime: "en50172" | "nfpa101" | "ca-nfc" | "asnzs2293";
                             ceilingTemperatureC: number;
                             createdAt: string;
                             updatedAt: string;
@@ -6199,7 +6239,7 @@ export interface operations {
                      * @default en50172
                      * @enum {string}
                      */
-                    regime?: "en50172" | "nfpa101";
+                    regime?: "en50172" | "nfpa101" | "ca-nfc" | "asnzs2293";
                     /** @default 25 */
                     ceilingTemperatureC?: number;
                 };
@@ -6219,7 +6259,7 @@ export interface operations {
                         responsibleName: string;
                         responsibleEmail: string;
                         /** @enum {string} */
-                        regime: "en50172" | "nfpa101";
+                        regime: "en50172" | "nfpa101" | "ca-nfc" | "asnzs2293";
                         ceilingTemperatureC: number;
                         createdAt: string;
                         updatedAt: string;
@@ -6299,7 +6339,7 @@ export interface operations {
                             responsibleName: string;
                             responsibleEmail: string;
                             /** @enum {string} */
-                            regime: "en50172" | "nfpa101";
+                            regime: "en50172" | "nfpa101" | "ca-nfc" | "asnzs2293";
                             ceilingTemperatureC: number;
                             createdAt: string;
                             updatedAt: string;
@@ -6313,6 +6353,113 @@ export interface operations {
                                 note?: string;
                             }[];
                         };
+                        profile: {
+                            /** @enum {string} */
+                            id: "en50172" | "nfpa101" | "ca-nfc" | "asnzs2293";
+                            version: string;
+                            edition: string;
+                            jurisdiction: string;
+                            shortTest: {
+                                /** @enum {string} */
+                                kind: "functional" | "duration";
+                                name: string;
+                                interval: {
+                                    /** @enum {string} */
+                                    unit: "month" | "day";
+                                    count: number;
+                                };
+                                window: {
+                                    earliestDays: number;
+                                    latestDays: number;
+                                } | null;
+                                length: {
+                                    /** @enum {boolean} */
+                                    rated: true;
+                                } | {
+                                    hours: number;
+                                } | {
+                                    minimumS: number;
+                                };
+                                passRule: string;
+                                reference: {
+                                    source: string;
+                                    /** @enum {string} */
+                                    basis: "published" | "common practice" | "from memory" | "derived";
+                                    note?: string;
+                                };
+                            };
+                            longTest: {
+                                /** @enum {string} */
+                                kind: "functional" | "duration";
+                                name: string;
+                                interval: {
+                                    /** @enum {string} */
+                                    unit: "month" | "day";
+                                    count: number;
+                                };
+                                window: {
+                                    earliestDays: number;
+                                    latestDays: number;
+                                } | null;
+                                length: {
+                                    /** @enum {boolean} */
+                                    rated: true;
+                                } | {
+                                    hours: number;
+                                } | {
+                                    minimumS: number;
+                                };
+                                passRule: string;
+                                reference: {
+                                    source: string;
+                                    /** @enum {string} */
+                                    basis: "published" | "common practice" | "from memory" | "derived";
+                                    note?: string;
+                                };
+                            };
+                            otherChecks: {
+                                name: string;
+                                interval: {
+                                    /** @enum {string} */
+                                    unit: "month" | "day";
+                                    count: number;
+                                } | null;
+                                reference: {
+                                    source: string;
+                                    /** @enum {string} */
+                                    basis: "published" | "common practice" | "from memory" | "derived";
+                                    note?: string;
+                                };
+                            }[];
+                            records: string[];
+                            retention: {
+                                years: number | null;
+                                reference: {
+                                    source: string;
+                                    /** @enum {string} */
+                                    basis: "published" | "common practice" | "from memory" | "derived";
+                                    note?: string;
+                                };
+                            };
+                            references: {
+                                source: string;
+                                /** @enum {string} */
+                                basis: "published" | "common practice" | "from memory" | "derived";
+                                note?: string;
+                            }[];
+                        };
+                        regimeHistory: {
+                            id: string;
+                            /** @enum {string|null} */
+                            fromRegime: "en50172" | "nfpa101" | "ca-nfc" | "asnzs2293" | null;
+                            /** @enum {string} */
+                            toRegime: "en50172" | "nfpa101" | "ca-nfc" | "asnzs2293";
+                            profileVersion: string;
+                            reason: string;
+                            changedBy: string | null;
+                            changedByName: string | null;
+                            changedAt: string;
+                        }[];
                         settings: {
                             repairWindowDays: number;
                             reminderDaysAhead: number;
@@ -6549,9 +6696,10 @@ export interface operations {
                      * @default en50172
                      * @enum {string}
                      */
-                    regime?: "en50172" | "nfpa101";
+                    regime?: "en50172" | "nfpa101" | "ca-nfc" | "asnzs2293";
                     /** @default 25 */
                     ceilingTemperatureC?: number;
+                    regimeChangeReason?: string;
                 };
             };
         };
@@ -6569,7 +6717,7 @@ export interface operations {
                         responsibleName: string;
                         responsibleEmail: string;
                         /** @enum {string} */
-                        regime: "en50172" | "nfpa101";
+                        regime: "en50172" | "nfpa101" | "ca-nfc" | "asnzs2293";
                         ceilingTemperatureC: number;
                         createdAt: string;
                         updatedAt: string;
@@ -7006,7 +7154,7 @@ export interface operations {
                             responsibleName: string;
                             responsibleEmail: string;
                             /** @enum {string} */
-                            regime: "en50172" | "nfpa101";
+                            regime: "en50172" | "nfpa101" | "ca-nfc" | "asnzs2293";
                             ceilingTemperatureC: number;
                             createdAt: string;
                             updatedAt: string;
@@ -7493,6 +7641,24 @@ export interface operations {
                             recordedBy: string | null;
                             recordedByName: string | null;
                             recordedAt: string;
+                            recordedInErrorAt: string | null;
+                            recordedInErrorReason: string;
+                            recordedInErrorByName: string | null;
+                        }[];
+                        packChanges?: {
+                            id: string;
+                            luminaireId: string;
+                            tag: string;
+                            changedOn: string;
+                            before: {
+                                [key: string]: unknown;
+                            } | null;
+                            after: {
+                                [key: string]: unknown;
+                            } | null;
+                            note: string;
+                            recordedByName: string | null;
+                            recordedAt: string;
                         }[];
                     };
                 };
@@ -7582,6 +7748,9 @@ export interface operations {
                             recordedBy: string | null;
                             recordedByName: string | null;
                             recordedAt: string;
+                            recordedInErrorAt: string | null;
+                            recordedInErrorReason: string;
+                            recordedInErrorByName: string | null;
                         }[];
                         nextCursor: string | null;
                     };
@@ -7797,6 +7966,176 @@ export interface operations {
             };
         };
     };
+    postApiTestsIdRecordedInError: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": {
+                    reason: string;
+                };
+            };
+        };
+        responses: {
+            /** @description Mark a test as recorded in error: kept in the log book struck through, left out of the state */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        id: string;
+                        clientId: string;
+                        luminaireId: string;
+                        tag: string;
+                        siteId: string;
+                        /** @enum {string} */
+                        kind: "functional" | "duration";
+                        testedOn: string;
+                        passed: boolean;
+                        achievedDurationH: number | null;
+                        faults: string;
+                        remedialAction: string;
+                        dischargeLogId: string | null;
+                        checklist: {
+                            [key: string]: boolean;
+                        };
+                        verdictOverrideReason: string;
+                        runtimeNote: string;
+                        roundClientId: string | null;
+                        recordedBy: string | null;
+                        recordedByName: string | null;
+                        recordedAt: string;
+                        recordedInErrorAt: string | null;
+                        recordedInErrorReason: string;
+                        recordedInErrorByName: string | null;
+                    };
+                };
+            };
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Your role does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description No such record in this workspace */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+        };
+    };
+    getApiSitesIdRegimeHistory: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description A site's testing regimes over time, oldest first */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        changes: {
+                            id: string;
+                            /** @enum {string|null} */
+                            fromRegime: "en50172" | "nfpa101" | "ca-nfc" | "asnzs2293" | null;
+                            /** @enum {string} */
+                            toRegime: "en50172" | "nfpa101" | "ca-nfc" | "asnzs2293";
+                            profileVersion: string;
+                            reason: string;
+                            changedBy: string | null;
+                            changedByName: string | null;
+                            changedAt: string;
+                        }[];
+                    };
+                };
+            };
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Your role does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description No such record in this workspace */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+        };
+    };
     getApiSitesIdTests: {
         parameters: {
             query?: never;
@@ -7836,6 +8175,24 @@ export interface operations {
                             runtimeNote: string;
                             roundClientId: string | null;
                             recordedBy: string | null;
+                            recordedByName: string | null;
+                            recordedAt: string;
+                            recordedInErrorAt: string | null;
+                            recordedInErrorReason: string;
+                            recordedInErrorByName: string | null;
+                        }[];
+                        packChanges?: {
+                            id: string;
+                            luminaireId: string;
+                            tag: string;
+                            changedOn: string;
+                            before: {
+                                [key: string]: unknown;
+                            } | null;
+                            after: {
+                                [key: string]: unknown;
+                            } | null;
+                            note: string;
                             recordedByName: string | null;
                             recordedAt: string;
                         }[];
@@ -11742,7 +12099,7 @@ export interface operations {
                                 responsibleName: string;
                                 responsibleEmail: string;
                                 /** @enum {string} */
-                                regime: "en50172" | "nfpa101";
+                                regime: "en50172" | "nfpa101" | "ca-nfc" | "asnzs2293";
                             };
                             firm: string;
                             certificate: {
@@ -11917,7 +12274,7 @@ export interface operations {
                                 responsibleName: string;
                                 responsibleEmail: string;
                                 /** @enum {string} */
-                                regime: "en50172" | "nfpa101";
+                                regime: "en50172" | "nfpa101" | "ca-nfc" | "asnzs2293";
                             };
                             firm: string;
                             certificate: {
@@ -12216,7 +12573,7 @@ export interface operations {
                                 responsibleName: string;
                                 responsibleEmail: string;
                                 /** @enum {string} */
-                                regime: "en50172" | "nfpa101";
+                                regime: "en50172" | "nfpa101" | "ca-nfc" | "asnzs2293";
                             };
                             firm: string;
                             certificate: {

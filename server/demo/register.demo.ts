@@ -6,6 +6,7 @@
  */
 import type { EntityManager } from 'typeorm'
 import { addDays, addMonthsClamped } from '../../shared/engine/due'
+import type { TestRegimeId } from '../../shared/schemas/site.schema'
 import type { ChemistryId } from '../../shared/engine/chemistries'
 import { AreaEntity } from '../modules/register/area.entity'
 import { LuminaireEntity } from '../modules/register/luminaire.entity'
@@ -37,7 +38,7 @@ interface SiteSpec {
   address: string
   responsibleName: string
   responsibleEmail: string
-  regime: 'en50172' | 'nfpa101'
+  regime: TestRegimeId
   ceilingTemperatureC: number
   ratedDurationH: number
   luminaires: LuminaireSpec[]

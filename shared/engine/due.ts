@@ -8,11 +8,9 @@
  *   therefore pulls the calendar forward: the gap between two tests never exceeds the interval.
  * - A full-duration test also switches the luminaire to emergency mode, so it counts as that
  *   month's functional test too.
- * - "Monthly" and "annual" are calendar intervals: the same day of the next month (or of the same
- *   month next year), clamped to the last day of a shorter month (31 Jan → 28/29 Feb). NFPA 101
- *   states its functional test as a 30-day interval, so that one is counted in days. Its annual
- *   test is "annual", counted like the European one as 12 calendar months: a 365-day rule would
- *   creep a day earlier after every 29 February for no safety gain.
+ * - Intervals and windows come from the site's regime profile (regimes.ts). "Monthly" and "annual"
+ *   are calendar intervals clamped to the end of a shorter month (31 Jan → 28/29 Feb); NFPA 101's
+ *   monthly test is counted in days (30, overdue after its 5-week window).
  * - A luminaire never tested has its functional test due one interval after its pack was fitted (or
  *   after it joined the register): no record of a test means the test is not proven.
  * - Failures stay open until put right, per kind of test (see `openFailuresOf`): the retest is due at
@@ -23,15 +21,18 @@
  */
 import { chemistryServiceLifeYears } from './battery-models'
 import { getChemistry, type ChemistryId } from './chemistries'
+import { REGIME_LABELS } from '../labels'
+import { REGIME_IDS, REGIME_PROFILES, shortTestMinimumS, type RegimeId, type RegimeProfile, type RoutineTestKind, type TestWindow } from './regimes'
 import type { Reference } from './types'
 import { addDays, addInterval, addMonthsClamped, daysBetween, parseIsoDate, type IsoDate, type TestInterval } from './calendar'
 
 // The calendar arithmetic lives in ./calendar; these names stay importable from here.
 export { addDays, addInterval, addMonthsClamped, daysBetween, daysInMonth, isIsoDate, isLeapYear, parseIsoDate, type IsoDate, type TestInterval } from './calendar'
 
-export type TestRegime = 'en50172' | 'nfpa101'
-export type TestKind = 'functional' | 'duration'
+export type TestRegime = RegimeId
+export type TestKind = RoutineTestKind
 
+/** The calendar's view of a regime profile (regimes.ts holds the full profile with its sources). */
 export interface RegimeRules {
   id: TestRegime
   label: string
@@ -39,44 +40,25 @@ export interface RegimeRules {
   duration: TestInterval
   /** Shortest functional test the regime asks for, seconds (0 = "long enough to check every lamp"). */
   functionalMinimumS: number
-  /** Length of the annual test: the luminaire's rated duration, or a fixed time in hours. */
+  /** Length of the long test: the luminaire's rated duration, or a fixed time in hours. */
   durationTest: 'rated' | { hours: number }
   references: Reference[]
 }
 
-export const REGIMES: Readonly<Record<TestRegime, RegimeRules>> = {
-  en50172: {
-    id: 'en50172',
-    label: 'EN 50172 / BS 5266-1 (monthly functional, annual full rated duration)',
-    functional: { unit: 'month', count: 1 },
-    duration: { unit: 'month', count: 12 },
-    functionalMinimumS: 0,
-    durationTest: 'rated',
-    references: [
-      {
-        source: 'EN 50172:2004 (BS 5266-8), clause 7.2: routine tests',
-        basis: 'from memory',
-        note: 'Monthly: simulate a supply failure long enough to see each lamp lit, then check the charge indicator. Annual: full rated duration. Results go in the log book. Clause numbering from memory.',
-      },
-      { source: 'BS 5266-1:2016, routine testing and log book', basis: 'from memory', note: 'Same monthly / annual pattern.' },
-    ],
-  },
-  nfpa101: {
-    id: 'nfpa101',
-    label: 'NFPA 101 7.9.3 (30-second test every 30 days, 90-minute test every year)',
-    functional: { unit: 'day', count: 30 },
-    duration: { unit: 'month', count: 12 },
-    functionalMinimumS: 30,
-    durationTest: { hours: 1.5 },
-    references: [
-      {
-        source: 'NFPA 101 (Life Safety Code), 7.9.3: periodic testing of emergency lighting equipment',
-        basis: 'published',
-        note: 'Functional test at 30-day intervals for at least 30 s; annual test for the full 1½ h; written records kept for the authority having jurisdiction. Later editions word the first as "monthly, 3 to 5 weeks apart" (from memory); 30 days satisfies both.',
-      },
-    ],
-  },
+function rulesOf(p: RegimeProfile): RegimeRules {
+  const long = p.longTest.length
+  return {
+    id: p.id,
+    label: REGIME_LABELS[p.id],
+    functional: p.shortTest.interval,
+    duration: p.longTest.interval,
+    functionalMinimumS: shortTestMinimumS(p.id),
+    durationTest: 'hours' in long ? { hours: long.hours } : 'rated',
+    references: [p.shortTest.reference, p.longTest.reference, ...p.references],
+  }
 }
+
+export const REGIMES: Readonly<Record<TestRegime, RegimeRules>> = Object.fromEntries(REGIME_IDS.map((id) => [id, rulesOf(REGIME_PROFILES[id])])) as Record<TestRegime, RegimeRules>
 
 const laterOf = (a: IsoDate, b: IsoDate) => (a >= b ? a : b)
 const earlierOf = (a: IsoDate, b: IsoDate) => (a <= b ? a : b)
@@ -166,11 +148,25 @@ export interface DueOptions {
   repairWindowDays?: number
 }
 
-function routineItem(kind: TestKind, last: IsoDate | null, since: IsoDate, interval: TestInterval, today: IsoDate, soonDays: number): DueItem {
-  const nextDueOn = addInterval(last ?? since, interval)
-  const daysUntilDue = daysBetween(today, nextDueOn)
-  const state: DueState = daysUntilDue < 0 ? 'overdue' : daysUntilDue <= soonDays ? 'due-soon' : 'scheduled'
-  return { kind, lastTestedOn: last, nextDueOn, overdueAfter: nextDueOn, daysUntilDue, state, reason: 'interval' }
+function routineItem(kind: TestKind, last: IsoDate | null, since: IsoDate, interval: TestInterval, window: TestWindow | null, today: IsoDate, soonDays: number): DueItem {
+  const from = last ?? since
+  const nextDueOn = addInterval(from, interval)
+  // A stated tolerance (NFPA's 3 to 5 weeks) moves the overdue day; without one the test is overdue the day after it falls due.
+  const overdueAfter = window ? laterOf(nextDueOn, addDays(from, window.latestDays)) : nextDueOn
+  const daysUntilDue = daysBetween(today, overdueAfter)
+  const state: DueState = daysUntilDue < 0 ? 'overdue' : daysBetween(today, nextDueOn) <= soonDays ? 'due-soon' : 'scheduled'
+  return { kind, lastTestedOn: last, nextDueOn, overdueAfter, daysUntilDue, state, reason: 'interval' }
+}
+
+/**
+ * The window of the next routine test after one done on `lastTestedOn`: the first day a test counts
+ * as the next one, the day it falls due, and the last day before it is overdue.
+ */
+export function testWindow(regime: TestRegime, kind: TestKind, lastTestedOn: IsoDate): { opensOn: IsoDate; dueOn: IsoDate; overdueAfter: IsoDate } {
+  const test = kind === 'functional' ? REGIME_PROFILES[regime].shortTest : REGIME_PROFILES[regime].longTest
+  const dueOn = addInterval(lastTestedOn, test.interval)
+  if (!test.window) return { opensOn: addDays(lastTestedOn, 1), dueOn, overdueAfter: dueOn }
+  return { opensOn: addDays(lastTestedOn, test.window.earliestDays), dueOn, overdueAfter: laterOf(dueOn, addDays(lastTestedOn, test.window.latestDays)) }
 }
 
 function urgentItem(kind: TestKind, last: IsoDate | null, dueOn: IsoDate, overdueAfter: IsoDate, today: IsoDate, reason: DueReason): DueItem {
@@ -209,7 +205,8 @@ export function luminaireDue(input: LuminaireDueInput, today: IsoDate, options: 
   const opts = typeof options === 'number' ? { soonDays: options } : options
   const soonDays = opts.soonDays ?? DEFAULT_SOON_DAYS
   const windowDays = opts.repairWindowDays ?? DEFAULT_REPAIR_WINDOW_DAYS
-  const rules = REGIMES[input.regime]
+  const profile = REGIME_PROFILES[input.regime]
+  if (!profile) throw new Error(`"${input.regime}" is not a testing regime`)
   const packFittedOn = input.packFittedOn ?? input.since
   // Tests dated after `today` (a clock set wrong on a phone) are not allowed to push the calendar on.
   const tests = chronological(input.tests.filter((t) => t.testedOn <= today))
@@ -233,7 +230,7 @@ export function luminaireDue(input: LuminaireDueInput, today: IsoDate, options: 
 
   const functional = open.functional
     ? urgentItem('functional', lastAny, open.functional.testedOn, addDays(open.functional.testedOn, windowDays), today, 'retest')
-    : routineItem('functional', lastAny, input.since, rules.functional, today, soonDays)
+    : routineItem('functional', lastAny, input.since, profile.shortTest.interval, profile.shortTest.window, today, soonDays)
   const commissioning = !durationPassedSincePack
   let duration: DueItem
   if (open.duration) duration = urgentItem('duration', lastDuration, open.duration.testedOn, addDays(open.duration.testedOn, windowDays), today, 'retest')
@@ -241,7 +238,7 @@ export function luminaireDue(input: LuminaireDueInput, today: IsoDate, options: 
     // Due from the day the pack went in; a luminaire entered in the register later gets the window from that day.
     const from = input.registeredOn ? laterOf(packFittedOn, input.registeredOn) : packFittedOn
     duration = urgentItem('duration', lastDuration, packFittedOn, addDays(from, windowDays), today, 'commissioning')
-  } else duration = routineItem('duration', lastDuration, input.since, rules.duration, today, soonDays)
+  } else duration = routineItem('duration', lastDuration, input.since, profile.longTest.interval, profile.longTest.window, today, soonDays)
 
   const items = [functional, duration]
   const state = openFailures.length

@@ -45,13 +45,17 @@ export const PURPOSE_LABELS = {
 
 export const REGIME_LABELS = {
   en50172: 'EN 50172 / BS 5266-1: monthly functional test, annual full-duration test',
-  nfpa101: 'NFPA 101: 30-second test every 30 days, 90-minute test every year',
+  nfpa101: 'NFPA 101: 30-second test monthly (3 to 5 weeks apart), 90-minute test every year',
+  'ca-nfc': 'Canadian fire codes: monthly inspection, yearly test for the design duration',
+  asnzs2293: 'AS/NZS 2293.2: six-monthly 90-minute discharge test, yearly service',
 } as const
 
 /** The regime in a few words, for table cells and titles. */
 export const REGIME_SHORT_LABELS: Record<keyof typeof REGIME_LABELS, string> = {
   en50172: 'EN 50172 / BS 5266-1',
   nfpa101: 'NFPA 101',
+  'ca-nfc': 'National Fire Code of Canada',
+  asnzs2293: 'AS/NZS 2293.2',
 }
 
 export const CRITERIA_LABELS = {

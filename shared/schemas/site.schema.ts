@@ -1,9 +1,10 @@
 /** Sites (buildings under test) and their areas: the one zod schema per concept, shared by server and forms. */
 import { z } from 'zod'
+import { REGIME_IDS } from '../engine/regimes'
 import { EmailSchema } from './auth.schema'
 
-export const TEST_REGIMES = ['en50172', 'nfpa101'] as const
-export const TestRegimeSchema = z.enum(TEST_REGIMES, { errorMap: () => ({ message: 'must be en50172 or nfpa101' }) })
+export const TEST_REGIMES = REGIME_IDS
+export const TestRegimeSchema = z.enum(TEST_REGIMES, { errorMap: () => ({ message: `must be one of ${TEST_REGIMES.join(', ')}` }) })
 export type TestRegimeId = z.infer<typeof TestRegimeSchema>
 
 export { REGIME_LABELS, REGIME_SHORT_LABELS } from '../labels'
@@ -26,7 +27,13 @@ export const SiteSchema = z.object({
 })
 export type SiteInput = z.input<typeof SiteSchema>
 export type Site = z.output<typeof SiteSchema>
-export const SitePatchSchema = SiteSchema.partial().refine((v) => Object.keys(v).length > 0, 'give at least one field to change')
+export const SitePatchSchema = SiteSchema.partial()
+  .extend({
+    /** Why the regime changes (kept in the site's regime history). */
+    regimeChangeReason: text(400).optional(),
+  })
+  .refine((v) => Object.keys(v).length > 0, 'give at least one field to change')
+  .refine((v) => v.regimeChangeReason === undefined || v.regime !== undefined, { message: 'is only for a change of regime', path: ['regimeChangeReason'] })
 
 export const AreaSchema = z.object({
   name: text(120).min(1, 'is required'),

@@ -90,3 +90,10 @@ export const RoundSignOffSchema = z.object({
   notes: z.string().trim().max(2000, 'must be at most 2000 characters').default(''),
 })
 export type RoundSignOff = z.output<typeof RoundSignOffSchema>
+
+/** Marking a test as recorded in error: the record stays in the log book, struck through, with this reason. */
+export const RecordedInErrorSchema = z
+  .object({
+    reason: z.string({ required_error: 'is required', invalid_type_error: 'must be text' }).trim().min(3, 'say why, in a few words').max(400, 'must be at most 400 characters'),
+  })
+  .strict('give only reason')

@@ -14,6 +14,8 @@ import type {
   LuminaireAnswer,
   LuminaireDetailAnswer,
   LuminaireStatusAnswer,
+  PackChangeAnswer,
+  RegimeChangeAnswer,
   RegisterOverviewAnswer,
   RegisterSettingsAnswer,
   SiteAnswer,
@@ -36,6 +38,8 @@ export type Area = Answer<typeof AreaAnswer>
 export type Luminaire = Answer<typeof LuminaireAnswer>
 export type LuminaireStatus = Answer<typeof LuminaireStatusAnswer>
 export type SiteStatus = Answer<typeof SiteStatusAnswer>
+export type PackChangeEntry = Answer<typeof PackChangeAnswer>
+export type RegimeChange = Answer<typeof RegimeChangeAnswer>
 export type LuminaireDetail = Answer<typeof LuminaireDetailAnswer>
 export type LogBookEntry = Answer<typeof LogBookEntryAnswer>
 export type LogBook = Answer<typeof LogBookAnswer>
@@ -50,7 +54,7 @@ export const fetchOverview = (days = 60) =>
 export const fetchRegisterSettings = () => http.get<RegisterSettings>('/register/settings')
 export const updateRegisterSettings = (body: Partial<RegisterSettings>) => http.patch<RegisterSettings>('/register/settings', body)
 export const createSite = (body: SiteInput) => http.post<Site>('/sites', body)
-export const updateSite = (id: string, body: Partial<SiteInput>) => http.patch<Site>(`/sites/${id}`, body)
+export const updateSite = (id: string, body: Partial<SiteInput> & { regimeChangeReason?: string }) => http.patch<Site>(`/sites/${id}`, body)
 export const deleteSite = (id: string) => http.del<void>(`/sites/${id}`)
 export const fetchSite = (id: string) => http.get<SiteStatus>(`/sites/${id}`)
 export const createArea = (siteId: string, name: string) => http.post<Area>(`/sites/${siteId}/areas`, { name })
@@ -62,6 +66,9 @@ export const replacePack = (id: string, body: { packFittedOn: string; chemistry?
   http.post<Luminaire>(`/luminaires/${id}/pack`, body)
 export const fetchLuminaireTests = (id: string) => http.get<LogBook>(`/luminaires/${id}/tests`)
 export const fetchLogBook = (siteId: string) => http.get<LogBook>(`/sites/${siteId}/tests`)
+export const markRecordedInError = (testId: string, reason: string) => http.post<LogBookEntry>(`/tests/${testId}/recorded-in-error`, { reason })
+export const renameArea = (id: string, name: string) => http.patch<Area>(`/areas/${id}`, { name })
+export const deleteArea = (id: string) => http.del<void>(`/areas/${id}`)
 export const recordTests = (records: TestRecordInput[]) =>
   http.post<TestBatchResult>('/tests', { records })
 export const previewImport = (siteId: string, csv: string) => http.post<ImportPreview>(`/sites/${siteId}/import/preview`, { csv })

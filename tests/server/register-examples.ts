@@ -73,6 +73,16 @@ export const registerRouteExamples: Record<string, ExampleFn> = {
       foreignPath: `/api/tests/${await testIn(other.workspaceId, theirs.luminaire.id, { kind: 'functional', testedOn: '2025-01-01' })}`,
     }
   },
+  'post /api/tests/:id/recorded-in-error': async ({ team, other }) => {
+    const mine = await siteWithLuminaire(team.workspaceId)
+    const theirs = await siteWithLuminaire(other.workspaceId)
+    return {
+      path: `/api/tests/${await testIn(team.workspaceId, mine.luminaire.id, { kind: 'functional', testedOn: '2025-01-01' })}/recorded-in-error`,
+      body: { reason: 'Entered against the wrong luminaire' },
+      foreignPath: `/api/tests/${await testIn(other.workspaceId, theirs.luminaire.id, { kind: 'functional', testedOn: '2025-01-01' })}/recorded-in-error`,
+    }
+  },
+  'get /api/sites/:id/regime-history': async ({ team, other }) => ({ path: `/api/sites/${await siteId(team.workspaceId)}/regime-history`, foreignPath: `/api/sites/${await siteId(other.workspaceId)}/regime-history` }),
   'post /api/sites/:id/rounds': async ({ team, other }) => ({
     path: `/api/sites/${await siteId(team.workspaceId)}/rounds`,
     body: { clientId: crypto.randomUUID(), signedOffByName: 'Example Tester', signedOffOn: '2025-03-01' },

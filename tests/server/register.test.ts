@@ -218,7 +218,7 @@ describe('exports', () => {
     const log = await viewer.get(`/api/sites/${site.id}/export/logbook.csv?as=json`)
     expect(log.status).toBe(200)
     expect(log.body.content).toContain(`"'-lamp out\n=1+1 on second line"`)
-    expect(log.body.content.split('\r\n')[0]).toBe('tested_on,tag,test,result,achieved_duration_h,faults,remedial_action,recorded_by,recorded_at')
+    expect(log.body.content.split('\r\n')[0]).toBe('tested_on,tag,test,result,achieved_duration_h,faults,remedial_action,recorded_by,recorded_at,recorded_in_error')
   })
 
   it('PDF exports are real PDFs in Source Sans 3 that print names beyond Latin-1', async () => {

@@ -62,7 +62,8 @@ function firstDurationTests(luminaires: HandoverContent['luminaires'], log: LogB
 /** Gathers the site as it stands today into the pack's frozen content. */
 async function gather(workspaceId: string, siteId: string, request: HandoverRequest, today: string): Promise<HandoverContent> {
   const status = await siteStatus(workspaceId, siteId, today)
-  const log = await siteLogBook(workspaceId, siteId, 100_000)
+  // A test recorded in error proves nothing: the pack hands over only valid records.
+  const log = (await siteLogBook(workspaceId, siteId, 100_000)).filter((e) => !e.recordedInErrorAt)
   const workspace = await dataSource.getRepository(Workspace).findOneOrFail({ where: { id: workspaceId } })
   const luminaires = status.luminaires.map((l) => ({
     tag: l.tag, areaName: l.areaName, location: l.location, typeLabel: l.typeLabel, purpose: l.purpose, mode: l.mode, ratedDurationH: l.ratedDurationH,

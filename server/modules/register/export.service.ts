@@ -53,9 +53,11 @@ export interface LogBookPeriod {
 
 export async function logBookRows(workspaceId: string, siteId: string, period: LogBookPeriod = {}) {
   const entries = (await siteLogBook(workspaceId, siteId, 100_000)).filter((e) => (!period.from || e.testedOn >= period.from) && (!period.to || e.testedOn <= period.to))
-  const header = ['tested_on', 'tag', 'test', 'result', 'achieved_duration_h', 'faults', 'remedial_action', 'recorded_by', 'recorded_at']
+  // A test recorded in error stays in the log book with its reason, so the record is complete.
+  const header = ['tested_on', 'tag', 'test', 'result', 'achieved_duration_h', 'faults', 'remedial_action', 'recorded_by', 'recorded_at', 'recorded_in_error']
   const rows = entries.map((e) => [
     e.testedOn, e.tag, e.kind, e.passed ? 'pass' : 'fail', e.achievedDurationH === null ? null : round(e.achievedDurationH), e.faults, e.remedialAction, e.recordedByName ?? '', new Date(e.recordedAt).toISOString(),
+    e.recordedInErrorAt ? e.recordedInErrorReason || 'yes' : '',
   ])
   return { header, rows }
 }
@@ -163,9 +165,9 @@ async function logBookPdf(status: SiteStatus, rows: Array<Array<string | number 
     doc,
     columns,
     rows.map((r) => [
-      // The CSV's machine values turned into words, the result with a mark that needs no colour.
-      formatDate(String(r[0]), prefs), String(r[1]), labelOf(TEST_KIND_LABELS, String(r[2])), resultCell(r[3] === 'pass'),
-      typeof r[4] === 'number' ? formatHours(r[4], prefs) : '', String(r[5] ?? ''), String(r[6] ?? ''), String(r[7] ?? ''),
+      // The CSV's machine values turned into words, the result with a mark that needs no colour; a test recorded in error reads "Void" with its reason.
+      formatDate(String(r[0]), prefs), String(r[1]), labelOf(TEST_KIND_LABELS, String(r[2])), r[9] ? 'Void' : resultCell(r[3] === 'pass'),
+      typeof r[4] === 'number' ? formatHours(r[4], prefs) : '', r[9] ? `Recorded in error (${String(r[9])}). ${String(r[5] ?? '')}` : String(r[5] ?? ''), String(r[6] ?? ''), String(r[7] ?? ''),
     ]),
   )
   if (!rows.length) write(doc, period.from || period.to ? 'No tests recorded in this period.' : 'No tests recorded yet.')

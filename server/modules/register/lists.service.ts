@@ -61,7 +61,7 @@ export async function luminairesWithDue(workspaceId: string, filter: LuminaireFi
   ])
   const tests: Array<{ luminaire_id: string; kind: 'functional' | 'duration'; tested_on: string; passed: boolean; achieved_duration_h: number | null; faults: string; remedial_action: string }> = await dataSource.query(
     `SELECT luminaire_id, kind, tested_on::text AS tested_on, passed, achieved_duration_h, faults, remedial_action
-       FROM test_records WHERE workspace_id = $1 AND luminaire_id = ANY($2::uuid[]) ORDER BY tested_on, recorded_at`,
+       FROM test_records WHERE workspace_id = $1 AND luminaire_id = ANY($2::uuid[]) AND recorded_in_error_at IS NULL ORDER BY tested_on, recorded_at`,
     [workspaceId, rows.map((l) => l.id)],
   )
   const testsBy = new Map<string, typeof tests>()

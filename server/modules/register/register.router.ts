@@ -1,10 +1,10 @@
 /** /api/sites, /api/areas, /api/luminaires, /api/tests: the site register and its test log book. */
-import { AreaAnswer, ExportAnswer, ImportPreviewAnswer, ImportResultAnswer, LogBookAnswer, LuminaireAnswer, LuminaireDetailAnswer, RegisterOverviewAnswer, RegisterSettingsAnswer, RoundSignOffAnswer, SiteAnswer, SiteStatusAnswer, TestBatchAnswer } from '../../../shared/schemas/answers/register'
+import { AreaAnswer, ExportAnswer, ImportPreviewAnswer, ImportResultAnswer, LogBookAnswer, LogBookEntryAnswer, LuminaireAnswer, LuminaireDetailAnswer, RegisterOverviewAnswer, RegimeHistoryAnswer, RegisterSettingsAnswer, RoundSignOffAnswer, SiteAnswer, SiteStatusAnswer, TestBatchAnswer } from '../../../shared/schemas/answers/register'
 import multer from 'multer'
 import { z } from 'zod'
 import { ImportRequestSchema, IsoDateSchema, LuminairePatchSchema, LuminaireSchema, PackReplacementSchema } from '../../../shared/schemas/luminaire.schema'
 import { AreaPatchSchema, AreaSchema, RegisterSettingsPatchSchema, SitePatchSchema, SiteSchema } from '../../../shared/schemas/site.schema'
-import { RoundSignOffSchema, TestBatchSchema } from '../../../shared/schemas/test-record.schema'
+import { RecordedInErrorSchema, RoundSignOffSchema, TestBatchSchema } from '../../../shared/schemas/test-record.schema'
 import { IdParams, Uuid } from '../../lib/parse'
 import { defineRoute, scope, type RouteSpec } from '../../policy/access'
 import { formatPrefsOf } from '../../lib/format-prefs'
@@ -17,6 +17,7 @@ import { TestPlanRequestSchema } from '../../../shared/schemas/test-plan.schema'
 import { TestPlanAnswer, TestPlanListAnswer } from '../../../shared/schemas/answers/test-plans'
 import * as register from './register.service'
 import * as tests from './tests.service'
+import { regimeHistory } from './regime-history.service'
 
 
 // Schedules are small text files; 2 MB is far more than any building's register.
@@ -181,9 +182,29 @@ export const registerRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
+    method: 'post', path: '/api/tests/:id/recorded-in-error', access: 'technician', summary: 'Mark a test as recorded in error: kept in the log book struck through, left out of the state',
+    params: IdParams, body: RecordedInErrorSchema, response: LogBookEntryAnswer,
+    handler: ({ params, body }, req) => {
+      const s = scope(req)
+      return tests.markRecordedInError(s.workspaceId, s.userId, params.id, body.reason)
+    },
+  }),
+  defineRoute({
+    method: 'get', path: '/api/sites/:id/regime-history', access: 'viewer', summary: "A site's testing regimes over time, oldest first",
+    params: IdParams, response: RegimeHistoryAnswer,
+    handler: async ({ params }, req) => {
+      const workspaceId = scope(req).workspaceId
+      await register.findSite(workspaceId, params.id)
+      return { changes: await regimeHistory(workspaceId, params.id) }
+    },
+  }),
+  defineRoute({
     method: 'get', path: '/api/sites/:id/tests', response: LogBookAnswer, access: 'viewer', summary: "A site's log book, newest first",
     params: IdParams,
-    handler: async ({ params }, req) => ({ tests: await tests.siteLogBook(scope(req).workspaceId, params.id) }),
+    handler: async ({ params }, req) => {
+      const workspaceId = scope(req).workspaceId
+      return { tests: await tests.siteLogBook(workspaceId, params.id), packChanges: await tests.sitePackChanges(workspaceId, params.id) }
+    },
   }),
   defineRoute({
     method: 'post', path: '/api/sites/:id/rounds', access: 'technician', summary: 'Sign off a round by name and date; answers with the failures recorded on it',

@@ -8,6 +8,7 @@ import { z } from 'zod'
 import { countDue, DEFAULT_REPAIR_WINDOW_DAYS, dueWithin, forecastPack, luminaireDue, needingAttention, REGIMES, type DueItem, type LuminaireDue, type PackForecast, type TestEvent } from '../../../shared/engine/due'
 import type { AreaPatchSchema, AreaSchema, SitePatchSchema, SiteSchema } from '../../../shared/schemas/site.schema'
 import type { LuminairePatchSchema, LuminaireSchema, PackReplacementSchema } from '../../../shared/schemas/luminaire.schema'
+import { regimeProfile } from '../../../shared/engine/regimes'
 import { dataSource } from '../../data-source'
 import { AppError, BadRequestError, NotFoundError } from '../../errors/app-error'
 import { recordAudit } from '../audit/audit.service'
@@ -15,6 +16,7 @@ import { AreaEntity } from './area.entity'
 import { LuminaireEntity } from './luminaire.entity'
 import { RegisterSettingsEntity } from './register-settings.entity'
 import { SiteEntity } from './site.entity'
+import { recordRegimeChange, regimeHistory } from './regime-history.service'
 
 /** Today's calendar day in UTC, the day the due rules are evaluated on. */
 export const todayIso = (): string => new Date().toISOString().slice(0, 10)
@@ -47,6 +49,7 @@ export async function findSite(workspaceId: string, id: string, m: EntityManager
 export async function createSite(workspaceId: string, actorId: string, input: z.output<typeof SiteSchema>) {
   return dataSource.transaction(async (m) => {
     const site = await m.getRepository(SiteEntity).save(m.getRepository(SiteEntity).create({ ...input, workspaceId }))
+    await recordRegimeChange(m, workspaceId, site.id, actorId, null, site.regime)
     await recordAudit({ workspaceId, actorId, action: 'site.created', entityType: 'site', entityId: site.id, data: { name: site.name, regime: site.regime } }, m)
     return siteDto(site)
   })
@@ -55,9 +58,12 @@ export async function createSite(workspaceId: string, actorId: string, input: z.
 export async function updateSite(workspaceId: string, actorId: string, id: string, patch: z.output<typeof SitePatchSchema>) {
   return dataSource.transaction(async (m) => {
     const site = await findSite(workspaceId, id, m)
-    const changes = changedFields(site as unknown as Record<string, unknown>, patch)
-    Object.assign(site, patch)
+    const { regimeChangeReason, ...fields } = patch
+    const changes = changedFields(site as unknown as Record<string, unknown>, fields)
+    const fromRegime = site.regime
+    Object.assign(site, fields)
     await m.getRepository(SiteEntity).save(site)
+    if (changes.regime) await recordRegimeChange(m, workspaceId, id, actorId, fromRegime, site.regime, regimeChangeReason ?? '')
     await recordAudit({ workspaceId, actorId, action: 'site.updated', entityType: 'site', entityId: id, data: { changes } }, m)
     return siteDto(site)
   })
@@ -303,7 +309,7 @@ async function testsOf(workspaceId: string, luminaireIds: string[], m: EntityMan
   if (!luminaireIds.length) return byLuminaire
   const rows: TestRow[] = await m.query(
     `SELECT luminaire_id, kind, tested_on::text AS tested_on, passed, achieved_duration_h, faults, remedial_action
-       FROM test_records WHERE workspace_id = $1 AND luminaire_id = ANY($2::uuid[]) ORDER BY tested_on, recorded_at`,
+       FROM test_records WHERE workspace_id = $1 AND luminaire_id = ANY($2::uuid[]) AND recorded_in_error_at IS NULL ORDER BY tested_on, recorded_at`,
     [workspaceId, luminaireIds],
   )
   for (const r of rows) {
@@ -370,6 +376,8 @@ export async function siteStatus(workspaceId: string, siteId: string, today = to
     today,
     site: siteDto(site),
     regime: { label: REGIMES[site.regime].label, references: REGIMES[site.regime].references },
+    profile: regimeProfile(site.regime),
+    regimeHistory: await regimeHistory(workspaceId, siteId, m),
     settings,
     areas: [...areaNames.entries()].map(([id, name]) => ({ id, name })).sort((a, b) => a.name.localeCompare(b.name)),
     counts: countDue(luminaires.map((l) => l.due)),

@@ -58,6 +58,16 @@ export class TestRecordEntity {
   @Column({ type: 'timestamptz', name: 'recorded_at' })
   recordedAt!: Date
 
+  /** Marked as entered in error: kept in the log book, left out of the luminaire's state. */
+  @Column({ type: 'timestamptz', name: 'recorded_in_error_at', nullable: true })
+  recordedInErrorAt!: Date | null
+
+  @Column({ type: 'uuid', name: 'recorded_in_error_by', nullable: true })
+  recordedInErrorBy!: string | null
+
+  @Column({ type: 'text', name: 'recorded_in_error_reason', default: '' })
+  recordedInErrorReason!: string
+
   @Column({ type: 'timestamptz', name: 'updated_at' })
   updatedAt!: Date
 }

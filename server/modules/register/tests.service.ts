@@ -34,6 +34,10 @@ export interface LogBookEntry {
   recordedBy: string | null
   recordedByName: string | null
   recordedAt: string
+  /** Set when the record was marked as entered in error: kept and shown struck through, left out of the luminaire's state. */
+  recordedInErrorAt: string | null
+  recordedInErrorReason: string
+  recordedInErrorByName: string | null
 }
 
 async function upsertOne(m: EntityManager, workspaceId: string, actorId: string, r: TestRecordData, index: number): Promise<{ id: string; outcome: SaveOutcome }> {
@@ -139,13 +143,50 @@ export async function recordTests(workspaceId: string, actorId: string, records:
 export const LOG_SELECT = `SELECT t.id, t.client_id AS "clientId", t.luminaire_id AS "luminaireId", l.tag, l.site_id AS "siteId", t.kind,
     t.tested_on::text AS "testedOn", t.passed, t.achieved_duration_h AS "achievedDurationH", t.faults, t.remedial_action AS "remedialAction",
     t.discharge_log_id AS "dischargeLogId", t.checklist, t.verdict_override_reason AS "verdictOverrideReason", t.runtime_note AS "runtimeNote", t.round_client_id AS "roundClientId",
-    t.recorded_by AS "recordedBy", u.name AS "recordedByName", t.recorded_at AS "recordedAt"
-  FROM test_records t JOIN luminaires l ON l.id = t.luminaire_id LEFT JOIN users u ON u.id = t.recorded_by`
+    t.recorded_by AS "recordedBy", u.name AS "recordedByName", t.recorded_at AS "recordedAt",
+    t.recorded_in_error_at AS "recordedInErrorAt", t.recorded_in_error_reason AS "recordedInErrorReason", e.name AS "recordedInErrorByName"
+  FROM test_records t JOIN luminaires l ON l.id = t.luminaire_id LEFT JOIN users u ON u.id = t.recorded_by LEFT JOIN users e ON e.id = t.recorded_in_error_by`
 
 /** A site's log book, newest first. */
 export async function siteLogBook(workspaceId: string, siteId: string, limit = 2000): Promise<LogBookEntry[]> {
   await findSite(workspaceId, siteId)
   return dataSource.query(`${LOG_SELECT} WHERE t.workspace_id = $1 AND l.site_id = $2 ORDER BY t.tested_on DESC, t.recorded_at DESC LIMIT $3`, [workspaceId, siteId, limit])
+}
+
+/** A battery pack fitted or changed on a luminaire of the site, as the audit trail recorded it, with its note. */
+export interface PackChangeEntry {
+  id: string
+  luminaireId: string
+  tag: string
+  /** Day the new pack was fitted (for a correction of the pack's details: the day it was recorded). */
+  changedOn: string
+  before: Record<string, unknown> | null
+  after: Record<string, unknown> | null
+  note: string
+  recordedByName: string | null
+  recordedAt: string
+}
+
+/** Pack changes of a site's luminaires (fitted in the field, or the pack's details corrected), newest first. */
+export async function sitePackChanges(workspaceId: string, siteId: string, limit = 2000): Promise<PackChangeEntry[]> {
+  const rows: Array<{ id: string; luminaireId: string; tag: string; action: string; data: Record<string, unknown>; recordedByName: string | null; at: Date }> = await dataSource.query(
+    `SELECT a.id, l.id AS "luminaireId", l.tag, a.action, a.data, u.name AS "recordedByName", a.at
+       FROM audit_events a JOIN luminaires l ON l.id::text = a.entity_id AND l.workspace_id = a.workspace_id LEFT JOIN users u ON u.id = a.actor_id
+      WHERE a.workspace_id = $1 AND l.site_id = $2 AND a.action IN ('pack.replaced', 'pack.changed') ORDER BY a.at DESC LIMIT $3`,
+    [workspaceId, siteId, limit],
+  )
+  return rows.map((r) => {
+    const at = new Date(r.at).toISOString()
+    if (r.action === 'pack.replaced') {
+      const after = (r.data.after ?? null) as Record<string, unknown> | null
+      return { id: r.id, luminaireId: r.luminaireId, tag: r.tag, changedOn: String(after?.packFittedOn ?? at.slice(0, 10)), before: (r.data.before ?? null) as Record<string, unknown> | null, after, note: String(r.data.note ?? ''), recordedByName: r.recordedByName, recordedAt: at }
+    }
+    // A correction of the pack's details: { field: { from, to } }.
+    const changes = (r.data.changes ?? {}) as Record<string, { from: unknown; to: unknown }>
+    const before = Object.fromEntries(Object.entries(changes).map(([k, v]) => [k, v.from]))
+    const after = Object.fromEntries(Object.entries(changes).map(([k, v]) => [k, v.to]))
+    return { id: r.id, luminaireId: r.luminaireId, tag: r.tag, changedOn: at.slice(0, 10), before, after, note: 'Pack details corrected in the register', recordedByName: r.recordedByName, recordedAt: at }
+  })
 }
 
 /** One luminaire's tests, newest first. */
@@ -161,6 +202,23 @@ export async function deleteTest(workspaceId: string, actorId: string, id: strin
     if (!rows.length) throw new NotFoundError('That test record')
     await m.query('DELETE FROM test_records WHERE workspace_id = $1 AND id = $2', [workspaceId, id])
     await recordAudit({ workspaceId, actorId, action: 'test.deleted', entityType: 'test', entityId: id, data: { ...rows[0] } }, m)
+  })
+}
+
+/**
+ * Marks a record as entered in error (a test that never ran, the wrong luminaire): the row stays in
+ * the log book, struck through with the reason, and no longer counts towards the luminaire's state.
+ * Marking again is refused so the first reason and who gave it are kept.
+ */
+export async function markRecordedInError(workspaceId: string, actorId: string, id: string, reason: string): Promise<LogBookEntry> {
+  return dataSource.transaction(async (m) => {
+    const rows: LogBookEntry[] = await m.query(`${LOG_SELECT} WHERE t.workspace_id = $1 AND t.id = $2 FOR UPDATE OF t`, [workspaceId, id])
+    if (!rows.length) throw new NotFoundError('That test record')
+    if (rows[0].recordedInErrorAt) throw new ConflictError(`This test was already marked as recorded in error (${rows[0].recordedInErrorReason}).`)
+    await m.query('UPDATE test_records SET recorded_in_error_at = now(), recorded_in_error_by = $3, recorded_in_error_reason = $4, updated_at = now() WHERE workspace_id = $1 AND id = $2', [workspaceId, id, actorId, reason])
+    await recordAudit({ workspaceId, actorId, action: 'test.recorded-in-error', entityType: 'test', entityId: id, data: { reason, record: { ...rows[0] } } }, m)
+    const after: LogBookEntry[] = await m.query(`${LOG_SELECT} WHERE t.workspace_id = $1 AND t.id = $2`, [workspaceId, id])
+    return after[0]
   })
 }
 
@@ -187,7 +245,7 @@ export async function signOffRound(workspaceId: string, actorId: string, siteId:
       created: rows[0].inserted,
       ...input,
       records: records.length,
-      failures: records.filter((r) => !r.passed).map((r) => ({ tag: r.tag, kind: r.kind, faults: r.faults, remedialAction: r.remedialAction })),
+      failures: records.filter((r) => !r.passed && !r.recordedInErrorAt).map((r) => ({ tag: r.tag, kind: r.kind, faults: r.faults, remedialAction: r.remedialAction })),
     }
   })
 }

@@ -116,10 +116,47 @@ export const DueCountsAnswer = z.object({
 
 export const LuminaireStatusAnswer = LuminaireAnswer.extend({ due: LuminaireDueAnswer, forecast: PackForecastAnswer })
 
+/** A site's testing regimes over time, oldest first, each with the profile version that applied. */
+export const RegimeChangeAnswer = z.object({
+  id: z.string(),
+  fromRegime: z.enum(TEST_REGIMES).nullable(),
+  toRegime: z.enum(TEST_REGIMES),
+  profileVersion: z.string(),
+  reason: z.string(),
+  changedBy: z.string().nullable(),
+  changedByName: z.string().nullable(),
+  changedAt: Timestamp,
+})
+const Interval = z.object({ unit: z.enum(['month', 'day']), count: z.number().int() })
+const RegimeTestAnswer = z.object({
+  kind: TestKind,
+  name: z.string(),
+  interval: Interval,
+  window: z.object({ earliestDays: z.number().int(), latestDays: z.number().int() }).nullable(),
+  length: z.union([z.object({ rated: z.literal(true) }), z.object({ hours: z.number() }), z.object({ minimumS: z.number() })]),
+  passRule: z.string(),
+  reference: ReferenceSchema,
+})
+/** The site's regime profile (shared/engine/regimes.ts): tests, intervals, windows, records, retention, edition. */
+export const RegimeProfileAnswer = z.object({
+  id: z.enum(TEST_REGIMES),
+  version: z.string(),
+  edition: z.string(),
+  jurisdiction: z.string(),
+  shortTest: RegimeTestAnswer,
+  longTest: RegimeTestAnswer,
+  otherChecks: z.array(z.object({ name: z.string(), interval: Interval.nullable(), reference: ReferenceSchema })),
+  records: z.array(z.string()),
+  retention: z.object({ years: z.number().nullable(), reference: ReferenceSchema }),
+  references: z.array(ReferenceSchema),
+})
+
 export const SiteStatusAnswer = z.object({
   today: IsoDay,
   site: SiteAnswer,
   regime: z.object({ label: z.string(), references: z.array(ReferenceSchema) }),
+  profile: RegimeProfileAnswer,
+  regimeHistory: z.array(RegimeChangeAnswer),
   settings: RegisterSettingsAnswer,
   areas: z.array(z.object({ id: z.string(), name: z.string() })),
   counts: DueCountsAnswer,
@@ -179,9 +216,28 @@ export const LogBookEntryAnswer = z.object({
   recordedBy: z.string().nullable(),
   recordedByName: z.string().nullable(),
   recordedAt: Timestamp,
+  /** When the test was marked as recorded in error (shown struck through, out of the state), else null. */
+  recordedInErrorAt: Timestamp.nullable(),
+  recordedInErrorReason: z.string(),
+  recordedInErrorByName: z.string().nullable(),
 })
 
-export const LogBookAnswer = z.object({ tests: z.array(LogBookEntryAnswer) })
+/** A pack fitted in the field or its details corrected, from the audit trail, with its note. */
+export const PackChangeAnswer = z.object({
+  id: z.string(),
+  luminaireId: z.string(),
+  tag: z.string(),
+  changedOn: IsoDay,
+  before: StoredJson.nullable(),
+  after: StoredJson.nullable(),
+  note: z.string(),
+  recordedByName: z.string().nullable(),
+  recordedAt: Timestamp,
+})
+
+export const LogBookAnswer = z.object({ tests: z.array(LogBookEntryAnswer), packChanges: z.array(PackChangeAnswer).optional() })
+
+export const RegimeHistoryAnswer = z.object({ changes: z.array(RegimeChangeAnswer) })
 
 export const TestBatchAnswer = z.object({
   records: z.array(z.object({ clientId: z.string(), id: z.string(), outcome: z.enum(['created', 'updated', 'unchanged']) })),

@@ -157,7 +157,7 @@ describe('EN 50172 / BS 5266-1: monthly functional test, annual full-duration te
   })
 })
 
-describe('NFPA 101 7.9.3: 30-second test at 30-day intervals, 1½ h test annually', () => {
+describe('NFPA 101 7.9.3: 30-second test monthly (nominal 30 days, 3 to 5 weeks apart), 1½ h test annually', () => {
   test('the regime table holds the intervals the code sets', () => {
     expect(REGIMES.nfpa101.functional).toEqual({ unit: 'day', count: 30 })
     expect(REGIMES.nfpa101.functionalMinimumS).toBe(30)
@@ -172,7 +172,9 @@ describe('NFPA 101 7.9.3: 30-second test at 30-day intervals, 1½ h test annuall
   test('a test done early restarts the 30 days from that day', () => {
     const due = luminaireDue({ regime: 'nfpa101', since: '2024-06-01', tests: [functional('2025-03-01'), functional('2025-03-20')] }, '2025-03-21')
     expect(due.functional.nextDueOn).toBe('2025-04-19')
-    expect(due.functional.daysUntilDue).toBe(29)
+    // overdue only after the 5-week window from the last test (NFPA 101 7.9.3.1.1)
+    expect(due.functional.overdueAfter).toBe('2025-04-24')
+    expect(due.functional.daysUntilDue).toBe(34)
   })
 
   test('the annual test counts 12 calendar months, clamped on a leap day', () => {
