@@ -38,8 +38,12 @@ describe('request', () => {
   })
 
   it('turns a 400 into an ApiError with the message, the code and the field messages for the form', async () => {
-    const fields = [{ path: 'title', message: 'is required' }, { path: 'inputs.claimedPower', message: 'must be a power such as "4 W"' }]
-    fetchMock.mockResolvedValueOnce(answer(400, { error: 'Some fields need attention.', code: 'invalid_input', fields }))
+    // The server's problem details (RFC 9457): each refused value named by a JSON Pointer (RFC 6901).
+    const errors = [
+      { in: 'body', pointer: '/title', detail: 'is required' },
+      { in: 'body', pointer: '/inputs/claimedPower', detail: 'must be a power such as "4 W"' },
+    ]
+    fetchMock.mockResolvedValueOnce(answer(400, { type: '/api/problems/invalid_input', title: 'Invalid input', status: 400, detail: 'Some fields need attention.', code: 'invalid_input', errors }))
     const err = await request('/audits', { method: 'POST', body: {} }).catch((e: unknown) => e)
     expect(err).toBeInstanceOf(ApiError)
     const api = err as ApiError

@@ -13,11 +13,14 @@ import { DEMO_USERS } from '../../server/scripts/demo-users'
 import { UNIT_SYSTEM_LABELS } from '../../shared/labels'
 import { Membership } from '../../server/modules/workspaces/membership.entity'
 import { User } from '../../server/modules/users/user.entity'
+import { Workspace } from '../../server/modules/workspaces/workspace.entity'
 import { newBrowser, screenshot, signInThroughForm, startE2eApp, type RunningApp } from '../helpers/browser'
 import { closeTestApp, TEST_PASSWORD, uniqueEmail } from '../helpers/test-app'
 
 let app: RunningApp
 let email: string
+/** A workspace of the US user's own, where the new-site test saves its site, so the demo keeps its three. */
+let ownWorkspaceId: string
 beforeAll(async () => {
   app = await startE2eApp()
   await seedDemo(dataSource)
@@ -29,6 +32,9 @@ beforeAll(async () => {
     dataSource.getRepository(User).create({ email, name: 'Imogen Tarrow', passwordHash: await bcrypt.hash(TEST_PASSWORD, 4), units: 'us', emailConfirmedAt: new Date() }),
   )
   await dataSource.getRepository(Membership).insert({ workspaceId, userId: user.id, role: 'owner' })
+  const own = await dataSource.getRepository(Workspace).save(dataSource.getRepository(Workspace).create({ name: 'Tarrow scratch' }))
+  ownWorkspaceId = own.id
+  await dataSource.getRepository(Membership).insert({ workspaceId: own.id, userId: user.id, role: 'owner' })
 })
 afterAll(async () => {
   await app.close()
@@ -152,6 +158,13 @@ describe('US customary units on the main screens', () => {
     try {
       const { page } = b
       await signInThroughForm(page, app.url, email, TEST_PASSWORD)
+      // Into the user's own workspace: the demo workspace is read by other files and keeps its three sites.
+      const switched = await page.evaluate(async (workspaceId) => {
+        const { csrfToken } = (await (await fetch('/api/auth/csrf')).json()) as { csrfToken: string }
+        const res = await fetch('/api/workspaces/switch', { method: 'POST', headers: { 'Content-Type': 'application/json', 'X-CSRF-Token': csrfToken }, body: JSON.stringify({ workspaceId }) })
+        return res.status
+      }, ownWorkspaceId)
+      expect(switched).toBe(200)
       await page.goto(`${app.url}/sites`)
       await page.locator('[data-test="add-site"]').click()
       const ceiling = page.locator('#site-ceiling')
