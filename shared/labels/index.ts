@@ -149,6 +149,14 @@ export const PACK_STATE_LABELS = {
   ok: 'Good',
 } as const
 
+/** What became of a failed test, on the log book's summary page. */
+export const FAILURE_STATE_LABELS = {
+  open: 'Still failed',
+  'retest-overdue': 'Still failed, retest overdue',
+  cleared: 'Cleared',
+  'failed-again': 'Failed again',
+} as const
+
 export const PACK_REPLACE_REASON_LABELS = {
   'service-life': 'service life',
   'duration-trend': 'trend of measured durations',
@@ -298,6 +306,7 @@ export const ENUMERATIONS = {
   dueReason: DUE_REASON_LABELS,
   packState: PACK_STATE_LABELS,
   packReplaceReason: PACK_REPLACE_REASON_LABELS,
+  failureState: FAILURE_STATE_LABELS,
   severity: SEVERITY_LABELS,
   basis: BASIS_LABELS,
   runtimeEnd: RUNTIME_END_LABELS,
