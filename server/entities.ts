@@ -6,6 +6,7 @@ import { DischargeLog } from './modules/discharge/discharge-log.entity'
 import { PasswordReset } from './modules/auth/password-reset.entity'
 import { EmailConfirmation } from './modules/auth/email-confirmation.entity'
 import { HandoverLink, HandoverPack } from './modules/handover/handover-pack.entity'
+import { LogBookLink } from './modules/logbook/logbook-link.entity'
 import { LuminaireType } from './modules/photometry/luminaire-type.entity'
 import { PhotometricFile } from './modules/photometry/photometric-file.entity'
 import { AreaEntity } from './modules/register/area.entity'
@@ -26,4 +27,4 @@ import { Invitation } from './modules/workspaces/invitation.entity'
 import { Membership } from './modules/workspaces/membership.entity'
 import { Workspace } from './modules/workspaces/workspace.entity'
 
-export const entities = [User, Workspace, Membership, Invitation, PasswordReset, EmailConfirmation, AuditEvent, ApiToken, SpecSheet, SpecRevision, ShareLink, SiteEntity, AreaEntity, LuminaireEntity, TestRecordEntity, ReminderSendEntity, RegisterSettingsEntity, PackPriceEntity, TestRoundEntity, TestPlanEntity, WattageAudit, PhotometricFile, LuminaireType, DischargeFile, DischargeLog, HandoverPack, HandoverLink]
+export const entities = [User, Workspace, Membership, Invitation, PasswordReset, EmailConfirmation, AuditEvent, ApiToken, SpecSheet, SpecRevision, ShareLink, SiteEntity, AreaEntity, LuminaireEntity, TestRecordEntity, ReminderSendEntity, RegisterSettingsEntity, PackPriceEntity, TestRoundEntity, TestPlanEntity, WattageAudit, PhotometricFile, LuminaireType, DischargeFile, DischargeLog, HandoverPack, HandoverLink, LogBookLink]

@@ -11,6 +11,7 @@ import { dischargeRoutes } from './modules/discharge/discharge.router'
 import { docsRoutes } from './modules/docs/docs.router'
 import { handoverRoutes } from './modules/handover/handover.router'
 import { healthRoutes } from './modules/health/health.router'
+import { logbookRoutes } from './modules/logbook/logbook.router'
 import { outboxRoutes } from './modules/mail/outbox.router'
 import { photometryRoutes } from './modules/photometry/photometry.router'
 import { registerRoutes } from './modules/register/register.router'
@@ -44,6 +45,7 @@ export function buildRouteTable(opts: RouteTableOptions): RouteSpec[] {
     ...photometryRoutes,
     ...storageRoutes,
     ...handoverRoutes,
+    ...logbookRoutes,
   ]
   return table
 }

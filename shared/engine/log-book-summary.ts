@@ -73,7 +73,7 @@ export interface LogBookSummary {
 }
 
 /** How many dates the summary lists; the register lists them all. */
-export const NEXT_DUE_DATES = 8
+export const NEXT_DUE_DATES = 6
 
 /** Tests in the order they happened; same-day tests keep the order given (as `openFailuresOf` orders them). */
 function chronological(tests: readonly TestEvent[]): TestEvent[] {

@@ -7,6 +7,7 @@
 import { z } from 'zod'
 import { IsoDateSchema, ChemistrySchema, ModeSchema, PurposeSchema } from './luminaire.schema'
 import { RouteNeedSchema, CriteriaSchema } from './photometry.schema'
+import { ReadOnlyLinkRequestSchema } from './link.schema'
 import { referenceId } from './reference'
 import { TestRegimeSchema } from './site.schema'
 
@@ -34,9 +35,7 @@ export const HandoverRequestSchema = z.object({
 export type HandoverRequest = z.output<typeof HandoverRequestSchema>
 
 /** A read-only link to a pack: no expiry means it works until withdrawn. */
-export const HandoverLinkRequestSchema = z.object({
-  expiresOn: IsoDateSchema.nullable().default(null),
-})
+export const HandoverLinkRequestSchema = ReadOnlyLinkRequestSchema
 
 // ------------------------------------------------------------------ the stored pack
 

@@ -19,6 +19,7 @@ import { auditRouteExamples } from './audit-examples'
 import { dischargeRouteExamples } from './discharge-examples'
 import { photometryRouteExamples } from './photometry-examples'
 import { handoverRouteExamples } from './handover-examples'
+import { logbookRouteExamples } from './logbook-examples'
 
 export interface ExampleContext {
   /** The workspace the caller belongs to (the caller's role is `role`). */
@@ -151,4 +152,5 @@ export const routeExamples: Record<string, ExampleFn> = {
   ...photometryRouteExamples,
   ...dischargeRouteExamples,
   ...handoverRouteExamples,
+  ...logbookRouteExamples,
 }

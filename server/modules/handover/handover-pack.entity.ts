@@ -1,4 +1,5 @@
 import { Column, CreateDateColumn, Entity, Index, PrimaryGeneratedColumn } from 'typeorm'
+import { ReadOnlyLink } from '../links/read-only-link.entity'
 import type { HandoverContent } from '../../../shared/schemas/handover.schema'
 
 /** A handover pack as made on one day: the site frozen in `content`, numbered 1, 2, 3… per site. */
@@ -36,29 +37,7 @@ export class HandoverPack {
 
 /** A read-only link to one pack. Only the token's SHA-256 is stored. */
 @Entity('handover_links')
-export class HandoverLink {
-  @PrimaryGeneratedColumn('uuid')
-  id!: string
-
-  @Column({ type: 'uuid', name: 'workspace_id' })
-  workspaceId!: string
-
+export class HandoverLink extends ReadOnlyLink {
   @Column({ type: 'uuid', name: 'pack_id' })
   packId!: string
-
-  @Column({ type: 'varchar', length: 64, name: 'token_hash', unique: true })
-  tokenHash!: string
-
-  /** Last day the link opens ("YYYY-MM-DD"); null until withdrawn. */
-  @Column({ type: 'date', name: 'expires_on', nullable: true })
-  expiresOn!: string | null
-
-  @Column({ type: 'timestamptz', name: 'revoked_at', nullable: true })
-  revokedAt!: Date | null
-
-  @Column({ type: 'uuid', name: 'created_by', nullable: true })
-  createdBy!: string | null
-
-  @CreateDateColumn({ type: 'timestamptz', name: 'created_at' })
-  createdAt!: Date
 }

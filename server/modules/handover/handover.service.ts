@@ -10,8 +10,9 @@ import { lampLumens, peakIntensity } from '../../../shared/engine/photometry-sum
 import { HandoverContentSchema, type HandoverContent, type HandoverRequest } from '../../../shared/schemas/handover.schema'
 import { config } from '../../config'
 import { dataSource } from '../../data-source'
-import { AppError, BadRequestError, NotFoundError } from '../../errors/app-error'
-import { hashToken, newToken } from '../../lib/tokens'
+import { BadRequestError, NotFoundError } from '../../errors/app-error'
+import { newToken } from '../../lib/tokens'
+import { checkLastDay, openLink } from '../links/read-only-links'
 import { recordAudit } from '../audit/audit.service'
 import { LuminaireType } from '../photometry/luminaire-type.entity'
 import { PhotometricFile } from '../photometry/photometric-file.entity'
@@ -171,7 +172,7 @@ export const handoverUrl = (token: string) => `${config().origin}/h/${encodeURIC
 /** A read-only link to a pack, open until its last day (or until withdrawn). */
 export async function createLink(workspaceId: string, userId: string, siteId: string, number: number, expiresOn: string | null, today = todayIso()) {
   const p = await findPack(workspaceId, siteId, number)
-  if (expiresOn !== null && expiresOn < today) throw new BadRequestError('The link would have expired already.', [{ path: 'expiresOn', message: `must be today or later (today is ${today})` }])
+  checkLastDay(expiresOn, today)
   const { token, hash } = newToken()
   const link = await links().save(links().create({ workspaceId, packId: p.id, tokenHash: hash, expiresOn, revokedAt: null, createdBy: userId }))
   await recordAudit({ workspaceId, actorId: userId, action: 'handover.shared', entityType: 'site', entityId: siteId, data: { packId: p.id, linkId: link.id, expiresOn } })
@@ -180,10 +181,7 @@ export async function createLink(workspaceId: string, userId: string, siteId: st
 
 /** The pack behind a link, for anyone holding the token. */
 export async function sharedPack(token: string, today = todayIso()) {
-  const link = await links().findOne({ where: { tokenHash: hashToken(token) } })
-  if (!link) throw new NotFoundError('That handover pack')
-  if (link.revokedAt) throw new AppError(410, 'revoked', 'This link has been withdrawn by the people who shared it.')
-  if (link.expiresOn !== null && link.expiresOn < today) throw new AppError(410, 'expired', 'This link has expired. Ask the sender for a new one.')
+  const link = await openLink(links(), token, today, 'That handover pack')
   const p = await packs().findOne({ where: { id: link.packId, workspaceId: link.workspaceId } })
   if (!p) throw new NotFoundError('That handover pack')
   return { number: p.number, signedByName: p.signedByName, signedOn: p.signedOn, createdAt: p.createdAt, expiresOn: link.expiresOn, content: HandoverContentSchema.parse(p.content) }

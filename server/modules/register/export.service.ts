@@ -12,6 +12,8 @@ import { REGIME_LABELS } from '../../../shared/schemas/site.schema'
 import { chemistryName, DUE_REASON_LABELS, labelOf, PACK_STATE_LABELS, TEST_KIND_LABELS, TEST_STATE_LABELS, MODE_LABELS, testKindWords } from '../../../shared/labels'
 import type { LuminaireStatus } from './register.service'
 import { siteStatus, todayIso } from './register.service'
+import { siteLogBookSummary, type SiteLogBookSummary } from './logbook-summary.service'
+import { summaryPage } from './logbook-summary-pdf'
 import { siteLogBook } from './tests.service'
 
 /** Any text cell starting like a formula; unlike a `.*$` pattern this also catches multi-line cells. */
@@ -81,7 +83,7 @@ export async function exportFile(workspaceId: string, siteId: string, file: Expo
   if (file === 'register.csv') return { filename: `${base}.csv`, mediaType: 'text/csv; charset=utf-8', body: Buffer.from(toCsv(reg.header, reg.rows), 'utf8') }
   const log = await logBookRows(workspaceId, siteId, period)
   if (file === 'logbook.csv') return { filename: `${base}.csv`, mediaType: 'text/csv; charset=utf-8', body: Buffer.from(toCsv(log.header, log.rows), 'utf8') }
-  const body = file === 'register.pdf' ? await registerPdf(reg, prefs) : await logBookPdf(reg.status, log.rows, prefs, period)
+  const body = file === 'register.pdf' ? await registerPdf(reg, prefs) : await logBookPdf(await siteLogBookSummary(workspaceId, siteId, reg.status.today), log.rows, prefs, period)
   return { filename: `${base}.pdf`, mediaType: 'application/pdf', body }
 }
 
@@ -151,12 +153,15 @@ async function registerPdf(reg: Awaited<ReturnType<typeof registerRows>>, prefs:
   return toBuffer(doc)
 }
 
-async function logBookPdf(status: SiteStatus, rows: Array<Array<string | number | boolean | null>>, prefs: FormatPrefs, period: LogBookPeriod = {}): Promise<Buffer> {
+/** The log book: its summary page first (the site as it stands today), then every entry of the period. */
+async function logBookPdf(book: SiteLogBookSummary, rows: Array<Array<string | number | boolean | null>>, prefs: FormatPrefs, period: LogBookPeriod = {}): Promise<Buffer> {
+  const status = book.status
   const doc = newDoc(`Emergency lighting log book — ${status.site.name}`, prefs)
-  heading(doc, 'Emergency lighting log book', status, prefs)
-  if (period.from || period.to) {
-    write(doc, `Tests ${period.from ? `from ${formatDate(period.from, prefs)} ` : ''}${period.to ? `to ${formatDate(period.to, prefs)}` : 'to today'}.`)
-  }
+  summaryPage(doc, { site: status.site, repairWindowDays: status.settings.repairWindowDays, summary: book.summary, prefs })
+  doc.addPage()
+  write(doc, 'Log book entries', { weight: 'semibold', size: 14 })
+  write(doc, period.from || period.to ? `Tests ${period.from ? `from ${formatDate(period.from, prefs)} ` : ''}${period.to ? `to ${formatDate(period.to, prefs)}` : 'to today'}, newest first.` : 'Every test recorded, newest first.', { size: 9.5, color: '#3c4a52' })
+  doc.moveDown(0.4)
   const columns: Column[] = [
     { title: 'Date', width: 58 }, { title: 'Tag', width: 52 }, { title: 'Test', width: 70 }, { title: 'Result', width: 44 }, { title: 'Lit for', width: 40 },
     { title: 'Faults found', width: 160 }, { title: 'Remedial action', width: 160 }, { title: 'By', width: 90 },

@@ -325,7 +325,7 @@ async function testsOf(workspaceId: string, luminaireIds: string[], m: EntityMan
  * count as passed tests on those days for the calendar, so a first import does not make every
  * luminaire overdue; they are not log-book entries and appear in no log book.
  */
-function testsBeforeRegister(l: Pick<LuminaireEntity, 'lastFunctionalTestOn' | 'lastDurationTestOn'>): TestEvent[] {
+export function testsBeforeRegister(l: Pick<LuminaireEntity, 'lastFunctionalTestOn' | 'lastDurationTestOn'>): TestEvent[] {
   return [
     ...(l.lastFunctionalTestOn ? [{ kind: 'functional' as const, testedOn: l.lastFunctionalTestOn, passed: true }] : []),
     ...(l.lastDurationTestOn ? [{ kind: 'duration' as const, testedOn: l.lastDurationTestOn, passed: true }] : []),
