@@ -30,6 +30,8 @@ describe('log redaction', () => {
     [`/api/invitations/${TOKEN}`, '/api/invitations/[redacted]'],
     [`/api/invitations/${TOKEN}/accept?x=1`, '/api/invitations/[redacted]/accept'],
     [`/api/share/${TOKEN}/pdf`, '/api/share/[redacted]/pdf'],
+    [`/api/logbook-links/${TOKEN}`, '/api/logbook-links/[redacted]'],
+    [`/api/logbook-links/${TOKEN}/pdf`, '/api/logbook-links/[redacted]/pdf'],
     ['/api/sheets/0b6d3f0e-6c7a-4f8e-9a51-2f4c1d7e8a90', '/api/sheets/0b6d3f0e-6c7a-4f8e-9a51-2f4c1d7e8a90'],
     ['/api/calc/size', '/api/calc/size'],
   ])('request path %s is logged as %s', (path, logged) => {
@@ -55,6 +57,17 @@ describe('log redaction', () => {
     const logged = JSON.stringify(lines[0], (_k, v: unknown) => (v instanceof Error ? { ...v, message: v.message } : v))
     expect(logged).not.toContain('secret.person@test.example')
     expect(logged).not.toContain('$2b$12$hash')
+  })
+
+  it('the request log of a log book link carries no token', () => {
+    const lines: unknown[] = []
+    vi.spyOn(logger, 'info').mockImplementation(((obj: unknown) => void lines.push(obj)) as never)
+    const res = Object.assign(new EventEmitter(), { statusCode: 200 }) as unknown as Response
+    requestLog({ method: 'GET', originalUrl: `/api/logbook-links/${TOKEN}/pdf` } as Request, res, () => undefined)
+    res.emit('finish')
+    expect(lines).toHaveLength(1)
+    expect(JSON.stringify(lines[0])).not.toContain(TOKEN)
+    expect(JSON.stringify(lines[0])).toContain('/api/logbook-links/[redacted]/pdf')
   })
 
   it("errorForLog leaves a failed query's parameters and row details out", () => {

@@ -1,6 +1,6 @@
 /**
  * Every PDF the app makes, for the demo workspace: sheets (with audits and discharge logs), each
- * site's register, log book and handover pack. Each must keep its text out of the header and footer bands, never
+ * site's register, log book (signed in and behind a read-only link) and handover pack. Each must keep its text out of the header and footer bands, never
  * print text over text, number its pages "n of N", and show words instead of codes.
  */
 import crypto from 'node:crypto'
@@ -12,7 +12,7 @@ import { dataSource } from '../../server/data-source'
 import { seedDemo } from '../../server/demo/index'
 import { DEMO_PASSWORD, DEMO_USERS } from '../../server/scripts/demo-users'
 import { codesIn, layoutProblems, pdfLines } from '../helpers/pdf-checks'
-import { closeTestApp, getTestApp, signIn, type Client } from '../helpers/test-app'
+import { anonymous, closeTestApp, getTestApp, signIn, type Client } from '../helpers/test-app'
 
 function binary(res: Response, done: (err: Error | null, body: Buffer) => void) {
   const chunks: Buffer[] = []
@@ -40,6 +40,13 @@ beforeAll(async () => {
   for (const site of sites) {
     await fetchPdf(`register of ${site.name}`, `/api/sites/${site.id}/export/register.pdf`)
     await fetchPdf(`log book of ${site.name}`, `/api/sites/${site.id}/export/logbook.pdf`)
+    // The same log book behind a read-only link, opened signed out.
+    const link = await owner.post(`/api/sites/${site.id}/logbook-links`, { expiresOn: null })
+    expect(link.status, JSON.stringify(link.body)).toBe(201)
+    const shared = await anonymous(built.app).get(`/api/logbook-links/${link.body.token}/pdf`).buffer(true).parse(binary)
+    expect(shared.status).toBe(200)
+    documents.push({ name: `shared log book of ${site.name}`, pdf: shared.body as Buffer })
+    if (process.env.PDF_OUT_DIR) fs.writeFileSync(nodePath.join(process.env.PDF_OUT_DIR, `${documents.length}-shared-log-book.pdf`), shared.body as Buffer)
   }
   // A round on the first demo site (a full-duration fail with its checklist among passes), signed off and printed.
   const status = (await owner.get(`/api/sites/${sites[0].id}`)).body as { today: string; luminaires: Array<{ id: string; ratedDurationH: number }> }
@@ -76,6 +83,7 @@ describe('every PDF of the demo workspace', () => {
     expect(documents.filter((d) => d.name.startsWith('sheet')).length).toBeGreaterThanOrEqual(3)
     expect(documents.filter((d) => d.name.startsWith('register')).length).toBeGreaterThanOrEqual(3)
     expect(documents.filter((d) => d.name.startsWith('log book')).length).toBeGreaterThanOrEqual(3)
+    expect(documents.filter((d) => d.name.startsWith('shared log book')).length).toBeGreaterThanOrEqual(3)
     expect(documents.filter((d) => d.name.startsWith('round record')).length).toBe(1)
     expect(documents.filter((d) => d.name.startsWith('work order')).length).toBeGreaterThanOrEqual(3)
     expect(documents.filter((d) => d.name.startsWith('handover pack')).length).toBeGreaterThanOrEqual(3)
