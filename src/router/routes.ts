@@ -53,6 +53,7 @@ export const routes: RouteRecordRaw[] = [
   { path: '/sheets', name: 'sheets', component: () => import('@/views/SheetsView.vue'), meta: { role: 'viewer', title: 'Spec sheets' } },
   { path: '/sheets/:id', name: 'sheet', component: () => import('@/views/SheetView.vue'), meta: { role: 'viewer', title: 'Spec sheet' } },
   { path: '/h/:token', name: 'shared-handover', component: () => import('@/views/SharedHandoverView.vue'), meta: { public: true, bare: true, title: 'Handover pack' } },
+  { path: '/l/:token', name: 'shared-logbook', component: () => import('@/views/SharedLogBookView.vue'), meta: { public: true, bare: true, title: 'Log book' } },
   { path: '/s/:token', name: 'shared-sheet', component: () => import('@/views/SharedSheetView.vue'), meta: { public: true, bare: true, title: 'Shared specification sheet' } },
   { path: '/account', name: 'account', component: () => import('@/views/AccountView.vue'), meta: { title: 'Your account' } },
   { path: '/glossary', name: 'glossary', component: () => import('@/views/GlossaryView.vue'), meta: { title: 'Glossary' } },
