@@ -10,6 +10,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
 import { dataSource } from '../../server/data-source'
 import { seedDemo } from '../../server/demo/index'
+import { createLink } from '../../server/modules/logbook/logbook-links.service'
 import { DEMO_PASSWORD } from '../../server/scripts/demo-users'
 import { newBrowser, screenshot, signInThroughForm, startE2eApp, type RunningApp } from '../helpers/browser'
 import { codesOnScreen, splitWords } from '../helpers/screen-text'
@@ -20,9 +21,16 @@ const require = createRequire(import.meta.url)
 const AXE_SOURCE = fs.readFileSync(require.resolve('axe-core/axe.min.js'), 'utf8')
 
 let app: RunningApp
+/** A read-only link to a demo site's log book: its signed-out page is one of the public screens. */
+let logBookToken: string
 beforeAll(async () => {
   app = await startE2eApp()
   await seedDemo(dataSource)
+  const [demo] = await dataSource.query(
+    `SELECT s.id, s.workspace_id AS "workspaceId", m.user_id AS "userId" FROM sites s JOIN memberships m ON m.workspace_id = s.workspace_id JOIN users u ON u.id = m.user_id
+      WHERE u.email = 'owner@tallowmere.example' ORDER BY s.name LIMIT 1`,
+  )
+  logBookToken = (await createLink(demo.workspaceId, demo.userId, demo.id, null)).token
 })
 afterAll(async () => {
   await app.close()
@@ -53,11 +61,11 @@ describe('main screens', () => {
         const b = await newBrowser(viewport)
         try {
           await b.context.addInitScript((t) => localStorage.setItem('lw-theme', t), theme)
-          const publicScreens = ['/', '/sign-in', '/sign-up', '/forgot-password', '/reset-password?token=invented-token-for-the-screen', '/confirm-email?token=invented-token-for-the-screen']
+          const publicScreens = ['/', '/sign-in', '/sign-up', '/forgot-password', '/reset-password?token=invented-token-for-the-screen', '/confirm-email?token=invented-token-for-the-screen', `/l/${logBookToken}`]
           for (const path of publicScreens) {
             await b.page.goto(`${app.url}${path}`)
             await b.page.locator('h1, .n-card-header').first().waitFor()
-            await screenshot(b.page, `screens/${theme}-${viewport.width}${path === '/' ? '-landing' : path.replace(/\?.*$/, '').replace(/\//g, '-')}`)
+            await screenshot(b.page, `screens/${theme}-${viewport.width}${path === '/' ? '-landing' : path.startsWith('/l/') ? '-shared-log-book' : path.replace(/\?.*$/, '').replace(/\//g, '-')}`)
             for (const v of await axeViolations(b.page)) problems.push(`${theme} ${viewport.width} ${path}: ${v}`)
             for (const c of await codesOnScreen(b.page)) problems.push(`${theme} ${viewport.width} ${path}: ${c}`)
             for (const w of await splitWords(b.page)) problems.push(`${theme} ${viewport.width} ${path}: word split across lines ${w}`)
