@@ -112,6 +112,10 @@ describe('a log book link', () => {
     const unreadable = await designer.post(`/api/sites/${siteId}/logbook-links`, { expiresOn: '31/12/2030' })
     expect(unreadable.status).toBe(400)
     expect(unreadable.body.errors[0].pointer).toBe('/expiresOn')
+    // The answer holds the token: it is never stored, so a retry key is refused rather than honoured.
+    const keyed = await designer.post(`/api/sites/${siteId}/logbook-links`, { expiresOn: null }).set('Idempotency-Key', 'retry-1')
+    expect(keyed.status).toBe(400)
+    expect((await designer.get(`/api/sites/${siteId}/logbook-links`)).body.links).toHaveLength(1)
   })
 
   it('opens signed out with the summary, whose figures match a count over the rows made here', async () => {
@@ -179,6 +183,12 @@ describe('a log book link', () => {
     const text = pdfLines(res.body as Buffer).join('\n')
     expect(text).toContain('Failures and what became of them')
     expect(text).toContain(`Still failed: retest due by ${words(addDays(ago(3), 14))}`)
+    // An extract of some days is that period's entries only: the summary describes the whole book today.
+    const extract = await viewer.get(`/api/sites/${siteId}/export/logbook.pdf?from=${ago(10)}&to=${ago(1)}`).buffer(true).parse(binary)
+    expect(extract.status).toBe(200)
+    const extractText = pdfLines(extract.body as Buffer).join('\n')
+    expect(extractText).toContain('Log book entries')
+    expect(extractText).not.toContain('Failures and what became of them')
   })
 
   it('cannot be listed or withdrawn from another workspace', async () => {

@@ -12,7 +12,8 @@ import { REGIME_LABELS } from '../../../shared/schemas/site.schema'
 import { chemistryName, DUE_REASON_LABELS, labelOf, PACK_STATE_LABELS, TEST_KIND_LABELS, TEST_STATE_LABELS, MODE_LABELS, testKindWords } from '../../../shared/labels'
 import type { LuminaireStatus } from './register.service'
 import { siteStatus, todayIso } from './register.service'
-import { siteLogBookSummary, type SiteLogBookSummary } from './logbook-summary.service'
+import type { LogBookSummary } from '../../../shared/engine/log-book-summary'
+import { siteLogBookSummary } from './logbook-summary.service'
 import { summaryPage } from './logbook-summary-pdf'
 import { siteLogBook } from './tests.service'
 
@@ -83,7 +84,9 @@ export async function exportFile(workspaceId: string, siteId: string, file: Expo
   if (file === 'register.csv') return { filename: `${base}.csv`, mediaType: 'text/csv; charset=utf-8', body: Buffer.from(toCsv(reg.header, reg.rows), 'utf8') }
   const log = await logBookRows(workspaceId, siteId, period)
   if (file === 'logbook.csv') return { filename: `${base}.csv`, mediaType: 'text/csv; charset=utf-8', body: Buffer.from(toCsv(log.header, log.rows), 'utf8') }
-  const body = file === 'register.pdf' ? await registerPdf(reg, prefs) : await logBookPdf(await siteLogBookSummary(workspaceId, siteId, reg.status.today), log.rows, prefs, period)
+  // The summary describes the site today: it opens the whole log book, not an extract of some days (an archive of a month holds that month only).
+  const extract = !!(period.from || period.to)
+  const body = file === 'register.pdf' ? await registerPdf(reg, prefs) : await logBookPdf(reg.status, extract ? null : (await siteLogBookSummary(workspaceId, siteId, reg.status.today)).summary, log.rows, prefs, period)
   return { filename: `${base}.pdf`, mediaType: 'application/pdf', body }
 }
 
@@ -153,12 +156,16 @@ async function registerPdf(reg: Awaited<ReturnType<typeof registerRows>>, prefs:
   return toBuffer(doc)
 }
 
-/** The log book: its summary page first (the site as it stands today), then every entry of the period. */
-async function logBookPdf(book: SiteLogBookSummary, rows: Array<Array<string | number | boolean | null>>, prefs: FormatPrefs, period: LogBookPeriod = {}): Promise<Buffer> {
-  const status = book.status
+/**
+ * The log book: the whole book opens with its summary page (the site as it stands today), then every
+ * entry; an extract of some days has the site's heading and that period's entries only.
+ */
+async function logBookPdf(status: SiteStatus, summary: LogBookSummary | null, rows: Array<Array<string | number | boolean | null>>, prefs: FormatPrefs, period: LogBookPeriod = {}): Promise<Buffer> {
   const doc = newDoc(`Emergency lighting log book — ${status.site.name}`, prefs)
-  summaryPage(doc, { site: status.site, repairWindowDays: status.settings.repairWindowDays, summary: book.summary, prefs })
-  doc.addPage()
+  if (summary) {
+    summaryPage(doc, { site: status.site, repairWindowDays: status.settings.repairWindowDays, summary, prefs })
+    doc.addPage()
+  } else heading(doc, 'Emergency lighting log book', status, prefs)
   write(doc, 'Log book entries', { weight: 'semibold', size: 14 })
   write(doc, period.from || period.to ? `Tests ${period.from ? `from ${formatDate(period.from, prefs)} ` : ''}${period.to ? `to ${formatDate(period.to, prefs)}` : 'to today'}, newest first.` : 'Every test recorded, newest first.', { size: 9.5, color: '#3c4a52' })
   doc.moveDown(0.4)
