@@ -312,6 +312,30 @@ export interface paths {
         patch: operations["patchApiWorkspace"];
         trace?: never;
     };
+    "/api/workspace/settings": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * The workspace's settings: the currency of its prices and costs
+         * @description Role viewer or higher in the current workspace. State-changing requests with a session cookie need the X-CSRF-Token header (or a same-origin Origin).
+         */
+        get: operations["getApiWorkspaceSettings"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        /**
+         * Choose the workspace's currency (null: the owner's region's)
+         * @description Role owner of the current workspace. State-changing requests with a session cookie need the X-CSRF-Token header (or a same-origin Origin).
+         */
+        patch: operations["patchApiWorkspaceSettings"];
+        trace?: never;
+    };
     "/api/workspace/members": {
         parameters: {
             query?: never;
@@ -2195,6 +2219,7 @@ export interface operations {
                         workspace: {
                             id: string;
                             name: string;
+                            currency: string;
                         } | null;
                         /** @enum {string|null} */
                         role: "viewer" | "technician" | "designer" | "owner" | null;
@@ -2328,6 +2353,7 @@ export interface operations {
                         workspace: {
                             id: string;
                             name: string;
+                            currency: string;
                         } | null;
                         /** @enum {string|null} */
                         role: "viewer" | "technician" | "designer" | "owner" | null;
@@ -2432,6 +2458,7 @@ export interface operations {
                         workspace: {
                             id: string;
                             name: string;
+                            currency: string;
                         } | null;
                         /** @enum {string|null} */
                         role: "viewer" | "technician" | "designer" | "owner" | null;
@@ -2517,6 +2544,7 @@ export interface operations {
                         workspace: {
                             id: string;
                             name: string;
+                            currency: string;
                         } | null;
                         /** @enum {string|null} */
                         role: "viewer" | "technician" | "designer" | "owner" | null;
@@ -2604,6 +2632,7 @@ export interface operations {
                             workspace: {
                                 id: string;
                                 name: string;
+                                currency: string;
                             } | null;
                             /** @enum {string|null} */
                             role: "viewer" | "technician" | "designer" | "owner" | null;
@@ -3036,6 +3065,7 @@ export interface operations {
                         workspace: {
                             id: string;
                             name: string;
+                            currency: string;
                         } | null;
                         /** @enum {string|null} */
                         role: "viewer" | "technician" | "designer" | "owner" | null;
@@ -3120,6 +3150,142 @@ export interface operations {
                     "application/json": {
                         id: string;
                         name: string;
+                    };
+                };
+            };
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Your role does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description No such record in this workspace */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description The body is not application/json */
+            415: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+        };
+    };
+    getApiWorkspaceSettings: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description The workspace's settings: the currency of its prices and costs */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        currency: string;
+                        currencyChosen: boolean;
+                        regionCurrency: string;
+                    };
+                };
+            };
+            /** @description The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused */
+            400: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Not signed in, or the API token is not valid (WWW-Authenticate: Bearer) */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Your role does not allow this */
+            403: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description No such record in this workspace */
+            404: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+        };
+    };
+    patchApiWorkspaceSettings: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": {
+                    /** @enum {string|null} */
+                    currency: "EUR" | "GBP" | "USD" | "CAD" | "AUD" | "NZD" | "CHF" | "SEK" | "NOK" | "DKK" | "PLN" | null;
+                };
+            };
+        };
+        responses: {
+            /** @description Choose the workspace's currency (null: the owner's region's) */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        currency: string;
+                        currencyChosen: boolean;
+                        regionCurrency: string;
                     };
                 };
             };
@@ -3698,6 +3864,7 @@ export interface operations {
                         workspace: {
                             id: string;
                             name: string;
+                            currency: string;
                         } | null;
                         /** @enum {string|null} */
                         role: "viewer" | "technician" | "designer" | "owner" | null;

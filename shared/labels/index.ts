@@ -149,6 +149,21 @@ export const PACK_STATE_LABELS = {
   ok: 'Good',
 } as const
 
+/** The currencies a workspace may choose, by their ISO 4217 names. */
+export const CURRENCY_LABELS = {
+  EUR: 'Euro (EUR)',
+  GBP: 'Pound sterling (GBP)',
+  USD: 'US dollar (USD)',
+  CAD: 'Canadian dollar (CAD)',
+  AUD: 'Australian dollar (AUD)',
+  NZD: 'New Zealand dollar (NZD)',
+  CHF: 'Swiss franc (CHF)',
+  SEK: 'Swedish krona (SEK)',
+  NOK: 'Norwegian krone (NOK)',
+  DKK: 'Danish krone (DKK)',
+  PLN: 'Polish zloty (PLN)',
+} as const
+
 /** What became of a failed test, on the log book's summary page. */
 export const FAILURE_STATE_LABELS = {
   open: 'Still failed',

@@ -10,9 +10,11 @@ import type {
   MemberRoleAnswer,
   OutboxAnswer,
   WorkspaceAnswer,
+  WorkspaceSettingsAnswer,
 } from '@shared/schemas/answers/accounts'
 import type { Answer, MessageSchema } from '@shared/schemas/answers/common'
 import type { Role } from '@shared/schemas/roles'
+import type { WorkspaceSettingsPatch } from '@shared/schemas/workspace-settings.schema'
 import { http, request } from './http'
 
 export type MeResponse = Answer<typeof MeAnswer>
@@ -46,3 +48,7 @@ export const acceptInvitation = (token: string) => http.post<MeResponse>(`/invit
 
 export type CaughtMail = Answer<typeof CaughtMailAnswer>
 export const fetchOutbox = () => http.get<Answer<typeof OutboxAnswer>>('/outbox')
+
+export type WorkspaceSettings = Answer<typeof WorkspaceSettingsAnswer>
+export const fetchWorkspaceSettings = () => http.get<WorkspaceSettings>('/workspace/settings')
+export const saveWorkspaceSettings = (patch: WorkspaceSettingsPatch) => http.patch<WorkspaceSettings>('/workspace/settings', patch)

@@ -38,8 +38,8 @@ export function useUnits() {
     fromDisplay: (kind: DisplayKind, shown: number) => fromDisplay(kind, system.value, shown),
     /** A default as a round number in the user's units (2.5 m → 8 ft). */
     roundDefault: (kind: DisplayKind, si: number) => roundDefault(kind, system.value, si),
-    /** Supply voltage, frequency, currency and paper that fit the user's region. */
-    region: computed(() => regionDefaults(system.value)),
+    /** Supply voltage, frequency and paper that fit the user's region; the currency is the workspace's (chosen by an owner, or its owner's region's). */
+    region: computed(() => ({ ...regionDefaults(system.value), currency: auth.me?.workspace?.currency ?? regionDefaults(system.value).currency })),
     inputText,
     /** What was typed, read into SI: a bare number in the user's unit, or any unit written out ("27 °C", "10 ft"). */
     read: (kind: TypedKind, typed: unknown): ReadResult =>

@@ -104,6 +104,8 @@ export const routeExamples: Record<string, ExampleFn> = {
   'post /api/workspaces': async () => ({ path: '/api/workspaces', body: { name: 'Second team' } }),
   'post /api/workspaces/switch': async ({ team }) => ({ path: '/api/workspaces/switch', body: { workspaceId: team.workspaceId } }),
   'patch /api/workspace': async () => ({ path: '/api/workspace', body: { name: 'Renamed team' } }),
+  'get /api/workspace/settings': async () => ({ path: '/api/workspace/settings' }),
+  'patch /api/workspace/settings': async () => ({ path: '/api/workspace/settings', body: { currency: 'GBP' } }),
   'get /api/workspace/members': async () => ({ path: '/api/workspace/members' }),
   'patch /api/workspace/members/:id': async ({ team, other }) => ({
     path: `/api/workspace/members/${await extraMember(team)}`,

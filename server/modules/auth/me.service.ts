@@ -7,6 +7,7 @@ import crypto from 'node:crypto'
 import type { Request } from 'express'
 import type { MeResponse } from '../../../shared/schemas/auth.schema'
 import type { User } from '../users/user.entity'
+import { workspaceSettings } from '../workspaces/workspace-settings.service'
 import { myWorkspaces } from '../workspaces/workspaces.service'
 
 export function ensureCsrfToken(req: Request): string {
@@ -22,7 +23,7 @@ export async function meResponse(req: Request): Promise<MeResponse> {
   if (current && !req.ctx?.viaToken) req.session.workspaceId = current.id
   return {
     user: { id: user.id, email: user.email, name: user.name, units: user.units === 'us' ? 'us' : 'si' },
-    workspace: current ? { id: current.id, name: current.name } : null,
+    workspace: current ? { id: current.id, name: current.name, currency: (await workspaceSettings(current.id)).currency } : null,
     role: req.ctx?.viaToken ? req.ctx.role : (current?.role ?? null),
     // A token knows only its own workspace.
     workspaces: req.ctx?.viaToken ? (current ? [current] : []) : workspaces,

@@ -32,3 +32,14 @@ export function listUserMemberships(userId: string) {
 export function listWorkspaceMembers(workspaceId: string) {
   return memberships().find({ where: { workspaceId }, relations: { user: true }, order: { createdAt: 'ASC' } })
 }
+
+/** The workspace's chosen currency (null when none) and the unit system of its first owner (the longest-standing). */
+export async function currencyAndOwnerUnits(workspaceId: string): Promise<{ currency: string | null; ownerUnits: string | null } | null> {
+  const [row] = await dataSource.query(
+    `SELECT w.currency, (SELECT u.units FROM memberships m JOIN users u ON u.id = m.user_id
+                           WHERE m.workspace_id = w.id AND m.role = 'owner' ORDER BY m.created_at, m.id LIMIT 1) AS "ownerUnits"
+       FROM workspaces w WHERE w.id = $1`,
+    [workspaceId],
+  )
+  return row ? { currency: row.currency === null ? null : String(row.currency).trim(), ownerUnits: row.ownerUnits ?? null } : null
+}

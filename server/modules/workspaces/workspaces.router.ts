@@ -6,9 +6,11 @@ import { IdParams } from '../../lib/parse'
 import { defineRoute, scope, type RouteSpec } from '../../policy/access'
 import type { User } from '../users/user.entity'
 import { meResponse } from '../auth/me.service'
+import * as settings from './workspace-settings.service'
 import * as service from './workspaces.service'
 import { findMembership } from './workspaces.repository'
-import { InvitationAnswer, InvitationListAnswer, InvitationPreviewAnswer, MeAnswer, MemberListAnswer, MemberRoleAnswer, WorkspaceAnswer, WorkspaceListAnswer, WorkspaceNameAnswer } from '../../../shared/schemas/answers/accounts'
+import { InvitationAnswer, InvitationListAnswer, InvitationPreviewAnswer, MeAnswer, MemberListAnswer, MemberRoleAnswer, WorkspaceAnswer, WorkspaceListAnswer, WorkspaceNameAnswer, WorkspaceSettingsAnswer } from '../../../shared/schemas/answers/accounts'
+import { WorkspaceSettingsPatchSchema } from '../../../shared/schemas/workspace-settings.schema'
 
 const TokenParams = z.object({ token: z.string().min(10, 'is not a valid token').max(200) })
 
@@ -43,6 +45,18 @@ export const workspaceRoutes: RouteSpec[] = [
       const s = scope(req)
       await service.renameWorkspace(s.workspaceId, s.userId, body.name)
       return { id: s.workspaceId, name: body.name }
+    },
+  }),
+  defineRoute({
+    method: 'get', path: '/api/workspace/settings', response: WorkspaceSettingsAnswer, access: 'viewer', summary: "The workspace's settings: the currency of its prices and costs",
+    handler: (_input, req) => settings.workspaceSettings(scope(req).workspaceId),
+  }),
+  defineRoute({
+    method: 'patch', path: '/api/workspace/settings', response: WorkspaceSettingsAnswer, access: 'owner', summary: "Choose the workspace's currency (null: the owner's region's)",
+    body: WorkspaceSettingsPatchSchema,
+    handler: ({ body }, req) => {
+      const s = scope(req)
+      return settings.updateWorkspaceSettings(s.workspaceId, s.userId, body)
     },
   }),
   defineRoute({

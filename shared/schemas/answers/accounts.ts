@@ -9,7 +9,8 @@ const WorkspaceRole = z.object({ id: z.string(), name: z.string(), role: RoleSch
 /** Who am I: the user, the current workspace and role, every workspace, the session's CSRF token. */
 export const MeAnswer = z.object({
   user: z.object({ id: z.string(), email: z.string(), name: z.string(), units: z.enum(['si', 'us']) }),
-  workspace: z.object({ id: z.string(), name: z.string() }).nullable(),
+  /** The current workspace; `currency` is the one its prices and costs are written in (chosen, or the owner's region's). */
+  workspace: z.object({ id: z.string(), name: z.string(), currency: z.string() }).nullable(),
   role: RoleSchema.nullable(),
   workspaces: z.array(WorkspaceRole),
   csrfToken: z.string(),
@@ -22,6 +23,8 @@ export const CsrfAnswer = z.object({ csrfToken: z.string() })
 export const WorkspaceAnswer = WorkspaceRole
 export const WorkspaceListAnswer = z.object({ workspaces: z.array(WorkspaceRole) })
 export const WorkspaceNameAnswer = z.object({ id: z.string(), name: z.string() })
+/** The workspace's settings: the currency in force, whether an owner chose it, and the owner's region's (used until one is chosen). */
+export const WorkspaceSettingsAnswer = z.object({ currency: z.string(), currencyChosen: z.boolean(), regionCurrency: z.string() })
 
 export const MemberAnswer = z.object({ id: z.string(), userId: z.string(), name: z.string(), email: z.string(), role: RoleSchema, since: Timestamp })
 export const MemberListAnswer = z.object({ members: z.array(MemberAnswer) })
