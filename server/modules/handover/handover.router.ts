@@ -49,7 +49,7 @@ export const handoverRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'post', path: '/api/sites/:id/handover-packs/:n/links', response: HandoverLinkAnswer, access: 'designer', summary: 'Make a read-only link to a handover pack (token shown once)',
+    method: 'post', path: '/api/sites/:id/handover-packs/:n/links', response: HandoverLinkAnswer, secretAnswer: true, access: 'designer', summary: 'Make a read-only link to a handover pack (token shown once)',
     params: PackParams, body: HandoverLinkRequestSchema, status: 201,
     handler: ({ params, body }, req) => {
       const s = scope(req)
