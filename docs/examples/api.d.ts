@@ -11294,6 +11294,7 @@ export interface operations {
                             photometricFileName: string | null;
                             emergencyOutputFactor: number;
                             ratedDurationS: number;
+                            ratedDurationH: number;
                             modes: ("maintained" | "non-maintained")[];
                             chemistry: string;
                             cellsInSeries: number;
@@ -11362,7 +11363,8 @@ export interface operations {
                      */
                     photometricFileId?: string | null;
                     emergencyOutputFactor: number;
-                    ratedDuration: unknown;
+                    ratedDuration?: unknown;
+                    ratedDurationH?: number;
                     modes: ("maintained" | "non-maintained")[];
                     /** @enum {string} */
                     chemistry: "nicd" | "nicd-ht" | "nimh" | "lifepo4" | "lead-acid" | "li-ion";
@@ -11390,6 +11392,7 @@ export interface operations {
                         photometricFileName: string | null;
                         emergencyOutputFactor: number;
                         ratedDurationS: number;
+                        ratedDurationH: number;
                         modes: ("maintained" | "non-maintained")[];
                         chemistry: string;
                         cellsInSeries: number;
@@ -11473,6 +11476,7 @@ export interface operations {
                         photometricFileName: string | null;
                         emergencyOutputFactor: number;
                         ratedDurationS: number;
+                        ratedDurationH: number;
                         modes: ("maintained" | "non-maintained")[];
                         chemistry: string;
                         cellsInSeries: number;
@@ -11599,6 +11603,7 @@ export interface operations {
                     photometricFileId?: string | null;
                     emergencyOutputFactor?: number;
                     ratedDuration?: unknown;
+                    ratedDurationH?: number;
                     modes?: ("maintained" | "non-maintained")[];
                     /** @enum {string} */
                     chemistry?: "nicd" | "nicd-ht" | "nimh" | "lifepo4" | "lead-acid" | "li-ion";
@@ -11626,6 +11631,7 @@ export interface operations {
                         photometricFileName: string | null;
                         emergencyOutputFactor: number;
                         ratedDurationS: number;
+                        ratedDurationH: number;
                         modes: ("maintained" | "non-maintained")[];
                         chemistry: string;
                         cellsInSeries: number;
