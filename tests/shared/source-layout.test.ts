@@ -44,7 +44,7 @@ const escape = (s: string) => s.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')
  * A flag that says "done once" (`loaded`, set true in a finally) or a mode (`editing`, `showForm`)
  * is neither. The offline test queue's `sending` goes through useAsyncAction with `keepError`.
  */
-export function handRolledPending(text: string): string[] {
+function handRolledPending(text: string): string[] {
   const lines = text.split('\n')
   const hits = new Set<number>()
   const lineOf = (index: number) => text.slice(0, index).split('\n').length - 1
