@@ -11545,6 +11545,7 @@ export interface operations {
                             photometricFileName: string | null;
                             emergencyOutputFactor: number;
                             ratedDurationS: number;
+                            ratedDurationH: number;
                             modes: ("maintained" | "non-maintained")[];
                             chemistry: string;
                             cellsInSeries: number;
@@ -11613,7 +11614,8 @@ export interface operations {
                      */
                     photometricFileId?: string | null;
                     emergencyOutputFactor: number;
-                    ratedDuration: unknown;
+                    ratedDuration?: unknown;
+                    ratedDurationH?: number;
                     modes: ("maintained" | "non-maintained")[];
                     /** @enum {string} */
                     chemistry: "nicd" | "nicd-ht" | "nimh" | "lifepo4" | "lead-acid" | "li-ion";
@@ -11641,6 +11643,7 @@ export interface operations {
                         photometricFileName: string | null;
                         emergencyOutputFactor: number;
                         ratedDurationS: number;
+                        ratedDurationH: number;
                         modes: ("maintained" | "non-maintained")[];
                         chemistry: string;
                         cellsInSeries: number;
@@ -11724,6 +11727,7 @@ export interface operations {
                         photometricFileName: string | null;
                         emergencyOutputFactor: number;
                         ratedDurationS: number;
+                        ratedDurationH: number;
                         modes: ("maintained" | "non-maintained")[];
                         chemistry: string;
                         cellsInSeries: number;
@@ -11850,6 +11854,7 @@ export interface operations {
                     photometricFileId?: string | null;
                     emergencyOutputFactor?: number;
                     ratedDuration?: unknown;
+                    ratedDurationH?: number;
                     modes?: ("maintained" | "non-maintained")[];
                     /** @enum {string} */
                     chemistry?: "nicd" | "nicd-ht" | "nimh" | "lifepo4" | "lead-acid" | "li-ion";
@@ -11877,6 +11882,7 @@ export interface operations {
                         photometricFileName: string | null;
                         emergencyOutputFactor: number;
                         ratedDurationS: number;
+                        ratedDurationH: number;
                         modes: ("maintained" | "non-maintained")[];
                         chemistry: string;
                         cellsInSeries: number;

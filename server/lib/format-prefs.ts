@@ -7,7 +7,17 @@ import { localeFromAcceptLanguage, paperForLocale, resolvePrefs, type FormatPref
 
 export function formatPrefsOf(req: Request): FormatPrefs {
   const prefs = resolvePrefs({ locale: localeFromAcceptLanguage(req.get('accept-language')), timeZone: 'UTC' })
-  return { ...prefs, paper: paperOf(req, prefs.locale) }
+  return { ...prefs, paper: paperOf(req, prefs.locale), units: unitsOf(req, prefs.locale) }
+}
+
+/**
+ * The signed-in reader's units; someone signed out (a shared link) reads US customary only when
+ * their browser asks for the United States, metric everywhere else (Canada included).
+ */
+function unitsOf(req: Request, locale: string): 'si' | 'us' {
+  const user = req.user as { units?: string } | undefined
+  if (user?.units === 'us' || user?.units === 'si') return user.units
+  return /^[a-z]{2,3}(?:-[A-Za-z]{4})?-US\b/.test(locale) ? 'us' : 'si'
 }
 
 /**

@@ -131,3 +131,21 @@ export function inUserUnits(text: string, system: UnitSystem, prefs?: FormatPref
     return `${one(a, false)}${joint}${one(b, true)}`
   })
 }
+
+/** The stored SI unit of each kind that has a US customary counterpart, as `formatNumber` names it. */
+const KIND_OF_UNIT: Record<string, DisplayKind> = { lx: 'illuminance', degC: 'temperature', '°C': 'temperature', m: 'length', kg: 'mass', L: 'volume' }
+
+/**
+ * A figure for a document's reader: in their units (`prefs.units`) where metric and US customary
+ * differ, rounded as the screens round it; every other unit (W, Ah, h, V) as `formatNumber` writes it.
+ */
+export function formatForReader(value: unknown, opts: { unit?: string; digits?: number } = {}, prefs?: FormatPrefs): string {
+  const kind = opts.unit ? KIND_OF_UNIT[opts.unit] : undefined
+  if (!kind || prefs?.units !== 'us' || typeof value !== 'number') return formatNumber(value, opts, prefs)
+  return formatDisplay(kind, 'us', value, opts.digits ?? 3, prefs)
+}
+
+/** An engine sentence or a typed value for a document's reader: its quantities in their units. */
+export function textForReader(text: string, prefs?: FormatPrefs): string {
+  return inUserUnits(text, prefs?.units ?? 'si', prefs)
+}

@@ -15,6 +15,11 @@ export interface FormatPrefs {
   timeZone: string
   /** Paper a document is laid out on; A4 unless told. */
   paper?: PaperSize
+  /**
+   * The reader's units for documents the server makes (metric unless told): `formatForReader` and
+   * `textForReader` in shared/engine/units convert by it. Screens convert through useUnits instead.
+   */
+  units?: 'si' | 'us'
 }
 
 /** Letter where it is the usual paper (the United States, Canada, Mexico and a few others), A4 elsewhere. */

@@ -29,13 +29,15 @@ export type PhotometryUpload = z.output<typeof PhotometryUploadSchema>
 const HOUR = 3600
 
 /** A luminaire type in the workspace's catalogue. */
-export const LuminaireTypeSchema = z.object({
+const LuminaireTypeFields = z.object({
   name: text(120).min(1, 'is required'),
   photometricFileId: referenceId('photometricFile', 'is not a photometric file id', { invalidType: 'must be a photometric file id' }).nullable().default(null),
   /** Light output on battery as a share of the output the photometric file describes. */
   emergencyOutputFactor: fraction(),
-  /** Rated duration: a bare number is seconds, or "3 h". */
-  ratedDuration: quantity('time', { min: 0.5 * HOUR, max: 24 * HOUR, display: { unit: 'h', factor: 1 / HOUR } }),
+  /** Rated duration: a bare number is seconds, or "3 h". Give this or `ratedDurationH`. */
+  ratedDuration: quantity('time', { min: 0.5 * HOUR, max: 24 * HOUR, display: { unit: 'h', factor: 1 / HOUR } }).optional(),
+  /** Rated duration in hours, under the name and unit the register and the type's answer use, so a value read can be sent back. */
+  ratedDurationH: finiteNumber({ positive: true, min: 0.5, max: 24 }).optional(),
   modes: z
     .array(ModeSchema, { required_error: 'is required', invalid_type_error: 'must be a list of modes' })
     .min(1, 'needs at least one mode')
@@ -51,9 +53,30 @@ export const LuminaireTypeSchema = z.object({
   inputPower: finiteNumber({ min: 0, max: 10000 }),
   notes: text(2000).default(''),
 })
+
+type TypeFields = z.output<typeof LuminaireTypeFields>
+/** One rated duration, in seconds, whichever of the two names carried it; both at once is refused (they could disagree). */
+function oneRatedDuration(v: Partial<TypeFields>, ctx: z.RefinementCtx, required: boolean) {
+  if (v.ratedDuration !== undefined && v.ratedDurationH !== undefined) {
+    ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['ratedDurationH'], message: 'give the rated duration once: either ratedDuration or ratedDurationH' })
+  } else if (required && v.ratedDuration === undefined && v.ratedDurationH === undefined) {
+    ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['ratedDuration'], message: 'is required: a time, e.g. "3 h" (or ratedDurationH in hours)' })
+  }
+}
+function inSeconds<T extends Partial<TypeFields>>({ ratedDurationH, ...rest }: T): Omit<T, 'ratedDurationH'> {
+  return ratedDurationH === undefined ? rest : { ...rest, ratedDuration: ratedDurationH * HOUR }
+}
+
+export const LuminaireTypeSchema = LuminaireTypeFields.superRefine((v, ctx) => oneRatedDuration(v, ctx, true)).transform((v) => {
+  const out = inSeconds(v)
+  return { ...out, ratedDuration: out.ratedDuration as number }
+})
 export type LuminaireTypeInput = z.output<typeof LuminaireTypeSchema>
 
-export const LuminaireTypePatchSchema = LuminaireTypeSchema.partial().refine((v) => Object.keys(v).length > 0, 'needs at least one field to change')
+export const LuminaireTypePatchSchema = LuminaireTypeFields.partial()
+  .refine((v) => Object.keys(v).length > 0, 'needs at least one field to change')
+  .superRefine((v, ctx) => oneRatedDuration(v, ctx, false))
+  .transform((v) => inSeconds(v))
 export type LuminaireTypePatch = z.output<typeof LuminaireTypePatchSchema>
 
 /** A route to find luminaire types for. Lengths are metres (or strings with units). */

@@ -8,6 +8,7 @@ import type { FormContext } from 'vee-validate'
 import * as api from '@/api/audits'
 import { ApiError } from '@/api/http'
 import { withoutEmpty } from '@/lib/audit-recalc'
+import { useAsyncAction } from '@/composables/useAsyncAction'
 
 type Choice = { label: string; value: string }
 
@@ -15,8 +16,6 @@ export function useAuditRecord(form: Pick<FormContext, 'values' | 'validate' | '
   const title = ref('')
   const titleError = ref<string | null>(null)
   const description = ref('')
-  const saving = ref(false)
-  const saveError = ref<string | null>(null)
   /** The audit saved or opened last: the attach controls act on it. */
   const current = ref<api.SavedAudit | null>(null)
 
@@ -26,8 +25,15 @@ export function useAuditRecord(form: Pick<FormContext, 'values' | 'validate' | '
   const attachSheet = ref<string | null>(start.sheetId ?? null)
   const attachSite = ref<string | null>(null)
   const attachLuminaire = ref<string | null>(start.luminaireId ?? null)
-  const attaching = ref(false)
-  const attachError = ref<string | null>(null)
+  const attacher = useAsyncAction(
+    async (id: string) => {
+      current.value = await api.attachAudit(id, { specSheetId: attachSheet.value, luminaireId: attachLuminaire.value })
+      return true
+    },
+    { describe: (err) => (err instanceof ApiError && err.fields.length ? err.fields.map((f) => `${f.path}: ${f.message}`).join('; ') : (err as Error).message) },
+  )
+  const attaching = attacher.pending
+  const attachError = attacher.error
 
   async function loadChoices() {
     try {
@@ -48,6 +54,31 @@ export function useAuditRecord(form: Pick<FormContext, 'values' | 'validate' | '
     }
   })
 
+  const saver = useAsyncAction(
+    async () => {
+      current.value = await api.createAudit({
+        title: title.value.trim(),
+        luminaire: description.value.trim(),
+        inputs: withoutEmpty(form.values),
+        specSheetId: attachSheet.value ?? undefined,
+        luminaireId: attachLuminaire.value ?? undefined,
+      })
+      return true
+    },
+    {
+      onError: (err) => {
+        if (err instanceof ApiError && err.fields.length) {
+          const readings = err.fields.filter((f) => f.path.startsWith('inputs.'))
+          if (readings.length) form.setErrors(Object.fromEntries(readings.map((f) => [f.path.slice('inputs.'.length), f.message])) as never)
+          titleError.value = err.fields.find((f) => f.path === 'title')?.message ?? null
+        }
+      },
+      describe: (err) => (err instanceof Error ? err.message : 'Something went wrong. Try again.'),
+    },
+  )
+  const saving = saver.pending
+  const saveError = saver.error
+
   /** Saves the readings as a new audit; field errors land next to their inputs. True when saved. */
   async function save(): Promise<boolean> {
     saveError.value = null
@@ -57,43 +88,13 @@ export function useAuditRecord(form: Pick<FormContext, 'values' | 'validate' | '
       saveError.value = 'Fix the fields marked in red first.'
       return false
     }
-    saving.value = true
-    try {
-      current.value = await api.createAudit({
-        title: title.value.trim(),
-        luminaire: description.value.trim(),
-        inputs: withoutEmpty(form.values),
-        specSheetId: attachSheet.value ?? undefined,
-        luminaireId: attachLuminaire.value ?? undefined,
-      })
-      return true
-    } catch (err) {
-      if (err instanceof ApiError && err.fields.length) {
-        const readings = err.fields.filter((f) => f.path.startsWith('inputs.'))
-        if (readings.length) form.setErrors(Object.fromEntries(readings.map((f) => [f.path.slice('inputs.'.length), f.message])) as never)
-        titleError.value = err.fields.find((f) => f.path === 'title')?.message ?? null
-      }
-      saveError.value = err instanceof Error ? err.message : 'Something went wrong. Try again.'
-      return false
-    } finally {
-      saving.value = false
-    }
+    return (await saver.run()) === true
   }
 
   /** Saves where the current audit hangs. True when saved. */
   async function attach(): Promise<boolean> {
     if (!current.value) return false
-    attachError.value = null
-    attaching.value = true
-    try {
-      current.value = await api.attachAudit(current.value.id, { specSheetId: attachSheet.value, luminaireId: attachLuminaire.value })
-      return true
-    } catch (err) {
-      attachError.value = err instanceof ApiError && err.fields.length ? err.fields.map((f) => `${f.path}: ${f.message}`).join('; ') : (err as Error).message
-      return false
-    } finally {
-      attaching.value = false
-    }
+    return (await attacher.run(current.value.id)) === true
   }
 
   /** Takes over a saved audit's title and attachments (its readings go to the form separately). */

@@ -7,6 +7,7 @@ import { computed, reactive, ref } from 'vue'
 import { MAX_LOG_BYTES } from '@shared/schemas/discharge-log.schema'
 import * as api from '@/api/discharge'
 import { ApiError } from '@/api/http'
+import { useAsyncAction } from '@/composables/useAsyncAction'
 
 export const sizeText = (bytes: number) => (bytes < 2 ** 20 ? `${Math.max(1, Math.round(bytes / 1024))} kB` : `${Number((bytes / 2 ** 20).toFixed(1))} MB`)
 
@@ -14,9 +15,15 @@ export function useDischargeAnalysis() {
   // ---- the file ----
   const file = ref<File | null>(null)
   const uploaded = ref(0)
-  const uploading = ref(false)
   const upload = ref<api.UploadPreview | null>(null)
-  const uploadError = ref<string | null>(null)
+  const uploader = useAsyncAction(async (chosen: File) => {
+    uploaded.value = 0
+    const up = await api.uploadLog(chosen, (loaded) => (uploaded.value = loaded))
+    upload.value = up
+    applyGuess(up)
+  })
+  const uploading = uploader.pending
+  const uploadError = uploader.error
   const percent = computed(() => (file.value && file.value.size ? Math.min(100, Math.round((uploaded.value / file.value.size) * 100)) : 0))
 
   // ---- mapping and options ----
@@ -34,12 +41,28 @@ export function useDischargeAnalysis() {
   const options = reactive({ chemistry: 'nicd', cellsInSeries: 4 as number | null, ratedDuration: '3 h', cutoffPerCell: '', ratedCapacity: '', thresholds: '' })
 
   // ---- analysis (a dry run) ----
-  const analysing = ref(false)
-  const analyseError = ref<string | null>(null)
   const fieldErrors = ref<Array<{ path: string; message: string }>>([])
   const badRows = ref<{ count: number; items: api.BadRow[] } | null>(null)
   const acceptBadRows = ref(false)
   const result = ref<api.DryRun | null>(null)
+  const analyser = useAsyncAction(
+    async () => {
+      fieldErrors.value = []
+      badRows.value = null
+      result.value = null
+      result.value = (await api.analyseLog(body({ dryRun: true }))) as api.DryRun
+    },
+    {
+      onError: (err) => {
+        if (err instanceof ApiError) {
+          fieldErrors.value = err.fields
+          if (err.body.badRows) badRows.value = err.body.badRows as { count: number; items: api.BadRow[] }
+        }
+      },
+    },
+  )
+  const analysing = analyser.pending
+  const analyseError = analyser.error
 
   function applyGuess(up: api.UploadPreview) {
     Object.assign(mapping, { delimiter: up.delimiter, decimal: up.decimal, header: up.header, firstLine: up.firstLine })
@@ -59,17 +82,7 @@ export function useDischargeAnalysis() {
       uploadError.value = `The file is ${sizeText(chosen.size)}; a discharge log may be at most ${sizeText(MAX_LOG_BYTES)}. Log less often or split the file.`
       return
     }
-    uploading.value = true
-    uploaded.value = 0
-    try {
-      const up = await api.uploadLog(chosen, (loaded) => (uploaded.value = loaded))
-      upload.value = up
-      applyGuess(up)
-    } catch (err) {
-      uploadError.value = (err as Error).message
-    } finally {
-      uploading.value = false
-    }
+    await uploader.run(chosen)
   }
 
   /** The request body: mapping and options as set, plus whatever the caller adds (title, links, dryRun). */
@@ -92,22 +105,7 @@ export function useDischargeAnalysis() {
   }
 
   async function analyse() {
-    analysing.value = true
-    analyseError.value = null
-    fieldErrors.value = []
-    badRows.value = null
-    result.value = null
-    try {
-      result.value = (await api.analyseLog(body({ dryRun: true }))) as api.DryRun
-    } catch (err) {
-      analyseError.value = (err as Error).message
-      if (err instanceof ApiError) {
-        fieldErrors.value = err.fields
-        if (err.body.badRows) badRows.value = err.body.badRows as { count: number; items: api.BadRow[] }
-      }
-    } finally {
-      analysing.value = false
-    }
+    await analyser.run()
   }
 
   async function goOnWithoutBadRows() {

@@ -6,8 +6,10 @@ import { computed, onMounted, ref, watch, type Ref } from 'vue'
 import { useRoute, useRouter } from 'vue-router'
 import { useMessage } from 'naive-ui'
 import type { FormContext } from 'vee-validate'
+import type { SheetMeta } from '@shared/schemas/sheet.schema'
 import { ApiError } from '@/api/http'
 import * as api from '@/api/sheets'
+import { useAsyncAction } from '@/composables/useAsyncAction'
 import type SheetDetailsForm from '@/components/sheets/SheetDetailsForm.vue'
 
 type Details = InstanceType<typeof SheetDetailsForm>
@@ -18,8 +20,6 @@ export function usePackSheet(form: FormContext<Record<string, unknown>>, inputs:
   const message = useMessage()
   const sheetId = computed(() => (typeof route.query.sheet === 'string' ? route.query.sheet : null))
   const sheet = ref<api.Sheet | null>(null)
-  const saving = ref(false)
-  const saveError = ref<string | null>(null)
   const conflict = ref<api.SaveConflict | null>(null)
   const loadError = ref<string | null>(null)
 
@@ -43,25 +43,18 @@ export function usePackSheet(form: FormContext<Record<string, unknown>>, inputs:
   })
 
   /** Moves server messages about "inputs.x" next to field "x" of the pack form. */
-  function showServerError(err: unknown): string {
+  function showServerError(err: unknown) {
     if (err instanceof ApiError && err.fields.length) {
       const pack = err.fields.filter((f) => f.path.startsWith('inputs.'))
       if (pack.length) form.setErrors(Object.fromEntries(pack.map((f) => [f.path.slice(7), f.message])) as never)
       details.value?.applyServerError(new ApiError(err.status, err.message, err.code, err.fields.filter((f) => !f.path.startsWith('inputs.'))))
     }
-    return err instanceof Error ? err.message : 'Something went wrong. Try again.'
   }
+  /** Someone else saved the sheet since it was opened: their version, offered instead of a message. */
+  const conflictOf = (err: unknown) => (err instanceof ApiError && err.status === 409 && err.body.currentVersion ? (err.body as unknown as api.SaveConflict) : null)
 
-  async function save(overwrite = false) {
-    saveError.value = null
-    const meta = await details.value?.read()
-    const checked = await form.validate()
-    if (!meta || !checked.valid) {
-      saveError.value = 'Fix the fields marked in red first.'
-      return
-    }
-    saving.value = true
-    try {
+  const saver = useAsyncAction(
+    async (overwrite: boolean, meta: SheetMeta) => {
       const body = { ...meta, inputs: inputs() }
       if (sheet.value) {
         const version = overwrite && conflict.value ? conflict.value.currentVersion : sheet.value.version
@@ -73,12 +66,28 @@ export function usePackSheet(form: FormContext<Record<string, unknown>>, inputs:
         await router.replace({ query: { ...route.query, sheet: sheet.value.id } })
       }
       conflict.value = null
-    } catch (err) {
-      if (err instanceof ApiError && err.status === 409 && err.body.currentVersion) conflict.value = err.body as unknown as api.SaveConflict
-      else saveError.value = showServerError(err)
-    } finally {
-      saving.value = false
+    },
+    {
+      onError: (err) => {
+        const theirs = conflictOf(err)
+        if (theirs) conflict.value = theirs
+        else showServerError(err)
+      },
+      describe: (err) => (conflictOf(err) ? null : err instanceof Error ? err.message : 'Something went wrong. Try again.'),
+    },
+  )
+  const saving = saver.pending
+  const saveError = saver.error
+
+  async function save(overwrite = false) {
+    saveError.value = null
+    const meta = await details.value?.read()
+    const checked = await form.validate()
+    if (!meta || !checked.valid) {
+      saveError.value = 'Fix the fields marked in red first.'
+      return
     }
+    await saver.run(overwrite, meta)
   }
 
   function takeTheirs() {

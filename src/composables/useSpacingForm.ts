@@ -13,6 +13,7 @@ import * as api from '@/api/photometry'
 import { fetchAudits, type SavedAudit } from '@/api/audits'
 import { ApiError } from '@/api/http'
 import { useUnits } from '@/composables/useUnits'
+import { useAsyncAction } from '@/composables/useAsyncAction'
 
 /** Mounting heights of the table, metres. */
 export const TABLE_HEIGHTS = [2, 2.5, 3, 3.5, 4, 4.5, 5, 5.5, 6]
@@ -38,9 +39,23 @@ export function useSpacingForm() {
   /** Where the emergency output factor shown came from: the chosen type, an audit, or typed. */
   const factorFrom = ref<'type' | 'audit' | 'typed'>('typed')
   const result = ref<api.SpacingResponse | null>(null)
-  const error = ref<string | null>(null)
   const fieldErrors = ref<Record<string, string>>({})
-  const busy = ref(false)
+  const calc = useAsyncAction(
+    async (chosen: string) => {
+      const fileId = await fileIdOf(chosen)
+      if (!fileId) throw new Error('This luminaire type has no photometric file.')
+      result.value = await api.calcSpacing(requestBody(await tableOf(fileId)))
+    },
+    {
+      onError: (err) => {
+        result.value = null
+        if (err instanceof ApiError) fieldErrors.value = err.fieldMap()
+      },
+      describe: (err) => (err instanceof ApiError && err.fields.length ? 'Some inputs need attention (see the fields).' : (err as Error).message),
+    },
+  )
+  const error = calc.error
+  const busy = calc.pending
 
   const sourceOptions = computed<SelectOption[]>(() => [
     { type: 'group', label: 'Luminaire types', key: 'types', children: types.value.filter((t) => t.photometricFileId).map((t) => ({ label: t.name, value: `type:${t.id}` })) },
@@ -156,20 +171,7 @@ export function useSpacingForm() {
       error.value = 'Choose a luminaire type or a photometric file.'
       return
     }
-    busy.value = true
-    try {
-      const fileId = await fileIdOf(source.value)
-      if (!fileId) throw new Error('This luminaire type has no photometric file.')
-      result.value = await api.calcSpacing(requestBody(await tableOf(fileId)))
-    } catch (err) {
-      result.value = null
-      if (err instanceof ApiError) {
-        fieldErrors.value = err.fieldMap()
-        error.value = err.fields.length ? 'Some inputs need attention (see the fields).' : err.message
-      } else error.value = (err as Error).message
-    } finally {
-      busy.value = false
-    }
+    await calc.run(source.value)
   }
 
   return { units, form, points, source, auditId, sourceOptions, auditOptions, factorNote, typedFactor, result, error, fieldErrors, busy, si, calculate }

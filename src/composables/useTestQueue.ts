@@ -7,6 +7,7 @@ import { computed, onBeforeUnmount, onMounted, ref } from 'vue'
 import type { TestRecordInput } from '@shared/schemas/test-record.schema'
 import { ApiError } from '@/api/http'
 import { recordTests } from '@/api/register'
+import { useAsyncAction } from '@/composables/useAsyncAction'
 
 const STORAGE_PREFIX = 'lw.test-queue.'
 
@@ -30,11 +31,27 @@ export function useTestQueue(key: string) {
     }
   }
   const pending = ref<TestRecordInput[]>(load())
-  const sending = ref(false)
-  const lastError = ref<string | null>(null)
   /** clientIds the server has confirmed in this session. */
   const saved = ref<string[]>([])
   const save = () => localStorage.setItem(storageKey, JSON.stringify(pending.value))
+
+  // The note of the last failed send stays while the next try is out (no flicker at each retry).
+  const sender = useAsyncAction(
+    async () => {
+      const batch = [...pending.value]
+      const res = await recordTests(batch)
+      const done = new Set(res.records.map((r) => r.clientId))
+      saved.value = [...saved.value, ...done]
+      pending.value = load().filter((r) => !done.has(r.clientId))
+      save()
+    },
+    {
+      keepError: true,
+      describe: (err) => (err instanceof ApiError && err.status === 0 ? 'No connection. The results are kept on this device and will be sent when you are back online.' : (err as Error).message),
+    },
+  )
+  const sending = sender.pending
+  const lastError = sender.error
 
   /** Drops what is waiting (after the technician has read the server's refusal). */
   function discard() {
@@ -51,20 +68,7 @@ export function useTestQueue(key: string) {
   /** Sends everything waiting; on failure keeps it for the next try. */
   async function flush() {
     if (sending.value || !pending.value.length) return
-    sending.value = true
-    const batch = [...pending.value]
-    try {
-      const res = await recordTests(batch)
-      const done = new Set(res.records.map((r) => r.clientId))
-      saved.value = [...saved.value, ...done]
-      pending.value = load().filter((r) => !done.has(r.clientId))
-      save()
-      lastError.value = null
-    } catch (err) {
-      lastError.value = err instanceof ApiError && err.status === 0 ? 'No connection. The results are kept on this device and will be sent when you are back online.' : (err as Error).message
-    } finally {
-      sending.value = false
-    }
+    await sender.run()
     // Something may have been added while the request was out.
     if (!lastError.value && pending.value.length) await flush()
   }

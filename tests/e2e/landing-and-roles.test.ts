@@ -1,4 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { dataSource } from '../../server/data-source'
+import { Membership } from '../../server/modules/workspaces/membership.entity'
 import { closeTestApp, makeTeam, TEST_PASSWORD, type TestTeam } from '../helpers/test-app'
 import { newBrowser, screenshot, signInThroughForm, startE2eApp, type RunningApp } from '../helpers/browser'
 
@@ -75,6 +77,26 @@ describe('roles in the browser', () => {
       await screenshot(owner.page, 'team-as-owner')
     } finally {
       await owner.close()
+    }
+  })
+  it('names the role in words beside each workspace in the switcher and in the header', async () => {
+    // The designer of the browser team also reads a second workspace, so the switcher shows.
+    const other = await makeTeam('Browser second team')
+    await dataSource.getRepository(Membership).insert({ workspaceId: other.workspaceId, userId: team.users.designer.id, role: 'viewer' })
+    const b = await newBrowser()
+    try {
+      await signInThroughForm(b.page, app.url, team.users.designer.email, TEST_PASSWORD)
+      const switcher = b.page.locator('.lw-ws')
+      await switcher.waitFor()
+      const badge = b.page.locator('[data-test="role"]')
+      await expect.poll(() => badge.textContent()).toMatch(/^(Designer|Viewer)$/)
+      await switcher.click()
+      const options = b.page.locator('.n-base-select-option')
+      await expect.poll(() => options.count()).toBe(2)
+      expect((await options.allTextContents()).map((t) => t.trim()).sort()).toEqual(['Browser second team (Viewer)', 'Browser team (Designer)'])
+      await screenshot(b.page, 'workspace-switcher')
+    } finally {
+      await b.close()
     }
   })
 })

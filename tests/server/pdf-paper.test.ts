@@ -6,9 +6,10 @@
 import type { Response } from 'superagent'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { paperForLocale } from '../../shared/format'
-import { layoutProblems } from '../helpers/pdf-checks'
+import { layoutProblems, pdfLines } from '../helpers/pdf-checks'
 import { pdfPages } from '../helpers/pdf-layout'
 import { luminaireIn, siteIn, testIn } from '../helpers/register-fixtures'
+import { PACK_INPUTS, sheetBody } from '../helpers/sheets'
 import { closeTestApp, getTestApp, makeTeam, signIn, type Client, type TestTeam } from '../helpers/test-app'
 
 function binary(res: Response, done: (err: Error | null, body: Buffer) => void) {
@@ -57,5 +58,31 @@ describe('paper by preference', () => {
 
   it('signed out, the browser region decides (Letter in the US and Canada, A4 in the UK and Germany)', () => {
     expect(['en-US', 'en-CA', 'fr-CA', 'es-MX', 'en-GB', 'de-DE', 'en', 'fr'].map(paperForLocale)).toEqual(['letter', 'letter', 'letter', 'letter', 'a4', 'a4', 'a4', 'a4'])
+  })
+})
+
+describe('quantities in the reader\'s units', () => {
+  it('a sheet printed for someone in US customary units gives its temperatures in °F; typed inputs stay as typed with °F beside them', async () => {
+    const designer = await signIn((await getTestApp()).app, team.users.designer.email)
+    const made = await designer.post('/api/sheets', sheetBody({ title: 'Boiler house exit', inputs: { ...PACK_INPUTS, ambientMax: '48 °C' } }))
+    expect(made.status).toBe(201)
+    const lines = async () => pdfLines((await designer.get(`/api/sheets/${made.body.id}/pdf`).buffer(true).parse(binary)).body as Buffer)
+    const metric = (await lines()).join('\n')
+    expect(metric).toMatch(/48 °C/)
+    expect(metric).not.toMatch(/°F/)
+    expect((await designer.patch('/api/auth/me', { units: 'us' })).status).toBe(200)
+    const us = (await lines()).join('\n')
+    // 48 °C = 118.4 °F (exact: × 9/5 + 32); the input as typed, then the reader's unit.
+    expect(us).toMatch(/48 °C \(118\.4 °F\)/)
+    // Every other temperature (results, warnings, cautions, references) is in °F: a °C appears only in
+    // typed inputs and in the working, whose formulas are SI (and says so).
+    const all = us.split('\n')
+    const working = [all.indexOf('Working'), all.indexOf('Cautions')]
+    expect(working[0]).toBeGreaterThan(0)
+    expect(all[working[0] + 1]).toMatch(/SI units its formulas use/)
+    const celsius = all.filter((l, i) => (i < working[0] || i > working[1]) && /°C/.test(l) && !/\(\d[\d.,]* °F\)/.test(l))
+    expect(celsius).toEqual([])
+    expect(us).toMatch(/\d °F/)
+    expect((await designer.patch('/api/auth/me', { units: 'si' })).status).toBe(200)
   })
 })

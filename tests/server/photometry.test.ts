@@ -194,6 +194,25 @@ describe('luminaire types', () => {
     expect((await viewer.get(`/api/luminaire-types/${created.body.id}`)).status).toBe(404)
   })
 
+  it('takes the rated duration in hours under the name the register and its own answer use, so a value read can be sent back', async () => {
+    // The register's luminaire answers ratedDurationH in hours; the same figure creates a type.
+    const created = await designer.post('/api/luminaire-types', { ...typeBody(null), ratedDuration: undefined, ratedDurationH: 1.5 })
+    expect(created.status, JSON.stringify(created.body)).toBe(201)
+    expect(created.body).toMatchObject({ ratedDurationS: 5400, ratedDurationH: 1.5 })
+    // What a type answers is what it takes back.
+    const read = (await viewer.get(`/api/luminaire-types/${created.body.id}`)).body
+    const patched = await designer.patch(`/api/luminaire-types/${created.body.id}`, { ratedDurationH: read.ratedDurationH * 2 })
+    expect(patched.status).toBe(200)
+    expect(patched.body).toMatchObject({ ratedDurationS: 10800, ratedDurationH: 3 })
+    // Both names at once could disagree: refused, naming the field.
+    const both = await designer.post('/api/luminaire-types', { ...typeBody(null), ratedDuration: '3 h', ratedDurationH: 1 })
+    expect(both.status).toBe(400)
+    expect(both.body.errors).toEqual([expect.objectContaining({ pointer: '/ratedDurationH' })])
+    const neither = await designer.post('/api/luminaire-types', { ...typeBody(null), ratedDuration: undefined })
+    expect(neither.status).toBe(400)
+    expect(neither.body.errors).toEqual([expect.objectContaining({ pointer: '/ratedDuration' })])
+  })
+
   it('gives field messages for bad input', async () => {
     const res = await designer.post('/api/luminaire-types', typeBody(null, { emergencyOutputFactor: 1.5, ratedDuration: '3 kg', modes: [], chemistry: 'unobtainium', name: '' }))
     expect(res.status).toBe(400)

@@ -86,11 +86,16 @@ describe('portfolio of the demo workspace against a hand count', () => {
     expect(p.counts.failed).toBe(expected.filter((x) => x.state === 'failed').length)
     expect(p.counts.overdue).toBe(expected.filter((x) => x.state === 'overdue').length)
     // What the demo promises by construction: the care home's open failure six days ago, and one
-    // luminaire in nine (index 4, 13, …) that missed the last two rounds, so it is overdue.
+    // luminaire in nine (index 4, 13, …) that missed the last two rounds, so it is overdue. Other
+    // files record rounds on the demo sites as this one runs, which clears some of those (the hand
+    // count above follows them): at least one overdue luminaire is left on every site no round touched.
     const open = p.items.find((i) => i.failures.some((f) => f.faults === 'No light in emergency mode'))
     expect(open).toMatchObject({ state: 'failed', siteName: 'Hollin Grange Care Home (demo)' })
     expect(open!.failures[0].testedOn).toBe(addDays(today, -6))
-    expect(p.items.filter((i) => i.state === 'overdue').length).toBeGreaterThanOrEqual(6)
+    const touchedToday = new Set(rows.filter((r) => r.tests.some((t) => t.on === today)).map((r) => r.site))
+    for (const site of new Set(rows.map((r) => r.site))) {
+      if (!touchedToday.has(site)) expect(p.items.some((i) => i.siteName === site && i.state === 'overdue'), `an overdue luminaire at ${site}`).toBe(true)
+    }
     // Failed first, then overdue; one site filtered.
     expect(p.items.findIndex((i) => i.state === 'overdue')).toBeGreaterThan(p.items.findLastIndex((i) => i.state === 'failed'))
     const oneSite = await luminairesInState(ws, { states: ['overdue', 'failed'], siteId: open!.siteId }, today)

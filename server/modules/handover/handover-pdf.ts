@@ -5,6 +5,7 @@
  * pack's frozen content, so the same pack prints the same every time.
  */
 import { formatDate, formatHours, formatNumber, type FormatPrefs } from '../../../shared/format'
+import { formatForReader, textForReader } from '../../../shared/engine/units'
 import { CHEMISTRY_SHORT_LABELS, CRITERIA_LABELS, labelOf, MODE_LABELS, PURPOSE_LABELS, REGIME_LABELS, TEST_KIND_LABELS } from '../../../shared/labels'
 import type { HandoverContent } from '../../../shared/schemas/handover.schema'
 import { SHEET_CAUTIONS } from '../../../shared/schemas/sheet-text'
@@ -106,8 +107,8 @@ function spacing(doc: Doc, d: HandoverPdfData) {
   ensureSpace(doc, 150)
   heading(doc, `4. ${SECTIONS[3]}`)
   if (!c.routes.length) return void write(doc, 'No escape routes were given for this pack.')
-  const m = (v: number | null) => formatNumber(v, { unit: 'm' }, d.prefs)
-  const lx = (v: number | null) => formatNumber(v, { unit: 'lx' }, d.prefs)
+  const m = (v: number | null) => formatForReader(v, { unit: 'm' }, d.prefs)
+  const lx = (v: number | null) => formatForReader(v, { unit: 'lx' }, d.prefs)
   for (const r of c.routes) {
     ensureSpace(doc, 90)
     doc.x = doc.page.margins.left
@@ -160,19 +161,19 @@ function logBook(doc: Doc, d: HandoverPdfData) {
   )
 }
 
-function safety(doc: Doc) {
+function safety(doc: Doc, d: HandoverPdfData) {
   heading(doc, `7. ${SECTIONS[6]}`)
   for (const caution of SHEET_CAUTIONS) {
     ensureSpace(doc, 36)
     doc.x = doc.page.margins.left
     write(doc, `${caution.title}. `, { weight: 'semibold', size: 9, continued: true })
-    write(doc, caution.text, { size: 9 })
+    write(doc, textForReader(caution.text, d.prefs), { size: 9 })
     doc.moveDown(0.2)
   }
 }
 
 export async function buildHandoverPdf(d: HandoverPdfData): Promise<Buffer> {
-  const doc = newDocument({ title: `Handover pack ${d.number} — ${d.content.site.name}`, subject: 'Emergency lighting handover pack' })
+  const doc = newDocument({ title: `Handover pack ${d.number} — ${d.content.site.name}`, subject: 'Emergency lighting handover pack' }, { paper: d.prefs.paper })
   titlePage(doc, d)
   certificate(doc, d)
   register(doc, d)
@@ -180,7 +181,7 @@ export async function buildHandoverPdf(d: HandoverPdfData): Promise<Buffer> {
   spacing(doc, d)
   firstTests(doc, d)
   logBook(doc, d)
-  safety(doc)
+  safety(doc, d)
   frame(doc, { header: `Handover pack ${d.number} — ${d.content.site.name}`, headerRight: d.content.firm, footer: `Signed by ${d.content.certificate.signedByName} on ${formatDate(d.content.certificate.signedOn, d.prefs)} · Lampwright` })
   return toBuffer(doc)
 }

@@ -4,6 +4,7 @@
  */
 import type { EngineWarning, Reference, WorkingStep } from '../../../shared/engine/types'
 import { DEFAULT_PREFS, formatDate, formatNumber } from '../../../shared/format'
+import { formatForReader, textForReader } from '../../../shared/engine/units'
 import { BASIS_LABELS, CHEMISTRY_LABELS, labelOf, SEVERITY_LABELS } from '../../../shared/labels'
 import { PACK_RESULT_FIGURES, SHEET_CAUTIONS, sheetInputRows } from '../../../shared/schemas/sheet.schema'
 import { ensureSpace, frame, heading, newDocument, pair, toBuffer, write } from '../../lib/pdf/pdf-kit'
@@ -40,7 +41,11 @@ export const projectSection: PdfSection = (doc, d) => {
 
 export const inputsSection: PdfSection = (doc, d) => {
   heading(doc, 'Inputs (as entered)')
-  for (const row of sheetInputRows(d.inputs)) pair(doc, row.label, row.value)
+  // As the author typed it; a quantity in other units than the reader's follows in theirs.
+  for (const row of sheetInputRows(d.inputs)) {
+    const theirs = textForReader(row.value, prefsOf(d))
+    pair(doc, row.label, theirs === row.value ? row.value : `${row.value} (${theirs})`)
+  }
 }
 
 export const resultsSection: PdfSection = (doc, d) => {
@@ -49,7 +54,7 @@ export const resultsSection: PdfSection = (doc, d) => {
   pair(doc, 'Chemistry', labelOf(CHEMISTRY_LABELS, String(r.chemistry)))
   for (const f of PACK_RESULT_FIGURES) {
     if (r[f.key] === undefined) continue
-    pair(doc, f.label, formatNumber(r[f.key], { unit: f.unit }, prefsOf(d)))
+    pair(doc, f.label, formatForReader(r[f.key], { unit: f.unit }, prefsOf(d)))
   }
 }
 
@@ -61,7 +66,7 @@ export const warningsSection: PdfSection = (doc, d) => {
   for (const w of warnings) {
     ensureSpace(doc, 28)
     write(doc, `${SEVERITY_LABELS[w.severity]}: `, { weight: 'semibold', continued: true, color: w.severity === 'critical' ? '#a3161a' : w.severity === 'warning' ? '#a4460f' : '#1b2a33' })
-    write(doc, w.message)
+    write(doc, textForReader(w.message, prefsOf(d)))
     doc.moveDown(0.2)
   }
 }
@@ -71,6 +76,8 @@ const refText = (r: Reference) => `${r.source} (${labelOf(BASIS_LABELS, r.basis)
 export const workingSection: PdfSection = (doc, d) => {
   const steps = (d.results.working ?? []) as WorkingStep[]
   heading(doc, 'Working')
+  // The formulas are written in SI, so their values are too (a temperature interval of 10 °C is not 50 °F).
+  if (steps.length && prefsOf(d).units === 'us') write(doc, 'The working is in the SI units its formulas use; the results above are in yours.', { size: 9, color: '#3c4a52' })
   for (const s of steps) {
     ensureSpace(doc, 70)
     write(doc, s.label, { weight: 'semibold', size: 10.5 })
@@ -84,12 +91,12 @@ export const workingSection: PdfSection = (doc, d) => {
   }
 }
 
-export const cautionsSection: PdfSection = (doc) => {
+export const cautionsSection: PdfSection = (doc, d) => {
   heading(doc, 'Cautions')
   for (const c of SHEET_CAUTIONS) {
     ensureSpace(doc, 30)
     write(doc, `${c.title}. `, { weight: 'semibold', continued: true })
-    write(doc, c.text)
+    write(doc, textForReader(c.text, prefsOf(d)))
     doc.moveDown(0.2)
   }
 }
@@ -108,7 +115,7 @@ export const referencesSection: PdfSection = (doc, d) => {
   const refs = issuedReferences((d.results.working ?? []) as WorkingStep[])
   heading(doc, 'References')
   if (!refs.length) write(doc, 'None recorded.')
-  for (const r of refs) write(doc, `• ${r.source} — ${labelOf(BASIS_LABELS, r.basis)}`, { size: 9 })
+  for (const r of refs) write(doc, `• ${textForReader(r.source, prefsOf(d))} — ${labelOf(BASIS_LABELS, r.basis)}`, { size: 9 })
 }
 
 /** The sheet as issued today; later features push their sections onto a copy of this list. */

@@ -58,6 +58,8 @@ export const LuminaireTypeAnswer = z.object({
   photometricFileName: z.string().nullable(),
   emergencyOutputFactor: z.number(),
   ratedDurationS: z.number(),
+  /** The same rated duration in hours, as the register and the type's request take it. */
+  ratedDurationH: z.number(),
   modes: z.array(z.enum(MODES)),
   chemistry: z.string(),
   cellsInSeries: z.number().int(),
