@@ -6,7 +6,7 @@
 import Papa from 'papaparse'
 import { DEFAULT_PREFS, formatDate, formatHours, formatNumber, type FormatPrefs } from '../../../shared/format'
 import { frame, newDocument, toBuffer, write, type Doc, type WriteOptions } from '../../lib/pdf/pdf-kit'
-import { resultCell, table, type Column } from './register-pdf'
+import { resultCell, table, type Column } from '../../lib/pdf/table'
 import { PURPOSE_LABELS, REGISTER_DERIVED_COLUMNS } from '../../../shared/schemas/luminaire.schema'
 import { REGIME_LABELS } from '../../../shared/schemas/site.schema'
 import { chemistryName, DUE_REASON_LABELS, labelOf, PACK_STATE_LABELS, TEST_KIND_LABELS, TEST_STATE_LABELS, MODE_LABELS, testKindWords } from '../../../shared/labels'

@@ -11,7 +11,7 @@ import { failureStateWords, nextDueTestWords, nextDueWhenWords, tagListWords } f
 import { regimeWords } from '../../../shared/labels/regime-words'
 import { ensureSpace, heightOf, signOffBoxes, write, type Doc, type WriteOptions } from '../../lib/pdf/pdf-kit'
 import type { SiteDto } from './register.service'
-import { table } from './register-pdf'
+import { table } from '../../lib/pdf/table'
 
 export interface SummaryPageData {
   site: Pick<SiteDto, 'name' | 'address' | 'responsibleName' | 'responsibleEmail' | 'regime'>

@@ -9,7 +9,7 @@ import { dataSource } from '../../data-source'
 import { NotFoundError } from '../../errors/app-error'
 import { frame, newDocument, pair, signOffBoxes, toBuffer, write, heading as sectionHeading, type WriteOptions } from '../../lib/pdf/pdf-kit'
 import { findSite } from './register.service'
-import { resultCell, table, type Column } from './register-pdf'
+import { resultCell, table, type Column } from '../../lib/pdf/table'
 import { LOG_SELECT, type LogBookEntry } from './tests.service'
 
 const CHECK_LABEL = new Map<string, string>(CHECKLIST_ITEMS.map((i) => [i.id, i.label]))

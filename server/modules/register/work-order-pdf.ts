@@ -7,7 +7,7 @@ import { DEFAULT_PREFS, formatDate, formatHours, formatWallClock, type FormatPre
 import { labelOf, PLAN_GROUPING_LABELS, REGIME_LABELS } from '../../../shared/labels'
 import { frame, heading, newDocument, pair, signOffBoxes, toBuffer, write, type WriteOptions } from '../../lib/pdf/pdf-kit'
 import { findSite } from './register.service'
-import { table } from './register-pdf'
+import { table } from '../../lib/pdf/table'
 import { findPlan } from './test-plans.service'
 
 export async function workOrderPdf(workspaceId: string, siteId: string, planId: string, prefs: FormatPrefs = DEFAULT_PREFS): Promise<{ filename: string; body: Buffer }> {
