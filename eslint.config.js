@@ -35,7 +35,11 @@ export default tseslint.config(
     rules: {
       'no-restricted-globals': ['error', 'process', 'fetch', 'window', 'document', 'localStorage'],
       'no-restricted-imports': ['error', { patterns: ['node:*', 'fs', 'path', 'vue', 'express', 'typeorm'] }],
-      'no-restricted-properties': ['error', { object: 'Date', property: 'now', message: 'The engine takes time as input.' }, { object: 'Math', property: 'random', message: 'The engine is deterministic.' }],
+      'no-restricted-properties': [
+        'error',
+        { object: 'Date', property: 'now', message: 'The engine takes time as input.' },
+        { object: 'Math', property: 'random', message: 'The engine is deterministic.' },
+      ],
     },
   },
 )

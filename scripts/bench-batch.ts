@@ -42,12 +42,28 @@ async function waitFor(url: string) {
   throw new Error(`${url} did not answer`)
 }
 
-const input = (i: number) => ({ chemistry: 'nicd', cellsInSeries: 4, duration: '3 h', load: { power: `${(1 + (i % 40) * 0.1).toFixed(1)} W` }, driver: 'converter', driverEfficiency: 0.85, ambientMax: '30 degC' })
+const input = (i: number) => ({
+  chemistry: 'nicd',
+  cellsInSeries: 4,
+  duration: '3 h',
+  load: { power: `${(1 + (i % 40) * 0.1).toFixed(1)} W` },
+  driver: 'converter',
+  driverEfficiency: 0.85,
+  ambientMax: '30 degC',
+})
 
 async function main() {
   const bin = ensurePostgresBinaries()
   cluster = startCluster({ bin, dir: path.join(work, 'pg'), port: await findFreePort(57300), database: 'lampwright_bench' })
-  const env = { ...process.env, NODE_ENV: 'production', DATABASE_URL: cluster.url, DATA_DIR: path.join(work, 'data'), JOBS: '0', LOG_LEVEL: 'silent', SMTP_CATCHER_PORT: '0' }
+  const env = {
+    ...process.env,
+    NODE_ENV: 'production',
+    DATABASE_URL: cluster.url,
+    DATA_DIR: path.join(work, 'data'),
+    JOBS: '0',
+    LOG_LEVEL: 'silent',
+    SMTP_CATCHER_PORT: '0',
+  }
   for (const script of ['server/scripts/migrate.ts', 'server/scripts/seed.ts']) {
     const r = spawnSync('node', ['--import', 'tsx', script], { env, encoding: 'utf8' })
     if (r.status !== 0) throw new Error(r.stderr)
@@ -56,9 +72,17 @@ async function main() {
   app = spawn('node', ['--import', 'tsx', 'server/index.ts'], { env: { ...env, PORT: String(port) }, stdio: 'ignore' })
   const base = `http://127.0.0.1:${port}`
   await waitFor(`${base}/api/health`)
-  const signIn = await fetch(`${base}/api/auth/sign-in`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: 'designer@tallowmere.example', password: DEMO_PASSWORD }) })
+  const signIn = await fetch(`${base}/api/auth/sign-in`, {
+    method: 'POST',
+    headers: { 'content-type': 'application/json' },
+    body: JSON.stringify({ email: 'designer@tallowmere.example', password: DEMO_PASSWORD }),
+  })
   if (!signIn.ok) throw new Error(`sign-in failed: ${signIn.status}`)
-  const headers = { cookie: signIn.headers.get('set-cookie')!.split(';')[0]!, 'x-csrf-token': ((await signIn.json()) as { csrfToken: string }).csrfToken, 'content-type': 'application/json' }
+  const headers = {
+    cookie: signIn.headers.get('set-cookie')!.split(';')[0]!,
+    'x-csrf-token': ((await signIn.json()) as { csrfToken: string }).csrfToken,
+    'content-type': 'application/json',
+  }
 
   const single = async (i: number) => {
     const res = await fetch(`${base}/api/calc/size?working=false`, { method: 'POST', headers, body: JSON.stringify(input(i)) })
@@ -71,17 +95,28 @@ async function main() {
     },
     [`${ITEMS} single calls over ${CONNECTIONS} connections`]: async () => {
       let next = 0
-      await Promise.all(Array.from({ length: CONNECTIONS }, async () => {
-        while (next < ITEMS) await single(next++)
-      }))
+      await Promise.all(
+        Array.from({ length: CONNECTIONS }, async () => {
+          while (next < ITEMS) await single(next++)
+        }),
+      )
     },
     [`1 batch of ${ITEMS}`]: async () => {
-      const res = await fetch(`${base}/api/calc/size/batch`, { method: 'POST', headers, body: JSON.stringify({ items: Array.from({ length: ITEMS }, (_, i) => ({ input: input(i) })) }) })
+      const res = await fetch(`${base}/api/calc/size/batch`, {
+        method: 'POST',
+        headers,
+        body: JSON.stringify({ items: Array.from({ length: ITEMS }, (_, i) => ({ input: input(i) })) }),
+      })
       const body = (await res.json()) as { count: number; failed: number }
       if (res.status !== 200 || body.count !== ITEMS || body.failed) throw new Error(`batch: ${res.status} ${JSON.stringify(body).slice(0, 300)}`)
     },
   }
-  console.log(`machine: ${os.cpus()[0]?.model ?? 'unknown CPU'} × ${os.cpus().length}, load average ${os.loadavg().map((l) => l.toFixed(1)).join(' ')}, Node ${process.version}`)
+  console.log(
+    `machine: ${os.cpus()[0]?.model ?? 'unknown CPU'} × ${os.cpus().length}, load average ${os
+      .loadavg()
+      .map((l) => l.toFixed(1))
+      .join(' ')}, Node ${process.version}`,
+  )
   for (const [name, run] of Object.entries(ways)) {
     await run() // warm-up, unmeasured
     const walls: number[] = []
@@ -93,7 +128,9 @@ async function main() {
       walls.push(performance.now() - t0)
       cpus.push(cpuMsOf(app.pid!) - cpu0)
     }
-    console.log(`${name.padEnd(44)} median ${median(walls).toFixed(0).padStart(6)} ms wall (rounds: ${walls.map((w) => w.toFixed(0)).join(', ')}), server CPU ${median(cpus).toFixed(0)} ms`)
+    console.log(
+      `${name.padEnd(44)} median ${median(walls).toFixed(0).padStart(6)} ms wall (rounds: ${walls.map((w) => w.toFixed(0)).join(', ')}), server CPU ${median(cpus).toFixed(0)} ms`,
+    )
   }
 }
 

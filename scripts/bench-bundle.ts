@@ -72,6 +72,8 @@ const homeTotal = [...files].reduce((s, f) => s + zlib.gzipSync(fs.readFileSync(
 console.log(`Home budget ${BUDGET_KB} KB: ${homeTotal / 1024 <= BUDGET_KB ? 'within' : 'OVER'}`)
 
 // The heavy parts must stay out of the first page.
-const heavy = Object.values(manifest).filter((c) => /echarts|mathjs|pdfkit/.test(c.file) || /node_modules\/(echarts|zrender|mathjs|vue-echarts)\//.test(c.src ?? ''))
+const heavy = Object.values(manifest).filter(
+  (c) => /echarts|mathjs|pdfkit/.test(c.file) || /node_modules\/(echarts|zrender|mathjs|vue-echarts)\//.test(c.src ?? ''),
+)
 const leaked = heavy.filter((c) => files.has(c.file))
 console.log(leaked.length ? `Heavy chunks loaded by Home: ${leaked.map((c) => c.file).join(', ')}` : 'No chart, unit-parsing or PDF code in what Home loads.')

@@ -26,7 +26,9 @@ function time(label: string, run: () => void) {
     cpu.push((c.user + c.system) / 1000)
   }
   // CPU time beside wall time: on a shared machine the wall time also counts waiting for a core.
-  console.log(`${label}: median ${median(times).toFixed(1)} ms (min ${Math.min(...times).toFixed(1)}, max ${Math.max(...times).toFixed(1)}, ${ROUNDS} rounds; CPU median ${median(cpu).toFixed(1)} ms)`)
+  console.log(
+    `${label}: median ${median(times).toFixed(1)} ms (min ${Math.min(...times).toFixed(1)}, max ${Math.max(...times).toFixed(1)}, ${ROUNDS} rounds; CPU median ${median(cpu).toFixed(1)} ms)`,
+  )
 }
 
 // 1. A 10-cell NiCd pack, 0.9 A, falling 13.2 → 9.8 V over 3.3 h, sampled every 0.012 s, with a dropout.
@@ -62,23 +64,57 @@ const downlight = {
 }
 const uniform = { verticalAngles: [0, 90], horizontalAngles: [0], candela: [[10, 10]] }
 const heights = [2, 2.5, 3, 3.5, 4, 4.5, 5, 6, 7, 8]
-for (const [name, photometry] of [['downlight-like table', downlight], ['uniform 10 cd (worst case)', uniform]] as const) {
+for (const [name, photometry] of [
+  ['downlight-like table', downlight],
+  ['uniform 10 cd (worst case)', uniform],
+] as const) {
   for (const criteria of ['en1838-route', 'en1838-open-area', 'nfpa101'] as const) {
-    const input = spacingInput.parse({ photometry, mountingHeight: 2.5, emergencyOutputFactor: criteria === 'nfpa101' ? 1 : 0.5, criteria, routeWidth: 2, heights })
+    const input = spacingInput.parse({
+      photometry,
+      mountingHeight: 2.5,
+      emergencyOutputFactor: criteria === 'nfpa101' ? 1 : 0.5,
+      criteria,
+      routeWidth: 2,
+      heights,
+    })
     time(`spacing: ${criteria}, ${name}, 10 heights`, () => computeSpacing(input))
   }
 }
 
 // 3. A 30 m route laid out (fewest luminaires, end distance chosen with the spacing), one height.
-for (const [name, photometry] of [['downlight-like table', downlight], ['uniform 10 cd (worst case)', uniform]] as const) {
+for (const [name, photometry] of [
+  ['downlight-like table', downlight],
+  ['uniform 10 cd (worst case)', uniform],
+] as const) {
   for (const criteria of ['en1838-route', 'nfpa101'] as const) {
-    const input = spacingInput.parse({ photometry, mountingHeight: 2.5, emergencyOutputFactor: criteria === 'nfpa101' ? 1 : 0.5, criteria, routeWidth: 2, routeLength: 30 })
+    const input = spacingInput.parse({
+      photometry,
+      mountingHeight: 2.5,
+      emergencyOutputFactor: criteria === 'nfpa101' ? 1 : 0.5,
+      criteria,
+      routeWidth: 2,
+      routeLength: 30,
+    })
     time(`route layout: ${criteria}, ${name}, 30 m`, () => computeSpacing(input))
   }
 }
 
 // 4. The same 30 m route with an exit door at the far end and a call point at 12 m that the even row misses.
-for (const [name, photometry] of [['downlight-like table', downlight], ['uniform 10 cd (worst case)', uniform]] as const) {
-  const input = spacingInput.parse({ photometry, mountingHeight: 2.5, emergencyOutputFactor: 0.5, criteria: 'en1838-route', routeWidth: 2, routeLength: 30, points: [{ kind: 'exit-door', at: 30 }, { kind: 'call-point', at: 12 }] })
+for (const [name, photometry] of [
+  ['downlight-like table', downlight],
+  ['uniform 10 cd (worst case)', uniform],
+] as const) {
+  const input = spacingInput.parse({
+    photometry,
+    mountingHeight: 2.5,
+    emergencyOutputFactor: 0.5,
+    criteria: 'en1838-route',
+    routeWidth: 2,
+    routeLength: 30,
+    points: [
+      { kind: 'exit-door', at: 30 },
+      { kind: 'call-point', at: 12 },
+    ],
+  })
   time(`route layout with two marked points: en1838-route, ${name}, 30 m`, () => computeSpacing(input))
 }

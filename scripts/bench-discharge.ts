@@ -94,7 +94,12 @@ async function main() {
   try {
     generate(log, rows)
     console.log(`log: ${rows.toLocaleString('en')} rows, ${mb(fs.statSync(log).size)} (${log})`)
-    console.log(`load average now: ${os.loadavg().map((x) => x.toFixed(1)).join(' ')} on ${os.cpus().length} CPUs`)
+    console.log(
+      `load average now: ${os
+        .loadavg()
+        .map((x) => x.toFixed(1))
+        .join(' ')} on ${os.cpus().length} CPUs`,
+    )
     const results: Record<string, { ms: number; min: number; max: number; cpuMs: number; peakRss: number; detail: string }> = {}
     for (const m of ['baseline', 'server']) {
       const rounds: Array<{ ms: number; cpuMs: number; peakRss: number; detail: string }> = []
@@ -104,12 +109,23 @@ async function main() {
         rounds.push(JSON.parse(run.stdout.trim().split('\n').pop() as string))
       }
       const ms = rounds.map((x) => x.ms)
-      results[m] = { ms: median(ms), min: Math.min(...ms), max: Math.max(...ms), cpuMs: median(rounds.map((x) => x.cpuMs)), peakRss: Math.max(...rounds.map((x) => x.peakRss)), detail: rounds[0].detail }
+      results[m] = {
+        ms: median(ms),
+        min: Math.min(...ms),
+        max: Math.max(...ms),
+        cpuMs: median(rounds.map((x) => x.cpuMs)),
+        peakRss: Math.max(...rounds.map((x) => x.peakRss)),
+        detail: rounds[0].detail,
+      }
     }
     const b = results.baseline
     const s = results.server
-    console.log(`baseline (read + split lines): median ${b.ms.toFixed(0)} ms (min ${b.min.toFixed(0)}, max ${b.max.toFixed(0)}), CPU ${b.cpuMs.toFixed(0)} ms, peak RSS ${mb(b.peakRss)}; ${b.detail}`)
-    console.log(`server (hash + preview + papaparse stream + engine + curve): median ${s.ms.toFixed(0)} ms (min ${s.min.toFixed(0)}, max ${s.max.toFixed(0)}), CPU ${s.cpuMs.toFixed(0)} ms, peak RSS ${mb(s.peakRss)}; ${s.detail}`)
+    console.log(
+      `baseline (read + split lines): median ${b.ms.toFixed(0)} ms (min ${b.min.toFixed(0)}, max ${b.max.toFixed(0)}), CPU ${b.cpuMs.toFixed(0)} ms, peak RSS ${mb(b.peakRss)}; ${b.detail}`,
+    )
+    console.log(
+      `server (hash + preview + papaparse stream + engine + curve): median ${s.ms.toFixed(0)} ms (min ${s.min.toFixed(0)}, max ${s.max.toFixed(0)}), CPU ${s.cpuMs.toFixed(0)} ms, peak RSS ${mb(s.peakRss)}; ${s.detail}`,
+    )
     console.log(`ratio server / baseline: ${(s.ms / b.ms).toFixed(2)} wall, ${(s.cpuMs / b.cpuMs).toFixed(2)} CPU`)
     console.log(`targets: ≤ 2000 ms ${s.ms <= 2000 ? 'met' : 'NOT met'}; peak RSS < 300 MB ${s.peakRss < 300 * 2 ** 20 ? 'met' : 'NOT met'}`)
   } finally {

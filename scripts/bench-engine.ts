@@ -52,7 +52,9 @@ function time(label: string, run: () => number): void {
   }
   samples.sort((a, b) => a - b)
   const median = samples[Math.floor(samples.length / 2)]
-  console.log(`${label.padEnd(58)} median ${median.toFixed(1).padStart(7)} ms   best ${samples[0].toFixed(1).padStart(7)} ms   (checksum ${checksum.toFixed(3)})`)
+  console.log(
+    `${label.padEnd(58)} median ${median.toFixed(1).padStart(7)} ms   best ${samples[0].toFixed(1).padStart(7)} ms   (checksum ${checksum.toFixed(3)})`,
+  )
 }
 
 console.log(`Battery engine benchmark: ${COUNT} luminaires × ${CHEMISTRY_IDS.length} chemistries, ${ROUNDS} rounds, Node ${process.version}`)

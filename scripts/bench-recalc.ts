@@ -9,7 +9,18 @@ import { performance } from 'node:perf_hooks'
 import { sizeInputSchema } from '../shared/engine/size'
 import { recalcPack } from '../src/lib/pack-recalc'
 
-const BASE = { chemistry: 'nicd', duration: '3 h', driver: 'converter', load: { power: '2.5 W' }, driverEfficiency: '0.85', ambientMin: '5 °C', ambientMax: '25 °C', endOfLifeCapacity: '0.8', designMargin: '0.1', designLifeYears: '4' }
+const BASE = {
+  chemistry: 'nicd',
+  duration: '3 h',
+  driver: 'converter',
+  load: { power: '2.5 W' },
+  driverEfficiency: '0.85',
+  ambientMin: '5 °C',
+  ambientMax: '25 °C',
+  endOfLifeCapacity: '0.8',
+  designMargin: '0.1',
+  designLifeYears: '4',
+}
 
 /** Successive states of the form while someone types, over several fields and chemistries. */
 function keystrokes(): unknown[] {
@@ -59,4 +70,6 @@ const fmt = (x: number) => `${x.toFixed(3)} ms`
 console.log(`pack bench recalculation: ${states.length} keystroke states (${valid} complete enough to compute), ${ROUNDS} rounds = ${times.length} keystrokes`)
 console.log(`per keystroke: mean ${fmt(mean)}, median ${fmt(q(0.5))}, p95 ${fmt(q(0.95))}, p99 ${fmt(q(0.99))}, max ${fmt(times[times.length - 1])}`)
 console.log(`slowest keystroke state (its median over ${ROUNDS} rounds): ${fmt(stateMedians[slowest])} — ${JSON.stringify(states[slowest])}`)
-console.log(`budget 16 ms (one frame at 60 Hz): slowest state ${stateMedians[slowest] <= 16 ? 'within' : 'OVER'}; p99 of all keystrokes ${q(0.99) <= 16 ? 'within' : 'OVER'}`)
+console.log(
+  `budget 16 ms (one frame at 60 Hz): slowest state ${stateMedians[slowest] <= 16 ? 'within' : 'OVER'}; p99 of all keystrokes ${q(0.99) <= 16 ? 'within' : 'OVER'}`,
+)

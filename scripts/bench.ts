@@ -16,7 +16,9 @@ const BENCHES = [
   { file: 'scripts/bench-batch.ts', what: 'API: 500 sizings in one batch request against 500 single calls (real app process and database)' },
 ]
 
-console.log(`machine: ${os.cpus()[0]?.model ?? 'unknown CPU'} × ${os.cpus().length}, ${Math.round(os.totalmem() / 2 ** 30)} GiB, Node ${process.version}, ${os.platform()} ${os.release()}`)
+console.log(
+  `machine: ${os.cpus()[0]?.model ?? 'unknown CPU'} × ${os.cpus().length}, ${Math.round(os.totalmem() / 2 ** 30)} GiB, Node ${process.version}, ${os.platform()} ${os.release()}`,
+)
 let failed = 0
 for (const bench of BENCHES) {
   if (!fs.existsSync(bench.file)) continue
@@ -27,7 +29,11 @@ for (const bench of BENCHES) {
     // The same engine bundled by esbuild as the client build ships it (tsx, above, keeps function
     // names for stack traces, which costs the hot loops about a tenth).
     const bundle = path.join(os.tmpdir(), `lw-bench-engine-${process.pid}.mjs`)
-    const built = spawnSync('npx', ['--no-install', 'esbuild', bench.file, '--bundle', '--platform=node', '--format=esm', `--outfile=${bundle}`, '--log-level=warning'], { stdio: 'inherit' })
+    const built = spawnSync(
+      'npx',
+      ['--no-install', 'esbuild', bench.file, '--bundle', '--platform=node', '--format=esm', `--outfile=${bundle}`, '--log-level=warning'],
+      { stdio: 'inherit' },
+    )
     if (built.status === 0) {
       console.log(`\n== the same, bundled as the browser gets it (esbuild)`)
       const b = spawnSync('node', [bundle], { stdio: 'inherit' })

@@ -8,7 +8,12 @@ ensureNodeModules()
 const env = { ...process.env, NODE_ENV: 'development', DATA_DIR, PORT: process.env.PORT ?? '8420' }
 let cluster = null
 if (!process.env.DATABASE_URL) {
-  cluster = startCluster({ bin: ensurePostgresBinaries(), dir: path.join(DATA_DIR, 'pg'), port: Number(process.env.LAMPWRIGHT_PG_PORT ?? 54320), database: 'lampwright' })
+  cluster = startCluster({
+    bin: ensurePostgresBinaries(),
+    dir: path.join(DATA_DIR, 'pg'),
+    port: Number(process.env.LAMPWRIGHT_PG_PORT ?? 54320),
+    database: 'lampwright',
+  })
   env.DATABASE_URL = cluster.url
 }
 run('node', ['--import', 'tsx', 'server/scripts/migrate.ts'], { env })

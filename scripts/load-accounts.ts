@@ -60,7 +60,9 @@ export async function accountScenario(base: string): Promise<AccountFigures> {
   let done = false
   const started = performance.now()
   const signUps = Promise.all(
-    emails.map((email, i) => post(base, '/api/auth/sign-up', { email, password: 'a long load-test passphrase', name: `Load ${i}`, workspaceName: `Load crew ${i}` })),
+    emails.map((email, i) =>
+      post(base, '/api/auth/sign-up', { email, password: 'a long load-test passphrase', name: `Load ${i}`, workspaceName: `Load crew ${i}` }),
+    ),
   ).then((rs) => {
     done = true
     for (const r of rs) statuses[r.status] = (statuses[r.status] ?? 0) + 1
@@ -111,7 +113,12 @@ export function printAccountFigures(f: AccountFigures) {
     `  /api/health during ${f.signUps.count} sign-ups at once (${f.signUps.seconds.toFixed(1)} s, answers ${JSON.stringify(f.signUps.statuses)}): ` +
       `p50 ${ms(f.healthDuringSignUps.p50)}, p95 ${ms(f.healthDuringSignUps.p95)}, max ${ms(f.healthDuringSignUps.max)} over ${f.healthDuringSignUps.samples} requests (target p95 < 50 ms)`,
   )
-  for (const [label, c] of [['sign-in, wrong password', f.signIn], ['forgot-password', f.forgot]] as const) {
-    console.log(`  ${label}, medians of 50: known address ${ms(c.known)}, unknown ${ms(c.unknown)}, difference ${c.differencePercent.toFixed(1)} % (target < 10 %)`)
+  for (const [label, c] of [
+    ['sign-in, wrong password', f.signIn],
+    ['forgot-password', f.forgot],
+  ] as const) {
+    console.log(
+      `  ${label}, medians of 50: known address ${ms(c.known)}, unknown ${ms(c.unknown)}, difference ${c.differencePercent.toFixed(1)} % (target < 10 %)`,
+    )
   }
 }

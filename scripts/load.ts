@@ -97,7 +97,10 @@ async function run(opts: autocannon.Options, server: ChildProcess | number[]): P
 /** `server/cluster.ts` with `count` app processes on a port of its own; the pids of the primary and every process. */
 async function startGroup(env: NodeJS.ProcessEnv, count: number): Promise<{ base: string; pids: number[]; stop: () => Promise<void> }> {
   const port = await findFreePort(49000 + count * 100)
-  const group = spawn('node', ['--import', 'tsx', 'server/cluster.ts'], { env: { ...env, PORT: String(port), WEB_CONCURRENCY: String(count) }, stdio: ['ignore', 'pipe', 'inherit'] })
+  const group = spawn('node', ['--import', 'tsx', 'server/cluster.ts'], {
+    env: { ...env, PORT: String(port), WEB_CONCURRENCY: String(count) },
+    stdio: ['ignore', 'pipe', 'inherit'],
+  })
   children.push(group)
   const pids: number[] = [group.pid!]
   group.stdout!.setEncoding('utf8').on('data', (chunk: string) => {
@@ -132,7 +135,15 @@ async function main() {
   const pgPort = await findFreePort(57000)
   pgDir = path.join(work, 'pg')
   cluster = startCluster({ bin, dir: pgDir, port: pgPort, database: 'lampwright_load' })
-  const env = { ...process.env, NODE_ENV: 'production', DATABASE_URL: cluster.url, DATA_DIR: path.join(work, 'data'), JOBS: '0', LOG_LEVEL: 'silent', SMTP_CATCHER_PORT: '0' }
+  const env = {
+    ...process.env,
+    NODE_ENV: 'production',
+    DATABASE_URL: cluster.url,
+    DATA_DIR: path.join(work, 'data'),
+    JOBS: '0',
+    LOG_LEVEL: 'silent',
+    SMTP_CATCHER_PORT: '0',
+  }
   for (const script of ['server/scripts/migrate.ts', 'server/scripts/seed.ts']) {
     const r = spawnSync('node', ['--import', 'tsx', script], { env, encoding: 'utf8' })
     if (r.status !== 0) throw new Error(r.stderr)
@@ -141,20 +152,38 @@ async function main() {
   const barePort = await findFreePort(47000)
   const profile = PROFILE_DIR ? ['--cpu-prof', `--cpu-prof-dir=${path.resolve(PROFILE_DIR)}`] : []
   const app = spawn('node', [...profile, '--import', 'tsx', 'server/index.ts'], { env: { ...env, PORT: String(appPort) }, stdio: 'ignore' })
-  const bareServer = spawn('node', ['-e', `const e=require('express');const a=e();a.get('/bare',(q,s)=>s.json({ok:true}));a.post('/bare',e.json(),(q,s)=>s.json({ok:true,n:q.body&&q.body.n}));a.listen(${barePort},'127.0.0.1')`], { stdio: 'ignore' })
+  const bareServer = spawn(
+    'node',
+    [
+      '-e',
+      `const e=require('express');const a=e();a.get('/bare',(q,s)=>s.json({ok:true}));a.post('/bare',e.json(),(q,s)=>s.json({ok:true,n:q.body&&q.body.n}));a.listen(${barePort},'127.0.0.1')`,
+    ],
+    { stdio: 'ignore' },
+  )
   children.push(app, bareServer)
   const base = `http://127.0.0.1:${appPort}`
   await waitFor(`${base}/api/health`)
   await waitFor(`http://127.0.0.1:${barePort}/bare`)
 
-  const signIn = await fetch(`${base}/api/auth/sign-in`, { method: 'POST', headers: { 'Content-Type': 'application/json' }, body: JSON.stringify({ email: 'designer@tallowmere.example', password: DEMO_PASSWORD }) })
+  const signIn = await fetch(`${base}/api/auth/sign-in`, {
+    method: 'POST',
+    headers: { 'Content-Type': 'application/json' },
+    body: JSON.stringify({ email: 'designer@tallowmere.example', password: DEMO_PASSWORD }),
+  })
   if (!signIn.ok) throw new Error(`sign-in failed: ${signIn.status}`)
   const cookie = signIn.headers.get('set-cookie')!.split(';')[0]
   const csrf = (await signIn.json()).csrfToken as string
   const headers = { cookie, 'x-csrf-token': csrf, 'content-type': 'application/json' }
 
   // One sheet per connection for saves, so revisions do not collide.
-  const sizeBody = JSON.stringify({ chemistry: 'nicd', duration: '3 h', load: { ledVoltage: '3.2 V', ledCurrent: '250 mA' }, driver: 'converter', driverEfficiency: 0.85, ambientMax: '35 degC' })
+  const sizeBody = JSON.stringify({
+    chemistry: 'nicd',
+    duration: '3 h',
+    load: { ledVoltage: '3.2 V', ledCurrent: '250 mA' },
+    driver: 'converter',
+    driverEfficiency: 0.85,
+    ambientMax: '35 degC',
+  })
   const sheets: Array<{ id: string; version: number }> = []
   for (let i = 0; i < 200; i++) {
     const res = await fetch(`${base}/api/sheets`, { method: 'POST', headers, body: JSON.stringify({ title: `Load sheet ${i}`, inputs: JSON.parse(sizeBody) }) })
@@ -189,34 +218,48 @@ async function main() {
     if (SCENARIOS.has('bare')) {
       bareGet = await run({ url: `http://127.0.0.1:${barePort}/bare`, connections }, bareServer)
       results.push(row(`bare Express GET, ${connections} conn`, bareGet))
-      barePost = await run({ url: `http://127.0.0.1:${barePort}/bare`, method: 'POST', connections, headers: { 'content-type': 'application/json' }, body: sizeBody }, bareServer)
+      barePost = await run(
+        { url: `http://127.0.0.1:${barePort}/bare`, method: 'POST', connections, headers: { 'content-type': 'application/json' }, body: sizeBody },
+        bareServer,
+      )
       results.push(row(`bare Express POST (same body), ${connections} conn`, barePost))
     }
 
     if (SCENARIOS.has('reads')) {
-      const reads = await run({
-        url: base,
-        connections,
-        headers,
-        requests: [
-          { method: 'GET', path: '/api/sheets?page=1&pageSize=20' },
-          { method: 'GET', setupRequest: (req) => ({ ...req, path: `/api/sheets/${sheets[Math.floor(Math.random() * sheets.length)].id}` }) },
-        ],
-      }, app)
+      const reads = await run(
+        {
+          url: base,
+          connections,
+          headers,
+          requests: [
+            { method: 'GET', path: '/api/sheets?page=1&pageSize=20' },
+            { method: 'GET', setupRequest: (req) => ({ ...req, path: `/api/sheets/${sheets[Math.floor(Math.random() * sheets.length)].id}` }) },
+          ],
+        },
+        app,
+      )
       results.push(row(`reads (list + open sheet), ${connections} conn`, reads))
     }
 
     const ratio = (r: Result, bare: Result | null) => (bare ? (r.requests.average / bare.requests.average).toFixed(2) : 'n/a')
-    for (const [scenario, query, label] of [['compute', '', 'compute POST /api/calc/size'], ['lean', '?working=false', 'compute, numbers only (?working=false)']] as const) {
+    for (const [scenario, query, label] of [
+      ['compute', '', 'compute POST /api/calc/size'],
+      ['lean', '?working=false', 'compute, numbers only (?working=false)'],
+    ] as const) {
       if (!SCENARIOS.has(scenario)) continue
       const r = await run({ url: `${base}/api/calc/size${query}`, method: 'POST', connections, headers, body: sizeBody }, app)
       results.push(row(`${label}, ${connections} conn`, r))
-      console.log(`${label} / bare throughput at ${connections} connections: ${ratio(r, barePost)} against the bare POST, ${ratio(r, bareGet)} against the bare GET`)
+      console.log(
+        `${label} / bare throughput at ${connections} connections: ${ratio(r, barePost)} against the bare POST, ${ratio(r, bareGet)} against the bare GET`,
+      )
     }
     if (SCENARIOS.has('layers')) {
       for (let layer = 0; layer < LAYERS.length; layer++) {
         const port = await findFreePort(48000)
-        const server = spawn('node', ['--import', 'tsx', 'scripts/load-layers.ts'], { env: { ...env, PORT: String(port), LAYERS: String(layer) }, stdio: ['ignore', 'pipe', 'inherit'] })
+        const server = spawn('node', ['--import', 'tsx', 'scripts/load-layers.ts'], {
+          env: { ...env, PORT: String(port), LAYERS: String(layer) },
+          stdio: ['ignore', 'pipe', 'inherit'],
+        })
         children.push(server)
         await new Promise((resolve) => server.stdout!.once('data', resolve))
         const r = await run({ url: `http://127.0.0.1:${port}/api/calc/size`, method: 'POST', connections, headers, body: sizeBody }, server)
@@ -228,41 +271,44 @@ async function main() {
 
     // The realistic mix: list, open, compute, open, save a revision (each connection its own sheet).
     let next = 0
-    const mix = await run({
-      url: base,
-      connections,
-      headers,
-      requests: [
-        { method: 'GET', path: '/api/sheets?page=1&pageSize=20' },
-        {
-          method: 'GET',
-          setupRequest: (req, ctx: object) => {
-            const context = ctx as Record<string, unknown>
-            context.sheet ??= sheets[next++ % sheets.length]
-            return { ...req, path: `/api/sheets/${(context.sheet as { id: string }).id}` }
+    const mix = await run(
+      {
+        url: base,
+        connections,
+        headers,
+        requests: [
+          { method: 'GET', path: '/api/sheets?page=1&pageSize=20' },
+          {
+            method: 'GET',
+            setupRequest: (req, ctx: object) => {
+              const context = ctx as Record<string, unknown>
+              context.sheet ??= sheets[next++ % sheets.length]
+              return { ...req, path: `/api/sheets/${(context.sheet as { id: string }).id}` }
+            },
+            onResponse: (status, body, ctx: object) => {
+              const context = ctx as Record<string, unknown>
+              if (status === 200) {
+                const parsed = JSON.parse(body)
+                context.version = parsed.version ?? parsed.sheet?.version
+              }
+            },
           },
-          onResponse: (status, body, ctx: object) => {
-            const context = ctx as Record<string, unknown>
-            if (status === 200) {
-              const parsed = JSON.parse(body)
-              context.version = parsed.version ?? parsed.sheet?.version
-            }
+          { method: 'POST', path: '/api/calc/size', body: sizeBody },
+          {
+            method: 'PUT',
+            setupRequest: (req, ctx: object) => {
+              const context = ctx as Record<string, unknown>
+              return {
+                ...req,
+                path: `/api/sheets/${(context.sheet as { id: string }).id}`,
+                body: JSON.stringify({ title: 'Load sheet (saved)', inputs: JSON.parse(sizeBody), version: context.version }),
+              }
+            },
           },
-        },
-        { method: 'POST', path: '/api/calc/size', body: sizeBody },
-        {
-          method: 'PUT',
-          setupRequest: (req, ctx: object) => {
-            const context = ctx as Record<string, unknown>
-            return {
-              ...req,
-              path: `/api/sheets/${(context.sheet as { id: string }).id}`,
-              body: JSON.stringify({ title: 'Load sheet (saved)', inputs: JSON.parse(sizeBody), version: context.version }),
-            }
-          },
-        },
-      ],
-    }, app)
+        ],
+      },
+      app,
+    )
     results.push(row(`mix (list, open, compute, save), ${connections} conn`, mix))
   }
   if (SCENARIOS.has('processes')) {
@@ -277,26 +323,56 @@ async function main() {
         if (body.includes('"busy"')) counts.busy++
         else counts.unavailable++
       }
-      const r = await run({
-        url: group.base,
-        connections,
-        headers,
-        requests: [
-          { method: 'GET', path: '/api/sheets?page=1&pageSize=20', onResponse: tally },
-          { method: 'GET', setupRequest: (req) => ({ ...req, path: `/api/sheets/${sheets[Math.floor(Math.random() * sheets.length)].id}` }), onResponse: tally },
-        ],
-      }, group.pids)
+      const r = await run(
+        {
+          url: group.base,
+          connections,
+          headers,
+          requests: [
+            { method: 'GET', path: '/api/sheets?page=1&pageSize=20', onResponse: tally },
+            {
+              method: 'GET',
+              setupRequest: (req) => ({ ...req, path: `/api/sheets/${sheets[Math.floor(Math.random() * sheets.length)].id}` }),
+              onResponse: tally,
+            },
+          ],
+        },
+        group.pids,
+      )
       await group.stop()
       side.push({ processes: count, r, ...counts })
-      results.push({ ...row(`reads, ${count} app process${count === 1 ? '' : 'es'} (cluster), ${connections} conn`, r), 'server CPU ms/req': `${cpuPerRequest.get(r)!.app.toFixed(2)} (all processes)` })
+      results.push({
+        ...row(`reads, ${count} app process${count === 1 ? '' : 'es'} (cluster), ${connections} conn`, r),
+        'server CPU ms/req': `${cpuPerRequest.get(r)!.app.toFixed(2)} (all processes)`,
+      })
     }
     const one = side[0]
     console.log('\nreads through server/cluster.ts, side by side:')
-    console.table(side.map((s) => ({ processes: s.processes, 'req/s': Math.round(s.r.requests.average), 'p95 ms': (s.r.latency as unknown as Record<string, number>).p95 ?? (s.r.latency as unknown as Record<string, number>).p97_5, 'p99 ms': s.r.latency.p99, errors: s.r.errors + s.r.timeouts, non2xx: s.r.non2xx, '503 busy': s.busy, '503 other': s.unavailable })))
+    console.table(
+      side.map((s) => ({
+        processes: s.processes,
+        'req/s': Math.round(s.r.requests.average),
+        'p95 ms': (s.r.latency as unknown as Record<string, number>).p95 ?? (s.r.latency as unknown as Record<string, number>).p97_5,
+        'p99 ms': s.r.latency.p99,
+        errors: s.r.errors + s.r.timeouts,
+        non2xx: s.r.non2xx,
+        '503 busy': s.busy,
+        '503 other': s.unavailable,
+      })),
+    )
     for (const s of side.slice(1)) console.log(`throughput ${s.processes} processes / 1 process: ${(s.r.requests.average / one.r.requests.average).toFixed(2)}`)
   }
   if (SCENARIOS.has('sign-in')) {
-    const signIns = await run({ url: `${base}/api/auth/sign-in`, method: 'POST', connections: 4, headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: 'viewer@tallowmere.example', password: DEMO_PASSWORD }) }, app)
+    const signIns = await run(
+      {
+        url: `${base}/api/auth/sign-in`,
+        method: 'POST',
+        connections: 4,
+        headers: { 'content-type': 'application/json' },
+        body: JSON.stringify({ email: 'viewer@tallowmere.example', password: DEMO_PASSWORD }),
+      },
+      app,
+    )
     results.push(row('sign-in (bcrypt cost 12), 4 conn', signIns))
   }
 

@@ -10,7 +10,15 @@ const workDir = fs.mkdtempSync(path.join(os.tmpdir(), 'lampwright-quick-'))
 fs.chmodSync(workDir, 0o755)
 const port = await findFreePort(55000 + Math.floor(Math.random() * 2000))
 const cluster = startCluster({ bin: ensurePostgresBinaries(), dir: path.join(workDir, 'pg'), port, database: 'lampwright_test' })
-const env = { ...process.env, NODE_ENV: 'test', DATABASE_URL: cluster.url, DATA_DIR: path.join(workDir, 'data'), SMTP_CATCHER_PORT: '0', LOG_LEVEL: 'silent', PORT: '0' }
+const env = {
+  ...process.env,
+  NODE_ENV: 'test',
+  DATABASE_URL: cluster.url,
+  DATA_DIR: path.join(workDir, 'data'),
+  SMTP_CATCHER_PORT: '0',
+  LOG_LEVEL: 'silent',
+  PORT: '0',
+}
 let status = 1
 try {
   const m = spawnSync('node', ['--import', 'tsx', 'server/scripts/migrate.ts'], { cwd: ROOT, env, stdio: 'inherit' })

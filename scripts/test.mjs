@@ -58,7 +58,11 @@ try {
   if (!step('migrations', 'node', ['--import', 'tsx', 'server/scripts/migrate.ts'], env)) failed++
   // The example jobs are type-checked against the API as it is now: regenerate their client's types first.
   if (!step('API client types (openapi-typescript)', 'node', ['--import', 'tsx', 'scripts/api-types.ts'], env)) failed++
-  if (step('type check (vue-tsc)', 'npx', ['vue-tsc', '--noEmit', '-p', 'tsconfig.json'], env) && step('engine purity (tsc, no DOM, no Node)', 'npx', ['tsc', '--noEmit', '-p', 'tsconfig.shared.json'], env)) passed++
+  if (
+    step('type check (vue-tsc)', 'npx', ['vue-tsc', '--noEmit', '-p', 'tsconfig.json'], env) &&
+    step('engine purity (tsc, no DOM, no Node)', 'npx', ['tsc', '--noEmit', '-p', 'tsconfig.shared.json'], env)
+  )
+    passed++
   else failed++
   if (step('lint (eslint)', 'npx', ['eslint', '.'], env)) passed++
   else failed++

@@ -105,15 +105,25 @@ export function createApp(opts: AppOptions = {}): BuiltApp {
       groups.set(prefix, group)
       app.use(prefix, group)
     }
-    group[route.method](route.path.slice(prefix.length) || '/', authorize(route.access, { tokens: route.tokens, scope: tokenScopeOf(route) }), ...routeChain(route))
+    group[route.method](
+      route.path.slice(prefix.length) || '/',
+      authorize(route.access, { tokens: route.tokens, scope: tokenScopeOf(route) }),
+      ...routeChain(route),
+    )
   }
   app.use('/api', methodNotAllowed(routeTable), notFoundApi)
 
   const clientDir = opts.clientDir === undefined ? path.resolve('dist') : opts.clientDir
   if (clientDir && fs.existsSync(path.join(clientDir, 'index.html'))) {
-    app.use(express.static(clientDir, { index: false, maxAge: '1h', setHeaders: (res, file) => {
-      if (file.includes(`${path.sep}assets${path.sep}`)) res.setHeader('Cache-Control', 'public, max-age=31536000, immutable')
-    } }))
+    app.use(
+      express.static(clientDir, {
+        index: false,
+        maxAge: '1h',
+        setHeaders: (res, file) => {
+          if (file.includes(`${path.sep}assets${path.sep}`)) res.setHeader('Cache-Control', 'public, max-age=31536000, immutable')
+        },
+      }),
+    )
     app.get('/{*splat}', (_req, res) => res.sendFile(path.join(clientDir, 'index.html')))
   }
   app.use(errorHandler)

@@ -94,7 +94,11 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env) {
     mail: { smtpUrl: e.SMTP_URL, catcherPort: e.SMTP_CATCHER_PORT, catcherDir: path.join(dataDir, 'mail'), from: 'Lampwright <no-reply@lampwright.invalid>' },
     logLevel: e.LOG_LEVEL ?? (e.NODE_ENV === 'test' ? 'silent' : 'info'),
     jobs: e.JOBS === 1,
-    storage: { quotaBytes: Math.round(e.STORAGE_QUOTA_MB * 1024 * 1024), stagedTotalBytes: Math.round(e.STAGED_UPLOADS_TOTAL_MB * 1024 * 1024), stagedForMs: 3600 * 1000 },
+    storage: {
+      quotaBytes: Math.round(e.STORAGE_QUOTA_MB * 1024 * 1024),
+      stagedTotalBytes: Math.round(e.STAGED_UPLOADS_TOTAL_MB * 1024 * 1024),
+      stagedForMs: 3600 * 1000,
+    },
     version: APP_VERSION,
   }
 }

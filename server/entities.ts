@@ -27,4 +27,33 @@ import { Invitation } from './modules/workspaces/invitation.entity'
 import { Membership } from './modules/workspaces/membership.entity'
 import { Workspace } from './modules/workspaces/workspace.entity'
 
-export const entities = [User, Workspace, Membership, Invitation, PasswordReset, EmailConfirmation, AuditEvent, ApiToken, SpecSheet, SpecRevision, ShareLink, SiteEntity, AreaEntity, LuminaireEntity, TestRecordEntity, ReminderSendEntity, RegisterSettingsEntity, PackPriceEntity, TestRoundEntity, TestPlanEntity, WattageAudit, PhotometricFile, LuminaireType, DischargeFile, DischargeLog, HandoverPack, HandoverLink, LogBookLink]
+export const entities = [
+  User,
+  Workspace,
+  Membership,
+  Invitation,
+  PasswordReset,
+  EmailConfirmation,
+  AuditEvent,
+  ApiToken,
+  SpecSheet,
+  SpecRevision,
+  ShareLink,
+  SiteEntity,
+  AreaEntity,
+  LuminaireEntity,
+  TestRecordEntity,
+  ReminderSendEntity,
+  RegisterSettingsEntity,
+  PackPriceEntity,
+  TestRoundEntity,
+  TestPlanEntity,
+  WattageAudit,
+  PhotometricFile,
+  LuminaireType,
+  DischargeFile,
+  DischargeLog,
+  HandoverPack,
+  HandoverLink,
+  LogBookLink,
+]

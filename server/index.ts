@@ -58,7 +58,9 @@ const server = app.listen(cfg.port, cfg.host, () => {
     '',
     `  Lampwright ${cfg.version} is running at ${cfg.origin}`,
     `  API health: ${cfg.origin}/api/health`,
-    catcher ? `  Mail is caught locally (SMTP 127.0.0.1:${catcher.port}); owners read their workspace's mail at ${cfg.origin}/outbox, account mail is in ${cfg.mail.catcherDir}` : '  Mail goes to SMTP_URL',
+    catcher
+      ? `  Mail is caught locally (SMTP 127.0.0.1:${catcher.port}); owners read their workspace's mail at ${cfg.origin}/outbox, account mail is in ${cfg.mail.catcherDir}`
+      : '  Mail goes to SMTP_URL',
     '',
     '  Demo sign-in (password for all: ' + DEMO_PASSWORD + ')',
     ...DEMO_USERS.map((u) => `    ${u.role.padEnd(10)} ${u.email}`),

@@ -37,7 +37,10 @@ export async function archiveMonth(api: Lampwright, month: string, folder: strin
   fs.mkdirSync(dir, { recursive: true })
   const out: ArchivedFile[] = []
   for (const [siteId, tests] of testsPerSite) {
-    const r = await api.GET('/api/sites/{id}/export/{file}', { params: { path: { id: siteId, file: 'logbook.pdf' }, query: { from, to } }, parseAs: 'arrayBuffer' })
+    const r = await api.GET('/api/sites/{id}/export/{file}', {
+      params: { path: { id: siteId, file: 'logbook.pdf' }, query: { from, to } },
+      parseAs: 'arrayBuffer',
+    })
     const pdf = Buffer.from(answerOf(`log book of ${siteId}`, r))
     const name = /filename="([^"]+)"/.exec(r.response.headers.get('content-disposition') ?? '')?.[1] ?? `${siteId}-log-book-${from}-to-${to}.pdf`
     fs.writeFileSync(path.join(dir, name), pdf)

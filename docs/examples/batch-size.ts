@@ -24,7 +24,10 @@ async function registerLuminaires(api: Lampwright, max: number) {
   const all: LuminairePage['items'] = []
   let cursor: string | undefined
   do {
-    const page: LuminairePage = answerOf('list luminaires', await api.GET('/api/luminaires', { params: { query: { limit: Math.min(500, max - all.length), cursor } } }))
+    const page: LuminairePage = answerOf(
+      'list luminaires',
+      await api.GET('/api/luminaires', { params: { query: { limit: Math.min(500, max - all.length), cursor } } }),
+    )
     all.push(...page.items)
     cursor = page.nextCursor ?? undefined
   } while (cursor && all.length < max)

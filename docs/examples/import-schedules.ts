@@ -45,5 +45,6 @@ if (isMain(import.meta.url)) {
   const args = process.argv.slice(2)
   const schedules: SiteSchedule[] = []
   for (let i = 0; i + 1 < args.length; i += 2) schedules.push({ csv: fs.readFileSync(args[i]!, 'utf8'), siteName: args[i + 1]! })
-  for (const r of await importSchedules(clientFromEnv(), schedules)) console.log(`${r.siteName}: ${r.added} added, ${r.updated} updated, ${r.unchanged} unchanged${r.siteCreated ? ' (new site)' : ''}`)
+  for (const r of await importSchedules(clientFromEnv(), schedules))
+    console.log(`${r.siteName}: ${r.added} added, ${r.updated} updated, ${r.unchanged} unchanged${r.siteCreated ? ' (new site)' : ''}`)
 }

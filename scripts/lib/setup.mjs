@@ -58,7 +58,10 @@ export function ensurePostgresBinaries() {
   const find = () => {
     const base = '/usr/lib/postgresql'
     if (!fs.existsSync(base)) return null
-    const versions = fs.readdirSync(base).filter((v) => fs.existsSync(path.join(base, v, 'bin', 'initdb'))).sort((a, b) => Number(b) - Number(a))
+    const versions = fs
+      .readdirSync(base)
+      .filter((v) => fs.existsSync(path.join(base, v, 'bin', 'initdb')))
+      .sort((a, b) => Number(b) - Number(a))
     return versions.length ? path.join(base, versions[0], 'bin') : null
   }
   let bin = find()
@@ -89,9 +92,7 @@ function ensureOsUser() {
 /** Runs a PostgreSQL binary as the unprivileged user when we are root. */
 function pgExec(bin, tool, args, { check = true } = {}) {
   const full = path.join(bin, tool)
-  const r = isRoot
-    ? quiet('runuser', ['-u', PG_OS_USER, '--', full, ...args], { cwd: '/tmp' })
-    : quiet(full, args, { cwd: '/tmp' })
+  const r = isRoot ? quiet('runuser', ['-u', PG_OS_USER, '--', full, ...args], { cwd: '/tmp' }) : quiet(full, args, { cwd: '/tmp' })
   if (check && r.status !== 0) throw new Error(`${tool} failed: ${r.stderr || r.stdout}`)
   return r
 }
@@ -131,7 +132,18 @@ export function startCluster({ bin, dir, port, database }) {
   } else {
     log('PostgreSQL already running for this data folder')
   }
-  const exists = quiet(path.join(bin, 'psql'), ['-h', '127.0.0.1', '-p', String(port), '-U', 'app', '-d', 'postgres', '-tAc', `SELECT 1 FROM pg_database WHERE datname='${database}'`])
+  const exists = quiet(path.join(bin, 'psql'), [
+    '-h',
+    '127.0.0.1',
+    '-p',
+    String(port),
+    '-U',
+    'app',
+    '-d',
+    'postgres',
+    '-tAc',
+    `SELECT 1 FROM pg_database WHERE datname='${database}'`,
+  ])
   if (exists.status !== 0) throw new Error(`cannot reach PostgreSQL on ${port}: ${exists.stderr}`)
   if (exists.stdout.trim() !== '1') execFileSync(path.join(bin, 'createdb'), ['-h', '127.0.0.1', '-p', String(port), '-U', 'app', database])
   return {

@@ -51,14 +51,24 @@ const MAPPING = ColumnMappingSchema.parse({
   voltage: { column: 1, unit: 'V' },
   current: { column: 2, unit: 'A' },
 })
-const OPTIONS = DischargeOptionsSchema.parse({ chemistry: 'nicd', cellsInSeries: CELLS, ratedDuration: '3 h', ratedCapacity: '1.6 Ah', thresholdsPerCell: ['1.1 V'] })
+const OPTIONS = DischargeOptionsSchema.parse({
+  chemistry: 'nicd',
+  cellsInSeries: CELLS,
+  ratedDuration: '3 h',
+  ratedCapacity: '1.6 Ah',
+  thresholdsPerCell: ['1.1 V'],
+})
 
 export async function seedDischarge(m: EntityManager, ctx: DemoContext): Promise<void> {
   for (const demo of LOGS) {
     const exists: unknown[] = await m.query('SELECT 1 FROM discharge_logs WHERE workspace_id = $1 AND title = $2', [ctx.workspaceId, demo.title])
     if (exists.length) continue
     const bytes = Buffer.from(modelledLog(demo.flatAtH, demo.amps), 'utf8')
-    const analysis = await analyseStream(Readable.from([bytes]), bytes.subarray(0, 64 * 1024), bytes.length, { mapping: MAPPING, options: OPTIONS, acceptBadRows: false })
+    const analysis = await analyseStream(Readable.from([bytes]), bytes.subarray(0, 64 * 1024), bytes.length, {
+      mapping: MAPPING,
+      options: OPTIONS,
+      acceptBadRows: false,
+    })
     const sha256 = crypto.createHash('sha256').update(bytes).digest('hex')
     const file: Array<{ id: string }> = await m.query(
       `INSERT INTO discharge_files (workspace_id, sha256, original_name, bytes, size, uploaded_by) VALUES ($1, $2, $3, $4, $5, $6)
@@ -80,7 +90,20 @@ export async function seedDischarge(m: EntityManager, ctx: DemoContext): Promise
     const log: Array<{ id: string }> = await m.query(
       `INSERT INTO discharge_logs (workspace_id, file_id, title, notes, mapping, options, summary, curve, engine_version, created_by, spec_sheet_id, test_record_id)
        VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12) RETURNING id`,
-      [ctx.workspaceId, file[0].id, demo.title, NOTES, MAPPING, { chemistry: 'nicd', cellsInSeries: CELLS, ratedDuration: '3 h', ratedCapacity: '1.6 Ah', thresholdsPerCell: ['1.1 V'] }, { ...analysis.result, read: analysis.read }, analysis.curve, ENGINE_VERSION, ctx.users.technician, specSheetId, testRecordId],
+      [
+        ctx.workspaceId,
+        file[0].id,
+        demo.title,
+        NOTES,
+        MAPPING,
+        { chemistry: 'nicd', cellsInSeries: CELLS, ratedDuration: '3 h', ratedCapacity: '1.6 Ah', thresholdsPerCell: ['1.1 V'] },
+        { ...analysis.result, read: analysis.read },
+        analysis.curve,
+        ENGINE_VERSION,
+        ctx.users.technician,
+        specSheetId,
+        testRecordId,
+      ],
     )
     if (testRecordId) await m.query('UPDATE test_records SET discharge_log_id = $1 WHERE id = $2', [log[0].id, testRecordId])
   }

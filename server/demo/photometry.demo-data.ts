@@ -22,7 +22,18 @@ export const DEMO: DemoType[] = [
       model: { peakCd: 180, exponentAlong: 1, exponentAcross: 2.5, batwingCd: 140, batwingAngleDeg: 58 },
       inputWatts: 4.5,
     },
-    type: { name: 'Corridor downlight, wide', emergencyOutputFactor: 0.5, ratedDuration: '3 h', modes: ['non-maintained'], chemistry: 'nicd', cellsInSeries: 4, capacityAh: 2.2, emergencyPower: 1.6, inputPower: 1.2, notes: 'For corridors up to 2 m wide; lens long axis along the route (C0–C180).' },
+    type: {
+      name: 'Corridor downlight, wide',
+      emergencyOutputFactor: 0.5,
+      ratedDuration: '3 h',
+      modes: ['non-maintained'],
+      chemistry: 'nicd',
+      cellsInSeries: 4,
+      capacityAh: 2.2,
+      emergencyPower: 1.6,
+      inputPower: 1.2,
+      notes: 'For corridors up to 2 m wide; lens long axis along the route (C0–C180).',
+    },
   },
   {
     file: {
@@ -32,7 +43,18 @@ export const DEMO: DemoType[] = [
       model: { peakCd: 2600, exponentAlong: 2.5, exponentAcross: 6, batwingCd: 900, batwingAngleDeg: 45 },
       inputWatts: 9,
     },
-    type: { name: 'Aisle high-bay', emergencyOutputFactor: 0.3, ratedDuration: '3 h', modes: ['non-maintained'], chemistry: 'lifepo4', cellsInSeries: 2, capacityAh: 6, emergencyPower: 5, inputPower: 2.5, notes: 'Mount 5–8 m above the floor with C0 along the aisle.' },
+    type: {
+      name: 'Aisle high-bay',
+      emergencyOutputFactor: 0.3,
+      ratedDuration: '3 h',
+      modes: ['non-maintained'],
+      chemistry: 'lifepo4',
+      cellsInSeries: 2,
+      capacityAh: 6,
+      emergencyPower: 5,
+      inputPower: 2.5,
+      notes: 'Mount 5–8 m above the floor with C0 along the aisle.',
+    },
   },
   {
     file: {
@@ -42,7 +64,18 @@ export const DEMO: DemoType[] = [
       model: { peakCd: 320, exponentAlong: 1.4, exponentAcross: 1.4 },
       inputWatts: 6,
     },
-    type: { name: 'Open-area ceiling unit', emergencyOutputFactor: 0.4, ratedDuration: '1 h', modes: ['maintained', 'non-maintained'], chemistry: 'nimh', cellsInSeries: 4, capacityAh: 1.1, emergencyPower: 2.2, inputPower: 3.5, notes: 'Maintained use doubles as a night light.' },
+    type: {
+      name: 'Open-area ceiling unit',
+      emergencyOutputFactor: 0.4,
+      ratedDuration: '1 h',
+      modes: ['maintained', 'non-maintained'],
+      chemistry: 'nimh',
+      cellsInSeries: 4,
+      capacityAh: 1.1,
+      emergencyPower: 2.2,
+      inputPower: 3.5,
+      notes: 'Maintained use doubles as a night light.',
+    },
   },
 ]
 

@@ -21,9 +21,14 @@ export async function seedPhotometry(m: EntityManager, ctx: DemoContext): Promis
     const text = demoText(d.file)
     const sha256 = crypto.createHash('sha256').update(text, 'utf8').digest('hex')
     let file = await files.findOne({ where: { workspaceId: ctx.workspaceId, sha256 }, select: { id: true } })
-    file ??= await files.save(files.create({ workspaceId: ctx.workspaceId, name: d.file.name, rawText: text, sha256, parsed: parseUpload(text), createdBy: author }))
+    file ??= await files.save(
+      files.create({ workspaceId: ctx.workspaceId, name: d.file.name, rawText: text, sha256, parsed: parseUpload(text), createdBy: author }),
+    )
     const input = LuminaireTypeSchema.parse({ ...d.type, photometricFileId: file.id })
-    const existing = await types.createQueryBuilder('t').where('t.workspace_id = :ws AND lower(t.name) = lower(:name)', { ws: ctx.workspaceId, name: input.name }).getOne()
+    const existing = await types
+      .createQueryBuilder('t')
+      .where('t.workspace_id = :ws AND lower(t.name) = lower(:name)', { ws: ctx.workspaceId, name: input.name })
+      .getOne()
     if (existing) continue
     await types.save(
       types.create({
@@ -46,4 +51,3 @@ export async function seedPhotometry(m: EntityManager, ctx: DemoContext): Promis
 }
 
 export { demoPhotometryTexts } from './photometry.demo-data'
-

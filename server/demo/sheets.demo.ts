@@ -38,15 +38,85 @@ const warehouse = {
 
 const SHEETS: DemoRevision[][] = [
   [
-    { content: { ...library, inputs: { chemistry: 'nicd', duration: '3 h', driver: 'converter', load: { power: '2.4 W' }, driverEfficiency: 0.82, ambientMin: '12 °C', ambientMax: '25 °C' } }, issue: true },
-    { content: { ...library, inputs: { chemistry: 'nicd', duration: '3 h', driver: 'converter', load: { power: '2.9 W' }, driverEfficiency: 0.82, ambientMin: '12 °C', ambientMax: '25 °C' } }, issue: true },
+    {
+      content: {
+        ...library,
+        inputs: {
+          chemistry: 'nicd',
+          duration: '3 h',
+          driver: 'converter',
+          load: { power: '2.4 W' },
+          driverEfficiency: 0.82,
+          ambientMin: '12 °C',
+          ambientMax: '25 °C',
+        },
+      },
+      issue: true,
+    },
+    {
+      content: {
+        ...library,
+        inputs: {
+          chemistry: 'nicd',
+          duration: '3 h',
+          driver: 'converter',
+          load: { power: '2.9 W' },
+          driverEfficiency: 0.82,
+          ambientMin: '12 °C',
+          ambientMax: '25 °C',
+        },
+      },
+      issue: true,
+    },
   ],
   [
-    { content: { ...careHome, inputs: { chemistry: 'nicd-ht', duration: '3 h', driver: 'converter', load: { power: '3.2 W', mainsPower: '7 W' }, driverEfficiency: 0.85, ambientMin: '18 °C', ambientMax: '45 °C' } }, issue: true },
-    { content: { ...careHome, inputs: { chemistry: 'nicd-ht', duration: '3 h', driver: 'converter', load: { power: '3.2 W', mainsPower: '7 W' }, driverEfficiency: 0.85, ambientMin: '18 °C', ambientMax: '48 °C', designMargin: 0.15 } } },
+    {
+      content: {
+        ...careHome,
+        inputs: {
+          chemistry: 'nicd-ht',
+          duration: '3 h',
+          driver: 'converter',
+          load: { power: '3.2 W', mainsPower: '7 W' },
+          driverEfficiency: 0.85,
+          ambientMin: '18 °C',
+          ambientMax: '45 °C',
+        },
+      },
+      issue: true,
+    },
+    {
+      content: {
+        ...careHome,
+        inputs: {
+          chemistry: 'nicd-ht',
+          duration: '3 h',
+          driver: 'converter',
+          load: { power: '3.2 W', mainsPower: '7 W' },
+          driverEfficiency: 0.85,
+          ambientMin: '18 °C',
+          ambientMax: '48 °C',
+          designMargin: 0.15,
+        },
+      },
+    },
   ],
   [
-    { content: { ...warehouse, inputs: { chemistry: 'nicd', duration: '3 h', driver: 'converter', load: { power: '6 W' }, driverEfficiency: 0.85, ambientMin: '-15 °C', ambientMax: '25 °C' } }, issue: true },
+    {
+      content: {
+        ...warehouse,
+        inputs: {
+          chemistry: 'nicd',
+          duration: '3 h',
+          driver: 'converter',
+          load: { power: '6 W' },
+          driverEfficiency: 0.85,
+          ambientMin: '-15 °C',
+          ambientMax: '25 °C',
+        },
+      },
+      issue: true,
+    },
   ],
 ]
 
@@ -60,12 +130,44 @@ export async function seedSheets(m: EntityManager, ctx: DemoContext): Promise<vo
     let sheet: SpecSheet | null = null
     for (const [i, step] of history.entries()) {
       const c = contentOf(step.content)
-      const fields = { title: c.title, reference: c.reference, client: c.client, site: c.site, luminaire: c.luminaire, inputs: c.inputs, results: computeResults(c.inputs), engineVersion: ENGINE_VERSION }
+      const fields = {
+        title: c.title,
+        reference: c.reference,
+        client: c.client,
+        site: c.site,
+        luminaire: c.luminaire,
+        inputs: c.inputs,
+        results: computeResults(c.inputs),
+        engineVersion: ENGINE_VERSION,
+      }
       sheet = sheet
         ? Object.assign(sheet, fields, { currentRevision: i + 1, status: 'draft', version: sheet.version + 1 })
-        : sheets.create({ ...fields, workspaceId: ctx.workspaceId, chemistry: String(c.inputs.chemistry), status: 'draft', currentRevision: 1, issuedRevision: null, version: 1, createdBy: author, updatedBy: author, archivedAt: null })
+        : sheets.create({
+            ...fields,
+            workspaceId: ctx.workspaceId,
+            chemistry: String(c.inputs.chemistry),
+            status: 'draft',
+            currentRevision: 1,
+            issuedRevision: null,
+            version: 1,
+            createdBy: author,
+            updatedBy: author,
+            archivedAt: null,
+          })
       await sheets.save(sheet)
-      await revisions.save(revisions.create({ ...fields, workspaceId: ctx.workspaceId, sheetId: sheet.id, number: i + 1, sheetVersion: sheet.version, status: 'draft', authorId: author, issuedAt: null, issuedBy: null }))
+      await revisions.save(
+        revisions.create({
+          ...fields,
+          workspaceId: ctx.workspaceId,
+          sheetId: sheet.id,
+          number: i + 1,
+          sheetVersion: sheet.version,
+          status: 'draft',
+          authorId: author,
+          issuedAt: null,
+          issuedBy: null,
+        }),
+      )
       if (step.issue) {
         if (sheet.issuedRevision !== null) await revisions.update({ sheetId: sheet.id, number: sheet.issuedRevision }, { status: 'superseded' })
         await revisions.update({ sheetId: sheet.id, number: i + 1 }, { status: 'issued', issuedAt: new Date(), issuedBy: author })

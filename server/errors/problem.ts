@@ -106,6 +106,14 @@ export function zodFields(error: ZodError, where: 'body' | 'query' = 'body'): Fi
 export class InvalidInputError extends AppError {
   constructor(error: ZodError, where: 'body' | 'query' = 'body', prefix = 'Invalid input') {
     const fields = zodFields(error, where)
-    super(400, 'invalid_input', `${prefix}: ${fields.map((f) => `${f.path} ${f.message}`).slice(0, 3).join('; ')}`, fields)
+    super(
+      400,
+      'invalid_input',
+      `${prefix}: ${fields
+        .map((f) => `${f.path} ${f.message}`)
+        .slice(0, 3)
+        .join('; ')}`,
+      fields,
+    )
   }
 }

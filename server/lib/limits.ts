@@ -99,21 +99,29 @@ export function clientAddress(req: Request): string {
 /** Middleware: one use per request from the client's address. */
 export function perAddress(bucket: string, limit: Limit, what: string): RequestHandler {
   return (req, res, next) => {
-    spend(bucket, clientAddress(req), limit, what).then(() => next(), (err: unknown) => {
-      if (err instanceof TooManyError) res.set('Retry-After', String(err.details?.retryAfterSeconds ?? 60))
-      next(err)
-    })
+    spend(bucket, clientAddress(req), limit, what).then(
+      () => next(),
+      (err: unknown) => {
+        if (err instanceof TooManyError) res.set('Retry-After', String(err.details?.retryAfterSeconds ?? 60))
+        next(err)
+      },
+    )
   }
 }
 
 /** Middleware: one use per request for the e-mail address in the body (counted whether or not it has an account). */
 export function perEmail(bucket: string, limit: Limit, what: string): RequestHandler {
   return (req, res, next) => {
-    const email = String((req.body as { email?: unknown } | undefined)?.email ?? '').trim().toLowerCase()
+    const email = String((req.body as { email?: unknown } | undefined)?.email ?? '')
+      .trim()
+      .toLowerCase()
     if (!email) return next()
-    spend(bucket, email, limit, what).then(() => next(), (err: unknown) => {
-      if (err instanceof TooManyError) res.set('Retry-After', String(err.details?.retryAfterSeconds ?? 60))
-      next(err)
-    })
+    spend(bucket, email, limit, what).then(
+      () => next(),
+      (err: unknown) => {
+        if (err instanceof TooManyError) res.set('Retry-After', String(err.details?.retryAfterSeconds ?? 60))
+        next(err)
+      },
+    )
   }
 }

@@ -21,7 +21,9 @@ export function decodeCursor(cursor: string | undefined, parts: number): CursorK
   } catch {
     /* answered below */
   }
-  throw new BadRequestError('The cursor is not one this API gave: send back nextCursor unchanged.', [{ path: 'cursor', message: 'is not a cursor this API gave' }])
+  throw new BadRequestError('The cursor is not one this API gave: send back nextCursor unchanged.', [
+    { path: 'cursor', message: 'is not a cursor this API gave' },
+  ])
 }
 
 /** The first `limit` items and the cursor after the last of them (null on the last page). */

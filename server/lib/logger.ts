@@ -4,5 +4,19 @@ import { config } from '../config'
 
 export const logger = pino({
   level: config().logLevel,
-  redact: { paths: ['password', '*.password', 'req.headers.cookie', 'req.headers.authorization', 'token', '*.token', 'err.parameters', 'err.driverError', '*.parameters', 'err.detail'], censor: '[redacted]' },
+  redact: {
+    paths: [
+      'password',
+      '*.password',
+      'req.headers.cookie',
+      'req.headers.authorization',
+      'token',
+      '*.token',
+      'err.parameters',
+      'err.driverError',
+      '*.parameters',
+      'err.detail',
+    ],
+    censor: '[redacted]',
+  },
 })

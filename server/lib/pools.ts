@@ -35,7 +35,7 @@ export function connectionBudget(cfg: AppConfig, processes = cfg.webConcurrency)
 /** The main pool of this process (pg.Pool under TypeORM), once the data source is up. */
 export function appPool(): pg.Pool | null {
   if (!dataSource.isInitialized) return null
-  return ((dataSource.driver as unknown as { master?: pg.Pool }).master ?? null)
+  return (dataSource.driver as unknown as { master?: pg.Pool }).master ?? null
 }
 
 const otherPools = new Set<pg.Pool>()

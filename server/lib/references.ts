@@ -40,7 +40,10 @@ export class ReferenceNotFoundError extends AppError {
       missing.length === 1
         ? `That ${first.what} (${missing[0].path}) was not found in this workspace${first.hint ? ` (${first.hint})` : ''}.`
         : `${missing.length} of the records this names were not found in this workspace: ${missing.map((m) => m.path).join(', ')}.`,
-      missing.map((m) => ({ path: m.path, message: `is not ${/^[aeiou]/.test(REFERENCE_TABLES[m.kind].what) ? 'an' : 'a'} ${REFERENCE_TABLES[m.kind].what} of this workspace` })),
+      missing.map((m) => ({
+        path: m.path,
+        message: `is not ${/^[aeiou]/.test(REFERENCE_TABLES[m.kind].what) ? 'an' : 'a'} ${REFERENCE_TABLES[m.kind].what} of this workspace`,
+      })),
     )
   }
 }

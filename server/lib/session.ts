@@ -22,7 +22,13 @@ export function createSessionMiddleware(cfg: AppConfig) {
     proxy: cfg.trustProxy > 0,
     cookie: { httpOnly: true, sameSite: 'lax', secure: cfg.https, maxAge: 1000 * 60 * 60 * 24 * 14 },
   })
-  return { middleware, close: () => { (store as unknown as { close?: () => void }).close?.(); return closePool() } }
+  return {
+    middleware,
+    close: () => {
+      ;(store as unknown as { close?: () => void }).close?.()
+      return closePool()
+    },
+  }
 }
 
 type Callback = (err?: unknown, value?: unknown) => void

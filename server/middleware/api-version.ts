@@ -16,9 +16,11 @@ export const apiVersion: RequestHandler = (req, res, next) => {
   res.set('API-Version', API_VERSION)
   const asked = req.get('api-version')
   if (asked !== undefined && asked.trim() !== API_VERSION) {
-    return next(new AppError(400, 'invalid_input', `This server speaks API version ${API_VERSION}, not "${asked}".`, [
-      { path: 'API-Version', pointer: '/API-Version', in: 'header', code: 'not_allowed', message: `must be ${API_VERSION} (or left out)` },
-    ]))
+    return next(
+      new AppError(400, 'invalid_input', `This server speaks API version ${API_VERSION}, not "${asked}".`, [
+        { path: 'API-Version', pointer: '/API-Version', in: 'header', code: 'not_allowed', message: `must be ${API_VERSION} (or left out)` },
+      ]),
+    )
   }
   next()
 }

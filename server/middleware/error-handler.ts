@@ -17,7 +17,9 @@ function isDatabaseDown(err: unknown): boolean {
   const code = e?.driverError?.code ?? e?.code
   if (code && DB_DOWN_CODES.has(code)) return true
   const msg = String(e?.message ?? '')
-  return /Connection terminated|connect ECONNREFUSED|terminating connection|Client has encountered a connection error|timeout exceeded when trying to connect|Connection is not established|Cannot use a pool after calling end/i.test(msg)
+  return /Connection terminated|connect ECONNREFUSED|terminating connection|Client has encountered a connection error|timeout exceeded when trying to connect|Connection is not established|Cannot use a pool after calling end/i.test(
+    msg,
+  )
 }
 
 export const notFoundApi: RequestHandler = (req, res) => {
@@ -28,7 +30,15 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   if (res.headersSent) return
   if (err instanceof ZodError) {
     const fields = zodFields(err)
-    sendProblem(res, { status: 400, code: 'invalid_input', detail: `Invalid input: ${fields.map((f) => `${f.path} ${f.message}`).slice(0, 3).join('; ')}`, fields })
+    sendProblem(res, {
+      status: 400,
+      code: 'invalid_input',
+      detail: `Invalid input: ${fields
+        .map((f) => `${f.path} ${f.message}`)
+        .slice(0, 3)
+        .join('; ')}`,
+      fields,
+    })
     return
   }
   if (err instanceof AppError) {
@@ -44,7 +54,11 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
     return
   }
   if (e?.type === 'entity.too.large' || e?.code === 'LIMIT_FILE_SIZE') {
-    sendProblem(res, { status: 413, code: 'too_large', detail: e.code === 'LIMIT_FILE_SIZE' ? 'The file is larger than the upload limit.' : 'The request body is too large.' })
+    sendProblem(res, {
+      status: 413,
+      code: 'too_large',
+      detail: e.code === 'LIMIT_FILE_SIZE' ? 'The file is larger than the upload limit.' : 'The request body is too large.',
+    })
     return
   }
   if (typeof e?.code === 'string' && e.code.startsWith('LIMIT_')) {
@@ -54,9 +68,12 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   const status = e?.status ?? e?.statusCode
   if (typeof status === 'number' && status >= 400 && status < 500) {
     const unsupported = e.type === 'charset.unsupported' || e.type === 'encoding.unsupported'
-    sendProblem(res, unsupported
-      ? { status: 415, code: 'unsupported_media_type', detail: 'Unsupported body encoding or character set.' }
-      : { status, code: 'bad_request', detail: e.message ?? 'Bad request.' })
+    sendProblem(
+      res,
+      unsupported
+        ? { status: 415, code: 'unsupported_media_type', detail: 'Unsupported body encoding or character set.' }
+        : { status, code: 'bad_request', detail: e.message ?? 'Bad request.' },
+    )
     return
   }
   if (isPoolWaitTimeout(err) && appPoolIsFull()) {
@@ -80,7 +97,12 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
     }
     const column = /^Key \(([a-z_]+)\)=/.exec(detail)?.[1]
     const field = column?.replace(/_([a-z])/g, (_m, c: string) => c.toUpperCase())
-    sendProblem(res, { status: 404, code: 'not_found', detail: 'A record this refers to was not found in this workspace.', fields: field ? [{ path: field, code: 'not_found', message: 'was not found in this workspace' }] : undefined })
+    sendProblem(res, {
+      status: 404,
+      code: 'not_found',
+      detail: 'A record this refers to was not found in this workspace.',
+      fields: field ? [{ path: field, code: 'not_found', message: 'was not found in this workspace' }] : undefined,
+    })
     return
   }
   if (pgCode === '22P02' || pgCode === '22003' || pgCode === '22021') {

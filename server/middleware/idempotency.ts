@@ -20,13 +20,20 @@ const KEY_SHAPE = /^[\x21-\x7e]{1,255}$/
 function canonical(value: unknown): unknown {
   if (Array.isArray(value)) return value.map(canonical)
   if (value && typeof value === 'object' && !(value instanceof Date)) {
-    return Object.fromEntries(Object.keys(value as object).sort().map((k) => [k, canonical((value as Record<string, unknown>)[k])]))
+    return Object.fromEntries(
+      Object.keys(value as object)
+        .sort()
+        .map((k) => [k, canonical((value as Record<string, unknown>)[k])]),
+    )
   }
   return value
 }
 
 function fingerprintOf(req: Request, body: unknown): string {
-  return crypto.createHash('sha256').update(`${req.method} ${req.originalUrl}\n${JSON.stringify(canonical(body) ?? null)}`).digest('hex')
+  return crypto
+    .createHash('sha256')
+    .update(`${req.method} ${req.originalUrl}\n${JSON.stringify(canonical(body) ?? null)}`)
+    .digest('hex')
 }
 
 let lastPurge = 0
@@ -76,7 +83,10 @@ export function idempotency(opts: { secret?: boolean } = {}): RequestHandler {
   return async (req, res, next) => {
     const key = req.get('idempotency-key')
     if (key === undefined) return next()
-    const header = (message: string) => new AppError(400, 'invalid_input', `Idempotency-Key ${message}`, [{ path: 'Idempotency-Key', pointer: '/Idempotency-Key', in: 'header', code: 'invalid', message }])
+    const header = (message: string) =>
+      new AppError(400, 'invalid_input', `Idempotency-Key ${message}`, [
+        { path: 'Idempotency-Key', pointer: '/Idempotency-Key', in: 'header', code: 'invalid', message },
+      ])
     if (opts.secret) return next(header('is not taken here: this answer carries a secret shown once, which is never stored.'))
     if (!KEY_SHAPE.test(key)) return next(header('must be 1 to 255 visible ASCII characters.'))
     const caller = `${req.ctx?.userId ?? 'anonymous'}|${req.ctx?.workspaceId ?? ''}`
@@ -100,7 +110,13 @@ export function idempotency(opts: { secret?: boolean } = {}): RequestHandler {
     )
     if (!kept) return next(new ConflictError('A request with this Idempotency-Key was still running; try again.'))
     if (kept.fingerprint !== fingerprint) {
-      return next(new UnprocessableError('This Idempotency-Key was already used for a request with another body or path; use a new key for a new request.', [{ path: 'Idempotency-Key', pointer: '/Idempotency-Key', in: 'header', code: 'invalid', message: 'was used for another request' }], 'idempotency_key_reused'))
+      return next(
+        new UnprocessableError(
+          'This Idempotency-Key was already used for a request with another body or path; use a new key for a new request.',
+          [{ path: 'Idempotency-Key', pointer: '/Idempotency-Key', in: 'header', code: 'invalid', message: 'was used for another request' }],
+          'idempotency_key_reused',
+        ),
+      )
     }
     if (kept.status === null) return next(new ConflictError('A request with this Idempotency-Key is still running; try again shortly.'))
     res.set('Idempotent-Replayed', 'true')

@@ -29,6 +29,11 @@ export function methodNotAllowed(routeTable: RouteSpec[]): RequestHandler {
     if (!allowed.size || allowed.has(req.method)) return next()
     const list = [...allowed].sort().join(', ')
     res.set('Allow', list)
-    sendProblem(res, { status: 405, code: 'method_not_allowed', detail: `${req.method} is not allowed on ${path}; this path takes ${list}.`, extra: { allow: [...allowed].sort() } })
+    sendProblem(res, {
+      status: 405,
+      code: 'method_not_allowed',
+      detail: `${req.method} is not allowed on ${path}; this path takes ${list}.`,
+      extra: { allow: [...allowed].sort() },
+    })
   }
 }

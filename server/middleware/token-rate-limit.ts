@@ -17,7 +17,13 @@ export function tokenRateLimit(limit: Limit): RequestHandler {
       const resetSeconds = Math.max(0, Math.ceil(((resetAt?.getTime() ?? Date.now() + limit.windowMs) - Date.now()) / 1000))
       res.set('RateLimit-Policy', `${limit.max};w=${windowSeconds}`)
       res.set('RateLimit', `limit=${limit.max}, remaining=${Math.max(0, limit.max - hits)}, reset=${resetSeconds}`)
-      if (hits > limit.max) return next(new TooManyError(`This API token made more than ${limit.max} requests in ${windowSeconds} seconds.`, resetAt ?? new Date(Date.now() + limit.windowMs)))
+      if (hits > limit.max)
+        return next(
+          new TooManyError(
+            `This API token made more than ${limit.max} requests in ${windowSeconds} seconds.`,
+            resetAt ?? new Date(Date.now() + limit.windowMs),
+          ),
+        )
       next()
     }, next)
   }

@@ -57,7 +57,14 @@ function auditTokenWrite(req: Request, res: Response) {
   const path = req.originalUrl.split('?')[0]
   res.on('finish', () => {
     if (res.statusCode >= 400) return
-    const event = { workspaceId: ctx.workspaceId, actorId: ctx.userId, action: 'api.write', entityType: 'api_token', entityId: token.id, data: { method: req.method, path, status: res.statusCode } }
+    const event = {
+      workspaceId: ctx.workspaceId,
+      actorId: ctx.userId,
+      action: 'api.write',
+      entityType: 'api_token',
+      entityId: token.id,
+      data: { method: req.method, path, status: res.statusCode },
+    }
     void withRequestToken(token, () => recordAudit(event)).catch(() => undefined)
   })
 }

@@ -59,7 +59,13 @@ export function likelySlip(value: number, inRange: (v: number) => boolean): { fa
   return null
 }
 
-function outside(field: string, label: string, value: number, range: PlausibleRange, inRange = (v: number) => v >= range.min && v <= range.max): EngineWarning | null {
+function outside(
+  field: string,
+  label: string,
+  value: number,
+  range: PlausibleRange,
+  inRange = (v: number) => v >= range.min && v <= range.max,
+): EngineWarning | null {
   if (inRange(value)) return null
   const slip = likelySlip(value, inRange)
   const u = range.unit ? ` ${range.unit}` : ''
@@ -69,7 +75,9 @@ function outside(field: string, label: string, value: number, range: PlausibleRa
     field,
     message:
       `${field} (${label} ${fmt(value)}${u}) is outside the ${fmt(range.min)}–${fmt(range.max)}${u} a single luminaire gives (${range.ref.source}).` +
-      (slip ? ` ${fmt(value * slip.factor)}${u} would fit: probably ${slip.words}. Re-read the meter before relying on any figure here.` : ' Re-read the meter before relying on any figure here.'),
+      (slip
+        ? ` ${fmt(value * slip.factor)}${u} would fit: probably ${slip.words}. Re-read the meter before relying on any figure here.`
+        : ' Re-read the meter before relying on any figure here.'),
   }
 }
 

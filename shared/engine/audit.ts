@@ -214,8 +214,7 @@ export function computeAudit(input: AuditInput): AuditResult {
   }
 
   // --- d.c. side: LED power on mains and battery, charging power.
-  const ledPowerMainsW =
-    input.ledVoltageMains !== undefined && input.ledCurrentMains !== undefined ? input.ledVoltageMains * input.ledCurrentMains : null
+  const ledPowerMainsW = input.ledVoltageMains !== undefined && input.ledCurrentMains !== undefined ? input.ledVoltageMains * input.ledCurrentMains : null
   const ledPowerBatteryW =
     input.ledVoltageBattery !== undefined && input.ledCurrentBattery !== undefined ? input.ledVoltageBattery * input.ledCurrentBattery : null
   const standbyChargePowerW =
@@ -227,7 +226,10 @@ export function computeAudit(input: AuditInput): AuditResult {
       label: 'LED power on mains',
       formula: 'P_LED,m = V_LED,m · I_LED,m',
       explanation: 'Power delivered to the LEDs, from the d.c. voltage across them and the current through them, lit from mains.',
-      inputs: [val('V_LED,m', 'LED voltage on mains', input.ledVoltageMains as number, 'V'), val('I_LED,m', 'LED current on mains', input.ledCurrentMains as number, 'A')],
+      inputs: [
+        val('V_LED,m', 'LED voltage on mains', input.ledVoltageMains as number, 'V'),
+        val('I_LED,m', 'LED current on mains', input.ledCurrentMains as number, 'A'),
+      ],
       result: val('P_LED,m', 'LED power on mains', ledPowerMainsW, 'W'),
       references: [DC_POWER],
     })
@@ -238,7 +240,10 @@ export function computeAudit(input: AuditInput): AuditResult {
       label: 'LED power on battery',
       formula: 'P_LED,b = V_LED,b · I_LED,b',
       explanation: 'Power delivered to the LEDs when lit from the battery (mains off).',
-      inputs: [val('V_LED,b', 'LED voltage on battery', input.ledVoltageBattery as number, 'V'), val('I_LED,b', 'LED current on battery', input.ledCurrentBattery as number, 'A')],
+      inputs: [
+        val('V_LED,b', 'LED voltage on battery', input.ledVoltageBattery as number, 'V'),
+        val('I_LED,b', 'LED current on battery', input.ledCurrentBattery as number, 'A'),
+      ],
       result: val('P_LED,b', 'LED power on battery', ledPowerBatteryW, 'W'),
       references: [DC_POWER],
     })
@@ -266,7 +271,8 @@ export function computeAudit(input: AuditInput): AuditResult {
       id: 'driverEfficiency',
       label: 'Driver efficiency',
       formula: 'η = P_LED,m / P',
-      explanation: 'LED power on mains divided by the real input power. The input also feeds the charger, so this is the efficiency of the whole luminaire electronics, a little below the driver alone.',
+      explanation:
+        'LED power on mains divided by the real input power. The input also feeds the charger, so this is the efficiency of the whole luminaire electronics, a little below the driver alone.',
       inputs: [val('P_LED,m', 'LED power on mains', ledPowerMainsW, 'W'), val('P', 'real input power', P, 'W')],
       result: val('η', 'driver efficiency', driverEfficiency, ''),
       references: [{ source: 'Efficiency = output power / input power', basis: 'published' }],
@@ -301,8 +307,12 @@ export function computeAudit(input: AuditInput): AuditResult {
       id: 'standbyChargePower',
       label: 'Battery charging power (light off)',
       formula: 'P_ch = V_batt · I_ch',
-      explanation: 'd.c. power going into the battery while on mains with the light off. The charger’s own losses come on top, so the mains draw in standby is higher.',
-      inputs: [val('V_batt', 'battery voltage', input.batteryVoltage as number, 'V'), val('I_ch', 'charging current', input.batteryChargeCurrent as number, 'A')],
+      explanation:
+        'd.c. power going into the battery while on mains with the light off. The charger’s own losses come on top, so the mains draw in standby is higher.',
+      inputs: [
+        val('V_batt', 'battery voltage', input.batteryVoltage as number, 'V'),
+        val('I_ch', 'charging current', input.batteryChargeCurrent as number, 'A'),
+      ],
       result: val('P_ch', 'charging power', standbyChargePowerW, 'W'),
       references: [DC_POWER],
     })
@@ -338,7 +348,8 @@ export function computeAudit(input: AuditInput): AuditResult {
       code: 'standby-power-unknown',
       severity: 'info',
       field: 'batteryChargeCurrent',
-      message: 'The standby (charging) power is unknown, so the unlit hours count as zero energy and the annual energy is understated. Give batteryVoltage and batteryChargeCurrent.',
+      message:
+        'The standby (charging) power is unknown, so the unlit hours count as zero energy and the annual energy is understated. Give batteryVoltage and batteryChargeCurrent.',
     })
   }
   if (input.mode === 'non-maintained' && input.hoursPerDay > 0) {
@@ -360,7 +371,11 @@ export function computeAudit(input: AuditInput): AuditResult {
         : 'Non-maintained: on mains the light is off and the measured power is the charging draw, taken all year. Energy used in mains failures and tests is left out.',
     inputs:
       input.mode === 'maintained'
-        ? [val('P', 'real input power', P, 'W'), val('h', 'lit hours per day', input.hoursPerDay, 'h'), val('P_ch', 'standby power', standbyChargePowerW ?? 0, 'W')]
+        ? [
+            val('P', 'real input power', P, 'W'),
+            val('h', 'lit hours per day', input.hoursPerDay, 'h'),
+            val('P_ch', 'standby power', standbyChargePowerW ?? 0, 'W'),
+          ]
         : [val('P', 'real input power on charge', P, 'W')],
     result: val('E', 'annual energy', energy, 'kWh'),
     references: [ENERGY_DEFINITION],
@@ -419,15 +434,7 @@ export function computeAudit(input: AuditInput): AuditResult {
   }
 }
 
-function explainClaim(
-  meaning: ClaimMeaning,
-  claimed: number,
-  P: number,
-  S: number,
-  led: number | null,
-  ledOnMains: boolean,
-  deviationPct: number,
-): string {
+function explainClaim(meaning: ClaimMeaning, claimed: number, P: number, S: number, led: number | null, ledOnMains: boolean, deviationPct: number): string {
   const c = `${fmt(claimed)} W`
   const side = ledOnMains ? 'on mains' : 'on battery'
   switch (meaning) {

@@ -44,7 +44,8 @@ const BARE_NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)(e[+-]?\d+)?$/i
 /** A number of hours (a bare number is hours, as in "C20"), or a time string such as "20 h". */
 export function hours(opts: { max?: number } = {}) {
   const max = opts.max ?? 1_000
-  return z.union([z.number(), z.string()], { errorMap: () => ({ message: 'must be a number of hours, or a time such as "20 h"' }) })
+  return z
+    .union([z.number(), z.string()], { errorMap: () => ({ message: 'must be a number of hours, or a time such as "20 h"' }) })
     .transform((raw, ctx): number => {
       let h: number
       if (typeof raw === 'number') h = raw
@@ -137,9 +138,7 @@ export interface BatteryDraw {
  * What the pack delivers. Direct: I = I_LED, P = V_pack·I_LED. Converter: P = P_LED/η, I = P/V_pack.
  */
 export function batteryDraw(load: Load, driver: Driver, efficiency: number, packAverageVoltage: number): BatteryDraw {
-  const loadPowerW = driver === 'direct' && load.ledCurrent !== undefined && load.ledVoltage !== undefined
-    ? load.ledVoltage * load.ledCurrent
-    : ledPowerW(load)
+  const loadPowerW = driver === 'direct' && load.ledCurrent !== undefined && load.ledVoltage !== undefined ? load.ledVoltage * load.ledCurrent : ledPowerW(load)
   if (driver === 'direct') {
     const currentA = load.ledCurrent as number
     return { currentA, powerW: currentA * packAverageVoltage, loadPowerW }

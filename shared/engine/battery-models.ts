@@ -69,12 +69,7 @@ export function serviceLifeYears(lifeAtReferenceYears: number, referenceC: numbe
 }
 
 export function chemistryServiceLifeYears(chemistry: Chemistry, ambientC: number): number {
-  return serviceLifeYears(
-    chemistry.standbyLifeYearsAt25C.value,
-    chemistry.lifeReferenceTemperatureC,
-    chemistry.lifeHalvingIntervalC.value,
-    ambientC,
-  )
+  return serviceLifeYears(chemistry.standbyLifeYearsAt25C.value, chemistry.lifeReferenceTemperatureC, chemistry.lifeHalvingIntervalC.value, ambientC)
 }
 
 /**

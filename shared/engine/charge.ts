@@ -44,7 +44,11 @@ export const chargeInputSchema = chargeInputObject.superRefine((v, ctx) => {
   for (const issue of [...loadIssues(v), ...packIssues(v)]) ctx.addIssue({ code: z.ZodIssueCode.custom, ...issue })
   const chemistry = v.chemistry ? CHEMISTRIES[v.chemistry] : undefined
   if (chemistry && typeof v.cutoffVoltage === 'number' && v.voltageBasis === 'cell' && v.cutoffVoltage >= chemistry.nominalCellVoltage.value) {
-    ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['cutoffVoltage'], message: `must be below the nominal cell voltage (${chemistry.nominalCellVoltage.value} V)` })
+    ctx.addIssue({
+      code: z.ZodIssueCode.custom,
+      path: ['cutoffVoltage'],
+      message: `must be below the nominal cell voltage (${chemistry.nominalCellVoltage.value} V)`,
+    })
   }
 })
 
@@ -201,7 +205,10 @@ export function checkCharge(input: ChargeInput, options: { explain?: boolean } =
   if (chemistry.float) {
     const expected = floatCellVoltage(chemistry, input.ambient) as number
     const band = chemistry.float.bandAt25C?.value ?? { min: chemistry.float.cellVoltageAt25C.value, max: chemistry.float.cellVoltageAt25C.value }
-    const bandCellV = { min: floatCellVoltage(chemistry, input.ambient, band.min) as number, max: floatCellVoltage(chemistry, input.ambient, band.max) as number }
+    const bandCellV = {
+      min: floatCellVoltage(chemistry, input.ambient, band.min) as number,
+      max: floatCellVoltage(chemistry, input.ambient, band.max) as number,
+    }
     floatVoltageCheck = { expectedCellVoltageV: expected, expectedPackVoltageV: expected * n, bandCellV }
     if (input.floatVoltage !== undefined) {
       const given = perCell(input.floatVoltage)
@@ -231,7 +238,11 @@ export function checkCharge(input: ChargeInput, options: { explain?: boolean } =
       field: 'floatVoltage',
       message: `${chemistry.name} is charged at constant current, not floated at a voltage; the float voltage was not used.`,
     })
-  } else if (chemistry.family === 'lithium' && input.floatVoltage !== undefined && perCell(input.floatVoltage) > (chemistry.maxChargeCellVoltage ?? chemistry.fullChargeCellVoltage).value + 0.005) {
+  } else if (
+    chemistry.family === 'lithium' &&
+    input.floatVoltage !== undefined &&
+    perCell(input.floatVoltage) > (chemistry.maxChargeCellVoltage ?? chemistry.fullChargeCellVoltage).value + 0.005
+  ) {
     const limit = (chemistry.maxChargeCellVoltage ?? chemistry.fullChargeCellVoltage).value
     warnings.push({
       code: 'lithium-overvoltage',
@@ -280,41 +291,62 @@ export function checkCharge(input: ChargeInput, options: { explain?: boolean } =
     const capRef: Reference = REF.iec61951_1('published', 'It = C/1 h.')
     working.push(
       {
-        id: 'averageCurrentA', label: 'Average discharge current', formula: input.driver === 'direct' ? 'I = I_LED' : 'I = P_LED / (η · n · V_avg)',
+        id: 'averageCurrentA',
+        label: 'Average discharge current',
+        formula: input.driver === 'direct' ? 'I = I_LED' : 'I = P_LED / (η · n · V_avg)',
         explanation: 'Current the pack supplies during the rated duration.',
         inputs: [v('P_LED', 'LED power', draw.loadPowerW, 'W'), v('n', 'Cells in series', n, ''), v('V_avg', 'Average cell voltage', averageCell, 'V')],
         result: v('I', 'Average current', draw.currentA, 'A'),
         references: [describeCellChoice(choice, chemistry, input.load, chemistry.cutoffCellVoltage.value, input.converterInput).reference],
       },
       {
-        id: 'dischargeAh', label: 'Charge taken by one rated-duration discharge', formula: 'Q = min(I · t, C)',
+        id: 'dischargeAh',
+        label: 'Charge taken by one rated-duration discharge',
+        formula: 'Q = min(I · t, C)',
         explanation: 'The ampere-hours a full rated-duration test takes out of the pack; never more than the pack holds (it runs flat first).',
         inputs: [v('I', 'Average current', draw.currentA, 'A'), v('t', 'Rated duration', durationH, 'h'), v('C', 'Capacity', capacityAh, 'Ah')],
-        result: v('Q', 'Charge taken out', dischargeAh, 'Ah'), references: [REF.commonPractice('Charge balance')],
+        result: v('Q', 'Charge taken out', dischargeAh, 'Ah'),
+        references: [REF.commonPractice('Charge balance')],
       },
       {
-        id: 'rechargeTimeH', label: 'Recharge time', formula: 't_r = Q · f_c / I_c',
+        id: 'rechargeTimeH',
+        label: 'Recharge time',
+        formula: 't_r = Q · f_c / I_c',
         explanation: `Charge taken out times the charge factor of ${chemistry.name}, divided by the charge current. Must be at most 24 h.`,
         inputs: [v('Q', 'Charge taken out', dischargeAh, 'Ah'), v('f_c', 'Charge factor', factor, ''), v('I_c', 'Charge current', input.chargeCurrent, 'A')],
-        result: v('t_r', 'Recharge time', rechargeH, 'h'), references: [chemistry.chargeFactor.ref, REF.annexA('from memory', 'Rated duration available after a 24 h charge.')],
+        result: v('t_r', 'Recharge time', rechargeH, 'h'),
+        references: [chemistry.chargeFactor.ref, REF.annexA('from memory', 'Rated duration available after a 24 h charge.')],
       },
       {
-        id: 'chargeCRate', label: 'Charge rate', formula: 'c_c = I_c / C', explanation: 'Charge current as a multiple of the rated capacity per hour.',
+        id: 'chargeCRate',
+        label: 'Charge rate',
+        formula: 'c_c = I_c / C',
+        explanation: 'Charge current as a multiple of the rated capacity per hour.',
         inputs: [v('I_c', 'Charge current', input.chargeCurrent, 'A'), v('C', 'Capacity', capacityAh, 'Ah')],
-        result: v('c_c', 'Charge C-rate', chargeC, 'C'), references: [capRef, chemistry.maxChargeRateC.ref],
+        result: v('c_c', 'Charge C-rate', chargeC, 'C'),
+        references: [capRef, chemistry.maxChargeRateC.ref],
       },
       {
-        id: 'trickleCRate', label: 'Permanent (trickle) charge rate', formula: 'c_t = I_t / C',
+        id: 'trickleCRate',
+        label: 'Permanent (trickle) charge rate',
+        formula: 'c_t = I_t / C',
         explanation: `Compared with the ${round(limit.min, 3)}–${round(limit.max, 3)} C ${chemistry.name} tolerates on permanent charge.`,
         inputs: [v('I_t', 'Trickle current', trickleA, 'A'), v('C', 'Capacity', capacityAh, 'Ah')],
-        result: v('c_t', 'Trickle C-rate', trickleC, 'C'), references: [chemistry.continuousChargeRangeC.ref],
+        result: v('c_t', 'Trickle C-rate', trickleC, 'C'),
+        references: [chemistry.continuousChargeRangeC.ref],
       },
     )
     if (floatVoltageCheck && chemistry.float) {
       working.push({
-        id: 'floatVoltageCheck', label: 'Temperature-compensated float voltage', formula: 'V_f = V_25 + α · (T − 25 °C)',
+        id: 'floatVoltageCheck',
+        label: 'Temperature-compensated float voltage',
+        formula: 'V_f = V_25 + α · (T − 25 °C)',
         explanation: `Float set point per cell at the ambient; compensation stops outside ${chemistry.float.compensationLimitsC?.min ?? -40}–${chemistry.float.compensationLimitsC?.max ?? 85} °C.`,
-        inputs: [v('V_25', 'Float at 25 °C', chemistry.float.cellVoltageAt25C.value, 'V'), v('α', 'Coefficient', chemistry.float.coefficientVPerC.value, 'V/°C'), v('T', 'Ambient', input.ambient, '°C')],
+        inputs: [
+          v('V_25', 'Float at 25 °C', chemistry.float.cellVoltageAt25C.value, 'V'),
+          v('α', 'Coefficient', chemistry.float.coefficientVPerC.value, 'V/°C'),
+          v('T', 'Ambient', input.ambient, '°C'),
+        ],
         result: v('V_f', 'Float per cell', floatVoltageCheck.expectedCellVoltageV, 'V'),
         references: [chemistry.float.cellVoltageAt25C.ref, chemistry.float.coefficientVPerC.ref],
       })

@@ -205,7 +205,8 @@ export function compareChemistries(input: CompareInput, options: CompareOptions 
       code: 'cadmium-restricted',
       severity: 'warning',
       field: 'chemistries',
-      message: 'NiCd: EU Regulation 2023/1542 limits portable batteries to 0.002 % Cd; whether emergency-lighting packs are portable or industrial is unsettled, so check the classification.',
+      message:
+        'NiCd: EU Regulation 2023/1542 limits portable batteries to 0.002 % Cd; whether emergency-lighting packs are portable or industrial is unsettled, so check the classification.',
     })
   }
   warnings.push({
@@ -218,8 +219,7 @@ export function compareChemistries(input: CompareInput, options: CompareOptions 
     id: `score.${row.chemistry}`,
     label: `Score: ${row.name}`,
     formula: 'S = (w_L·s_L + w_T·s_T + w_S·s_S + w_R·s_R) / Σw  (× 0.5 with a critical warning; × 0.5 when it cannot be charged at the lowest ambient)',
-    explanation:
-      `s_L = life / longest life; s_T = tolerance of permanent charge; s_S = smallest mid-range volume / this volume; s_R = 1 − restriction burden.${chargesBelowRange(CHEMISTRIES[row.chemistry], input.ambientMin) ? ` Halved: ${row.name} is charged from ${CHEMISTRIES[row.chemistry].chargeTemperatureC.value.min} °C and the site goes down to ${input.ambientMin} °C.` : ''}`,
+    explanation: `s_L = life / longest life; s_T = tolerance of permanent charge; s_S = smallest mid-range volume / this volume; s_R = 1 − restriction burden.${chargesBelowRange(CHEMISTRIES[row.chemistry], input.ambientMin) ? ` Halved: ${row.name} is charged from ${CHEMISTRIES[row.chemistry].chargeTemperatureC.value.min} °C and the site goes down to ${input.ambientMin} °C.` : ''}`,
     inputs: [
       { symbol: 's_L', label: 'Life score', value: row.scores.life, unit: '' },
       { symbol: 's_T', label: 'Permanent-charge score', value: row.scores.trickle, unit: '' },
@@ -258,9 +258,9 @@ function verdictFor(row: CompareRow, input: CompareInput, w: Weights): string {
     ? `but ${CRITICAL_WORDS[critical.code] ?? 'a critical check fails (see its warnings)'}`
     : cold
       ? `but it cannot be charged at ${input.ambientMin} °C, so it is not full when needed`
-    : best === worst
-      ? `even on every criterion`
-      : `strongest on ${CRITERION_WORDS[best]}, weakest on ${CRITERION_WORDS[worst]}`
+      : best === worst
+        ? `even on every criterion`
+        : `strongest on ${CRITERION_WORDS[best]}, weakest on ${CRITERION_WORDS[worst]}`
   return `Rank ${row.rank}: ${pack}, ${life}; ${trail}.`
 }
 

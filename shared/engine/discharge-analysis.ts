@@ -39,7 +39,8 @@ function checkInput(samples: DischargeArrays, options: DischargeOptions): FieldE
   if (n === 0) fields.push({ path: 'samples', message: 'needs at least two samples; the log is empty' })
   if (v.length !== n) fields.push({ path: 'samples.v', message: `has ${v.length} values but samples.t has ${n}` })
   if (i && i.length !== n) fields.push({ path: 'samples.i', message: `has ${i.length} values but samples.t has ${n}` })
-  if (!(Number.isInteger(options.cellsInSeries) && options.cellsInSeries >= 1)) fields.push({ path: 'cellsInSeries', message: 'must be a whole number of at least 1' })
+  if (!(Number.isInteger(options.cellsInSeries) && options.cellsInSeries >= 1))
+    fields.push({ path: 'cellsInSeries', message: 'must be a whole number of at least 1' })
   if (!(options.ratedDuration > 0 && Number.isFinite(options.ratedDuration))) fields.push({ path: 'ratedDuration', message: 'must be greater than zero' })
   if (fields.length) return fields
   for (let k = 0; k < n; k++) {
@@ -134,7 +135,8 @@ export function analyseDischarge(samples: DischargeArrays, options: DischargeOpt
   // One rule for the end voltage: the given one, else the makers' final voltage at the test's rate where
   // they tabulate it and the rate is known, else the chemistry's default (the highest, most demanding).
   const tabulated = chemistry.cutoffByDischargeRate !== undefined
-  const cutoffPerCell = options.cutoffPerCell ?? (tabulated && dischargeRateC !== null ? cutoffCellVoltageAtRate(chemistry, dischargeRateC) : chemistry.cutoffCellVoltage.value)
+  const cutoffPerCell =
+    options.cutoffPerCell ?? (tabulated && dischargeRateC !== null ? cutoffCellVoltageAtRate(chemistry, dischargeRateC) : chemistry.cutoffCellVoltage.value)
   const cutoffV = cells * cutoffPerCell
   const safeLimitPerCell = deepDischargeLimitCellV(chemistry, dischargeRateC)
 
@@ -163,7 +165,15 @@ export function analyseDischarge(samples: DischargeArrays, options: DischargeOpt
   const endTime = cutoffTime ?? dropoutTime ?? t[m - 1]
   const runtimeEnd: RuntimeEnd = cutoffTime !== null ? 'cutoff' : dropoutTime !== null ? 'dropout' : 'end-of-log'
   const endRule: EndRule =
-    cutoff.rule === 'held' ? 'cutoff-held' : cutoff.rule === 'then-dropout' ? 'cutoff-then-dropout' : dropoutTime !== null ? (useCurrent ? 'current-dropout' : 'voltage-recovery') : 'end-of-log'
+    cutoff.rule === 'held'
+      ? 'cutoff-held'
+      : cutoff.rule === 'then-dropout'
+        ? 'cutoff-then-dropout'
+        : dropoutTime !== null
+          ? useCurrent
+            ? 'current-dropout'
+            : 'voltage-recovery'
+          : 'end-of-log'
 
   // Integrate to the end point (trapezoids, the last one cut at the end time).
   // Compensated (Kahan) sums: a million small trapezoids would otherwise lose digits.
@@ -175,7 +185,8 @@ export function analyseDischarge(samples: DischargeArrays, options: DischargeOpt
   const resistance = options.assumedResistance
   // An assumed constant power draws P/v; a collapsed (≤ 0 V) sample contributes nothing rather than infinity.
   const fromPower = (volts: number) => (power !== undefined && volts > 0 ? power / volts : 0)
-  const currentAt = (k: number): number => (useCurrent && cur ? cur[k] : power !== undefined ? fromPower(v[k]) : resistance !== undefined ? v[k] / resistance : 0)
+  const currentAt = (k: number): number =>
+    useCurrent && cur ? cur[k] : power !== undefined ? fromPower(v[k]) : resistance !== undefined ? v[k] / resistance : 0
   const canIntegrate = useCurrent || power !== undefined || resistance !== undefined
   if (canIntegrate) {
     for (let k = 1; k < m && t[k - 1] < endTime; k++) {

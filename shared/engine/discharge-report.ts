@@ -70,10 +70,13 @@ const RULE_WORDS: Record<EndRule, string> = {
 
 function verdictReason(f: ReportFacts, ratedH: number): string {
   const run = `${f.runtimeH.toFixed(2)} h`
-  if (f.pass === true) return `Passed: the luminaire ran ${run}, at least its rated ${ratedH.toFixed(2)} h, and the ${f.loadEvidence === 'current' ? 'logged current' : 'falling voltage'} shows the load was on throughout.`
-  if (f.pass === false) return `Failed: the runtime ended after ${run} (${RULE_WORDS[f.endRule].replace(/^Ends /, 'it ended ')}) short of the rated ${ratedH.toFixed(2)} h.`
+  if (f.pass === true)
+    return `Passed: the luminaire ran ${run}, at least its rated ${ratedH.toFixed(2)} h, and the ${f.loadEvidence === 'current' ? 'logged current' : 'falling voltage'} shows the load was on throughout.`
+  if (f.pass === false)
+    return `Failed: the runtime ended after ${run} (${RULE_WORDS[f.endRule].replace(/^Ends /, 'it ended ')}) short of the rated ${ratedH.toFixed(2)} h.`
   if (f.logEndedEarly) return 'Not decided: the log ends before the rated duration and before the cut-off.'
-  if (f.interruptedBeforeRated) return `Not decided: the load went off and came back at about ${(f.interruptionH ?? 0).toFixed(2)} h, before the rated duration; the luminaire may have gone dark. Retest.`
+  if (f.interruptedBeforeRated)
+    return `Not decided: the load went off and came back at about ${(f.interruptionH ?? 0).toFixed(2)} h, before the rated duration; the luminaire may have gone dark. Retest.`
   if (f.currentNeverOn) return 'Not decided: the logged current is zero throughout, so the log does not show the luminaire drawing any current.'
   if (f.tooNoisy) return 'Not decided: without a current log the voltage is too noisy to show whether the load stayed on.'
   return 'Not decided: no current was logged and the voltage barely fell, so the log cannot show that the load was on for the rated duration.'
@@ -91,7 +94,11 @@ export function dischargeReport(f: ReportFacts): { warnings: EngineWarning[]; wo
     })
   }
   if (f.logEndedEarly) {
-    warnings.push({ code: 'log-ended-early', severity: 'warning', message: 'The log ends before the rated duration and before the cut-off, so the test neither passed nor failed.' })
+    warnings.push({
+      code: 'log-ended-early',
+      severity: 'warning',
+      message: 'The log ends before the rated duration and before the cut-off, so the test neither passed nor failed.',
+    })
   }
   if (f.interruptedBeforeRated) {
     warnings.push({
@@ -101,7 +108,13 @@ export function dischargeReport(f: ReportFacts): { warnings: EngineWarning[]; wo
     })
   }
   if (f.currentNeverOn) {
-    warnings.push({ code: 'current-never-on', severity: 'warning', field: 'samples', message: 'The current column is zero throughout: check the current clamp or shunt; the log does not show the luminaire drawing current, so it is not passed.' })
+    warnings.push({
+      code: 'current-never-on',
+      severity: 'warning',
+      field: 'samples',
+      message:
+        'The current column is zero throughout: check the current clamp or shunt; the log does not show the luminaire drawing current, so it is not passed.',
+    })
   }
   if (!f.useCurrent && f.loadEvidence === 'none' && !f.logEndedEarly && f.pass === null && !f.interruptedBeforeRated) {
     warnings.push({
@@ -120,7 +133,11 @@ export function dischargeReport(f: ReportFacts): { warnings: EngineWarning[]; wo
     })
   }
   if (f.runtimeEnd === 'end-of-log' && !f.logEndedEarly) {
-    warnings.push({ code: 'cutoff-not-reached', severity: 'info', message: 'The pack never fell through the cut-off and the load never dropped out; the runtime is to the end of the log.' })
+    warnings.push({
+      code: 'cutoff-not-reached',
+      severity: 'info',
+      message: 'The pack never fell through the cut-off and the load never dropped out; the runtime is to the end of the log.',
+    })
   }
   if (f.runtimeEnd === 'dropout') {
     warnings.push({
@@ -138,10 +155,20 @@ export function dischargeReport(f: ReportFacts): { warnings: EngineWarning[]; wo
     })
   }
   if (f.currentSignFlipped) {
-    warnings.push({ code: 'current-sign-flipped', severity: 'info', field: 'samples', message: 'Most current readings were negative, so the log was read with discharge negative and turned round.' })
+    warnings.push({
+      code: 'current-sign-flipped',
+      severity: 'info',
+      field: 'samples',
+      message: 'Most current readings were negative, so the log was read with discharge negative and turned round.',
+    })
   }
   if (f.runtimeEnd === 'cutoff' && f.runtimeH === 0 && f.firstV < f.cutoffV) {
-    warnings.push({ code: 'starts-below-cutoff', severity: 'critical', field: 'samples', message: 'The first sample is already below the cut-off: check the cell count and the cut-off, or the battery is flat.' })
+    warnings.push({
+      code: 'starts-below-cutoff',
+      severity: 'critical',
+      field: 'samples',
+      message: 'The first sample is already below the cut-off: check the cell count and the cut-off, or the battery is flat.',
+    })
   }
   if (f.cutoffPerCell < f.safeLimitPerCell - 1e-9) {
     warnings.push({
@@ -157,10 +184,19 @@ export function dischargeReport(f: ReportFacts): { warnings: EngineWarning[]; wo
         ? ' (the makers’ value at low rates: the rate is unknown without logged current and a rated capacity)'
         : ` (the makers’ final voltage at ${f.dischargeRateC.toPrecision(2)} C)`
       : ''
-    warnings.push({ code: 'default-cutoff', severity: 'info', field: 'cutoffPerCell', message: `Cut-off taken as ${f.cutoffPerCell} V per cell, the usual end-of-discharge voltage for ${chemistry.name}${rateWords}.` })
+    warnings.push({
+      code: 'default-cutoff',
+      severity: 'info',
+      field: 'cutoffPerCell',
+      message: `Cut-off taken as ${f.cutoffPerCell} V per cell, the usual end-of-discharge voltage for ${chemistry.name}${rateWords}.`,
+    })
   }
   if (!f.canIntegrate) {
-    warnings.push({ code: 'no-current', severity: 'info', message: 'No current was logged and no assumed power or resistance was given, so the delivered charge and energy are not known.' })
+    warnings.push({
+      code: 'no-current',
+      severity: 'info',
+      message: 'No current was logged and no assumed power or resistance was given, so the delivered charge and energy are not known.',
+    })
   } else if (f.estimated) {
     warnings.push({
       code: 'estimated-delivery',
@@ -168,8 +204,15 @@ export function dischargeReport(f: ReportFacts): { warnings: EngineWarning[]; wo
       message: `Delivered Ah and Wh are estimates from an assumed constant ${options.assumedPower !== undefined ? 'power' : 'resistance'}, not measured current.`,
     })
   }
-  if (f.useCurrent && options.assumedPower !== undefined) warnings.push({ code: 'assumption-unused', severity: 'info', field: 'assumedPower', message: 'Current was logged, so the assumed power was not used.' })
-  if (f.useCurrent && options.assumedResistance !== undefined) warnings.push({ code: 'assumption-unused', severity: 'info', field: 'assumedResistance', message: 'Current was logged, so the assumed resistance was not used.' })
+  if (f.useCurrent && options.assumedPower !== undefined)
+    warnings.push({ code: 'assumption-unused', severity: 'info', field: 'assumedPower', message: 'Current was logged, so the assumed power was not used.' })
+  if (f.useCurrent && options.assumedResistance !== undefined)
+    warnings.push({
+      code: 'assumption-unused',
+      severity: 'info',
+      field: 'assumedResistance',
+      message: 'Current was logged, so the assumed resistance was not used.',
+    })
   if (f.issues.duplicates.count + f.issues.outOfOrder.count > 0) {
     warnings.push({
       code: 'samples-excluded',
@@ -191,13 +234,15 @@ export function dischargeReport(f: ReportFacts): { warnings: EngineWarning[]; wo
       code: 'rate-dependent-capacity',
       severity: 'info',
       field: 'ratedCapacity',
-      message: 'State of health compares the charge delivered at this test’s rate with the rated capacity at its own rate; at a faster rate a healthy pack delivers less.',
+      message:
+        'State of health compares the charge delivered at this test’s rate with the rated capacity at its own rate; at a faster rate a healthy pack delivers less.',
     })
   }
   warnings.push({
     code: 'competent-person',
     severity: 'info',
-    message: 'Let the pack recharge fully (usually 24 h) before relying on the luminaires again. Packs hold hazardous materials: recycle them through an authorised scheme, never in general waste. Local codes and a competent, licensed person decide.',
+    message:
+      'Let the pack recharge fully (usually 24 h) before relying on the luminaires again. Packs hold hazardous materials: recycle them through an authorised scheme, never in general waste. Local codes and a competent, licensed person decide.',
   })
 
   const cutoffRef: Reference =
@@ -231,12 +276,19 @@ export function dischargeReport(f: ReportFacts): { warnings: EngineWarning[]; wo
     {
       id: 'loadEvidence',
       label: 'Was the load on throughout?',
-      formula: f.useCurrent ? 'i ≥ 50 % of typical, never below 2 % before t_run' : 'V(start) − V(t_rated) ≥ 1 % of nominal; no step up that stays up; noise · 4 ≤ 25 mV per cell',
+      formula: f.useCurrent
+        ? 'i ≥ 50 % of typical, never below 2 % before t_run'
+        : 'V(start) − V(t_rated) ≥ 1 % of nominal; no step up that stays up; noise · 4 ≤ 25 mV per cell',
       explanation: f.useCurrent
         ? 'The logged current shows whether the luminaire drew current; a fall to zero that comes back is an interruption and is not passed.'
         : `No current was logged, so only the voltage can show the load: a discharging pack falls; one that rises by ${(f.riseV * 1000).toPrecision(3)} mV or more and stays up has lost its load. Rises that fall back within the first ${SETTLE_S / 60} min are the pack settling.`,
       inputs: [{ symbol: 'σ', label: 'voltage noise', value: f.noiseV, unit: 'V' }],
-      result: { symbol: 'on', label: f.loadEvidence === 'none' ? 'not shown' : f.loadEvidence === 'current' ? 'shown by the current' : 'shown by the falling voltage', value: f.loadEvidence === 'none' ? 0 : 1, unit: '' },
+      result: {
+        symbol: 'on',
+        label: f.loadEvidence === 'none' ? 'not shown' : f.loadEvidence === 'current' ? 'shown by the current' : 'shown by the falling voltage',
+        value: f.loadEvidence === 'none' ? 0 : 1,
+        unit: '',
+      },
       references: [f.useCurrent ? CURRENT_RULE : RECOVERY_RULE],
     },
     {
@@ -261,7 +313,11 @@ export function dischargeReport(f: ReportFacts): { warnings: EngineWarning[]; wo
         formula: f.estimated ? (power !== undefined ? 'Q = Σ ½(P/v_k + P/v_k+1)·Δt' : 'Q = Σ ½(v_k + v_k+1)/R·Δt') : 'Q = Σ ½(i_k + i_k+1)·Δt',
         explanation: 'Trapezoids between samples, up to the end of the runtime.',
         inputs: f.estimated
-          ? [power !== undefined ? { symbol: 'P', label: 'assumed power', value: power, unit: 'W' } : { symbol: 'R', label: 'assumed resistance', value: options.assumedResistance ?? 0, unit: 'Ω' }]
+          ? [
+              power !== undefined
+                ? { symbol: 'P', label: 'assumed power', value: power, unit: 'W' }
+                : { symbol: 'R', label: 'assumed resistance', value: options.assumedResistance ?? 0, unit: 'Ω' },
+            ]
           : [],
         result: { symbol: 'Q', label: 'delivered', value: f.deliveredAh, unit: 'Ah' },
         references: [TRAPEZOID],

@@ -32,7 +32,10 @@ export const dischargeInput = z
     cutoffPerCell: quantity('voltage', { positive: true, max: 5 }).optional(),
     ratedDuration: quantity('time', { positive: true, max: 7 * 24 * 3600, display: { unit: 'h', factor: 1 / 3600 } }),
     ratedCapacity: quantity('charge', { positive: true }).optional(),
-    thresholdsPerCell: z.array(quantity('voltage', { positive: true, max: 5 })).max(20, 'at most 20 thresholds').optional(),
+    thresholdsPerCell: z
+      .array(quantity('voltage', { positive: true, max: 5 }))
+      .max(20, 'at most 20 thresholds')
+      .optional(),
     assumedPower: quantity('power', { positive: true }).optional(),
     assumedResistance: quantity('resistance', { positive: true }).optional(),
   })

@@ -27,7 +27,18 @@ import type { Reference } from './types'
 import { addDays, addInterval, addMonthsClamped, daysBetween, parseIsoDate, type IsoDate, type TestInterval } from './calendar'
 
 // The calendar arithmetic lives in ./calendar; these names stay importable from here.
-export { addDays, addInterval, addMonthsClamped, daysBetween, daysInMonth, isIsoDate, isLeapYear, parseIsoDate, type IsoDate, type TestInterval } from './calendar'
+export {
+  addDays,
+  addInterval,
+  addMonthsClamped,
+  daysBetween,
+  daysInMonth,
+  isIsoDate,
+  isLeapYear,
+  parseIsoDate,
+  type IsoDate,
+  type TestInterval,
+} from './calendar'
 
 export type TestRegime = RegimeId
 export type TestKind = RoutineTestKind
@@ -58,7 +69,10 @@ function rulesOf(p: RegimeProfile): RegimeRules {
   }
 }
 
-export const REGIMES: Readonly<Record<TestRegime, RegimeRules>> = Object.fromEntries(REGIME_IDS.map((id) => [id, rulesOf(REGIME_PROFILES[id])])) as Record<TestRegime, RegimeRules>
+export const REGIMES: Readonly<Record<TestRegime, RegimeRules>> = Object.fromEntries(REGIME_IDS.map((id) => [id, rulesOf(REGIME_PROFILES[id])])) as Record<
+  TestRegime,
+  RegimeRules
+>
 
 const laterOf = (a: IsoDate, b: IsoDate) => (a >= b ? a : b)
 const earlierOf = (a: IsoDate, b: IsoDate) => (a <= b ? a : b)
@@ -148,7 +162,15 @@ export interface DueOptions {
   repairWindowDays?: number
 }
 
-function routineItem(kind: TestKind, last: IsoDate | null, since: IsoDate, interval: TestInterval, window: TestWindow | null, today: IsoDate, soonDays: number): DueItem {
+function routineItem(
+  kind: TestKind,
+  last: IsoDate | null,
+  since: IsoDate,
+  interval: TestInterval,
+  window: TestWindow | null,
+  today: IsoDate,
+  soonDays: number,
+): DueItem {
   const from = last ?? since
   const nextDueOn = addInterval(from, interval)
   // A stated tolerance (NFPA's 3 to 5 weeks) moves the overdue day; without one the test is overdue the day after it falls due.
@@ -176,7 +198,10 @@ function urgentItem(kind: TestKind, last: IsoDate | null, dueOn: IsoDate, overdu
 
 /** Tests in the order they happened; tests on the same day keep the order they were given in. */
 function chronological(tests: readonly TestEvent[]): TestEvent[] {
-  return tests.map((t, i) => ({ t, i })).sort((a, b) => (a.t.testedOn < b.t.testedOn ? -1 : a.t.testedOn > b.t.testedOn ? 1 : a.i - b.i)).map(({ t }) => t)
+  return tests
+    .map((t, i) => ({ t, i }))
+    .sort((a, b) => (a.t.testedOn < b.t.testedOn ? -1 : a.t.testedOn > b.t.testedOn ? 1 : a.i - b.i))
+    .map(({ t }) => t)
 }
 
 /**
@@ -293,7 +318,8 @@ export function dueWithin<T extends { due: LuminaireDue }>(items: readonly T[], 
 /** What needs attention now: tests due now or overdue, worst first (overdue before due now, then oldest). */
 export function needingAttention<T extends { due: LuminaireDue }>(items: readonly T[]): Array<{ item: T; test: DueItem }> {
   const out: Array<{ item: T; test: DueItem }> = []
-  for (const item of items) for (const test of [item.due.duration, item.due.functional]) if (test.state === 'overdue' || test.state === 'due-now') out.push({ item, test })
+  for (const item of items)
+    for (const test of [item.due.duration, item.due.functional]) if (test.state === 'overdue' || test.state === 'due-now') out.push({ item, test })
   const rank = (t: DueItem) => (t.state === 'overdue' ? 0 : 1)
   return out.sort((a, b) => rank(a.test) - rank(b.test) || a.test.daysUntilDue - b.test.daysUntilDue)
 }

@@ -93,7 +93,13 @@ function storedPlanes(symmetry: number, mc: number): [number, number] {
   return [0, mc]
 }
 
-const SYMMETRY_NAMES = ['no symmetry', 'symmetry about the vertical axis', 'symmetry about the C0–C180 plane', 'symmetry about the C90–C270 plane', 'symmetry about both planes']
+const SYMMETRY_NAMES = [
+  'no symmetry',
+  'symmetry about the vertical axis',
+  'symmetry about the C0–C180 plane',
+  'symmetry about the C90–C270 plane',
+  'symmetry about both planes',
+]
 
 function angles(reader: LineReader, count: number, what: string, step: number): number[] {
   const out: number[] = []
@@ -124,8 +130,10 @@ function parseOrThrow(text: string): EulumdatFile {
   const dc = r.number('distance between C-planes (Dc)')
   const ng = r.whole('number of luminous intensities per C-plane (Ng)', 1, 361)
   const dg = r.number('distance between luminous intensities (Dg)')
-  if ((symmetry === 2 || symmetry === 3) && mc % 2 !== 0) throw new LdtError(mcLine, `with ${SYMMETRY_NAMES[symmetry]} the number of C-planes must be even, found ${mc}`)
-  if ((symmetry === 3 || symmetry === 4) && mc % 4 !== 0) throw new LdtError(mcLine, `with ${SYMMETRY_NAMES[symmetry]} the number of C-planes must be a multiple of 4, found ${mc}`)
+  if ((symmetry === 2 || symmetry === 3) && mc % 2 !== 0)
+    throw new LdtError(mcLine, `with ${SYMMETRY_NAMES[symmetry]} the number of C-planes must be even, found ${mc}`)
+  if ((symmetry === 3 || symmetry === 4) && mc % 4 !== 0)
+    throw new LdtError(mcLine, `with ${SYMMETRY_NAMES[symmetry]} the number of C-planes must be a multiple of 4, found ${mc}`)
   const report = r.text('measurement report number')
   const name = r.text('luminaire name')
   const number = r.text('luminaire number')
@@ -134,7 +142,15 @@ function parseOrThrow(text: string): EulumdatFile {
   const length = r.number('length or diameter of the luminaire (mm)')
   const width = r.number('width of the luminaire (mm)')
   const height = r.number('height of the luminaire (mm)')
-  for (const what of ['length or diameter of the luminous area', 'width of the luminous area', 'height of the luminous area in C0', 'in C90', 'in C180', 'in C270']) r.number(`${what} (mm)`)
+  for (const what of [
+    'length or diameter of the luminous area',
+    'width of the luminous area',
+    'height of the luminous area in C0',
+    'in C90',
+    'in C180',
+    'in C270',
+  ])
+    r.number(`${what} (mm)`)
   const downwardFluxFraction = r.number('downward flux fraction (%)')
   const lightOutputRatio = r.number('light output ratio of the luminaire (%)')
   const conversionLine = r.line
@@ -148,7 +164,8 @@ function parseOrThrow(text: string): EulumdatFile {
   for (let s = 1; s <= setCount; s++) {
     const lampsLine = r.line
     const lamps = r.number(`number of lamps in lamp set ${s}`)
-    if (!Number.isInteger(lamps) || lamps === 0) throw new LdtError(lampsLine, `number of lamps in lamp set ${s} must be a whole number other than 0 (negative for absolute photometry), found ${lamps}`)
+    if (!Number.isInteger(lamps) || lamps === 0)
+      throw new LdtError(lampsLine, `number of lamps in lamp set ${s} must be a whole number other than 0 (negative for absolute photometry), found ${lamps}`)
     if (lamps < 0 && s === 1) absolute = true
     const type = r.text(`type of lamps in lamp set ${s}`)
     const fluxLine = r.line
@@ -162,7 +179,8 @@ function parseOrThrow(text: string): EulumdatFile {
   for (let k = 1; k <= 10; k++) r.number(`direct ratio ${k} of 10`)
   const cLine = r.line
   const cAngles = angles(r, mc, 'C angle', dc)
-  if (cAngles[0] !== 0 || cAngles[mc - 1] >= 360) throw new LdtError(cLine, `C angles must start at 0 and stay below 360; these run ${cAngles[0]}–${cAngles[mc - 1]}`)
+  if (cAngles[0] !== 0 || cAngles[mc - 1] >= 360)
+    throw new LdtError(cLine, `C angles must start at 0 and stay below 360; these run ${cAngles[0]}–${cAngles[mc - 1]}`)
   const gLine = r.line
   const gAngles = angles(r, ng, 'γ angle', dg)
   const gFirst = gAngles[0]
@@ -174,7 +192,10 @@ function parseOrThrow(text: string): EulumdatFile {
   const horizontalAngles = symmetry === 1 ? [0] : cAngles.slice(firstPlane, firstPlane + planeCount)
   const expectedLast = [null, 0, 180, 270, 90][symmetry]
   if (expectedLast !== null && horizontalAngles[horizontalAngles.length - 1] !== expectedLast) {
-    throw new LdtError(symLine, `${SYMMETRY_NAMES[symmetry]} stores the planes up to C${expectedLast}, but the C angles put C${horizontalAngles[horizontalAngles.length - 1]} there`)
+    throw new LdtError(
+      symLine,
+      `${SYMMETRY_NAMES[symmetry]} stores the planes up to C${expectedLast}, but the C angles put C${horizontalAngles[horizontalAngles.length - 1]} there`,
+    )
   }
   // Relative photometry: cd/klm of the lamps' flux; absolute: cd/klm of the luminaire's flux.
   const scale = (lampSets[0].fluxLm / 1000) * conversion
@@ -183,14 +204,20 @@ function parseOrThrow(text: string): EulumdatFile {
     const row: number[] = []
     for (let g = 0; g < ng; g++) {
       const line = r.line
-      const v = r.number(`intensity ${g + 1} of ${ng} in plane C${horizontalAngles[p]} (${planeCount} plane${planeCount === 1 ? "" : "s"} stored for ${SYMMETRY_NAMES[symmetry]})`)
+      const v = r.number(
+        `intensity ${g + 1} of ${ng} in plane C${horizontalAngles[p]} (${planeCount} plane${planeCount === 1 ? '' : 's'} stored for ${SYMMETRY_NAMES[symmetry]})`,
+      )
       if (v < 0) throw new LdtError(line, `intensities cannot be negative, found ${v}`)
       row.push(v * scale)
     }
     candela.push(row)
   }
   const extra = r.rest.findIndex((l) => l.trim() !== '')
-  if (extra >= 0) throw new LdtError(r.line + extra, `values left after the intensity table: Mc ${mc}, Ng ${ng} and ${SYMMETRY_NAMES[symmetry]} give ${planeCount * ng} intensities`)
+  if (extra >= 0)
+    throw new LdtError(
+      r.line + extra,
+      `values left after the intensity table: Mc ${mc}, Ng ${ng} and ${SYMMETRY_NAMES[symmetry]} give ${planeCount * ng} intensities`,
+    )
   const notes: string[] = []
   if (gFirst === 0 && candela.some((row) => Math.abs(row[0] - candela[0][0]) > 1e-6 * (1 + candela[0][0]))) {
     notes.push('The intensity straight down (γ = 0°) differs between C-planes, although every plane meets there; the values are used as stored.')

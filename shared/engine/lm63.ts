@@ -239,19 +239,14 @@ function parseOrThrow(text: string): Photometry {
   const vFirst = verticalAngles[0]
   const vLast = verticalAngles[verticalCount - 1]
   if (!(vFirst === 0 || vFirst === 90) || !(vLast === 90 || vLast === 180) || vLast < vFirst) {
-    throw new Lm63ParseError(
-      verticalLine,
-      `type C vertical angles must run 0–90, 90–180 or 0–180 degrees; these run ${vFirst}–${vLast}`,
-    )
+    throw new Lm63ParseError(verticalLine, `type C vertical angles must run 0–90, 90–180 or 0–180 degrees; these run ${vFirst}–${vLast}`)
   }
 
   const horizontalLine = reader.line
   const horizontalAngles = ascendingAngles(reader, horizontalCount, 'horizontal angle')
   const hFirst = horizontalAngles[0]
   const hLast = horizontalAngles[horizontalCount - 1]
-  const validRange =
-    (hFirst === 0 && (hLast === 0 || hLast === 90 || hLast === 180 || (hLast > 180 && hLast <= 360))) ||
-    (hFirst === 90 && hLast === 270)
+  const validRange = (hFirst === 0 && (hLast === 0 || hLast === 90 || hLast === 180 || (hLast > 180 && hLast <= 360))) || (hFirst === 90 && hLast === 270)
   if (!validRange) {
     throw new Lm63ParseError(
       horizontalLine,
@@ -389,7 +384,10 @@ export function intensityAt(table: IntensityTable, cDeg: number, gammaDeg: numbe
  */
 export function checkIntensityTable(table: IntensityTable): { path: Array<string | number>; message: string } | null {
   const { verticalAngles: va, horizontalAngles: ha, candela } = table
-  for (const [name, angles] of [['verticalAngles', va], ['horizontalAngles', ha]] as const) {
+  for (const [name, angles] of [
+    ['verticalAngles', va],
+    ['horizontalAngles', ha],
+  ] as const) {
     for (let k = 1; k < angles.length; k++) {
       if (!(angles[k] > angles[k - 1])) return { path: [name, k], message: `angles must be in ascending order: ${angles[k]} follows ${angles[k - 1]}` }
     }
@@ -401,8 +399,7 @@ export function checkIntensityTable(table: IntensityTable): { path: Array<string
   }
   const hFirst = ha[0]
   const hLast = ha[ha.length - 1]
-  const validRange =
-    (hFirst === 0 && (hLast === 0 || hLast === 90 || hLast === 180 || (hLast > 180 && hLast <= 360))) || (hFirst === 90 && hLast === 270)
+  const validRange = (hFirst === 0 && (hLast === 0 || hLast === 90 || hLast === 180 || (hLast > 180 && hLast <= 360))) || (hFirst === 90 && hLast === 270)
   if (!validRange) {
     return { path: ['horizontalAngles'], message: `must start at 0 and end at 0, 90, 180 or above 180 up to 360 (or run 90–270); these run ${hFirst}–${hLast}` }
   }

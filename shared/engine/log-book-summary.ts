@@ -77,7 +77,10 @@ export const NEXT_DUE_DATES = 6
 
 /** Tests in the order they happened; same-day tests keep the order given (as `openFailuresOf` orders them). */
 function chronological(tests: readonly TestEvent[]): TestEvent[] {
-  return tests.map((t, i) => ({ t, i })).sort((a, b) => (a.t.testedOn < b.t.testedOn ? -1 : a.t.testedOn > b.t.testedOn ? 1 : a.i - b.i)).map(({ t }) => t)
+  return tests
+    .map((t, i) => ({ t, i }))
+    .sort((a, b) => (a.t.testedOn < b.t.testedOn ? -1 : a.t.testedOn > b.t.testedOn ? 1 : a.i - b.i))
+    .map(({ t }) => t)
 }
 
 /**
@@ -134,7 +137,9 @@ export function logBookSummary(luminaires: readonly SummaryLuminaire[], today: I
     }
   }
   failures.sort((a, b) => (a.testedOn < b.testedOn ? 1 : a.testedOn > b.testedOn ? -1 : a.tag.localeCompare(b.tag, undefined, { numeric: true })))
-  const ordered = [...dates.entries()].sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0)).map(([, g]) => ({ ...g, tags: g.tags.sort((x, y) => x.localeCompare(y, undefined, { numeric: true })) }))
+  const ordered = [...dates.entries()]
+    .sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0))
+    .map(([, g]) => ({ ...g, tags: g.tags.sort((x, y) => x.localeCompare(y, undefined, { numeric: true })) }))
   return {
     today,
     soonDays: DEFAULT_SOON_DAYS,

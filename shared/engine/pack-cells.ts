@@ -38,7 +38,10 @@ export function cellsForVoltage(chemistry: Chemistry, volts: number): VoltageCel
 export const sameNominalVoltage = (a: number, b: number) => Math.abs(a - b) <= SAME_VOLTAGE_TOLERANCE * Math.max(a, b)
 
 const GIVEN_CELLS_REF = REF.commonPractice('Cells in series as given by the user')
-const VOLTAGE_CELLS_REF = REF.commonPractice('A replacement pack keeps the nominal voltage the luminaire is marked for', 'IEC 60598-2-22 marking: battery type, nominal voltage and capacity (from memory).')
+const VOLTAGE_CELLS_REF = REF.commonPractice(
+  'A replacement pack keeps the nominal voltage the luminaire is marked for',
+  'IEC 60598-2-22 marking: battery type, nominal voltage and capacity (from memory).',
+)
 const DIRECT_CELLS_REF = REF.commonPractice('Direct drive: pack voltage at cut-off must reach the LED forward voltage plus the current limiter’s headroom')
 /** Volts a direct-drive current limiter (series resistor or linear regulator) needs above the LED string to hold its current. */
 export const DIRECT_DRIVE_HEADROOM_V = 0.3
@@ -107,6 +110,9 @@ export function describeCellChoice(
         reference: chemistry.defaultCellsInSeries.ref,
       }
     default:
-      return { explanation: `No converter input window given: the usual ${preferred}-cell pack for ${chemistry.name}.`, reference: chemistry.defaultCellsInSeries.ref }
+      return {
+        explanation: `No converter input window given: the usual ${preferred}-cell pack for ${chemistry.name}.`,
+        reference: chemistry.defaultCellsInSeries.ref,
+      }
   }
 }

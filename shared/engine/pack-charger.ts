@@ -39,7 +39,8 @@ export interface ChargerFit {
 }
 
 const fmtC = (c: number) => (c > 0 ? `C/${round(1 / c, 2)}` : '0')
-const worse = (a: ChargerVerdict, b: ChargerVerdict): ChargerVerdict => (a === 'no' || b === 'no' ? 'no' : a === 'conditional' || b === 'conditional' ? 'conditional' : 'yes')
+const worse = (a: ChargerVerdict, b: ChargerVerdict): ChargerVerdict =>
+  a === 'no' || b === 'no' ? 'no' : a === 'conditional' || b === 'conditional' ? 'conditional' : 'yes'
 
 /** Whether a pack may be charged by a charger of a given type and current. */
 export function chargerFit(input: ChargerFitInput): ChargerFit {
@@ -53,23 +54,41 @@ export function chargerFit(input: ChargerFitInput): ChargerFit {
 
   if (chargerType === 'nickel-constant-current') {
     if (family === 'lithium') {
-      return { verdict: 'no', chargeCRate, trickleCRate, reasons: [`Never on a nickel charger: its constant current has no voltage limit and never stops, so ${chemistry.name} cells would be overcharged (fire risk).`] }
+      return {
+        verdict: 'no',
+        chargeCRate,
+        trickleCRate,
+        reasons: [
+          `Never on a nickel charger: its constant current has no voltage limit and never stops, so ${chemistry.name} cells would be overcharged (fire risk).`,
+        ],
+      }
     }
     if (family === 'lead') {
-      return { verdict: 'no', chargeCRate, trickleCRate, reasons: ['A lead-acid block needs a float charger held at a set voltage; a constant current left on overcharges it, dries it out and makes it vent.'] }
+      return {
+        verdict: 'no',
+        chargeCRate,
+        trickleCRate,
+        reasons: ['A lead-acid block needs a float charger held at a set voltage; a constant current left on overcharges it, dries it out and makes it vent.'],
+      }
     }
     const limit = chemistry.continuousChargeRangeC.value
     if (trickleCRate > limit.max * (1 + 1e-9)) {
       if (chemistry.id === 'nimh') {
         verdict = 'no'
-        reasons.push(`NiMH only on a nickel charger whose permanent current stays within its limit: ${fmtC(trickleCRate)} is above about ${fmtC(limit.max)} and heats and ages NiMH.`)
+        reasons.push(
+          `NiMH only on a nickel charger whose permanent current stays within its limit: ${fmtC(trickleCRate)} is above about ${fmtC(limit.max)} and heats and ages NiMH.`,
+        )
       } else {
         verdict = worse(verdict, 'conditional')
-        reasons.push(`The permanent charge of ${fmtC(trickleCRate)} is above the ${fmtC(limit.max)} ${chemistry.name} tolerates: it works but shortens the life; high-temperature cells take up to 0.1 C.`)
+        reasons.push(
+          `The permanent charge of ${fmtC(trickleCRate)} is above the ${fmtC(limit.max)} ${chemistry.name} tolerates: it works but shortens the life; high-temperature cells take up to 0.1 C.`,
+        )
       }
     } else if (trickleCRate < limit.min * (1 - 1e-9)) {
       verdict = worse(verdict, 'conditional')
-      reasons.push(`The permanent charge of ${fmtC(trickleCRate)} is below about ${fmtC(limit.min)}: it may not make up for self-discharge, so the pack may not stay full.`)
+      reasons.push(
+        `The permanent charge of ${fmtC(trickleCRate)} is below about ${fmtC(limit.min)}: it may not make up for self-discharge, so the pack may not stay full.`,
+      )
     } else {
       reasons.push(`Permanent charge ${fmtC(trickleCRate)} is within the ${fmtC(limit.min)}–${fmtC(limit.max)} ${chemistry.name} takes.`)
     }
@@ -83,28 +102,58 @@ export function chargerFit(input: ChargerFitInput): ChargerFit {
   if (chargerType === 'lithium-cc-cv') {
     if (family !== 'lithium') {
       return {
-        verdict: 'no', chargeCRate, trickleCRate,
-        reasons: [family === 'nickel'
-          ? 'A lithium charger ends the charge at a voltage that nickel cells do not reach reliably: the pack is left part-charged or overcharged.'
-          : 'A lithium charger does not hold the float voltage a lead-acid block needs.'],
+        verdict: 'no',
+        chargeCRate,
+        trickleCRate,
+        reasons: [
+          family === 'nickel'
+            ? 'A lithium charger ends the charge at a voltage that nickel cells do not reach reliably: the pack is left part-charged or overcharged.'
+            : 'A lithium charger does not hold the float voltage a lead-acid block needs.',
+        ],
       }
     }
-    if (input.madeFor && madeForThis) return { verdict: 'yes', chargeCRate, trickleCRate, reasons: ['Same chemistry and cell count as the pack the charger was made for.'] }
+    if (input.madeFor && madeForThis)
+      return { verdict: 'yes', chargeCRate, trickleCRate, reasons: ['Same chemistry and cell count as the pack the charger was made for.'] }
     if (input.madeFor && input.madeFor.chemistry !== chemistry.id) {
-      return { verdict: 'no', chargeCRate, trickleCRate, reasons: [`The charger stops at the voltage of the pack it was made for; ${chemistry.name} needs ${chemistry.fullChargeCellVoltage.value} V per cell, so it would be overcharged or left part-charged.`] }
+      return {
+        verdict: 'no',
+        chargeCRate,
+        trickleCRate,
+        reasons: [
+          `The charger stops at the voltage of the pack it was made for; ${chemistry.name} needs ${chemistry.fullChargeCellVoltage.value} V per cell, so it would be overcharged or left part-charged.`,
+        ],
+      }
     }
-    return { verdict: 'conditional', chargeCRate, trickleCRate, reasons: [`Only if the charger stops at ${round(input.cellsInSeries * chemistry.fullChargeCellVoltage.value)} V (${input.cellsInSeries} × ${chemistry.fullChargeCellVoltage.value} V) and does not charge below 0 °C: check its marking.`] }
+    return {
+      verdict: 'conditional',
+      chargeCRate,
+      trickleCRate,
+      reasons: [
+        `Only if the charger stops at ${round(input.cellsInSeries * chemistry.fullChargeCellVoltage.value)} V (${input.cellsInSeries} × ${chemistry.fullChargeCellVoltage.value} V) and does not charge below 0 °C: check its marking.`,
+      ],
+    }
   }
 
   // Lead-acid float charger.
   if (family !== 'lead') {
     return {
-      verdict: 'no', chargeCRate, trickleCRate,
-      reasons: [family === 'nickel'
-        ? 'Nickel cells must not be held at a constant voltage: their voltage falls as they warm on charge, the current rises, and they can run away thermally.'
-        : `A float charger holds its voltage for ever; ${chemistry.name} must stop when full and needs its own end voltage.`],
+      verdict: 'no',
+      chargeCRate,
+      trickleCRate,
+      reasons: [
+        family === 'nickel'
+          ? 'Nickel cells must not be held at a constant voltage: their voltage falls as they warm on charge, the current rises, and they can run away thermally.'
+          : `A float charger holds its voltage for ever; ${chemistry.name} must stop when full and needs its own end voltage.`,
+      ],
     }
   }
   if (input.madeFor && madeForThis) return { verdict: 'yes', chargeCRate, trickleCRate, reasons: ['Same block as the one the float charger was set for.'] }
-  return { verdict: 'conditional', chargeCRate, trickleCRate, reasons: [`Only if the float voltage is set for ${input.cellsInSeries} cells (about ${round(input.cellsInSeries * (chemistry.float?.cellVoltageAt25C.value ?? chemistry.fullChargeCellVoltage.value), 3)} V at 25 °C).`] }
+  return {
+    verdict: 'conditional',
+    chargeCRate,
+    trickleCRate,
+    reasons: [
+      `Only if the float voltage is set for ${input.cellsInSeries} cells (about ${round(input.cellsInSeries * (chemistry.float?.cellVoltageAt25C.value ?? chemistry.fullChargeCellVoltage.value), 3)} V at 25 °C).`,
+    ],
+  }
 }

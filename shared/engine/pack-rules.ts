@@ -51,14 +51,16 @@ export function addChemistryNotes(chemistry: Chemistry, warnings: EngineWarning[
       code: 'cadmium-restricted',
       severity: 'warning',
       field: 'chemistry',
-      message: 'Cadmium: EU Regulation 2023/1542 limits portable batteries to 0.002 % Cd and no longer exempts emergency lighting; whether this pack is portable or industrial is unsettled, so check the classification before specifying NiCd. Recycle, never bin.',
+      message:
+        'Cadmium: EU Regulation 2023/1542 limits portable batteries to 0.002 % Cd and no longer exempts emergency lighting; whether this pack is portable or industrial is unsettled, so check the classification before specifying NiCd. Recycle, never bin.',
     })
   } else if (chemistry.family === 'lithium') {
     warnings.push({
       code: 'lithium-safety',
       severity: 'info',
       field: 'chemistry',
-      message: 'Lithium: transport needs UN 38.3 evidence; cells can overheat and burn if abused or charged below 0 °C; look for IEC 62133-2 or IEC 62619 and a protection board.',
+      message:
+        'Lithium: transport needs UN 38.3 evidence; cells can overheat and burn if abused or charged below 0 °C; look for IEC 62133-2 or IEC 62619 and a protection board.',
     })
   } else if (chemistry.family === 'lead') {
     warnings.push({
@@ -71,6 +73,7 @@ export function addChemistryNotes(chemistry: Chemistry, warnings: EngineWarning[
   warnings.push({
     code: 'competent-person',
     severity: 'info',
-    message: 'Engineering estimate only: isolate the mains before work on a luminaire; local codes, the standards in force and a competent, licensed person decide.',
+    message:
+      'Engineering estimate only: isolate the mains before work on a luminaire; local codes, the standards in force and a competent, licensed person decide.',
   })
 }

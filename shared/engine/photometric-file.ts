@@ -8,8 +8,7 @@ import { parseLm63, type Lm63Error, type Photometry } from './lm63'
 export type PhotometricFormat = 'lm63' | 'eulumdat'
 
 export type PhotometricFileResult =
-  | { ok: true; format: PhotometricFormat; value: Photometry; notes: string[] }
-  | { ok: false; format: PhotometricFormat; error: Lm63Error }
+  { ok: true; format: PhotometricFormat; value: Photometry; notes: string[] } | { ok: false; format: PhotometricFormat; error: Lm63Error }
 
 /** Words for each format, for messages. */
 export const PHOTOMETRIC_FORMAT_NAMES: Record<PhotometricFormat, string> = { lm63: 'LM-63 file', eulumdat: 'EULUMDAT file' }

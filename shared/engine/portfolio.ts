@@ -86,7 +86,12 @@ export function packBudget(luminaires: readonly BudgetLuminaire[], prices: reado
     let line = site.lines.find((x) => x.typeLabel === l.typeLabel)
     if (!line) {
       const p = priceOf.get(l.typeLabel)
-      line = { typeLabel: l.typeLabel, count: 0, unitPrice: p ? { currency: p.currency, amount: p.price } : null, cost: p ? { currency: p.currency, amount: 0 } : null }
+      line = {
+        typeLabel: l.typeLabel,
+        count: 0,
+        unitPrice: p ? { currency: p.currency, amount: p.price } : null,
+        cost: p ? { currency: p.currency, amount: 0 } : null,
+      }
       site.lines.push(line)
     }
     line.count++

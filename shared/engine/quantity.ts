@@ -47,7 +47,15 @@ interface DimensionSpec {
 
 export const DIMENSIONS: Record<Dimension, DimensionSpec> = {
   current: { base: 'A', probe: '1 A', noun: 'a current', example: '120 mA', bareNumber: 'base', ceiling: 1e4 },
-  charge: { base: 'C', probe: '1 C', noun: 'a charge (capacity)', example: '1.6 Ah', bareNumber: 'refuse', bareMeanings: 'coulombs, mAh or Ah', ceiling: 1e5 * 3600 },
+  charge: {
+    base: 'C',
+    probe: '1 C',
+    noun: 'a charge (capacity)',
+    example: '1.6 Ah',
+    bareNumber: 'refuse',
+    bareMeanings: 'coulombs, mAh or Ah',
+    ceiling: 1e5 * 3600,
+  },
   time: { base: 's', probe: '1 s', noun: 'a time', example: '3 h', bareNumber: 'refuse', bareMeanings: 'seconds, minutes or hours', ceiling: 366 * 24 * 3600 },
   temperature: { base: 'degC', probe: '1 K', noun: 'a temperature', example: '25 degC', bareNumber: 'base', ceiling: 1e3 },
   voltage: { base: 'V', probe: '1 V', noun: 'a voltage', example: '3.6 V', bareNumber: 'base', ceiling: 1e5 },
@@ -132,10 +140,17 @@ export function parseQuantity(input: unknown, dimension: Dimension): ParseResult
   if (typeof input !== 'string') {
     return {
       ok: false,
-      reason: spec.bareNumber === 'refuse' ? `must be ${spec.noun} with its unit, e.g. "${spec.example}"` : `must be a number in ${spec.base} or a string with units, e.g. "${spec.example}"`,
+      reason:
+        spec.bareNumber === 'refuse'
+          ? `must be ${spec.noun} with its unit, e.g. "${spec.example}"`
+          : `must be a number in ${spec.base} or a string with units, e.g. "${spec.example}"`,
     }
   }
-  const text = input.trim().replace(/°\s*C\b/g, 'degC').replace(/°\s*F\b/g, 'degF').replace(/Ω/g, 'ohm')
+  const text = input
+    .trim()
+    .replace(/°\s*C\b/g, 'degC')
+    .replace(/°\s*F\b/g, 'degF')
+    .replace(/Ω/g, 'ohm')
   if (text === '') return { ok: false, reason: 'is required' }
   // A bare numeric string is read like a bare number.
   if (/^[+-]?(\d+\.?\d*|\.\d+)(e[+-]?\d+)?$/i.test(text)) {

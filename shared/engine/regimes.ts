@@ -70,7 +70,14 @@ export interface RegimeProfile {
 
 const month = (count: number): TestInterval => ({ unit: 'month', count })
 
-const COMMON_RECORDS = ['date of the test', 'luminaire tested', 'kind of test and how long it ran', 'pass or fail', 'faults found and the action taken', 'who tested']
+const COMMON_RECORDS = [
+  'date of the test',
+  'luminaire tested',
+  'kind of test and how long it ran',
+  'pass or fail',
+  'faults found and the action taken',
+  'who tested',
+]
 
 export const REGIME_PROFILES: Readonly<Record<RegimeId, RegimeProfile>> = {
   en50172: {
@@ -85,7 +92,11 @@ export const REGIME_PROFILES: Readonly<Record<RegimeId, RegimeProfile>> = {
       window: null,
       length: { minimumS: 0 },
       passRule: 'Every lamp lights on simulated mains failure, and the charge indicator lights again when mains returns.',
-      reference: { source: 'EN 50172:2024, clause 7.2 (routine tests); BS 5266-1:2025', basis: 'published', note: 'Monthly, only long enough to see each lamp lit, switched by a test key rather than the main isolator. Clause number of the 2024 edition from desk research; no tolerance on the month was found.' },
+      reference: {
+        source: 'EN 50172:2024, clause 7.2 (routine tests); BS 5266-1:2025',
+        basis: 'published',
+        note: 'Monthly, only long enough to see each lamp lit, switched by a test key rather than the main isolator. Clause number of the 2024 edition from desk research; no tolerance on the month was found.',
+      },
     },
     longTest: {
       kind: 'duration',
@@ -94,14 +105,37 @@ export const REGIME_PROFILES: Readonly<Record<RegimeId, RegimeProfile>> = {
       window: null,
       length: { rated: true },
       passRule: 'The luminaire stays lit for its full rated duration (1 h or 3 h as marked).',
-      reference: { source: 'EN 50172:2024, clause 7.2; BS 5266-1:2025', basis: 'published', note: 'Yearly, for the full rated duration; run it before a low-risk period, allow about 24 h to recharge, or test alternate luminaires.' },
+      reference: {
+        source: 'EN 50172:2024, clause 7.2; BS 5266-1:2025',
+        basis: 'published',
+        note: 'Yearly, for the full rated duration; run it before a low-risk period, allow about 24 h to recharge, or test alternate luminaires.',
+      },
     },
     otherChecks: [
-      { name: 'Photometric verification of light levels', interval: month(60), reference: { source: 'BS 5266-1:2025', basis: 'from memory', note: 'Reported as new in the 2025 edition by secondary sources; not confirmed against the text.' } },
-      { name: 'Six-monthly visual check', interval: month(6), reference: { source: 'BS 5266-1:2025', basis: 'from memory', note: 'Reported by secondary sources; not confirmed against the text.' } },
+      {
+        name: 'Photometric verification of light levels',
+        interval: month(60),
+        reference: {
+          source: 'BS 5266-1:2025',
+          basis: 'from memory',
+          note: 'Reported as new in the 2025 edition by secondary sources; not confirmed against the text.',
+        },
+      },
+      {
+        name: 'Six-monthly visual check',
+        interval: month(6),
+        reference: { source: 'BS 5266-1:2025', basis: 'from memory', note: 'Reported by secondary sources; not confirmed against the text.' },
+      },
     ],
     records: [...COMMON_RECORDS, 'commissioning, alterations, battery and lamp replacements'],
-    retention: { years: null, reference: { source: 'BS 5266-1:2025, log book', basis: 'from memory', note: 'The log book is kept on the premises; no fixed retention period was confirmed.' } },
+    retention: {
+      years: null,
+      reference: {
+        source: 'BS 5266-1:2025, log book',
+        basis: 'from memory',
+        note: 'The log book is kept on the premises; no fixed retention period was confirmed.',
+      },
+    },
     references: [
       { source: 'BS EN 50172:2024 (emergency escape lighting systems)', basis: 'published', note: 'In force; the 2004 edition may be used until 27 May 2027.' },
       { source: 'BS 5266-1:2025 (code of practice), in effect 31 October 2025', basis: 'published', note: 'Replaced the 2016 edition.' },
@@ -119,7 +153,11 @@ export const REGIME_PROFILES: Readonly<Record<RegimeId, RegimeProfile>> = {
       window: { earliestDays: 21, latestDays: 35 },
       length: { minimumS: 30 },
       passRule: 'Every lamp stays lit on battery for at least 30 seconds.',
-      reference: { source: 'NFPA 101, 7.9.3.1.1', basis: 'published', note: 'Monthly, not less than 30 s, at least 3 and at most 5 weeks apart (earlier editions: at 30-day intervals). The authority having jurisdiction may allow other arrangements.' },
+      reference: {
+        source: 'NFPA 101, 7.9.3.1.1',
+        basis: 'published',
+        note: 'Monthly, not less than 30 s, at least 3 and at most 5 weeks apart (earlier editions: at 30-day intervals). The authority having jurisdiction may allow other arrangements.',
+      },
     },
     longTest: {
       kind: 'duration',
@@ -132,10 +170,21 @@ export const REGIME_PROFILES: Readonly<Record<RegimeId, RegimeProfile>> = {
     },
     otherChecks: [],
     records: [...COMMON_RECORDS],
-    retention: { years: 3, reference: { source: 'Fire codes adopted with NFPA 101 (records of tests)', basis: 'from memory', note: 'Written records kept for inspection by the authority having jurisdiction; at least 3 years per desk research, clause not confirmed.' } },
+    retention: {
+      years: 3,
+      reference: {
+        source: 'Fire codes adopted with NFPA 101 (records of tests)',
+        basis: 'from memory',
+        note: 'Written records kept for inspection by the authority having jurisdiction; at least 3 years per desk research, clause not confirmed.',
+      },
+    },
     references: [
       { source: 'NFPA 101 (Life Safety Code), 7.9.3: periodic testing of emergency lighting equipment', basis: 'published' },
-      { source: 'NFPA 101, 7.9.3.1.2 to 7.9.3.1.3: self-testing and computer-based testing', basis: 'from memory', note: 'Allowed as alternatives; a person still inspects and the records are still kept.' },
+      {
+        source: 'NFPA 101, 7.9.3.1.2 to 7.9.3.1.3: self-testing and computer-based testing',
+        basis: 'from memory',
+        note: 'Allowed as alternatives; a person still inspects and the records are still kept.',
+      },
     ],
   },
   'ca-nfc': {
@@ -150,7 +199,11 @@ export const REGIME_PROFILES: Readonly<Record<RegimeId, RegimeProfile>> = {
       window: null,
       length: { minimumS: 0 },
       passRule: 'Every lamp lights when normal power is cut, and the unit shows it is charging again when power returns.',
-      reference: { source: 'National Fire Code of Canada 2020, Division B, 6.5 (emergency lighting)', basis: 'from memory', note: 'Monthly inspection with a simulated failure per desk research; clause numbers not confirmed, and each province adopts its own code.' },
+      reference: {
+        source: 'National Fire Code of Canada 2020, Division B, 6.5 (emergency lighting)',
+        basis: 'from memory',
+        note: 'Monthly inspection with a simulated failure per desk research; clause numbers not confirmed, and each province adopts its own code.',
+      },
     },
     longTest: {
       kind: 'duration',
@@ -159,13 +212,32 @@ export const REGIME_PROFILES: Readonly<Record<RegimeId, RegimeProfile>> = {
       window: null,
       length: { rated: true },
       passRule: "The luminaire stays lit for the building's design duration (30 min, 1 h or 2 h by building type, as rated); then the charger is checked.",
-      reference: { source: 'National Fire Code of Canada 2020, Division B, 6.5; National Building Code of Canada 3.2.7', basis: 'from memory', note: 'Design duration set by the building code by occupancy and height; clause numbers not confirmed.' },
+      reference: {
+        source: 'National Fire Code of Canada 2020, Division B, 6.5; National Building Code of Canada 3.2.7',
+        basis: 'from memory',
+        note: 'Design duration set by the building code by occupancy and height; clause numbers not confirmed.',
+      },
     },
     otherChecks: [
-      { name: 'Charger voltage, current and recharge check after the annual test', interval: month(12), reference: { source: 'National Fire Code of Canada 2020, Division B, 6.5', basis: 'from memory', note: 'Per desk research; not confirmed against the text.' } },
+      {
+        name: 'Charger voltage, current and recharge check after the annual test',
+        interval: month(12),
+        reference: {
+          source: 'National Fire Code of Canada 2020, Division B, 6.5',
+          basis: 'from memory',
+          note: 'Per desk research; not confirmed against the text.',
+        },
+      },
     ],
     records: [...COMMON_RECORDS, 'charger voltage and current after the annual test'],
-    retention: { years: 2, reference: { source: 'National Fire Code of Canada 2020, Division C (records)', basis: 'from memory', note: 'At least 2 years; the first verification for the life of the system (desk research, clause not confirmed).' } },
+    retention: {
+      years: 2,
+      reference: {
+        source: 'National Fire Code of Canada 2020, Division C (records)',
+        basis: 'from memory',
+        note: 'At least 2 years; the first verification for the life of the system (desk research, clause not confirmed).',
+      },
+    },
     references: [{ source: 'National Fire Code of Canada 2020, provincial fire codes', basis: 'from memory' }],
   },
   asnzs2293: {
@@ -180,7 +252,11 @@ export const REGIME_PROFILES: Readonly<Record<RegimeId, RegimeProfile>> = {
       window: null,
       length: { minimumS: 0 },
       passRule: 'Every lamp lights on simulated failure and the indicators are correct.',
-      reference: { source: 'AS/NZS 2293.2:2019', basis: 'from memory', note: 'No separate monthly test was found in the standard; the inspection goes with the six-monthly discharge test (unconfirmed).' },
+      reference: {
+        source: 'AS/NZS 2293.2:2019',
+        basis: 'from memory',
+        note: 'No separate monthly test was found in the standard; the inspection goes with the six-monthly discharge test (unconfirmed).',
+      },
     },
     longTest: {
       kind: 'duration',
@@ -189,11 +265,28 @@ export const REGIME_PROFILES: Readonly<Record<RegimeId, RegimeProfile>> = {
       window: null,
       length: { hours: 1.5 },
       passRule: 'Every lamp stays lit on battery for at least 90 minutes.',
-      reference: { source: 'AS/NZS 2293.2:2019, routine service', basis: 'published', note: 'Six-monthly discharge test of at least 90 min, per bodies that summarise the standard; clause numbers not confirmed.' },
+      reference: {
+        source: 'AS/NZS 2293.2:2019, routine service',
+        basis: 'published',
+        note: 'Six-monthly discharge test of at least 90 min, per bodies that summarise the standard; clause numbers not confirmed.',
+      },
     },
-    otherChecks: [{ name: 'Yearly service', interval: month(12), reference: { source: 'AS/NZS 2293.2:2019', basis: 'published', note: 'Content of the yearly service not confirmed against the text.' } }],
+    otherChecks: [
+      {
+        name: 'Yearly service',
+        interval: month(12),
+        reference: { source: 'AS/NZS 2293.2:2019', basis: 'published', note: 'Content of the yearly service not confirmed against the text.' },
+      },
+    ],
     records: [...COMMON_RECORDS],
-    retention: { years: 2, reference: { source: 'New Zealand building warrant of fitness reports', basis: 'from memory', note: 'Reports kept 2 years in New Zealand; no Australian period confirmed.' } },
+    retention: {
+      years: 2,
+      reference: {
+        source: 'New Zealand building warrant of fitness reports',
+        basis: 'from memory',
+        note: 'Reports kept 2 years in New Zealand; no Australian period confirmed.',
+      },
+    },
     references: [{ source: 'AS/NZS 2293.2:2019 (emergency lighting and exit signs: inspection and maintenance)', basis: 'published' }],
   },
 }

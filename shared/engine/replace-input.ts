@@ -24,7 +24,10 @@ export const oldPackSchema = z.object(
     /** Marked as high-temperature cells (NiCd "HT"): a standard-cell NiCd label with this set reads as high-temperature NiCd. */
     highTemperature: z.boolean({ invalid_type_error: 'must be true or false' }).optional(),
   },
-  { invalid_type_error: 'must be an object: chemistry, cellsInSeries or nominalVoltage, capacity', required_error: 'is required: the old pack as its label reads' },
+  {
+    invalid_type_error: 'must be an object: chemistry, cellsInSeries or nominalVoltage, capacity',
+    required_error: 'is required: the old pack as its label reads',
+  },
 )
 
 export const replaceCandidateSchema = z.object({
@@ -77,7 +80,12 @@ export function oldPackIssues(p: { chemistry?: unknown; cellsInSeries?: number; 
   if (!chemistry || p.nominalVoltage === undefined) return []
   const match = cellsForVoltage(chemistry, p.nominalVoltage)
   if (!match.exact) {
-    return [{ path: ['oldPack', 'nominalVoltage'], message: `is not a whole number of ${chemistry.name} cells (${chemistry.nominalCellVoltage.value} V each); check the label's chemistry and voltage` }]
+    return [
+      {
+        path: ['oldPack', 'nominalVoltage'],
+        message: `is not a whole number of ${chemistry.name} cells (${chemistry.nominalCellVoltage.value} V each); check the label's chemistry and voltage`,
+      },
+    ]
   }
   if (p.cellsInSeries !== undefined && p.cellsInSeries !== match.cells) {
     return [{ path: ['oldPack', 'cellsInSeries'], message: `does not match the nominal voltage (${p.nominalVoltage} V is ${match.cells} cells)` }]

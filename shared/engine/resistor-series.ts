@@ -10,9 +10,7 @@ export const E12 = [1.0, 1.2, 1.5, 1.8, 2.2, 2.7, 3.3, 3.9, 4.7, 5.6, 6.8, 8.2] 
  * IEC 60063:2015, E24 series (±5 % parts). Note the historical values 2.7, 3.0, 3.3, 3.6, 3.9,
  * 4.3, 4.7 and 8.2, which differ from the rounded geometric sequence 10^(k/24).
  */
-export const E24 = [
-  1.0, 1.1, 1.2, 1.3, 1.5, 1.6, 1.8, 2.0, 2.2, 2.4, 2.7, 3.0, 3.3, 3.6, 3.9, 4.3, 4.7, 5.1, 5.6, 6.2, 6.8, 7.5, 8.2, 9.1,
-] as const
+export const E24 = [1.0, 1.1, 1.2, 1.3, 1.5, 1.6, 1.8, 2.0, 2.2, 2.4, 2.7, 3.0, 3.3, 3.6, 3.9, 4.3, 4.7, 5.1, 5.6, 6.2, 6.8, 7.5, 8.2, 9.1] as const
 
 export type ESeriesName = 'E12' | 'E24'
 

@@ -47,13 +47,9 @@ export const VOLTAGE_LIMITED: ReadonlyArray<string> = ['lead-acid', 'lifepo4', '
 // Pure formulas
 // ---------------------------------------------------------------------------------------------
 
-export type SecondReading =
-  | { kind: 'test-resistor'; resistance: number; current: number }
-  | { kind: 'open-circuit'; voltage: number }
+export type SecondReading = { kind: 'test-resistor'; resistance: number; current: number } | { kind: 'open-circuit'; voltage: number }
 
-export type TheveninFit =
-  | { ok: true; openCircuitV: number; internalResistanceOhm: number }
-  | { ok: false; path: Array<string>; message: string }
+export type TheveninFit = { ok: true; openCircuitV: number; internalResistanceOhm: number } | { ok: false; path: Array<string>; message: string }
 
 /**
  * Fit the charger's Thévenin source from the present current at the battery voltage and a second
@@ -76,7 +72,8 @@ export function fitChargerThevenin(presentCurrentA: number, batteryVoltageV: num
       return {
         ok: false,
         path: ['secondReading', 'current'],
-        message: 'is higher than trickleCurrent: adding resistance cannot raise the current (it would mean a negative internal resistance); check both readings',
+        message:
+          'is higher than trickleCurrent: adding resistance cannot raise the current (it would mean a negative internal resistance); check both readings',
       }
     }
     const internalResistanceOhm = (I2 * second.resistance) / (I1 - I2)

@@ -176,7 +176,12 @@ export function planRetrofit(input: RetrofitInput): RetrofitResult {
     label: 'Series resistance for the target current',
     formula: 'R_s = (V_oc − V_b) / I_target − R_int',
     explanation: 'The added resistance that brings the full-charge trickle current down to the target.',
-    inputs: [val('V_oc', 'open-circuit voltage', Voc, 'V'), val('V_b', 'battery voltage at full charge', Vb, 'V'), val('I_target', 'target trickle current', targetA, 'A'), val('R_int', 'internal resistance', Rint, 'Ω')],
+    inputs: [
+      val('V_oc', 'open-circuit voltage', Voc, 'V'),
+      val('V_b', 'battery voltage at full charge', Vb, 'V'),
+      val('I_target', 'target trickle current', targetA, 'A'),
+      val('R_int', 'internal resistance', Rint, 'Ω'),
+    ],
     result: val('R_s', 'series resistance', exactR, 'Ω'),
     references: [OHM],
   })

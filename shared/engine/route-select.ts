@@ -210,14 +210,18 @@ export function assessType(route: RouteNeed, c: TypeCandidate): TypeSelection {
   out.warnings.push(...pack.warnings)
   if (pack.reason) out.packReasons.push(pack.reason)
   if (pack.pack?.fittedPackEnough === false) {
-    out.packReasons.push(`the fitted ${sig(pack.pack.fittedCapacityAh!)} Ah pack is below the ${sig(pack.pack.requiredCapacityAh)} Ah needed for ${hours(route.ratedDurationS)} (the next pack step is ${sig(pack.pack.selectedCapacityAh)} Ah)`)
+    out.packReasons.push(
+      `the fitted ${sig(pack.pack.fittedCapacityAh!)} Ah pack is below the ${sig(pack.pack.requiredCapacityAh)} Ah needed for ${hours(route.ratedDurationS)} (the next pack step is ${sig(pack.pack.selectedCapacityAh)} Ah)`,
+    )
   }
   out.reasons = [...out.lightReasons, ...out.packReasons]
   const lightOk = out.lightReasons.length === 0
   const packOk = out.packReasons.length === 0
   out.meets = lightOk && packOk
   out.verdict = out.meets ? 'meets' : lightOk ? 'pack' : packOk ? 'light' : 'both'
-  const row = out.layout ? `${out.layout.count} luminaire${out.layout.count === 1 ? '' : 's'}${out.layout.spacingM !== null ? ` ${sig(out.layout.spacingM)} m apart` : ''}` : ''
+  const row = out.layout
+    ? `${out.layout.count} luminaire${out.layout.count === 1 ? '' : 's'}${out.layout.spacingM !== null ? ` ${sig(out.layout.spacingM)} m apart` : ''}`
+    : ''
   out.summary =
     out.verdict === 'meets'
       ? `Meets the route: ${row}, ${out.pack?.fittedPackEnough ? 'and the fitted pack lasts the duration' : `with a ${out.pack ? sig(out.pack.selectedCapacityAh) + ' Ah ' : ''}pack for the duration (no fitted pack stated)`}.`

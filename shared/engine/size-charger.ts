@@ -27,7 +27,10 @@ export function checkPackCharger(s: SizedPack, charger: PackCharger, explain: bo
   const { input, chemistry } = s.basis
   const capacity = s.pack.selectedAh * SECONDS_PER_HOUR
   // The same discharge as the sizing: a measured current is passed as a direct-driven load of that current.
-  const load = input.dischargeCurrent !== undefined ? { driver: 'direct' as const, load: { ledCurrent: input.dischargeCurrent } } : { driver: input.driver, load: input.load ?? {} }
+  const load =
+    input.dischargeCurrent !== undefined
+      ? { driver: 'direct' as const, load: { ledCurrent: input.dischargeCurrent } }
+      : { driver: input.driver, load: input.load ?? {} }
   const chargeInput: ChargeInput = {
     chemistry: input.chemistry,
     cellsInSeries: s.cells.n,
@@ -59,7 +62,12 @@ export function checkPackCharger(s: SizedPack, charger: PackCharger, explain: bo
     warnings.unshift({ code: 'charger-type-unsuitable', severity: 'critical', field: 'charger.type', message: fit.reasons.join(' ') })
   }
   if (charger.type === 'unknown') {
-    warnings.push({ code: 'charger-type-assumed', severity: 'info', field: 'charger.type', message: `Charger type not given: taken as the usual one for ${chemistry.name}. Read it from the luminaire's label or its maker.` })
+    warnings.push({
+      code: 'charger-type-assumed',
+      severity: 'info',
+      field: 'charger.type',
+      message: `Charger type not given: taken as the usual one for ${chemistry.name}. Read it from the luminaire's label or its maker.`,
+    })
   }
   const { working, ...rest } = result
   const check: SizeChargerCheck = {

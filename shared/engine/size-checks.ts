@@ -57,7 +57,8 @@ export function packChecks(s: SizedPack, warnings: EngineWarning[]): void {
       code: 'duration-below-minimum',
       severity: 'warning',
       field: 'duration',
-      message: 'Escape-route emergency lighting needs at least 1 h (EN 1838); 3 h where people sleep or return before recharge (BS 5266-1), 90 min under NFPA 101.',
+      message:
+        'Escape-route emergency lighting needs at least 1 h (EN 1838); 3 h where people sleep or return before recharge (BS 5266-1), 90 min under NFPA 101.',
     })
   }
   if (chemistry.noChargeBelowFreezing && input.ambientMin < 0) {

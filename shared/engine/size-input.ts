@@ -13,7 +13,11 @@ export const luminaireModeSchema = z.enum(LUMINAIRE_MODES, { errorMap: () => ({ 
 export type LuminaireMode = z.infer<typeof luminaireModeSchema>
 
 /** Cell format as printed or seen on the pack ("sub-C", "AA", "D", "18650", "12 V block"): free text, checked only for length. */
-export const cellFormatSchema = z.string({ invalid_type_error: 'must be text, e.g. "sub-C"' }).trim().min(1, 'must not be empty').max(40, 'must be at most 40 characters')
+export const cellFormatSchema = z
+  .string({ invalid_type_error: 'must be text, e.g. "sub-C"' })
+  .trim()
+  .min(1, 'must not be empty')
+  .max(40, 'must be at most 40 characters')
 
 /** The luminaire's charger, checked against the pack (the `charge` rules, plus the charger type). */
 export const packChargerSchema = z.object(
@@ -65,13 +69,19 @@ type Issue = { path: (string | number)[]; message: string }
 
 /** The load or a measured discharge current, one of the two. */
 export function dischargeIssues(v: { load?: unknown; dischargeCurrent?: unknown }): Issue[] {
-  if (v.load !== undefined && v.dischargeCurrent !== undefined) return [{ path: ['dischargeCurrent'], message: 'give either the load or the measured dischargeCurrent, not both' }]
-  if (v.load === undefined && v.dischargeCurrent === undefined) return [{ path: ['load', 'power'], message: 'is required: give load.power, or load.ledVoltage with load.ledCurrent, or a measured dischargeCurrent' }]
+  if (v.load !== undefined && v.dischargeCurrent !== undefined)
+    return [{ path: ['dischargeCurrent'], message: 'give either the load or the measured dischargeCurrent, not both' }]
+  if (v.load === undefined && v.dischargeCurrent === undefined)
+    return [{ path: ['load', 'power'], message: 'is required: give load.power, or load.ledVoltage with load.ledCurrent, or a measured dischargeCurrent' }]
   return []
 }
 
 export const sizeInputSchema = sizeInputObject.superRefine((v, ctx) => {
-  const issues = [...dischargeIssues(v), ...(v.dischargeCurrent === undefined ? loadIssues({ ...v, cellsInSeries: v.cellsInSeries ?? (v.nominalVoltage !== undefined ? 1 : undefined) }) : []), ...packIssues(v)]
+  const issues = [
+    ...dischargeIssues(v),
+    ...(v.dischargeCurrent === undefined ? loadIssues({ ...v, cellsInSeries: v.cellsInSeries ?? (v.nominalVoltage !== undefined ? 1 : undefined) }) : []),
+    ...packIssues(v),
+  ]
   for (const issue of issues) ctx.addIssue({ code: z.ZodIssueCode.custom, ...issue })
 })
 

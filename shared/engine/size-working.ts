@@ -26,7 +26,10 @@ export function sizeWorking(s: SizedPack): WorkingStep[] {
   const currentA = draw.currentA
   const { peukertAh, coldFactor, requiredAh, annexFraction, annexMinAh } = s.need
   const { selectedAh, capacityGiven, ladder } = s.pack
-  const { dischargeCRate, cutoffCell, usableBeginAh, usableEndAh, runtimeBeginH, runtimeEndH, energyWh, massKg, volumeL, lifeYears, annexMaxA } = { ...s.performance, cutoffCell: s.performance.cutoffCellV }
+  const { dischargeCRate, cutoffCell, usableBeginAh, usableEndAh, runtimeBeginH, runtimeEndH, energyWh, massKg, volumeL, lifeYears, annexMaxA } = {
+    ...s.performance,
+    cutoffCell: s.performance.cutoffCellV,
+  }
   const se = chemistry.specificEnergyWhPerKg.value
   const ed = chemistry.energyDensityWhPerL.value
   const refs = (...r: Reference[]) => r
@@ -34,7 +37,15 @@ export function sizeWorking(s: SizedPack): WorkingStep[] {
   const direct = !measured && input.driver === 'direct'
   const cellWords = describeCellChoice(choice, chemistry, input.load, designCutoffCell, input.converterInput, input.nominalVoltage)
   return [
-    step('cellsInSeries', 'Cells in series', 'n', cellWords.explanation, [v('V_cut', 'End-of-discharge voltage per cell', designCutoffCell, 'V')], v('n', 'Cells in series', n, ''), refs(cellWords.reference)),
+    step(
+      'cellsInSeries',
+      'Cells in series',
+      'n',
+      cellWords.explanation,
+      [v('V_cut', 'End-of-discharge voltage per cell', designCutoffCell, 'V')],
+      v('n', 'Cells in series', n, ''),
+      refs(cellWords.reference),
+    ),
     step(
       'averagePowerW',
       'Average power from the pack',
@@ -45,7 +56,11 @@ export function sizeWorking(s: SizedPack): WorkingStep[] {
           ? 'Direct drive: the pack current is the LED current; the pack power is that current at the average pack voltage.'
           : 'Converter drive: the pack supplies the LED power divided by the converter efficiency.',
       measured || direct
-        ? [v('n', 'Cells in series', n, ''), v('V_avg', 'Average cell voltage', averageCell, 'V'), v(measured ? 'I_measured' : 'I_LED', measured ? 'Measured discharge current' : 'LED current', currentA, 'A')]
+        ? [
+            v('n', 'Cells in series', n, ''),
+            v('V_avg', 'Average cell voltage', averageCell, 'V'),
+            v(measured ? 'I_measured' : 'I_LED', measured ? 'Measured discharge current' : 'LED current', currentA, 'A'),
+          ]
         : [v('P_LED', 'LED power', draw.loadPowerW, 'W'), v('η', 'Converter efficiency', input.driverEfficiency, '')],
       v('P', 'Average pack power', draw.powerW, 'W'),
       refs(REF.commonPractice('Power balance of the driver')),
@@ -64,7 +79,12 @@ export function sizeWorking(s: SizedPack): WorkingStep[] {
       'Rated capacity for the discharge rate (Peukert)',
       durationH >= ratedH ? 'C_P = I · t   (t ≥ H: no credit for a slower discharge)' : 'C_P = I · H · (t / H)^(1/k)',
       `Capacity, on the ${ratedH} h rating basis, that delivers I for the rated duration: Peukert's law solved for C.`,
-      [v('I', 'Average current', currentA, 'A'), v('t', 'Rated duration', durationH, 'h'), v('H', 'Rating basis', ratedH, 'h'), v('k', 'Peukert exponent', k, '')],
+      [
+        v('I', 'Average current', currentA, 'A'),
+        v('t', 'Rated duration', durationH, 'h'),
+        v('H', 'Rating basis', ratedH, 'h'),
+        v('k', 'Peukert exponent', k, ''),
+      ],
       v('C_P', 'Capacity at the discharge rate', peukertAh, 'Ah'),
       refs(REF.peukert(), chemistry.peukertExponent.ref),
     ),
@@ -90,7 +110,10 @@ export function sizeWorking(s: SizedPack): WorkingStep[] {
         v('f_T', 'Cold-capacity factor', coldFactor, ''),
       ],
       v('C_req', 'Required rated capacity', requiredAh, 'Ah'),
-      refs(REF.ieee485('from memory', 'Same structure as the IEEE 485 sizing: temperature, ageing and design-margin factors.'), chemistry.defaultDepthOfDischarge.ref),
+      refs(
+        REF.ieee485('from memory', 'Same structure as the IEEE 485 sizing: temperature, ageing and design-margin factors.'),
+        chemistry.defaultDepthOfDischarge.ref,
+      ),
     ),
     step(
       'annexAMaxCurrentA',
@@ -105,7 +128,9 @@ export function sizeWorking(s: SizedPack): WorkingStep[] {
       'selectedCapacityAh',
       capacityGiven ? 'Pack being checked' : 'Pack chosen',
       capacityGiven ? 'C = given' : 'C = smallest rung ≥ max(C_req, I · 1 h / f)',
-      capacityGiven ? 'The existing pack, checked against the need.' : `The smallest capacity in the list (${ladder.join(', ')} Ah) that meets both the derated need and the Annex A limit.`,
+      capacityGiven
+        ? 'The existing pack, checked against the need.'
+        : `The smallest capacity in the list (${ladder.join(', ')} Ah) that meets both the derated need and the Annex A limit.`,
       [v('C_req', 'Required rated capacity', requiredAh, 'Ah'), v('C_A', 'Capacity for the Annex A limit', annexMinAh, 'Ah')],
       v('C', 'Selected capacity', selectedAh, 'Ah'),
       refs(chemistry.capacityLadderAh.ref),
@@ -124,7 +149,12 @@ export function sizeWorking(s: SizedPack): WorkingStep[] {
       'Runtime, new pack',
       'C_u = C · DoD · f_T;  t = C_u / I if I ≤ C_u / H, else t = H · (C_u / (I · H))^k',
       `Runtime of the new pack at the lowest ambient (${input.ambientMin} °C), with the usable depth of discharge; Peukert above the rated current.`,
-      [v('C_u', 'Usable capacity', usableBeginAh, 'Ah'), v('I', 'Average current', currentA, 'A'), v('H', 'Rating basis', ratedH, 'h'), v('k', 'Peukert exponent', k, '')],
+      [
+        v('C_u', 'Usable capacity', usableBeginAh, 'Ah'),
+        v('I', 'Average current', currentA, 'A'),
+        v('H', 'Rating basis', ratedH, 'h'),
+        v('k', 'Peukert exponent', k, ''),
+      ],
       v('t', 'Runtime, new', runtimeBeginH, 'h'),
       refs(REF.peukert()),
     ),
@@ -148,14 +178,42 @@ export function sizeWorking(s: SizedPack): WorkingStep[] {
       v('V_cut', 'Cut-off per cell', cutoffCell, 'V'),
       refs((chemistry.cutoffByDischargeRate ?? chemistry.cutoffCellVoltage).ref),
     ),
-    step('cutoffVoltageV', 'End-of-discharge voltage of the pack', 'V_pack,cut = n · V_cut', 'Cells in series times the cut-off per cell.',
-      [v('n', 'Cells in series', n, ''), v('V_cut', 'Cut-off per cell', cutoffCell, 'V')], v('V_pack,cut', 'Pack cut-off', n * cutoffCell, 'V'), refs(chemistry.cutoffCellVoltage.ref)),
-    step('energyWh', 'Nominal energy', 'E = C · n · V_nom', 'Rated capacity times nominal pack voltage.',
-      [v('C', 'Selected capacity', selectedAh, 'Ah'), v('n', 'Cells in series', n, ''), v('V_nom', 'Nominal cell voltage', nominalCell, 'V')], v('E', 'Energy', energyWh, 'Wh'), refs(chemistry.nominalCellVoltage.ref)),
-    step('massKg', 'Mass (range)', 'm = E / e_m', `Energy divided by the specific energy of ${chemistry.name} packs (${se.min}–${se.max} Wh/kg).`,
-      [v('E', 'Energy', energyWh, 'Wh')], v('m_max', 'Heaviest estimate', massKg.max, 'kg'), refs(chemistry.specificEnergyWhPerKg.ref)),
-    step('volumeL', 'Volume (range)', 'V = E / e_v', `Energy divided by the energy density of ${chemistry.name} packs (${ed.min}–${ed.max} Wh/L).`,
-      [v('E', 'Energy', energyWh, 'Wh')], v('V_max', 'Largest estimate', volumeL.max, 'L'), refs(chemistry.energyDensityWhPerL.ref)),
+    step(
+      'cutoffVoltageV',
+      'End-of-discharge voltage of the pack',
+      'V_pack,cut = n · V_cut',
+      'Cells in series times the cut-off per cell.',
+      [v('n', 'Cells in series', n, ''), v('V_cut', 'Cut-off per cell', cutoffCell, 'V')],
+      v('V_pack,cut', 'Pack cut-off', n * cutoffCell, 'V'),
+      refs(chemistry.cutoffCellVoltage.ref),
+    ),
+    step(
+      'energyWh',
+      'Nominal energy',
+      'E = C · n · V_nom',
+      'Rated capacity times nominal pack voltage.',
+      [v('C', 'Selected capacity', selectedAh, 'Ah'), v('n', 'Cells in series', n, ''), v('V_nom', 'Nominal cell voltage', nominalCell, 'V')],
+      v('E', 'Energy', energyWh, 'Wh'),
+      refs(chemistry.nominalCellVoltage.ref),
+    ),
+    step(
+      'massKg',
+      'Mass (range)',
+      'm = E / e_m',
+      `Energy divided by the specific energy of ${chemistry.name} packs (${se.min}–${se.max} Wh/kg).`,
+      [v('E', 'Energy', energyWh, 'Wh')],
+      v('m_max', 'Heaviest estimate', massKg.max, 'kg'),
+      refs(chemistry.specificEnergyWhPerKg.ref),
+    ),
+    step(
+      'volumeL',
+      'Volume (range)',
+      'V = E / e_v',
+      `Energy divided by the energy density of ${chemistry.name} packs (${ed.min}–${ed.max} Wh/L).`,
+      [v('E', 'Energy', energyWh, 'Wh')],
+      v('V_max', 'Largest estimate', volumeL.max, 'L'),
+      refs(chemistry.energyDensityWhPerL.ref),
+    ),
     step(
       'serviceLifeYears',
       'Service life at the warmest ambient',

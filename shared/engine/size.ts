@@ -73,7 +73,9 @@ export function sizePack(input: SizeInput, options: SizeOptions = {}): SizeResul
   packChecks(sized, warnings) // 6. checks
   const charger = input.charger ? checkPackCharger(sized, input.charger, explain) : null // 7. the charger, when given
   if (charger) {
-    for (const w of charger.check.warnings) if (w.severity === 'critical') warnings.push({ ...w, message: `Charger: ${w.message}`, field: w.field?.startsWith('charger.') ? w.field : `charger.${w.field ?? 'chargeCurrent'}` })
+    for (const w of charger.check.warnings)
+      if (w.severity === 'critical')
+        warnings.push({ ...w, message: `Charger: ${w.message}`, field: w.field?.startsWith('charger.') ? w.field : `charger.${w.field ?? 'chargeCurrent'}` })
   }
   addChemistryNotes(basis.chemistry, warnings)
   const working = explain ? [...sizeWorking(sized), ...(charger?.working ?? [])] : [] // 8. working

@@ -122,7 +122,9 @@ export function windowMinutes(windowStart: string, windowEnd: string): number {
 const NO_AREA = 'No area'
 const areaOf = (l: PlanLuminaire) => l.areaName ?? NO_AREA
 const walk = (a: PlanLuminaire, b: PlanLuminaire) =>
-  (a.walkOrder ?? Number.MAX_SAFE_INTEGER) - (b.walkOrder ?? Number.MAX_SAFE_INTEGER) || areaOf(a).localeCompare(areaOf(b)) || a.tag.localeCompare(b.tag, undefined, { numeric: true })
+  (a.walkOrder ?? Number.MAX_SAFE_INTEGER) - (b.walkOrder ?? Number.MAX_SAFE_INTEGER) ||
+  areaOf(a).localeCompare(areaOf(b)) ||
+  a.tag.localeCompare(b.tag, undefined, { numeric: true })
 
 function byKey(luminaires: readonly PlanLuminaire[], key: (l: PlanLuminaire) => string): Map<string, PlanLuminaire[]> {
   const out = new Map<string, PlanLuminaire[]>()
@@ -132,7 +134,11 @@ function byKey(luminaires: readonly PlanLuminaire[], key: (l: PlanLuminaire) => 
 
 function groupsOf(input: PlanInput): Array<{ name: string; members: PlanLuminaire[] }> {
   if (input.grouping === 'area') return [...byKey(input.luminaires, areaOf).entries()].map(([name, members]) => ({ name, members }))
-  if (input.grouping === 'circuit') return [...byKey(input.luminaires, (l) => l.circuit.trim() || 'No circuit given').entries()].map(([name, members]) => ({ name: `Circuit ${name}`, members }))
+  if (input.grouping === 'circuit')
+    return [...byKey(input.luminaires, (l) => l.circuit.trim() || 'No circuit given').entries()].map(([name, members]) => ({
+      name: `Circuit ${name}`,
+      members,
+    }))
   // Alternate inside each area, walking order kept.
   const first: PlanLuminaire[] = []
   const second: PlanLuminaire[] = []
@@ -162,7 +168,11 @@ export function planDurationTests(input: PlanInput): TestPlan {
   for (const l of input.luminaires) areaSizes.set(areaOf(l), (areaSizes.get(areaOf(l)) ?? 0) + 1)
   if (input.grouping === 'alternate') {
     for (const [area, n] of areaSizes) {
-      if (n === 1) warnings.push({ code: 'single-luminaire-area', message: `${area} has a single luminaire: it is without cover during its test and recharge. Keep the area unoccupied then, or provide temporary lighting.` })
+      if (n === 1)
+        warnings.push({
+          code: 'single-luminaire-area',
+          message: `${area} has a single luminaire: it is without cover during its test and recharge. Keep the area unoccupied then, or provide temporary lighting.`,
+        })
     }
   }
 
@@ -173,7 +183,10 @@ export function planDurationTests(input: PlanInput): TestPlan {
     const rechargeH = Math.max(...g.members.map((l) => l.rechargeH ?? input.defaultRechargeH))
     const testMin = Math.round(testH * 60)
     if (testMin > windowLen && !warnings.some((w) => w.code === 'window-too-short')) {
-      warnings.push({ code: 'window-too-short', message: `A ${testH} h test does not fit in the ${windowLen} min window: widen the window, or the tests run into occupied hours.` })
+      warnings.push({
+        code: 'window-too-short',
+        message: `A ${testH} h test does not fit in the ${windowLen} min window: widen the window, or the tests run into occupied hours.`,
+      })
     }
     // The first window opening at or after `earliest`.
     const day = Math.max(0, Math.ceil((earliest - open) / DAY_MIN))
@@ -183,12 +196,27 @@ export function planDurationTests(input: PlanInput): TestPlan {
     const areas = [...new Set(g.members.map(areaOf))]
     const darkAreas = areas.filter((a) => g.members.filter((l) => areaOf(l) === a).length === areaSizes.get(a))
     const flagged = input.grouping === 'alternate' ? [] : darkAreas
-    if (flagged.length) warnings.push({ code: 'area-dark', message: `${g.name}: ${flagged.join(', ')} without emergency cover from ${stamp(input.firstDay, start).replace('T', ' ')} to ${stamp(input.firstDay, fullCover).replace('T', ' ')}. Keep ${flagged.length > 1 ? 'them' : 'it'} unoccupied then.` })
+    if (flagged.length)
+      warnings.push({
+        code: 'area-dark',
+        message: `${g.name}: ${flagged.join(', ')} without emergency cover from ${stamp(input.firstDay, start).replace('T', ' ')} to ${stamp(input.firstDay, fullCover).replace('T', ' ')}. Keep ${flagged.length > 1 ? 'them' : 'it'} unoccupied then.`,
+      })
     groups.push({
-      index: i + 1, name: g.name, luminaireIds: g.members.map((l) => l.id), tags: g.members.map((l) => l.tag), areas,
-      testH, rechargeH, startsAt: stamp(input.firstDay, start), endsAt: stamp(input.firstDay, end), fullCoverAt: stamp(input.firstDay, fullCover), darkAreas,
+      index: i + 1,
+      name: g.name,
+      luminaireIds: g.members.map((l) => l.id),
+      tags: g.members.map((l) => l.tag),
+      areas,
+      testH,
+      rechargeH,
+      startsAt: stamp(input.firstDay, start),
+      endsAt: stamp(input.firstDay, end),
+      fullCoverAt: stamp(input.firstDay, fullCover),
+      darkAreas,
     })
-    working.push(`${g.name}: ${g.members.length} luminaires, test ${testH} h, recharge ${rechargeH} h: ${stamp(input.firstDay, start)} to ${stamp(input.firstDay, end)}, full cover ${stamp(input.firstDay, fullCover)}.`)
+    working.push(
+      `${g.name}: ${g.members.length} luminaires, test ${testH} h, recharge ${rechargeH} h: ${stamp(input.firstDay, start)} to ${stamp(input.firstDay, end)}, full cover ${stamp(input.firstDay, fullCover)}.`,
+    )
     earliest = fullCover
   }
   return { groups, warnings, finishesAt: groups.length ? groups[groups.length - 1].fullCoverAt : null, working }

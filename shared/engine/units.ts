@@ -55,7 +55,8 @@ export function formatDisplay(kind: DisplayKind, system: UnitSystem, value: numb
   if (typeof value !== 'number' || !Number.isFinite(value)) return '—'
   // Temperatures read as whole or tenth degrees whatever their size; three significant digits of 104.5 °F would drop the half.
   const shown = toDisplay(kind, system, value)
-  const opts = kind === 'temperature' ? { digits: Math.max(digits, significantFor(shown, 1)), unit: UNITS[kind][system] } : { digits, unit: UNITS[kind][system] }
+  const opts =
+    kind === 'temperature' ? { digits: Math.max(digits, significantFor(shown, 1)), unit: UNITS[kind][system] } : { digits, unit: UNITS[kind][system] }
   return formatNumber(kind === 'temperature' ? Math.round(shown * 10) / 10 : shown, opts, prefs)
 }
 

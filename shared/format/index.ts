@@ -101,7 +101,10 @@ export function formatDate(value: Date | string | number | null | undefined, pre
   const d = toDate(value)
   if (!d) return empty
   const zone = d.calendarDay ? 'UTC' : prefs.timeZone
-  return cached(`d|${prefs.locale}|${zone}`, () => new Intl.DateTimeFormat(prefs.locale, { day: 'numeric', month: 'short', year: 'numeric', timeZone: zone })).format(d.date)
+  return cached(
+    `d|${prefs.locale}|${zone}`,
+    () => new Intl.DateTimeFormat(prefs.locale, { day: 'numeric', month: 'short', year: 'numeric', timeZone: zone }),
+  ).format(d.date)
 }
 
 /** "2 Dec 2026, 13:08" in the reader's zone (12- or 24-hour clock as their locale writes it). */
@@ -110,8 +113,10 @@ export function formatDateTime(value: Date | string | number | null | undefined,
   const d = toDate(value)
   if (!d) return empty
   if (d.calendarDay) return formatDate(value, prefs, empty)
-  return cached(`dt|${prefs.locale}|${prefs.timeZone}`, () =>
-    new Intl.DateTimeFormat(prefs.locale, { day: 'numeric', month: 'short', year: 'numeric', hour: 'numeric', minute: '2-digit', timeZone: prefs.timeZone }),
+  return cached(
+    `dt|${prefs.locale}|${prefs.timeZone}`,
+    () =>
+      new Intl.DateTimeFormat(prefs.locale, { day: 'numeric', month: 'short', year: 'numeric', hour: 'numeric', minute: '2-digit', timeZone: prefs.timeZone }),
   ).format(d.date)
 }
 
@@ -134,7 +139,10 @@ export function formatNumber(value: unknown, opts: NumberOptions = {}, prefs: Fo
   const digits = opts.digits ?? 3
   const f = opts.integer
     ? cached(`i|${prefs.locale}`, () => new Intl.NumberFormat(prefs.locale, { maximumFractionDigits: 0 }))
-    : cached(`n|${prefs.locale}|${digits}`, () => new Intl.NumberFormat(prefs.locale, { maximumSignificantDigits: digits, useGrouping: 'min2' as unknown as boolean }))
+    : cached(
+        `n|${prefs.locale}|${digits}`,
+        () => new Intl.NumberFormat(prefs.locale, { maximumSignificantDigits: digits, useGrouping: 'min2' as unknown as boolean }),
+      )
   // Round first so "-0.0001" is written "0", never "-0".
   const rounded = opts.integer ? Math.round(value) : Number(value.toPrecision(digits))
   const text = f.format(Object.is(rounded, -0) ? 0 : rounded).replace('-', '−')

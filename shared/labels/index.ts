@@ -349,7 +349,10 @@ export function labelOf<M extends Record<string, string>>(map: M, code: string |
   if (code === null || code === undefined || code === '') return empty
   const word = (map as Record<string, string>)[code]
   if (word !== undefined) return word
-  const spaced = code.replace(/[-_]+/g, ' ').replace(/([a-z])([A-Z])/g, '$1 $2').toLowerCase()
+  const spaced = code
+    .replace(/[-_]+/g, ' ')
+    .replace(/([a-z])([A-Z])/g, '$1 $2')
+    .toLowerCase()
   return spaced.charAt(0).toUpperCase() + spaced.slice(1)
 }
 

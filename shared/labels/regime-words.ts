@@ -42,7 +42,8 @@ export interface RegimeWords {
 
 const FOUR_YEARS: MythNote = {
   claim: 'Batteries must be replaced every 4 years.',
-  correction: 'Four years is the least design life the product standards ask of an emergency battery, not a replacement interval. Replace a pack when it fails its long test, or by the forecast from its tests and temperature.',
+  correction:
+    'Four years is the least design life the product standards ask of an emergency battery, not a replacement interval. Replace a pack when it fails its long test, or by the forecast from its tests and temperature.',
   source: 'IEC 60598-2-22 Annex A; IEC 61347-2-7 (battery designed for at least 4 years of normal operation)',
 }
 const SELF_TEST_RECORDS: MythNote = {
@@ -52,7 +53,8 @@ const SELF_TEST_RECORDS: MythNote = {
 }
 const NOT_ALWAYS_90: MythNote = {
   claim: 'The annual test is always 90 minutes.',
-  correction: 'Ninety minutes is the US rule (NFPA 101). Under EN 50172 and BS 5266-1 the yearly test runs for the luminaire\'s full rated duration (often 3 h); Canadian codes test the building\'s design duration; AS/NZS 2293.2 asks for at least 90 min every six months.',
+  correction:
+    "Ninety minutes is the US rule (NFPA 101). Under EN 50172 and BS 5266-1 the yearly test runs for the luminaire's full rated duration (often 3 h); Canadian codes test the building's design duration; AS/NZS 2293.2 asks for at least 90 min every six months.",
   source: 'EN 50172:2024 clause 7.2; NFPA 101 7.9.3.1.1; AS/NZS 2293.2:2019',
 }
 
@@ -68,12 +70,13 @@ export const REGIME_WORDS: Readonly<Record<RegimeId, RegimeWords>> = {
     cadmiumNote: true,
     iecAnnexNotes: true,
     spacingCriteria: 'en1838-route',
-    isolateCaution: 'Isolate the mains (and the luminaire\'s battery) before opening a luminaire or changing a pack.',
+    isolateCaution: "Isolate the mains (and the luminaire's battery) before opening a luminaire or changing a pack.",
     localCodes: 'The fire risk assessment, local regulations and a competent person decide.',
     myths: [
       {
         claim: 'A monthly short test, a six-monthly one-hour test and a full-duration test every three years are enough.',
-        correction: 'That was the 1999 practice and is superseded: today every luminaire gets a monthly functional test and a yearly test for its full rated duration.',
+        correction:
+          'That was the 1999 practice and is superseded: today every luminaire gets a monthly functional test and a yearly test for its full rated duration.',
         source: 'BS 5266-1:2025 with BS EN 50172:2024 clause 7.2 (superseding BS 5266-1:1999)',
       },
       FOUR_YEARS,
@@ -107,7 +110,7 @@ export const REGIME_WORDS: Readonly<Record<RegimeId, RegimeWords>> = {
     cadmiumNote: false,
     iecAnnexNotes: false,
     spacingCriteria: null,
-    isolateCaution: 'De-energize the normal power circuit and disconnect the emergency lighting unit\'s battery before opening it or changing a battery.',
+    isolateCaution: "De-energize the normal power circuit and disconnect the emergency lighting unit's battery before opening it or changing a battery.",
     localCodes: 'The provincial fire code, the authority having jurisdiction and a licensed electrician decide.',
     myths: [FOUR_YEARS, SELF_TEST_RECORDS, NOT_ALWAYS_90],
   },
@@ -122,7 +125,7 @@ export const REGIME_WORDS: Readonly<Record<RegimeId, RegimeWords>> = {
     cadmiumNote: false,
     iecAnnexNotes: true,
     spacingCriteria: null,
-    isolateCaution: 'Isolate the mains (and the luminaire\'s battery) before opening a luminaire or changing a pack.',
+    isolateCaution: "Isolate the mains (and the luminaire's battery) before opening a luminaire or changing a pack.",
     localCodes: 'State or national building rules, the relevant authority and a licensed electrician decide.',
     myths: [FOUR_YEARS, SELF_TEST_RECORDS, NOT_ALWAYS_90],
   },

@@ -4,9 +4,24 @@ import { MeAnswer } from './answers/accounts'
 import { RoleSchema } from './roles'
 
 /** A few passwords too common to allow whatever their length (screened, as current guidance asks). */
-const TOO_COMMON = new Set(['password1234', '123456789012', 'qwertyuiopas', 'passwordpassword', 'letmein12345', 'iloveyou1234', 'emergency123', 'lampwright123'])
+const TOO_COMMON = new Set([
+  'password1234',
+  '123456789012',
+  'qwertyuiopas',
+  'passwordpassword',
+  'letmein12345',
+  'iloveyou1234',
+  'emergency123',
+  'lampwright123',
+])
 
-export const EmailSchema = z.string({ required_error: 'is required' }).trim().toLowerCase().min(3, 'is required').max(254, 'is too long').email('is not an e-mail address')
+export const EmailSchema = z
+  .string({ required_error: 'is required' })
+  .trim()
+  .toLowerCase()
+  .min(3, 'is required')
+  .max(254, 'is too long')
+  .email('is not an e-mail address')
 
 /** Length over composition rules: 12 to 128 characters, any characters, not a known common password. */
 export const PasswordSchema = z

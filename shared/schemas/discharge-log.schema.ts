@@ -31,8 +31,11 @@ export const TIME_FORMATS = ['elapsed', 'clock', 'timestamp'] as const
 /** Order of day, month and year in a date such as 01/03/2026 (ISO 8601 dates are always year first). */
 export const DATE_ORDERS = ['ymd', 'dmy', 'mdy'] as const
 
-
-const column = z.number({ invalid_type_error: 'must be a column number', required_error: 'choose a column' }).int('must be a column number').min(0, 'must be a column number').max(999, 'must be a column number')
+const column = z
+  .number({ invalid_type_error: 'must be a column number', required_error: 'choose a column' })
+  .int('must be a column number')
+  .min(0, 'must be a column number')
+  .max(999, 'must be a column number')
 
 export const ColumnMappingSchema = z
   .object({
@@ -41,7 +44,12 @@ export const ColumnMappingSchema = z
     /** The first row read is a header row (column names), not data. */
     header: z.boolean({ invalid_type_error: 'must be true or false' }),
     /** 1-based line where the table starts (loggers often write a few lines about themselves first). */
-    firstLine: z.number({ invalid_type_error: 'must be a line number' }).int('must be a line number').min(1, 'must be at least 1').max(1000, 'must be at most 1000').default(1),
+    firstLine: z
+      .number({ invalid_type_error: 'must be a line number' })
+      .int('must be a line number')
+      .min(1, 'must be at least 1')
+      .max(1000, 'must be at most 1000')
+      .default(1),
     time: z.object({
       column,
       format: z.enum(TIME_FORMATS, { errorMap: () => ({ message: 'must be elapsed, clock or timestamp' }) }),
@@ -49,12 +57,17 @@ export const ColumnMappingSchema = z
       dateOrder: z.enum(DATE_ORDERS, { errorMap: () => ({ message: 'must be ymd, dmy or mdy' }) }).default('ymd'),
     }),
     voltage: z.object({ column, unit: z.enum(['V', 'mV'], { errorMap: () => ({ message: 'must be V or mV' }) }).default('V') }),
-    current: z.object({ column, unit: z.enum(['A', 'mA'], { errorMap: () => ({ message: 'must be A or mA' }) }).default('A') }).nullable().default(null),
+    current: z
+      .object({ column, unit: z.enum(['A', 'mA'], { errorMap: () => ({ message: 'must be A or mA' }) }).default('A') })
+      .nullable()
+      .default(null),
   })
   .superRefine((m, ctx) => {
     const used = [m.time.column, m.voltage.column, ...(m.current ? [m.current.column] : [])]
-    if (new Set(used).size !== used.length) ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['voltage', 'column'], message: 'time, voltage and current must be different columns' })
-    if (m.delimiter === ',' && m.decimal === ',') ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['decimal'], message: 'a comma cannot be both the delimiter and the decimal mark' })
+    if (new Set(used).size !== used.length)
+      ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['voltage', 'column'], message: 'time, voltage and current must be different columns' })
+    if (m.delimiter === ',' && m.decimal === ',')
+      ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['decimal'], message: 'a comma cannot be both the delimiter and the decimal mark' })
   })
 export type ColumnMapping = z.output<typeof ColumnMappingSchema>
 
@@ -69,14 +82,23 @@ export const DischargeOptionsSchema = z
     cutoffPerCell: z.union([z.string(), z.number()]).optional(),
     ratedDuration: z.union([z.string(), z.number()], { errorMap: () => ({ message: 'is required: a time, e.g. "3 h"' }) }),
     ratedCapacity: z.union([z.string(), z.number()]).optional(),
-    thresholdsPerCell: z.array(z.union([z.string(), z.number()])).max(20, 'at most 20 thresholds').optional(),
+    thresholdsPerCell: z
+      .array(z.union([z.string(), z.number()]))
+      .max(20, 'at most 20 thresholds')
+      .optional(),
     assumedPower: z.union([z.string(), z.number()]).optional(),
     assumedResistance: z.union([z.string(), z.number()]).optional(),
   })
   .transform((raw) => Object.fromEntries(Object.entries(raw).filter(([, v]) => v !== undefined && v !== '')) as typeof raw)
   .superRefine((raw, ctx) => {
     // The engine's schema with two dummy samples: the same messages as POST /api/calc/discharge.
-    const parsed = dischargeInput.safeParse({ ...raw, samples: [{ t: 0, v: 1 }, { t: 1, v: 1 }] })
+    const parsed = dischargeInput.safeParse({
+      ...raw,
+      samples: [
+        { t: 0, v: 1 },
+        { t: 1, v: 1 },
+      ],
+    })
     if (parsed.success) return
     for (const issue of parsed.error.issues) ctx.addIssue({ code: z.ZodIssueCode.custom, path: issue.path, message: issue.message })
   })
@@ -84,7 +106,13 @@ export type DischargeOptionsInput = z.output<typeof DischargeOptionsSchema>
 
 /** The options in base units, as the engine reads them. */
 export function engineOptions(raw: DischargeOptionsInput) {
-  const parsed = dischargeInput.parse({ ...raw, samples: [{ t: 0, v: 1 }, { t: 1, v: 1 }] })
+  const parsed = dischargeInput.parse({
+    ...raw,
+    samples: [
+      { t: 0, v: 1 },
+      { t: 1, v: 1 },
+    ],
+  })
   const { samples: _samples, ...options } = parsed
   return options
 }
@@ -112,7 +140,8 @@ export const DischargeAnalyseSchema = z
     runtimeNote: text(500).default(''),
   })
   .superRefine((v, ctx) => {
-    if (!v.uploadId === !v.fileId) ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['uploadId'], message: 'give either uploadId (a new upload) or fileId (a stored file)' })
+    if (!v.uploadId === !v.fileId)
+      ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['uploadId'], message: 'give either uploadId (a new upload) or fileId (a stored file)' })
     if (!v.dryRun && !v.title) ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['title'], message: 'is required to save the log' })
   })
 export type DischargeAnalyse = z.output<typeof DischargeAnalyseSchema>
@@ -120,14 +149,21 @@ export type DischargeAnalyse = z.output<typeof DischargeAnalyseSchema>
 /** A log sent as text in a JSON body (scripts, tests); the browser sends multipart field "file". */
 export const DischargeTextUploadSchema = z.object({
   name: text(200).min(1, 'is required'),
-  text: z.string({ invalid_type_error: 'must be text', required_error: 'is required' }).max(1_000_000, 'is too long for a JSON upload: send the file as multipart/form-data'),
+  text: z
+    .string({ invalid_type_error: 'must be text', required_error: 'is required' })
+    .max(1_000_000, 'is too long for a JSON upload: send the file as multipart/form-data'),
 })
 
 export const DischargeListQuerySchema = z.object({
   sheetId: id('a specification sheet').optional(),
   testRecordId: id('a test record').optional(),
   luminaireId: id('a luminaire').optional(),
-  limit: z.coerce.number({ invalid_type_error: 'must be a number' }).int('must be a whole number').min(1, 'must be at least 1').max(200, 'must be at most 200').default(50),
+  limit: z.coerce
+    .number({ invalid_type_error: 'must be a number' })
+    .int('must be a whole number')
+    .min(1, 'must be at least 1')
+    .max(200, 'must be at most 200')
+    .default(50),
 })
 export type DischargeListQuery = z.output<typeof DischargeListQuerySchema>
 

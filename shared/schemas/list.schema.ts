@@ -22,7 +22,10 @@ export const PageQuery = z.object({
 /** A moment, ISO 8601 with a zone ("2026-11-30T06:00:00Z"): records changed at or after it. */
 export const UpdatedSinceSchema = z
   .string()
-  .refine((v) => /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}(:\d{2}(\.\d+)?)?(Z|[+-]\d{2}:?\d{2})$/.test(v) && !Number.isNaN(Date.parse(v)), 'must be a moment written ISO 8601 with its zone, e.g. 2026-11-30T06:00:00Z')
+  .refine(
+    (v) => /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}(:\d{2}(\.\d+)?)?(Z|[+-]\d{2}:?\d{2})$/.test(v) && !Number.isNaN(Date.parse(v)),
+    'must be a moment written ISO 8601 with its zone, e.g. 2026-11-30T06:00:00Z',
+  )
 
 /** The states the register's lists filter on (a luminaire may be in several). */
 export const ATTENTION_STATES = ['overdue', 'failed', 'due-soon'] as const
@@ -31,7 +34,12 @@ export type AttentionState = (typeof ATTENTION_STATES)[number]
 /** `?state=overdue,failed` or `?state=overdue&state=failed`. */
 const StatesSchema = z
   .union([z.string(), z.array(z.string())])
-  .transform((v) => (Array.isArray(v) ? v : [v]).flatMap((s) => s.split(',')).map((s) => s.trim()).filter(Boolean))
+  .transform((v) =>
+    (Array.isArray(v) ? v : [v])
+      .flatMap((s) => s.split(','))
+      .map((s) => s.trim())
+      .filter(Boolean),
+  )
   .pipe(z.array(z.enum(ATTENTION_STATES, { errorMap: () => ({ message: `must be ${ATTENTION_STATES.join(', ')} (or several, comma-separated)` }) })))
 
 const uuidQuery = (what: string) => z.string().uuid(`is not ${what} id`)

@@ -51,11 +51,23 @@ export const LuminaireSchema = z.object({
   /** Optional link to a luminaire type. */
   luminaireTypeId: referenceId('luminaireType', 'is not a luminaire type id').nullable().default(null),
   /** Place in the site's walking order for a round (1 first); null: after those with a place. */
-  walkOrder: z.number({ invalid_type_error: 'must be a whole number' }).int('must be a whole number').min(1, 'must be at least 1').max(100_000, 'must be at most 100000').nullable().default(null),
+  walkOrder: z
+    .number({ invalid_type_error: 'must be a whole number' })
+    .int('must be a whole number')
+    .min(1, 'must be at least 1')
+    .max(100_000, 'must be at most 100000')
+    .nullable()
+    .default(null),
   /** The final circuit it is on, as marked at the distribution board (the test planner can group by it). */
   circuit: z.string({ invalid_type_error: 'must be text' }).trim().max(40, 'must be at most 40 characters').default(''),
   /** Hours to full charge from a charger check, when known (else 24 h is assumed for planning). */
-  rechargeH: z.number({ invalid_type_error: 'must be a number of hours' }).finite('must be a finite number').gt(0, 'must be more than 0 hours').max(72, 'must be at most 72 hours').nullable().default(null),
+  rechargeH: z
+    .number({ invalid_type_error: 'must be a number of hours' })
+    .finite('must be a finite number')
+    .gt(0, 'must be more than 0 hours')
+    .max(72, 'must be at most 72 hours')
+    .nullable()
+    .default(null),
   /** The key an outside schedule knows it by (unique on its site): importing the schedule again updates this luminaire. */
   externalId: z.string().trim().min(1, 'must not be empty (send null for none)').max(80, 'must be at most 80 characters').nullable().default(null),
   /** The last functional test done before this register kept its log book, e.g. from the previous contractor's records. */
@@ -74,8 +86,20 @@ export const PackReplacementSchema = PackSchema.partial({ chemistry: true, cells
 
 /** Columns of an imported luminaire schedule (CSV header names). */
 export const IMPORT_COLUMNS = [
-  'tag', 'area', 'location', 'type', 'purpose', 'mode', 'rated_duration_h', 'chemistry', 'cells', 'capacity_ah', 'pack_fitted_on',
-  'external_id', 'last_functional_test_on', 'last_duration_test_on',
+  'tag',
+  'area',
+  'location',
+  'type',
+  'purpose',
+  'mode',
+  'rated_duration_h',
+  'chemistry',
+  'cells',
+  'capacity_ah',
+  'pack_fitted_on',
+  'external_id',
+  'last_functional_test_on',
+  'last_duration_test_on',
 ] as const
 export const REQUIRED_IMPORT_COLUMNS = ['tag', 'purpose', 'mode', 'rated_duration_h', 'chemistry', 'cells', 'capacity_ah', 'pack_fitted_on'] as const
 
@@ -85,9 +109,22 @@ export const REQUIRED_IMPORT_COLUMNS = ['tag', 'purpose', 'mode', 'rated_duratio
  * they hold is worked out again from the log book, never taken from the file.
  */
 export const REGISTER_DERIVED_COLUMNS = [
-  'last_functional', 'next_functional', 'last_duration', 'next_duration', 'state', 'replace_pack_by',
-  'functional_due_reason', 'functional_overdue_after', 'duration_due_reason', 'duration_overdue_after',
-  'open_failure', 'failed_on', 'faults', 'remedial_action', 'retest_due_by', 'retest_overdue',
+  'last_functional',
+  'next_functional',
+  'last_duration',
+  'next_duration',
+  'state',
+  'replace_pack_by',
+  'functional_due_reason',
+  'functional_overdue_after',
+  'duration_due_reason',
+  'duration_overdue_after',
+  'open_failure',
+  'failed_on',
+  'faults',
+  'remedial_action',
+  'retest_due_by',
+  'retest_overdue',
 ] as const
 
 /** One CSV row, cells as text, checked column by column (the key is the CSV column). */

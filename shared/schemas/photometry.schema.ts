@@ -102,15 +102,17 @@ export const RouteNeedSchema = z
 export type RouteNeedInput = z.output<typeof RouteNeedSchema>
 
 /** Put a chosen type on a specification sheet: a new draft, or a new revision of an existing sheet. */
-export const PickSchema = z.object({
-  typeId: referenceId('luminaireType', 'is not a luminaire type id', { required: 'is required' }),
-  route: RouteNeedSchema,
-  title: text(200).optional(),
-  /** The sheet to update; without it a new draft sheet is made. */
-  sheetId: referenceId('specSheet', 'is not a sheet id').optional(),
-  /** The sheet version the designer started from (needed with sheetId). */
-  version: z.number({ invalid_type_error: 'must be the version number you started from' }).int('must be a whole number').min(1).optional(),
-}).superRefine((v, ctx) => {
-  if (v.sheetId && v.version === undefined) ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['version'], message: 'is required when updating a sheet' })
-})
+export const PickSchema = z
+  .object({
+    typeId: referenceId('luminaireType', 'is not a luminaire type id', { required: 'is required' }),
+    route: RouteNeedSchema,
+    title: text(200).optional(),
+    /** The sheet to update; without it a new draft sheet is made. */
+    sheetId: referenceId('specSheet', 'is not a sheet id').optional(),
+    /** The sheet version the designer started from (needed with sheetId). */
+    version: z.number({ invalid_type_error: 'must be the version number you started from' }).int('must be a whole number').min(1).optional(),
+  })
+  .superRefine((v, ctx) => {
+    if (v.sheetId && v.version === undefined) ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['version'], message: 'is required when updating a sheet' })
+  })
 export type PickInput = z.output<typeof PickSchema>

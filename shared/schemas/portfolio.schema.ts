@@ -27,7 +27,11 @@ export const PortfolioQuerySchema = z
 export const PackPriceSchema = z
   .object({
     typeLabel: z.string().trim().min(1, 'is required').max(80, 'at most 80 characters'),
-    price: z.number({ invalid_type_error: 'must be a number' }).finite('must be a finite number').min(0, 'cannot be negative').max(1_000_000, 'is not a plausible pack price'),
+    price: z
+      .number({ invalid_type_error: 'must be a number' })
+      .finite('must be a finite number')
+      .min(0, 'cannot be negative')
+      .max(1_000_000, 'is not a plausible pack price'),
     currency: z.string().regex(/^[A-Z]{3}$/, 'must be a three-letter currency code such as EUR, GBP or USD'),
   })
   .strict()

@@ -42,7 +42,8 @@ export function referenceKindOf(schema: z.ZodTypeAny): ReferenceKind | undefined
 function unwrap(schema: z.ZodTypeAny): z.ZodTypeAny {
   let s = schema
   for (;;) {
-    if (s instanceof z.ZodOptional || s instanceof z.ZodNullable || s instanceof z.ZodDefault || s instanceof z.ZodReadonly || s instanceof z.ZodCatch) s = s._def.innerType
+    if (s instanceof z.ZodOptional || s instanceof z.ZodNullable || s instanceof z.ZodDefault || s instanceof z.ZodReadonly || s instanceof z.ZodCatch)
+      s = s._def.innerType
     else if (s instanceof z.ZodEffects) s = s._def.schema
     else if (s instanceof z.ZodBranded) s = s._def.type
     else if (s instanceof z.ZodPipeline) s = s._def.in

@@ -22,7 +22,16 @@ export interface FieldChange {
 }
 
 /** Result figures worth comparing (the working and warnings are compared as a count only). */
-const RESULT_FIELDS = ['cellsInSeries', 'averageCurrentA', 'requiredCapacityAh', 'selectedCapacityAh', 'runtimeH', 'runtimeEndOfLifeH', 'serviceLifeYears', 'energyWh'] as const
+const RESULT_FIELDS = [
+  'cellsInSeries',
+  'averageCurrentA',
+  'requiredCapacityAh',
+  'selectedCapacityAh',
+  'runtimeH',
+  'runtimeEndOfLifeH',
+  'serviceLifeYears',
+  'energyWh',
+] as const
 
 function flatten(value: unknown, prefix: string, out: Map<string, unknown>) {
   if (value && typeof value === 'object' && !Array.isArray(value)) {
@@ -48,7 +57,8 @@ export function diffSheets(before: SheetSnapshot, after: SheetSnapshot): FieldCh
   }
   if (before.results && after.results) {
     for (const f of RESULT_FIELDS) {
-      if (!same(before.results[f], after.results[f])) changes.push({ field: `results.${f}`, before: before.results[f] ?? null, after: after.results[f] ?? null })
+      if (!same(before.results[f], after.results[f]))
+        changes.push({ field: `results.${f}`, before: before.results[f] ?? null, after: after.results[f] ?? null })
     }
   }
   if (before.engineVersion !== undefined && after.engineVersion !== undefined && before.engineVersion !== after.engineVersion) {

@@ -6,13 +6,41 @@ import { CHARGER_TYPE_LABELS, CHEMISTRY_LABELS, DRIVER_LABELS, labelOf, MODE_LAB
 
 /** The cautions every sheet and pack screen shows. Plain, short, our own words. */
 export const SHEET_CAUTIONS: Array<{ id: string; title: string; text: string }> = [
-  { id: 'isolate', title: 'Isolate the mains first', text: 'Switch off and isolate the supply, including the unswitched live that keeps the charger going, before you open a luminaire; prove it dead.' },
-  { id: 'handling', title: 'Handle packs with care', text: 'Do not short, crush, puncture or heat a pack. Wear eye protection; an electrolyte leak burns skin (alkaline in nickel cells, acid in lead-acid).' },
-  { id: 'cadmium', title: 'Nickel-cadmium', text: 'Cadmium is toxic: never put NiCd cells in general waste. Return them through a battery take-back scheme, and check whether the pack may still be placed on the market where you work.' },
-  { id: 'lithium', title: 'Lithium', text: 'A damaged or wrongly charged lithium cell can overheat and burn. Never charge it below 0 °C, keep to the charger the luminaire was designed for, and ship it under the dangerous-goods rules.' },
-  { id: 'lead', title: 'Lead-acid', text: 'Lead-acid blocks contain lead and sulphuric acid and can vent gas on overcharge: keep them ventilated, upright if vented, and send them for recycling.' },
-  { id: 'charging', title: 'Charging limits', text: 'Keep charge and trickle currents, float voltage and charging temperature within the cell ratings; too much shortens life or causes venting, too little leaves the pack short after a test.' },
-  { id: 'estimate', title: 'Engineering estimate', text: 'These figures are engineering estimates from published models and typical data. Local codes, the standards in force and a competent, licensed person decide what is installed.' },
+  {
+    id: 'isolate',
+    title: 'Isolate the mains first',
+    text: 'Switch off and isolate the supply, including the unswitched live that keeps the charger going, before you open a luminaire; prove it dead.',
+  },
+  {
+    id: 'handling',
+    title: 'Handle packs with care',
+    text: 'Do not short, crush, puncture or heat a pack. Wear eye protection; an electrolyte leak burns skin (alkaline in nickel cells, acid in lead-acid).',
+  },
+  {
+    id: 'cadmium',
+    title: 'Nickel-cadmium',
+    text: 'Cadmium is toxic: never put NiCd cells in general waste. Return them through a battery take-back scheme, and check whether the pack may still be placed on the market where you work.',
+  },
+  {
+    id: 'lithium',
+    title: 'Lithium',
+    text: 'A damaged or wrongly charged lithium cell can overheat and burn. Never charge it below 0 °C, keep to the charger the luminaire was designed for, and ship it under the dangerous-goods rules.',
+  },
+  {
+    id: 'lead',
+    title: 'Lead-acid',
+    text: 'Lead-acid blocks contain lead and sulphuric acid and can vent gas on overcharge: keep them ventilated, upright if vented, and send them for recycling.',
+  },
+  {
+    id: 'charging',
+    title: 'Charging limits',
+    text: 'Keep charge and trickle currents, float voltage and charging temperature within the cell ratings; too much shortens life or causes venting, too little leaves the pack short after a test.',
+  },
+  {
+    id: 'estimate',
+    title: 'Engineering estimate',
+    text: 'These figures are engineering estimates from published models and typical data. Local codes, the standards in force and a competent, licensed person decide what is installed.',
+  },
 ]
 
 /** Words for each pack input (dotted paths), for forms, sheets and the PDF. */

@@ -24,7 +24,9 @@ export const PACK_INPUT_KEYS = Object.keys(sizeInputObject.shape) as Array<keyof
 export const PackInputsSchema = z
   .record(z.unknown(), { invalid_type_error: 'must be an object of pack inputs', required_error: 'is required' })
   .superRefine(refuseKeysOutside(PACK_INPUT_KEYS))
-  .transform((raw) => Object.fromEntries(Object.entries(raw).filter(([k, v]) => (PACK_INPUT_KEYS as string[]).includes(k) && v !== undefined && v !== null && v !== '')))
+  .transform((raw) =>
+    Object.fromEntries(Object.entries(raw).filter(([k, v]) => (PACK_INPUT_KEYS as string[]).includes(k) && v !== undefined && v !== null && v !== '')),
+  )
   .superRefine((raw, ctx) => {
     const parsed = sizeInputSchema.safeParse(raw)
     if (parsed.success) return
@@ -47,7 +49,10 @@ export type SheetContent = z.output<typeof SheetContentSchema>
 
 /** A save: the content plus the version the editor started from (optimistic concurrency). */
 export const SheetSaveSchema = SheetContentSchema.extend({
-  version: z.number({ required_error: 'is required', invalid_type_error: 'must be the version number you started from' }).int('must be a whole number').min(1, 'must be at least 1'),
+  version: z
+    .number({ required_error: 'is required', invalid_type_error: 'must be the version number you started from' })
+    .int('must be a whole number')
+    .min(1, 'must be at least 1'),
 })
 
 export const SHEET_STATUSES = ['draft', 'issued'] as const
@@ -59,14 +64,22 @@ export const SHEET_SORTS = ['updatedAt', 'createdAt', 'title', 'reference', 'cli
 
 export const SheetListQuerySchema = z.object({
   page: z.coerce.number({ invalid_type_error: 'must be a page number' }).int('must be a whole number').min(1, 'must be at least 1').max(100_000).default(1),
-  pageSize: z.coerce.number({ invalid_type_error: 'must be a number' }).int('must be a whole number').min(1, 'must be at least 1').max(100, 'must be at most 100').default(20),
+  pageSize: z.coerce
+    .number({ invalid_type_error: 'must be a number' })
+    .int('must be a whole number')
+    .min(1, 'must be at least 1')
+    .max(100, 'must be at most 100')
+    .default(20),
   sort: z.enum(SHEET_SORTS, { errorMap: () => ({ message: `must be one of ${SHEET_SORTS.join(', ')}` }) }).default('updatedAt'),
   order: z.enum(['asc', 'desc'], { errorMap: () => ({ message: 'must be asc or desc' }) }).default('desc'),
   q: text(200).optional(),
   chemistry: z.enum(CHEMISTRY_IDS, { errorMap: () => ({ message: `must be one of ${CHEMISTRY_IDS.join(', ')}` }) }).optional(),
   status: z.enum(SHEET_STATUSES, { errorMap: () => ({ message: 'must be draft or issued' }) }).optional(),
   author: z.string().uuid('must be a user id').optional(),
-  archived: z.enum(['true', 'false'], { errorMap: () => ({ message: 'must be true or false' }) }).default('false').transform((v) => v === 'true'),
+  archived: z
+    .enum(['true', 'false'], { errorMap: () => ({ message: 'must be true or false' }) })
+    .default('false')
+    .transform((v) => v === 'true'),
 })
 export type SheetListQuery = z.output<typeof SheetListQuerySchema>
 

@@ -9,7 +9,8 @@ export type TestRegimeId = z.infer<typeof TestRegimeSchema>
 
 export { REGIME_LABELS, REGIME_SHORT_LABELS } from '../labels'
 
-const text = (max: number) => z.string({ required_error: 'is required', invalid_type_error: 'must be text' }).trim().max(max, `must be at most ${max} characters`)
+const text = (max: number) =>
+  z.string({ required_error: 'is required', invalid_type_error: 'must be text' }).trim().max(max, `must be at most ${max} characters`)
 
 export const SiteSchema = z.object({
   name: text(120).min(1, 'is required'),

@@ -18,7 +18,10 @@ export const CHECKLIST_ITEMS = [
   { id: 'no-damage', label: 'No damage, no missing parts', kinds: ['functional', 'duration'] },
   { id: 'lit-full-duration', label: 'Stayed lit to the end of the rated duration', kinds: ['duration'] },
 ] as const
-export const CHECKLIST_ITEM_IDS = CHECKLIST_ITEMS.map((i) => i.id) as unknown as readonly [(typeof CHECKLIST_ITEMS)[number]['id'], ...Array<(typeof CHECKLIST_ITEMS)[number]['id']>]
+export const CHECKLIST_ITEM_IDS = CHECKLIST_ITEMS.map((i) => i.id) as unknown as readonly [
+  (typeof CHECKLIST_ITEMS)[number]['id'],
+  ...Array<(typeof CHECKLIST_ITEMS)[number]['id']>,
+]
 export type ChecklistItemId = (typeof CHECKLIST_ITEMS)[number]['id']
 export const checklistFor = (kind: (typeof TEST_KINDS)[number]) => CHECKLIST_ITEMS.filter((i) => (i.kinds as readonly string[]).includes(kind))
 
@@ -51,14 +54,25 @@ export const TestRecordSchema = z
     testedOn: IsoDateSchema,
     passed: z.boolean({ required_error: 'is required (pass or fail)', invalid_type_error: 'must be true (pass) or false (fail)' }),
     /** Hours the luminaire stayed lit on a full-duration test. */
-    achievedDurationH: z.number({ invalid_type_error: 'must be a number of hours' }).finite('must be a finite number').min(0, 'cannot be negative').max(48, 'must be at most 48 hours').nullable().default(null),
+    achievedDurationH: z
+      .number({ invalid_type_error: 'must be a number of hours' })
+      .finite('must be a finite number')
+      .min(0, 'cannot be negative')
+      .max(48, 'must be at most 48 hours')
+      .nullable()
+      .default(null),
     faults: z.string().trim().max(1000, 'must be at most 1000 characters').default(''),
     remedialAction: z.string().trim().max(1000, 'must be at most 1000 characters').default(''),
     dischargeLogId: referenceId('dischargeLog', 'is not a discharge log id').nullable().default(null),
     /** Why a typed runtime differs from its discharge log by more than RUNTIME_TOLERANCE_MIN minutes. */
     runtimeNote: z.string().trim().max(500, 'must be at most 500 characters').default(''),
     /** The checklist for the test kind, as ticked: item id → fine (true) or found wrong (false). */
-    checklist: z.record(z.enum(CHECKLIST_ITEM_IDS, { errorMap: () => ({ message: `must be one of ${CHECKLIST_ITEM_IDS.join(', ')}` }) }), z.boolean({ invalid_type_error: 'must be true (fine) or false (found wrong)' })).default({}),
+    checklist: z
+      .record(
+        z.enum(CHECKLIST_ITEM_IDS, { errorMap: () => ({ message: `must be one of ${CHECKLIST_ITEM_IDS.join(', ')}` }) }),
+        z.boolean({ invalid_type_error: 'must be true (fine) or false (found wrong)' }),
+      )
+      .default({}),
     /** Why a full-duration verdict differs from what the runtime against the rated duration says. */
     verdictOverrideReason: z.string().trim().max(500, 'must be at most 500 characters').default(''),
     /** The round it belongs to (the round's client id), when recorded on a round. */
@@ -68,7 +82,11 @@ export const TestRecordSchema = z
     if (!v.passed && !v.faults) ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['faults'], message: 'say what failed' })
     // A full-duration result is only as good as the time it stayed lit: no runtime, no result.
     if (v.kind === 'duration' && v.achievedDurationH === null && !v.dischargeLogId) {
-      ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['achievedDurationH'], message: 'a full-duration test needs the time the luminaire stayed lit (hours), or its discharge log' })
+      ctx.addIssue({
+        code: z.ZodIssueCode.custom,
+        path: ['achievedDurationH'],
+        message: 'a full-duration test needs the time the luminaire stayed lit (hours), or its discharge log',
+      })
     }
     if (v.kind === 'functional' && v.achievedDurationH !== null && v.achievedDurationH > 1) {
       ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['achievedDurationH'], message: 'a functional test is short; record long runs as a duration test' })
@@ -85,7 +103,11 @@ export const TestBatchSchema = z.object({
 /** The end of a round: signed off by name and date; its records carry the same round id. */
 export const RoundSignOffSchema = z.object({
   clientId: z.string({ required_error: 'is required' }).uuid('must be a UUID made by the client'),
-  signedOffByName: z.string({ required_error: 'is required' }).trim().min(1, 'is required: the name of the person signing off').max(120, 'must be at most 120 characters'),
+  signedOffByName: z
+    .string({ required_error: 'is required' })
+    .trim()
+    .min(1, 'is required: the name of the person signing off')
+    .max(120, 'must be at most 120 characters'),
   signedOffOn: IsoDateSchema,
   notes: z.string().trim().max(2000, 'must be at most 2000 characters').default(''),
 })
@@ -94,6 +116,10 @@ export type RoundSignOff = z.output<typeof RoundSignOffSchema>
 /** Marking a test as recorded in error: the record stays in the log book, struck through, with this reason. */
 export const RecordedInErrorSchema = z
   .object({
-    reason: z.string({ required_error: 'is required', invalid_type_error: 'must be text' }).trim().min(3, 'say why, in a few words').max(400, 'must be at most 400 characters'),
+    reason: z
+      .string({ required_error: 'is required', invalid_type_error: 'must be text' })
+      .trim()
+      .min(3, 'say why, in a few words')
+      .max(400, 'must be at most 400 characters'),
   })
   .strict('give only reason')

@@ -12,7 +12,8 @@ import { auditInput } from '../engine/audit'
 export * from './wattage-audit-text'
 
 const text = (max: number) => z.string({ invalid_type_error: 'must be text' }).trim().max(max, `must be at most ${max} characters`)
-const optionalId = (kind: ReferenceKind, what: string) => referenceId(kind, `must be the id of a ${what}`, { invalidType: `must be the id of a ${what}` }).nullable()
+const optionalId = (kind: ReferenceKind, what: string) =>
+  referenceId(kind, `must be the id of a ${what}`, { invalidType: `must be the id of a ${what}` }).nullable()
 
 /** Keys the audit tool knows; anything else in saved readings is refused. */
 export const AUDIT_INPUT_KEYS: string[] = Object.keys((auditInput as unknown as z.ZodEffects<z.AnyZodObject>).innerType().shape)
@@ -58,9 +59,21 @@ export const AuditListQuerySchema = z.object({
   ids: z
     .string()
     .optional()
-    .transform((s) => (s ? s.split(',').map((x) => x.trim()).filter(Boolean) : undefined))
+    .transform((s) =>
+      s
+        ? s
+            .split(',')
+            .map((x) => x.trim())
+            .filter(Boolean)
+        : undefined,
+    )
     .pipe(z.array(z.string().uuid('must be a list of audit ids')).max(MAX_COMPARED_AUDITS, `at most ${MAX_COMPARED_AUDITS} audits side by side`).optional()),
   q: text(100).optional(),
-  limit: z.coerce.number({ invalid_type_error: 'must be a number' }).int('must be a whole number').min(1, 'must be at least 1').max(200, 'must be at most 200').default(50),
+  limit: z.coerce
+    .number({ invalid_type_error: 'must be a number' })
+    .int('must be a whole number')
+    .min(1, 'must be at least 1')
+    .max(200, 'must be at most 200')
+    .default(50),
 })
 export type AuditListQuery = z.output<typeof AuditListQuerySchema>

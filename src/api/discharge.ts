@@ -1,6 +1,15 @@
 /** /api/discharge: upload a log (with upload progress), analyse it with a mapping, save, list, compare. */
 import type { Answer } from '@shared/schemas/answers/common'
-import type { AnalyseAnswer, CurveAnswer, LogComparisonAnswer, LogListAnswer, LogMapping, LogOptions, SavedLogAnswer, UploadPreviewAnswer } from '@shared/schemas/answers/discharge'
+import type {
+  AnalyseAnswer,
+  CurveAnswer,
+  LogComparisonAnswer,
+  LogListAnswer,
+  LogMapping,
+  LogOptions,
+  SavedLogAnswer,
+  UploadPreviewAnswer,
+} from '@shared/schemas/answers/discharge'
 import { CONFIG } from '@/config'
 import { ApiError, http, problemToError } from './http'
 
@@ -64,8 +73,8 @@ export async function uploadLog(file: File, onProgress: Progress, signal?: Abort
 }
 
 export const analyseLog = (body: AnalyseBody) => http.post<AnalyseResult>('/discharge/logs', body)
-export const fetchLogs = (q: { sheetId?: string; testRecordId?: string; luminaireId?: string } = {}) => http.get<Answer<typeof LogListAnswer>>('/discharge/logs', q)
+export const fetchLogs = (q: { sheetId?: string; testRecordId?: string; luminaireId?: string } = {}) =>
+  http.get<Answer<typeof LogListAnswer>>('/discharge/logs', q)
 export const fetchLog = (id: string) => http.get<SavedLog>(`/discharge/logs/${id}`)
 export const deleteLog = (id: string) => http.del<void>(`/discharge/logs/${id}`)
-export const compareLogs = (a: string, b: string) =>
-  http.get<LogComparison>('/discharge/compare', { a, b })
+export const compareLogs = (a: string, b: string) => http.get<LogComparison>('/discharge/compare', { a, b })

@@ -32,7 +32,9 @@ export class ApiError extends Error {
  */
 export function problemToError(status: number, statusText: string, body: Record<string, unknown>): ApiError {
   const errors = Array.isArray(body.errors) ? (body.errors as Array<{ pointer?: string; detail?: string; in?: string }>) : []
-  const fields = errors.filter((e) => (e.in ?? 'body') === 'body').map((e) => ({ path: pointerToPath(String(e.pointer ?? '')), message: String(e.detail ?? '') }))
+  const fields = errors
+    .filter((e) => (e.in ?? 'body') === 'body')
+    .map((e) => ({ path: pointerToPath(String(e.pointer ?? '')), message: String(e.detail ?? '') }))
   const message = body.detail ?? body.error ?? statusText
   return new ApiError(status, String(message), String(body.code ?? 'error'), fields, body)
 }
@@ -68,7 +70,12 @@ async function ensureCsrf(): Promise<void> {
 export async function request<T>(path: string, opts: RequestOptions = {}): Promise<T> {
   const method = opts.method ?? 'GET'
   const qs = opts.query
-    ? '?' + new URLSearchParams(Object.entries(opts.query).filter(([, v]) => v !== undefined && v !== null && v !== '').map(([k, v]) => [k, String(v)])).toString()
+    ? '?' +
+      new URLSearchParams(
+        Object.entries(opts.query)
+          .filter(([, v]) => v !== undefined && v !== null && v !== '')
+          .map(([k, v]) => [k, String(v)]),
+      ).toString()
     : ''
   const headers: Record<string, string> = { Accept: 'application/json, application/problem+json', ...opts.headers }
   const isForm = typeof FormData !== 'undefined' && opts.body instanceof FormData

@@ -49,8 +49,7 @@ export type ImportResult = Answer<typeof ImportResultAnswer>
 export type TestBatchResult = Answer<typeof TestBatchAnswer>
 export type RegisterOverview = Answer<typeof RegisterOverviewAnswer>
 
-export const fetchOverview = (days = 60) =>
-  http.get<RegisterOverview>('/sites', { days })
+export const fetchOverview = (days = 60) => http.get<RegisterOverview>('/sites', { days })
 export const fetchRegisterSettings = () => http.get<RegisterSettings>('/register/settings')
 export const updateRegisterSettings = (body: Partial<RegisterSettings>) => http.patch<RegisterSettings>('/register/settings', body)
 export const createSite = (body: SiteInput) => http.post<Site>('/sites', body)
@@ -69,8 +68,7 @@ export const fetchLogBook = (siteId: string) => http.get<LogBook>(`/sites/${site
 export const markRecordedInError = (testId: string, reason: string) => http.post<LogBookEntry>(`/tests/${testId}/recorded-in-error`, { reason })
 export const renameArea = (id: string, name: string) => http.patch<Area>(`/areas/${id}`, { name })
 export const deleteArea = (id: string) => http.del<void>(`/areas/${id}`)
-export const recordTests = (records: TestRecordInput[]) =>
-  http.post<TestBatchResult>('/tests', { records })
+export const recordTests = (records: TestRecordInput[]) => http.post<TestBatchResult>('/tests', { records })
 export const previewImport = (siteId: string, csv: string) => http.post<ImportPreview>(`/sites/${siteId}/import/preview`, { csv })
 export const commitImport = (siteId: string, csv: string) => http.post<ImportResult>(`/sites/${siteId}/import`, { csv })
 /** A plain link: the browser downloads the file with the session cookie. */

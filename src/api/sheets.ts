@@ -62,7 +62,13 @@ export interface SaveConflict {
 }
 
 export const fetchSheets = (q: SheetQuery) =>
-  http.get<SheetPage>('/sheets', { ...q, archived: q.archived ? 'true' : undefined, chemistry: q.chemistry ?? undefined, status: q.status ?? undefined, author: q.author ?? undefined })
+  http.get<SheetPage>('/sheets', {
+    ...q,
+    archived: q.archived ? 'true' : undefined,
+    chemistry: q.chemistry ?? undefined,
+    status: q.status ?? undefined,
+    author: q.author ?? undefined,
+  })
 export const fetchSheetAuthors = () => http.get<Answer<typeof SheetAuthorsAnswer>>('/sheets/authors')
 export const fetchSheet = (id: string) => http.get<Sheet>(`/sheets/${id}`)
 export const createSheet = (body: SheetFields) => http.post<Sheet>('/sheets', body)
@@ -76,7 +82,8 @@ export const restoreSheet = (id: string) => http.post<Sheet>(`/sheets/${id}/rest
 export const fetchShares = (id: string) => http.get<Answer<typeof ShareListAnswer>>(`/sheets/${id}/shares`)
 export const createShare = (id: string, expiresAt: string | null) => http.post<NewShare>(`/sheets/${id}/shares`, expiresAt ? { expiresAt } : {})
 export const revokeShare = (id: string, shareId: string) => http.del<void>(`/sheets/${id}/shares/${shareId}`)
-export const emailShare = (id: string, shareId: string, body: { to: string; message: string; token: string }) => http.post<Answer<typeof SentAnswer>>(`/sheets/${id}/shares/${shareId}/email`, body)
+export const emailShare = (id: string, shareId: string, body: { to: string; message: string; token: string }) =>
+  http.post<Answer<typeof SentAnswer>>(`/sheets/${id}/shares/${shareId}/email`, body)
 export const fetchShared = (token: string) => request<SharedSheet>(`/shared/${encodeURIComponent(token)}`, { quiet401: true })
 export const sheetPdfUrl = (id: string, revision?: number) => `/api/sheets/${id}/pdf${revision ? `?revision=${revision}` : ''}`
 export const sharedPdfUrl = (token: string) => `/api/shared/${encodeURIComponent(token)}/pdf`

@@ -12,7 +12,10 @@ import { useAsyncAction } from '@/composables/useAsyncAction'
 
 type Choice = { label: string; value: string }
 
-export function useAuditRecord(form: Pick<FormContext, 'values' | 'validate' | 'setErrors'>, start: { sheetId?: string | null; luminaireId?: string | null } = {}) {
+export function useAuditRecord(
+  form: Pick<FormContext, 'values' | 'validate' | 'setErrors'>,
+  start: { sheetId?: string | null; luminaireId?: string | null } = {},
+) {
   const title = ref('')
   const titleError = ref<string | null>(null)
   const description = ref('')
@@ -30,7 +33,9 @@ export function useAuditRecord(form: Pick<FormContext, 'values' | 'validate' | '
       current.value = await api.attachAudit(id, { specSheetId: attachSheet.value, luminaireId: attachLuminaire.value })
       return true
     },
-    { describe: (err) => (err instanceof ApiError && err.fields.length ? err.fields.map((f) => `${f.path}: ${f.message}`).join('; ') : (err as Error).message) },
+    {
+      describe: (err) => (err instanceof ApiError && err.fields.length ? err.fields.map((f) => `${f.path}: ${f.message}`).join('; ') : (err as Error).message),
+    },
   )
   const attaching = attacher.pending
   const attachError = attacher.error
@@ -107,7 +112,26 @@ export function useAuditRecord(form: Pick<FormContext, 'values' | 'validate' | '
     if (a.luminaireLink) attachSite.value = a.luminaireLink.siteId
   }
 
-  return { title, titleError, description, saving, saveError, current, sheetOptions, siteOptions, luminaireOptions, attachSheet, attachSite, attachLuminaire, attaching, attachError, loadChoices, save, attach, fill }
+  return {
+    title,
+    titleError,
+    description,
+    saving,
+    saveError,
+    current,
+    sheetOptions,
+    siteOptions,
+    luminaireOptions,
+    attachSheet,
+    attachSite,
+    attachLuminaire,
+    attaching,
+    attachError,
+    loadChoices,
+    save,
+    attach,
+    fill,
+  }
 }
 
 export type AuditRecord = ReturnType<typeof useAuditRecord>

@@ -87,7 +87,10 @@ export function useDischargeAnalysis() {
 
   /** The request body: mapping and options as set, plus whatever the caller adds (title, links, dryRun). */
   function body(extra: Partial<api.AnalyseBody> = {}): api.AnalyseBody {
-    const thresholds = options.thresholds.split(/[;\s]+/).map((x) => x.trim()).filter(Boolean)
+    const thresholds = options.thresholds
+      .split(/[;\s]+/)
+      .map((x) => x.trim())
+      .filter(Boolean)
     return {
       uploadId: upload.value?.uploadId,
       mapping: { ...mapping, current: currentColumn.value === null ? null : { column: currentColumn.value, unit: currentUnit.value } },
@@ -124,9 +127,27 @@ export function useDischargeAnalysis() {
   const role = (k: number) => (k === mapping.time.column ? 'time' : k === mapping.voltage.column ? 'voltage' : k === currentColumn.value ? 'current' : '')
 
   return {
-    file, uploaded, uploading, upload, uploadError, percent, chooseFile,
-    mapping, currentColumn, currentUnit, options, role, packDefaults,
-    analysing, analyseError, fieldErrors, badRows, result, analyse, goOnWithoutBadRows, body,
+    file,
+    uploaded,
+    uploading,
+    upload,
+    uploadError,
+    percent,
+    chooseFile,
+    mapping,
+    currentColumn,
+    currentUnit,
+    options,
+    role,
+    packDefaults,
+    analysing,
+    analyseError,
+    fieldErrors,
+    badRows,
+    result,
+    analyse,
+    goOnWithoutBadRows,
+    body,
   }
 }
 export type DischargeAnalysis = ReturnType<typeof useDischargeAnalysis>

@@ -47,11 +47,19 @@ export function usePackSheet(form: FormContext<Record<string, unknown>>, inputs:
     if (err instanceof ApiError && err.fields.length) {
       const pack = err.fields.filter((f) => f.path.startsWith('inputs.'))
       if (pack.length) form.setErrors(Object.fromEntries(pack.map((f) => [f.path.slice(7), f.message])) as never)
-      details.value?.applyServerError(new ApiError(err.status, err.message, err.code, err.fields.filter((f) => !f.path.startsWith('inputs.'))))
+      details.value?.applyServerError(
+        new ApiError(
+          err.status,
+          err.message,
+          err.code,
+          err.fields.filter((f) => !f.path.startsWith('inputs.')),
+        ),
+      )
     }
   }
   /** Someone else saved the sheet since it was opened: their version, offered instead of a message. */
-  const conflictOf = (err: unknown) => (err instanceof ApiError && err.status === 409 && err.body.currentVersion ? (err.body as unknown as api.SaveConflict) : null)
+  const conflictOf = (err: unknown) =>
+    err instanceof ApiError && err.status === 409 && err.body.currentVersion ? (err.body as unknown as api.SaveConflict) : null
 
   const saver = useAsyncAction(
     async (overwrite: boolean, meta: SheetMeta) => {

@@ -21,15 +21,23 @@ export const REPLACE_DEFAULTS = {
 export function useReplacePack() {
   const units = useUnits()
   // Temperatures start in the user's units (25 °C is 77 °F); the engine reads either.
-  const form = useZodForm(replaceInputSchema, { ...structuredClone(REPLACE_DEFAULTS), ambientMin: units.text(REPLACE_DEFAULTS.ambientMin), ambientMax: units.text(REPLACE_DEFAULTS.ambientMax) } as never, { keepAsTyped: true })
+  const form = useZodForm(
+    replaceInputSchema,
+    { ...structuredClone(REPLACE_DEFAULTS), ambientMin: units.text(REPLACE_DEFAULTS.ambientMin), ambientMax: units.text(REPLACE_DEFAULTS.ambientMax) } as never,
+    { keepAsTyped: true },
+  )
   const values = computed(() => withoutEmptyFields(form.values))
   const calc = computed(() => recalcReplace(values.value))
   const result = computed(() => calc.value.result)
   const chosen = ref<number | null>(null)
   // A new result chooses its recommended pack again.
-  watch(result, (r) => {
-    chosen.value = r?.recommended ?? null
-  }, { immediate: true })
-  const chosenCandidate = computed(() => (result.value && chosen.value !== null ? result.value.candidates[chosen.value] ?? null : null))
+  watch(
+    result,
+    (r) => {
+      chosen.value = r?.recommended ?? null
+    },
+    { immediate: true },
+  )
+  const chosenCandidate = computed(() => (result.value && chosen.value !== null ? (result.value.candidates[chosen.value] ?? null) : null))
   return { form, values, calc, result, chosen, chosenCandidate }
 }

@@ -126,8 +126,13 @@ export function useRound(siteId: string, planned: PlannedGroup | null = null) {
     void queue.flush()
     round.value.recordIds = { ...round.value.recordIds, [l.id]: candidate.clientId }
     const result: RoundResult = {
-      luminaireId: l.id, tag: l.tag, kind: checked.data.kind, passed: checked.data.passed, achievedDurationH: checked.data.achievedDurationH,
-      faults: checked.data.faults, remedialAction: checked.data.remedialAction,
+      luminaireId: l.id,
+      tag: l.tag,
+      kind: checked.data.kind,
+      passed: checked.data.passed,
+      achievedDurationH: checked.data.achievedDurationH,
+      faults: checked.data.faults,
+      remedialAction: checked.data.remedialAction,
     }
     round.value.results = [...round.value.results.filter((r) => r.luminaireId !== l.id), result]
     // On to the next luminaire not yet recorded (or the end of the round).
@@ -155,8 +160,27 @@ export function useRound(siteId: string, planned: PlannedGroup | null = null) {
   }
 
   return {
-    status, loadError, queue, planTitle, order, index, current, finished, failures, recordedIds, signedOff,
-    roundKind: computed(() => round.value.kind), results: computed(() => round.value.results),
-    kindOf, setRoundKind, setKind, record, jumpTo, skip, back, endRound, signOff,
+    status,
+    loadError,
+    queue,
+    planTitle,
+    order,
+    index,
+    current,
+    finished,
+    failures,
+    recordedIds,
+    signedOff,
+    roundKind: computed(() => round.value.kind),
+    results: computed(() => round.value.results),
+    kindOf,
+    setRoundKind,
+    setKind,
+    record,
+    jumpTo,
+    skip,
+    back,
+    endRound,
+    signOff,
   }
 }

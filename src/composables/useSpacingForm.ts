@@ -34,7 +34,16 @@ export function useSpacingForm() {
   const source = ref<string | null>(null)
   const auditId = ref<string | null>(null)
   // Lengths and illuminance are held in the user's display units and converted on sending.
-  const form = reactive({ mountingHeight: 2.5 as number | null, emergencyOutputFactor: 0.5 as number | null, maintenanceFactor: 0.8 as number | null, criteria: 'en1838-route' as (typeof CRITERIA_IDS)[number], routeWidth: 2 as number | null, routeLength: 30 as number | null, normalIlluminance: null as number | null, endOfDurationFactor: 1 as number | null })
+  const form = reactive({
+    mountingHeight: 2.5 as number | null,
+    emergencyOutputFactor: 0.5 as number | null,
+    maintenanceFactor: 0.8 as number | null,
+    criteria: 'en1838-route' as (typeof CRITERIA_IDS)[number],
+    routeWidth: 2 as number | null,
+    routeLength: 30 as number | null,
+    normalIlluminance: null as number | null,
+    endOfDurationFactor: 1 as number | null,
+  })
   const points = ref<RoutePointRow[]>([])
   /** Where the emergency output factor shown came from: the chosen type, an audit, or typed. */
   const factorFrom = ref<'type' | 'audit' | 'typed'>('typed')
@@ -58,7 +67,12 @@ export function useSpacingForm() {
   const busy = calc.pending
 
   const sourceOptions = computed<SelectOption[]>(() => [
-    { type: 'group', label: 'Luminaire types', key: 'types', children: types.value.filter((t) => t.photometricFileId).map((t) => ({ label: t.name, value: `type:${t.id}` })) },
+    {
+      type: 'group',
+      label: 'Luminaire types',
+      key: 'types',
+      children: types.value.filter((t) => t.photometricFileId).map((t) => ({ label: t.name, value: `type:${t.id}` })),
+    },
     { type: 'group', label: 'Photometric files', key: 'files', children: files.value.map((f) => ({ label: f.name, value: `file:${f.id}` })) },
   ])
   const auditOptions = computed(() =>
@@ -72,8 +86,11 @@ export function useSpacingForm() {
     files.value = f.files
     types.value = t.types
     // Saved wattage audits can supply the emergency output ratio; without them it is typed.
-    audits.value = await fetchAudits({ limit: 100 }).then((r) => r.items).catch(() => [])
-    const fromQuery = typeof route.query.type === 'string' ? `type:${route.query.type}` : typeof route.query.file === 'string' ? `file:${route.query.file}` : null
+    audits.value = await fetchAudits({ limit: 100 })
+      .then((r) => r.items)
+      .catch(() => [])
+    const fromQuery =
+      typeof route.query.type === 'string' ? `type:${route.query.type}` : typeof route.query.file === 'string' ? `file:${route.query.file}` : null
     const firstType = types.value.find((x) => x.photometricFileId)
     source.value = fromQuery ?? (firstType ? `type:${firstType.id}` : files.value[0] ? `file:${files.value[0].id}` : null)
     // Lengths shown in the user's units from the start, as round numbers (2.5 m is 8 ft, not 8.2021 ft).
@@ -140,7 +157,9 @@ export function useSpacingForm() {
             ratedDurationS: t.ratedDurationS,
             maintenanceFactor: form.maintenanceFactor as number,
             ...(form.emergencyOutputFactor !== null ? { emergencyOutputFactor: form.emergencyOutputFactor } : {}),
-            ...(form.criteria === 'en1838-high-risk' && form.normalIlluminance !== null ? { normalIlluminanceLx: si('illuminance', form.normalIlluminance) } : {}),
+            ...(form.criteria === 'en1838-high-risk' && form.normalIlluminance !== null
+              ? { normalIlluminanceLx: si('illuminance', form.normalIlluminance) }
+              : {}),
             ...(form.criteria === 'nfpa101' && form.endOfDurationFactor !== null ? { endOfDurationFactor: form.endOfDurationFactor } : {}),
           },
           { table, emergencyOutputFactor: t.emergencyOutputFactor },
@@ -157,7 +176,8 @@ export function useSpacingForm() {
           ...(form.criteria === 'nfpa101' && form.endOfDurationFactor !== null ? { endOfDurationFactor: form.endOfDurationFactor } : {}),
         }
     // A point without a position goes as missing, so the engine names it.
-    if (points.value.length) body.points = points.value.map((p) => ({ kind: p.kind, at: si('length', p.at), ...(p.name.trim() ? { name: p.name.trim() } : {}) }))
+    if (points.value.length)
+      body.points = points.value.map((p) => ({ kind: p.kind, at: si('length', p.at), ...(p.name.trim() ? { name: p.name.trim() } : {}) }))
     // Empty fields go as missing, so the engine names them.
     for (const k of Object.keys(body)) if (body[k] === undefined || body[k] === null) delete body[k]
     body.heights = TABLE_HEIGHTS

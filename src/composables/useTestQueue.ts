@@ -47,7 +47,10 @@ export function useTestQueue(key: string) {
     },
     {
       keepError: true,
-      describe: (err) => (err instanceof ApiError && err.status === 0 ? 'No connection. The results are kept on this device and will be sent when you are back online.' : (err as Error).message),
+      describe: (err) =>
+        err instanceof ApiError && err.status === 0
+          ? 'No connection. The results are kept on this device and will be sent when you are back online.'
+          : (err as Error).message,
     },
   )
   const sending = sender.pending

@@ -1,5 +1,17 @@
 import { computed } from 'vue'
-import { displayUnit, formatDisplay, formatTemperatureStep, inUserUnits, fromDisplay, regionDefaults, roundDefault, toDisplay, unitLabel, type DisplayKind, type UnitSystem } from '@shared/engine/units'
+import {
+  displayUnit,
+  formatDisplay,
+  formatTemperatureStep,
+  inUserUnits,
+  fromDisplay,
+  regionDefaults,
+  roundDefault,
+  toDisplay,
+  unitLabel,
+  type DisplayKind,
+  type UnitSystem,
+} from '@shared/engine/units'
 import { decimalMark, formatDuration } from '@shared/format'
 import { readQuantity, type ReadResult } from '@shared/format/input'
 import { useAuthStore } from '@/stores/auth'
@@ -43,7 +55,11 @@ export function useUnits() {
     inputText,
     /** What was typed, read into SI: a bare number in the user's unit, or any unit written out ("27 °C", "10 ft"). */
     read: (kind: TypedKind, typed: unknown): ReadResult =>
-      readQuantity(typed, kind, { locale: prefs.locale, bareUnit: displayUnit(kind, system.value), expected: `${NOUNS[kind]} such as "${EXAMPLES[kind][system.value]}"` }),
+      readQuantity(typed, kind, {
+        locale: prefs.locale,
+        bareUnit: displayUnit(kind, system.value),
+        expected: `${NOUNS[kind]} such as "${EXAMPLES[kind][system.value]}"`,
+      }),
     /** A temperature difference (10 °C is 18 °F). */
     temperatureStep: (stepC: number) => formatTemperatureStep(system.value, stepC, prefs),
     /** An engine sentence or a figure written in SI, with its quantities in the user's units. */

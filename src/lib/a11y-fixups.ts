@@ -16,13 +16,15 @@ export function installA11yFixups(root: HTMLElement = document.body): MutationOb
       buttons.forEach((b) => b.setAttribute('aria-label', b.classList.contains('n-input-number-button--minus') || b === buttons[0] ? 'Decrease' : 'Increase'))
     })
     // Check boxes without visible text (table row selection) point at a label that is not there.
-    root.querySelectorAll<HTMLElement>('[role="checkbox"][aria-labelledby], [role="switch"][aria-labelledby], [role="radio"][aria-labelledby]').forEach((el) => {
-      const id = el.getAttribute('aria-labelledby')
-      if (id && !document.getElementById(id) && !el.hasAttribute('aria-label')) {
-        const row = el.closest('tr')
-        el.setAttribute('aria-label', row ? `Select: ${(row.textContent ?? '').trim().slice(0, 60)}` : 'Select all')
-      }
-    })
+    root
+      .querySelectorAll<HTMLElement>('[role="checkbox"][aria-labelledby], [role="switch"][aria-labelledby], [role="radio"][aria-labelledby]')
+      .forEach((el) => {
+        const id = el.getAttribute('aria-labelledby')
+        if (id && !document.getElementById(id) && !el.hasAttribute('aria-label')) {
+          const row = el.closest('tr')
+          el.setAttribute('aria-label', row ? `Select: ${(row.textContent ?? '').trim().slice(0, 60)}` : 'Select all')
+        }
+      })
     root.querySelectorAll<HTMLElement>('.n-data-table .n-scrollbar-container:not([tabindex]), .v-x-scroll:not([tabindex])').forEach((el) => {
       if (el.scrollWidth > el.clientWidth || el.scrollHeight > el.clientHeight) {
         el.setAttribute('tabindex', '0')

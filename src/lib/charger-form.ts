@@ -31,8 +31,15 @@ export function chargerInputsOf(values: Record<string, unknown>): Record<string,
 /** The charger check's pack and load as new sheet inputs (the checked pack's capacity and cells), with the charger. */
 export function sheetInputsFromCharger(values: Record<string, unknown>, cellsInSeries: number): Record<string, unknown> {
   const inputs: Record<string, unknown> = {
-    chemistry: values.chemistry, cellsInSeries, capacity: values.capacity, duration: values.duration, driver: values.driver,
-    load: values.load, driverEfficiency: values.driverEfficiency, averageCellVoltage: values.averageCellVoltage, converterInput: values.converterInput,
+    chemistry: values.chemistry,
+    cellsInSeries,
+    capacity: values.capacity,
+    duration: values.duration,
+    driver: values.driver,
+    load: values.load,
+    driverEfficiency: values.driverEfficiency,
+    averageCellVoltage: values.averageCellVoltage,
+    converterInput: values.converterInput,
     charger: chargerInputsOf(values),
   }
   for (const k of Object.keys(inputs)) if (inputs[k] === undefined) delete inputs[k]

@@ -34,7 +34,10 @@ export const CURVE_TEMPERATURES = Array.from({ length: 15 }, (_, i) => -20 + i *
 /** Runtime of the chosen pack when the coldest ambient is each temperature of the chart. */
 export function runtimeCurve(input: SizeInput, capacityAh: number, temperatures = CURVE_TEMPERATURES): RuntimePoint[] {
   return temperatures.map((t) => {
-    const r = sizePack({ ...input, capacity: capacityAh * 3600, capacityLadder: undefined, ambientMin: t, ambientMax: Math.max(t, input.ambientMax) }, { explain: false })
+    const r = sizePack(
+      { ...input, capacity: capacityAh * 3600, capacityLadder: undefined, ambientMin: t, ambientMax: Math.max(t, input.ambientMax) },
+      { explain: false },
+    )
     return { temperatureC: t, runtimeH: r.runtimeH, runtimeEndOfLifeH: r.runtimeEndOfLifeH }
   })
 }
@@ -44,10 +47,7 @@ export function runtimeCurve(input: SizeInput, capacityAh: number, temperatures 
  * default weights; the chosen chemistry's row is sized with exactly the bench's input, so it matches the results.
  */
 export function compareAll(input: SizeInput & { load: NonNullable<SizeInput['load']> }, nominalVoltageV: number): CompareResult {
-  return compareChemistries(
-    { ...input, nominalVoltage: nominalVoltageV, chemistries: [...CHEMISTRY_IDS], weights: { ...DEFAULT_WEIGHTS } },
-    { exact: input },
-  )
+  return compareChemistries({ ...input, nominalVoltage: nominalVoltageV, chemistries: [...CHEMISTRY_IDS], weights: { ...DEFAULT_WEIGHTS } }, { exact: input })
 }
 
 /** One keystroke's worth of work. Raw values are the form's, units as typed. */

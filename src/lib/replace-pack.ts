@@ -49,7 +49,11 @@ export function sheetInputsFor(raw: Record<string, unknown>, result: ReplaceResu
     Object.assign(inputs, { ambientMin: '20 °C', designMargin: 0 })
   }
   const charger = (raw.charger ?? {}) as Record<string, unknown>
-  inputs.charger = { type: charger.type, chargeCurrent: charger.chargeCurrent, ...(charger.trickleCurrent !== undefined ? { trickleCurrent: charger.trickleCurrent } : {}) }
+  inputs.charger = {
+    type: charger.type,
+    chargeCurrent: charger.chargeCurrent,
+    ...(charger.trickleCurrent !== undefined ? { trickleCurrent: charger.trickleCurrent } : {}),
+  }
   for (const k of Object.keys(inputs)) if (inputs[k] === undefined) delete inputs[k]
   return inputs
 }
@@ -62,13 +66,22 @@ export function packName(c: Pick<ReplaceCandidate, 'chemistry' | 'cellsInSeries'
 /** The words of the sheet's luminaire field: which pack this replaces and how the current was found. */
 export function sheetDescription(result: ReplaceResult): string {
   const old = result.oldPack
-  const how = result.dischargeSource === 'label'
-    ? 'No load or measured current was given: the discharge current is what the old pack just gives for the rated duration at end of life, so the new pack is judged against it at 20 °C with no design margin; the cold was not judged. Measure the discharge current to check it.'
-    : result.dischargeSource === 'measured' ? 'The discharge current was measured.' : 'The discharge current comes from the LED load.'
+  const how =
+    result.dischargeSource === 'label'
+      ? 'No load or measured current was given: the discharge current is what the old pack just gives for the rated duration at end of life, so the new pack is judged against it at 20 °C with no design margin; the cold was not judged. Measure the discharge current to check it.'
+      : result.dischargeSource === 'measured'
+        ? 'The discharge current was measured.'
+        : 'The discharge current comes from the LED load.'
   return `Replaces the old pack: ${packName({ ...old, capacityAh: old.capacityAh })}, read from its label. ${how}`
 }
 
 /** What the register records as the new pack fitted. */
 export function fittedPackFor(c: ReplaceCandidate, fittedOn: string) {
-  return { packFittedOn: fittedOn, chemistry: c.chemistry, cellsInSeries: c.cellsInSeries, capacityAh: sig(c.capacityAh), note: `Replacement from its label: ${packName(c)}` }
+  return {
+    packFittedOn: fittedOn,
+    chemistry: c.chemistry,
+    cellsInSeries: c.cellsInSeries,
+    capacityAh: sig(c.capacityAh),
+    note: `Replacement from its label: ${packName(c)}`,
+  }
 }

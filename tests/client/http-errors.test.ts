@@ -43,7 +43,16 @@ describe('request', () => {
       { in: 'body', pointer: '/title', detail: 'is required' },
       { in: 'body', pointer: '/inputs/claimedPower', detail: 'must be a power such as "4 W"' },
     ]
-    fetchMock.mockResolvedValueOnce(answer(400, { type: '/api/problems/invalid_input', title: 'Invalid input', status: 400, detail: 'Some fields need attention.', code: 'invalid_input', errors }))
+    fetchMock.mockResolvedValueOnce(
+      answer(400, {
+        type: '/api/problems/invalid_input',
+        title: 'Invalid input',
+        status: 400,
+        detail: 'Some fields need attention.',
+        code: 'invalid_input',
+        errors,
+      }),
+    )
     const err = await request('/audits', { method: 'POST', body: {} }).catch((e: unknown) => e)
     expect(err).toBeInstanceOf(ApiError)
     const api = err as ApiError

@@ -10,13 +10,25 @@ import { logBookSummary } from '../../shared/engine/log-book-summary'
 import LogBookSummary from '../../src/components/register/LogBookSummary.vue'
 
 const TODAY = '2026-03-01'
-const lum = (tag: string, tests: TestEvent[], packFittedOn = '2025-01-01') => ({ tag, packFittedOn, tests, due: luminaireDue({ regime: 'en50172', since: packFittedOn, packFittedOn, tests }, TODAY) })
+const lum = (tag: string, tests: TestEvent[], packFittedOn = '2025-01-01') => ({
+  tag,
+  packFittedOn,
+  tests,
+  due: luminaireDue({ regime: 'en50172', since: packFittedOn, packFittedOn, tests }, TODAY),
+})
 
 describe('LogBookSummary', () => {
   const summary = logBookSummary(
     [
-      lum('EL-1', [{ kind: 'duration', testedOn: '2025-02-01', passed: true }, { kind: 'duration', testedOn: '2026-02-20', passed: false, faults: 'Dark after 1 h' }]),
-      lum('EL-2', [{ kind: 'duration', testedOn: '2025-02-01', passed: true }, { kind: 'functional', testedOn: '2026-01-10', passed: false }, { kind: 'functional', testedOn: '2026-01-12', passed: true }]),
+      lum('EL-1', [
+        { kind: 'duration', testedOn: '2025-02-01', passed: true },
+        { kind: 'duration', testedOn: '2026-02-20', passed: false, faults: 'Dark after 1 h' },
+      ]),
+      lum('EL-2', [
+        { kind: 'duration', testedOn: '2025-02-01', passed: true },
+        { kind: 'functional', testedOn: '2026-01-10', passed: false },
+        { kind: 'functional', testedOn: '2026-01-12', passed: true },
+      ]),
     ],
     TODAY,
   )

@@ -12,7 +12,13 @@ import { useDurationText, useQuantityText } from '../../src/composables/useQuant
 
 function signedInWith(units: 'si' | 'us') {
   const auth = useAuthStore()
-  auth.me = { user: { id: 'u', email: 'tamsin@quillbrook.example', name: 'Tamsin Vale', units }, workspace: null, role: null, workspaces: [], csrfToken: '' } as never
+  auth.me = {
+    user: { id: 'u', email: 'tamsin@quillbrook.example', name: 'Tamsin Vale', units },
+    workspace: null,
+    role: null,
+    workspaces: [],
+    csrfToken: '',
+  } as never
 }
 
 beforeEach(() => setActivePinia(createPinia()))

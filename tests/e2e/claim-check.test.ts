@@ -52,7 +52,17 @@ describe('claim check', () => {
       expect(await page.locator('#f-tariffPerKWh').inputValue()).toBe('0.31')
       expect(await page.locator('#f-currency').inputValue()).toBe('EUR')
 
-      for (const name of ['claimedPower', 'measuredPower', 'measuredCurrent', 'ledVoltageMains', 'ledCurrentMains', 'ledVoltageBattery', 'ledCurrentBattery', 'batteryVoltage', 'batteryChargeCurrent'] as const) {
+      for (const name of [
+        'claimedPower',
+        'measuredPower',
+        'measuredCurrent',
+        'ledVoltageMains',
+        'ledCurrentMains',
+        'ledVoltageBattery',
+        'ledCurrentBattery',
+        'batteryVoltage',
+        'batteryChargeCurrent',
+      ] as const) {
         await retype(page, name, AUDIT_READINGS[name])
       }
       await retype(page, 'tariffPerKWh', '0.3')
@@ -62,7 +72,9 @@ describe('claim check', () => {
       await expect.poll(() => page.locator('[data-test="understood-supplyVoltage"]').textContent()).toBe('= 230 V')
       await expect.poll(() => figure(page, 'apparentPowerVA').textContent()).toBe('5.91 VA')
       expect(await figure(page, 'measuredPowerW').textContent()).toBe('2.6 W')
-      expect(await page.locator('[data-test="claim-verdict"]').textContent()).toMatch(/Measured 2\.6 W against a claim of 4 W: it draws less than claimed \(-35 %\)/)
+      expect(await page.locator('[data-test="claim-verdict"]').textContent()).toMatch(
+        /Measured 2\.6 W against a claim of 4 W: it draws less than claimed \(-35 %\)/,
+      )
 
       // An impossible reading is an error on its own field, and the results go.
       await retype(page, 'powerFactor', '1.4')

@@ -70,7 +70,13 @@ describe('discharge logs in the browser', () => {
   })
 
   it('does the same on a 375 px phone with a semicolon, decimal-comma file', async () => {
-    const { verdict } = await uploadAndSave({ width: 375, height: 780 }, 'failing.csv', logText(FAILING, 'semicolon-decimal-comma'), 'E2E sheet phone', 'discharge-phone')
+    const { verdict } = await uploadAndSave(
+      { width: 375, height: 780 },
+      'failing.csv',
+      logText(FAILING, 'semicolon-decimal-comma'),
+      'E2E sheet phone',
+      'discharge-phone',
+    )
     expect(verdict).toBe('Failed')
   })
 })

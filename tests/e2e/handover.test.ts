@@ -32,7 +32,9 @@ describe('handover pack of a demo site', () => {
       await signInThroughForm(page, app.url, designer.email, DEMO_PASSWORD)
       const sites = (await page.evaluate(async () => (await fetch('/api/sites')).json())) as { sites: Array<{ id: string; name: string }> }
       const site = sites.sites[0]
-      const types = (await page.evaluate(async () => (await fetch('/api/luminaire-types')).json())) as { types: Array<{ name: string; photometricFileId: string | null }> }
+      const types = (await page.evaluate(async () => (await fetch('/api/luminaire-types')).json())) as {
+        types: Array<{ name: string; photometricFileId: string | null }>
+      }
       const type = types.types.find((t) => t.photometricFileId)!
       await page.goto(`${app.url}/sites/${site.id}`)
       await page.locator('[data-test="handover-link"]').click()
@@ -56,7 +58,10 @@ describe('handover pack of a demo site', () => {
       expect(await codesOnScreen(page)).toEqual([])
       expect(await splitWords(page)).toEqual([])
 
-      const pdfBytes = await page.evaluate(async (url) => Array.from(new Uint8Array(await (await fetch(url)).arrayBuffer())), `/api/sites/${site.id}/handover-packs/1/pdf`)
+      const pdfBytes = await page.evaluate(
+        async (url) => Array.from(new Uint8Array(await (await fetch(url)).arrayBuffer())),
+        `/api/sites/${site.id}/handover-packs/1/pdf`,
+      )
       const pdf = Buffer.from(pdfBytes)
       if (process.env.PDF_OUT_DIR) fs.writeFileSync(`${process.env.PDF_OUT_DIR}/e2e-handover-pack.pdf`, pdf)
       const lines = pdfLines(pdf)

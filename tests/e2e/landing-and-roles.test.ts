@@ -27,7 +27,12 @@ describe('landing page', () => {
       const loaded = await b.page.evaluate(() => document.fonts.check('16px "Source Sans 3"'))
       expect(loaded).toBe(true)
       // No font or script from another host.
-      const foreign = await b.page.evaluate(() => performance.getEntriesByType('resource').map((e) => e.name).filter((n) => !n.startsWith(location.origin)))
+      const foreign = await b.page.evaluate(() =>
+        performance
+          .getEntriesByType('resource')
+          .map((e) => e.name)
+          .filter((n) => !n.startsWith(location.origin)),
+      )
       expect(foreign).toEqual([])
       await screenshot(b.page, 'landing')
     } finally {

@@ -23,9 +23,20 @@ afterAll(async () => {
   await closeTestApp()
 })
 
-interface DueItem { state: string }
-interface SiteStatus { site: { name: string }; luminaires: Array<{ id: string; tag: string; due: { functional: DueItem; duration: DueItem } }> }
-interface LogEntry { luminaireId: string; testedOn: string; passed: boolean; recordedInErrorAt: string | null; recordedAt: string }
+interface DueItem {
+  state: string
+}
+interface SiteStatus {
+  site: { name: string }
+  luminaires: Array<{ id: string; tag: string; due: { functional: DueItem; duration: DueItem } }>
+}
+interface LogEntry {
+  luminaireId: string
+  testedOn: string
+  passed: boolean
+  recordedInErrorAt: string | null
+  recordedAt: string
+}
 
 describe('log book shared by link', () => {
   it('is made by the demo owner and read signed out: summary words and figures, no console error, 1280 and 375 px', { timeout: 300_000 }, async () => {

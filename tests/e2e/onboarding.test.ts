@@ -28,7 +28,14 @@ describe('onboarding', () => {
       await page.locator('[data-test="sign-up-sent"]').waitFor()
       await screenshot(page, 'onboarding-0-check-mail')
       let link: string | undefined
-      await expect.poll(() => (link = mailTo(email).map((m) => /(\/confirm-email\?token=[\w%-]+)/.exec(m.text)?.[1]).find(Boolean))).toBeTruthy()
+      await expect
+        .poll(
+          () =>
+            (link = mailTo(email)
+              .map((m) => /(\/confirm-email\?token=[\w%-]+)/.exec(m.text)?.[1])
+              .find(Boolean)),
+        )
+        .toBeTruthy()
       await page.goto(`${app.url}${link}`)
       await page.locator('[data-test="confirm-done"]').waitFor()
       await screenshot(page, 'onboarding-0-confirmed')

@@ -25,7 +25,10 @@ describe('correcting the register', () => {
   it('edits a US site in °F, changes its regime with a reason, and strikes through a test recorded in error', async () => {
     await dataSource.query(`UPDATE users SET units = 'us' WHERE email = $1`, [team.users.designer.email])
     const site = await siteIn(team.workspaceId, { name: 'Oakridge Middle School (demo)', regime: 'nfpa101', ceilingTemperatureC: 25 })
-    await dataSource.query(`INSERT INTO site_regime_changes (workspace_id, site_id, from_regime, to_regime, profile_version) VALUES ($1, $2, NULL, 'nfpa101', '2026.1')`, [team.workspaceId, site.id])
+    await dataSource.query(
+      `INSERT INTO site_regime_changes (workspace_id, site_id, from_regime, to_regime, profile_version) VALUES ($1, $2, NULL, 'nfpa101', '2026.1')`,
+      [team.workspaceId, site.id],
+    )
     const l = await luminaireIn(team.workspaceId, site.id, { tag: 'EG-1', packFittedOn: '2024-01-10' })
     const today = new Date().toISOString().slice(0, 10)
     await testIn(team.workspaceId, l.id, { kind: 'duration', testedOn: '2025-06-01', achievedDurationH: 1.6 })
@@ -58,7 +61,9 @@ describe('correcting the register', () => {
       const [saved] = await dataSource.query('SELECT regime, ceiling_temperature_c FROM sites WHERE id = $1', [site.id])
       expect(saved.regime).toBe('ca-nfc')
       expect(saved.ceiling_temperature_c).toBeCloseTo(30, 9) // 86 °F = 30 °C exactly
-      await expect.poll(() => page.locator('[data-test="regime-history"]').textContent()).toMatch(/NFPA 101 → National Fire Code of Canada.*Building is across the border/)
+      await expect
+        .poll(() => page.locator('[data-test="regime-history"]').textContent())
+        .toMatch(/NFPA 101 → National Fire Code of Canada.*Building is across the border/)
 
       await page.locator('.n-tabs-tab', { hasText: 'Log book' }).click()
       const book = page.locator('[data-test="log-book"]')
@@ -71,7 +76,12 @@ describe('correcting the register', () => {
       const voided = book.locator('tr[data-in-error="yes"]')
       await voided.waitFor()
       expect(await voided.locator('[data-test="in-error-note"]').textContent()).toContain('Entered against the wrong luminaire')
-      expect(await voided.locator('.strike').first().evaluate((el) => getComputedStyle(el).textDecorationLine)).toBe('line-through')
+      expect(
+        await voided
+          .locator('.strike')
+          .first()
+          .evaluate((el) => getComputedStyle(el).textDecorationLine),
+      ).toBe('line-through')
       await screenshot(page, 'log-book-recorded-in-error')
       const [row] = await dataSource.query('SELECT recorded_in_error_reason FROM test_records WHERE id = $1', [wrongId])
       expect(row.recorded_in_error_reason).toBe('Entered against the wrong luminaire')

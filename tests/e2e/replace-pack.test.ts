@@ -35,7 +35,11 @@ describe('replace a pack from its label', () => {
       await fillField(page, '#f-oldPack-capacity', '1.6 Ah')
       await page.locator('#f-old-format').click()
       await page.keyboard.type('sub-C')
-      await page.locator('.n-base-select-option').filter({ hasText: /^sub-C$/ }).first().click()
+      await page
+        .locator('.n-base-select-option')
+        .filter({ hasText: /^sub-C$/ })
+        .first()
+        .click()
       await chooseOption(page, '[data-test="field-charger-type"]', 'Nickel charger')
       await fillField(page, '#f-charger-chargeCurrent', '120 mA')
       await poll(() => page.locator('[data-test="old-voltage"]').textContent()).toContain('4 cells')
@@ -48,7 +52,9 @@ describe('replace a pack from its label', () => {
       expect(packText).toContain('sub-C')
       expect(await recommended.textContent()).toContain('Suits this charger')
       // Lithium sits beside it, refused on a nickel charger.
-      expect(await page.locator('[data-test="candidates"] li', { hasText: 'Lithium iron phosphate' }).first().textContent()).toContain('Must not go on this charger')
+      expect(await page.locator('[data-test="candidates"] li', { hasText: 'Lithium iron phosphate' }).first().textContent()).toContain(
+        'Must not go on this charger',
+      )
       await screenshot(page, 'replace-pack')
 
       await page.locator('[data-test="put-on-sheet"]').click()

@@ -57,7 +57,8 @@ describe('round on a US site at 375 px', () => {
       expect(cardText).toContain(`rated ${formatHours(1.5)}`)
       expect(cardText).not.toMatch(/°C|\d\s?(m|mm|kg|L)\b/)
       await page.locator('[data-test="pass"]').click()
-      const recordedToday = (id: string) => dataSource.query('SELECT kind, achieved_duration_h FROM test_records WHERE luminaire_id = $1 AND tested_on = $2', [id, today])
+      const recordedToday = (id: string) =>
+        dataSource.query('SELECT kind, achieved_duration_h FROM test_records WHERE luminaire_id = $1 AND tested_on = $2', [id, today])
       await expect.poll(() => recordedToday(ids[0])).toEqual([{ kind: 'functional', achieved_duration_h: null }])
 
       // US-2: the annual test chosen for this luminaire; a verdict without a runtime is refused.

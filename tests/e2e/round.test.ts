@@ -24,7 +24,8 @@ describe('test round on a phone', () => {
   it('records five luminaires, survives going offline on the third, and ends with five records and no duplicates', async () => {
     const site = await siteIn(team.workspaceId, { name: 'Round test building' })
     const ids: string[] = []
-    for (let i = 1; i <= 5; i++) ids.push((await luminaireIn(team.workspaceId, site.id, { tag: `RT-${i}`, location: `Corridor bay ${i}`, packFittedOn: '2025-01-10' })).id)
+    for (let i = 1; i <= 5; i++)
+      ids.push((await luminaireIn(team.workspaceId, site.id, { tag: `RT-${i}`, location: `Corridor bay ${i}`, packFittedOn: '2025-01-10' })).id)
     const b = await newBrowser({ width: 375, height: 740 })
     try {
       const { page, context } = b
@@ -57,7 +58,11 @@ describe('test round on a phone', () => {
       // A retry while still offline changes nothing.
       await page.locator('[data-test="retry"]').click()
       await expect.poll(() => sync.getAttribute('data-waiting')).toBe('1')
-      const stored = await page.evaluate(() => Object.keys(localStorage).filter((k) => k.startsWith('lw.test-queue.')).map((k) => JSON.parse(localStorage.getItem(k) ?? '[]').length))
+      const stored = await page.evaluate(() =>
+        Object.keys(localStorage)
+          .filter((k) => k.startsWith('lw.test-queue.'))
+          .map((k) => JSON.parse(localStorage.getItem(k) ?? '[]').length),
+      )
       expect(stored).toEqual([1])
       await screenshot(page, 'round-phone-offline')
 
@@ -81,8 +86,12 @@ describe('test round on a phone', () => {
       await page.locator('[data-test="round-finished"]').waitFor()
       await expect.poll(() => sync.getAttribute('data-waiting')).toBe('0')
       // The failures with their remedial actions, then the sign-off by name and date.
-      await expect.poll(() => page.locator('[data-test="round-failures"] li').evaluateAll((els) => els.map((e) => e.getAttribute('data-tag')))).toEqual(['RT-3', 'RT-4'])
-      expect(await page.locator('[data-test="round-failures"]').textContent()).toMatch(/RT-4, full-duration test: Went dark after 2 h 10 min\.\s*Remedial action: New pack ordered/)
+      await expect
+        .poll(() => page.locator('[data-test="round-failures"] li').evaluateAll((els) => els.map((e) => e.getAttribute('data-tag'))))
+        .toEqual(['RT-3', 'RT-4'])
+      expect(await page.locator('[data-test="round-failures"]').textContent()).toMatch(
+        /RT-4, full-duration test: Went dark after 2 h 10 min\.\s*Remedial action: New pack ordered/,
+      )
       await page.locator('#round-signer').fill('')
       await page.locator('[data-test="sign-off"]').click()
       await expect.poll(() => page.locator('[data-test="round-finished"]').textContent()).toMatch(/is required: the name of the person signing off/)
@@ -101,20 +110,46 @@ describe('test round on a phone', () => {
         'SELECT luminaire_id, client_id, kind, tested_on::text AS tested_on, passed, faults, remedial_action, achieved_duration_h, checklist, round_client_id FROM test_records WHERE luminaire_id = ANY($1::uuid[]) ORDER BY recorded_at',
         [ids],
       )
-      type Row = { luminaire_id: string; client_id: string; kind: string; tested_on: string; passed: boolean; faults: string; remedial_action: string; achieved_duration_h: number | null; checklist: Record<string, boolean>; round_client_id: string }
+      type Row = {
+        luminaire_id: string
+        client_id: string
+        kind: string
+        tested_on: string
+        passed: boolean
+        faults: string
+        remedial_action: string
+        achieved_duration_h: number | null
+        checklist: Record<string, boolean>
+        round_client_id: string
+      }
       const resend = rows.map((r: Row) => ({
-        clientId: r.client_id, luminaireId: r.luminaire_id, kind: r.kind, testedOn: r.tested_on, passed: r.passed, faults: r.faults, remedialAction: r.remedial_action, achievedDurationH: r.achieved_duration_h,
-        checklist: r.checklist, roundClientId: r.round_client_id,
+        clientId: r.client_id,
+        luminaireId: r.luminaire_id,
+        kind: r.kind,
+        testedOn: r.tested_on,
+        passed: r.passed,
+        faults: r.faults,
+        remedialAction: r.remedial_action,
+        achievedDurationH: r.achieved_duration_h,
+        checklist: r.checklist,
+        roundClientId: r.round_client_id,
       }))
       const again = await page.evaluate(async (records) => {
         const csrf = (await (await fetch('/api/auth/csrf')).json()).csrfToken as string
-        const res = await fetch('/api/tests', { method: 'POST', headers: { 'Content-Type': 'application/json', 'X-CSRF-Token': csrf }, body: JSON.stringify({ records }) })
+        const res = await fetch('/api/tests', {
+          method: 'POST',
+          headers: { 'Content-Type': 'application/json', 'X-CSRF-Token': csrf },
+          body: JSON.stringify({ records }),
+        })
         return { status: res.status, body: await res.json() }
       }, resend)
       expect(again.status).toBe(200)
       expect(again.body.records.map((r: { outcome: string }) => r.outcome)).toEqual(['unchanged', 'unchanged', 'unchanged', 'unchanged', 'unchanged'])
 
-      const final = await dataSource.query('SELECT l.tag, t.kind, t.passed, t.faults, t.achieved_duration_h FROM test_records t JOIN luminaires l ON l.id = t.luminaire_id WHERE t.luminaire_id = ANY($1::uuid[]) ORDER BY l.tag', [ids])
+      const final = await dataSource.query(
+        'SELECT l.tag, t.kind, t.passed, t.faults, t.achieved_duration_h FROM test_records t JOIN luminaires l ON l.id = t.luminaire_id WHERE t.luminaire_id = ANY($1::uuid[]) ORDER BY l.tag',
+        [ids],
+      )
       expect(final).toHaveLength(5)
       expect(final.map((r: { tag: string }) => r.tag)).toEqual(['RT-1', 'RT-2', 'RT-3', 'RT-4', 'RT-5'])
       expect(final[2]).toMatchObject({ kind: 'functional', passed: false, faults: 'No light in emergency mode' })

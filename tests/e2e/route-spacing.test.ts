@@ -19,7 +19,6 @@ afterAll(async () => {
 const lm63 = corridorLm63('e2e')
 const typeName = `Corridor unit ${Date.now()}`
 
-
 describe('route spacing: photometry to a specification sheet', () => {
   it('uploads a file, refuses a broken one, adds a type, works out spacing and picks the type into a sheet', async () => {
     const b = await newBrowser()
@@ -62,7 +61,17 @@ describe('route spacing: photometry to a specification sheet', () => {
       await expect.poll(() => page.locator('[data-test="sp-source"]').textContent(), { timeout: 30_000 }).toContain(typeName)
       await page.locator('[data-test="sp-calculate"]').click()
       await page.locator('[data-test="sp-maxSpacing"]').waitFor()
-      const expected = computeSpacing(spacingInput.parse({ photometry: lm63, mountingHeight: 2.5, emergencyOutputFactor: 0.5, maintenanceFactor: 0.8, criteria: 'en1838-route', routeWidth: 2, routeLength: 30 }))
+      const expected = computeSpacing(
+        spacingInput.parse({
+          photometry: lm63,
+          mountingHeight: 2.5,
+          emergencyOutputFactor: 0.5,
+          maintenanceFactor: 0.8,
+          criteria: 'en1838-route',
+          routeWidth: 2,
+          routeLength: 30,
+        }),
+      )
       expect(await page.locator('[data-test="sp-maxSpacing"]').textContent()).toBe(formatDisplay('length', 'si', expected.maxSpacingM as number))
       expect(await page.locator('[data-test="sp-endSpacing"]').textContent()).toBe(formatDisplay('length', 'si', expected.maxEndSpacingM as number))
       expect(await page.locator('[data-test="sp-luminaires"]').textContent()).toBe(String(expected.luminairesNeeded))
@@ -104,7 +113,13 @@ describe('route spacing: photometry to a specification sheet', () => {
       // The viewer prefers US units.
       const set = await page.evaluate(async () => {
         const csrf = ((await (await fetch('/api/auth/csrf')).json()) as { csrfToken: string }).csrfToken
-        return (await fetch('/api/auth/me', { method: 'PATCH', headers: { 'Content-Type': 'application/json', 'X-CSRF-Token': csrf }, body: JSON.stringify({ units: 'us' }) })).status
+        return (
+          await fetch('/api/auth/me', {
+            method: 'PATCH',
+            headers: { 'Content-Type': 'application/json', 'X-CSRF-Token': csrf },
+            body: JSON.stringify({ units: 'us' }),
+          })
+        ).status
       })
       expect(set).toBe(200)
       await page.goto(`${app.url}/route-spacing`)
@@ -141,7 +156,13 @@ describe('route spacing: photometry to a specification sheet', () => {
       await signInThroughForm(page, app.url, team.users.viewer.email, TEST_PASSWORD)
       const set = await page.evaluate(async () => {
         const csrf = ((await (await fetch('/api/auth/csrf')).json()) as { csrfToken: string }).csrfToken
-        return (await fetch('/api/auth/me', { method: 'PATCH', headers: { 'Content-Type': 'application/json', 'X-CSRF-Token': csrf }, body: JSON.stringify({ units: 'us' }) })).status
+        return (
+          await fetch('/api/auth/me', {
+            method: 'PATCH',
+            headers: { 'Content-Type': 'application/json', 'X-CSRF-Token': csrf },
+            body: JSON.stringify({ units: 'us' }),
+          })
+        ).status
       })
       expect(set).toBe(200)
       await page.goto(`${app.url}/route-spacing`)
@@ -154,7 +175,18 @@ describe('route spacing: photometry to a specification sheet', () => {
       await page.locator('[data-test="sp-calculate"]').click()
       await page.locator('[data-test="sp-routeAverage"]').waitFor()
       // The engine's answer for the same route in SI: 100 ft = 30.48 m, 10 ft = 3.048 m, the default width of 6.5 ft = 1.9812 m.
-      const expected = computeSpacing(spacingInput.parse({ photometry: lm63, mountingHeight: 3.048, emergencyOutputFactor: 0.5, maintenanceFactor: 0.8, criteria: 'nfpa101', routeWidth: 1.9812, routeLength: 30.48, endOfDurationFactor: 1 }))
+      const expected = computeSpacing(
+        spacingInput.parse({
+          photometry: lm63,
+          mountingHeight: 3.048,
+          emergencyOutputFactor: 0.5,
+          maintenanceFactor: 0.8,
+          criteria: 'nfpa101',
+          routeWidth: 1.9812,
+          routeLength: 30.48,
+          endOfDurationFactor: 1,
+        }),
+      )
       const layout = expected.layout!
       expect(await page.locator('[data-test="sp-luminaires"]').textContent()).toBe(String(layout.count))
       expect(await page.locator('[data-test="sp-layoutSpacing"]').textContent()).toBe(formatDisplay('length', 'us', layout.spacingM as number))

@@ -35,7 +35,11 @@ describe('test plan and its round on the demo data, at 375 px', () => {
       await page.locator('[data-test="plan-group-2"]').waitFor()
       // Group 1 starts when the window opens; group 2 after group 1 is back to full cover (24 h after its 3 h test).
       const row = (n: number) => page.locator(`[data-test="plan-group-${n}"]`)
-      const times = async (n: number) => [await row(n).getAttribute('data-starts'), await row(n).getAttribute('data-ends'), await row(n).getAttribute('data-full-cover')]
+      const times = async (n: number) => [
+        await row(n).getAttribute('data-starts'),
+        await row(n).getAttribute('data-ends'),
+        await row(n).getAttribute('data-full-cover'),
+      ]
       expect(await times(1)).toEqual(['2027-03-01T18:00', '2027-03-01T21:00', '2027-03-02T21:00'])
       expect(await times(2)).toEqual(['2027-03-03T18:00', '2027-03-03T21:00', '2027-03-04T21:00'])
       const g1 = await row(1).textContent()
@@ -81,7 +85,10 @@ describe('test plan and its round on the demo data, at 375 px', () => {
          JOIN test_rounds r ON r.client_id = t.round_client_id WHERE r.site_id = $1 ORDER BY t.passed DESC`,
         [site.id],
       )
-      expect(rows).toEqual([{ tag: first, kind: 'duration', passed: true }, { tag: second, kind: 'duration', passed: false }])
+      expect(rows).toEqual([
+        { tag: first, kind: 'duration', passed: true },
+        { tag: second, kind: 'duration', passed: false },
+      ])
     } finally {
       await b.close()
     }

@@ -28,9 +28,13 @@ beforeAll(async () => {
   const owner = await dataSource.getRepository(User).findOneByOrFail({ email: DEMO_USERS[0].email })
   const { workspaceId } = await dataSource.getRepository(Membership).findOneByOrFail({ userId: owner.id })
   email = uniqueEmail('us-units')
-  const user = await dataSource.getRepository(User).save(
-    dataSource.getRepository(User).create({ email, name: 'Imogen Tarrow', passwordHash: await bcrypt.hash(TEST_PASSWORD, 4), units: 'us', emailConfirmedAt: new Date() }),
-  )
+  const user = await dataSource
+    .getRepository(User)
+    .save(
+      dataSource
+        .getRepository(User)
+        .create({ email, name: 'Imogen Tarrow', passwordHash: await bcrypt.hash(TEST_PASSWORD, 4), units: 'us', emailConfirmedAt: new Date() }),
+    )
   await dataSource.getRepository(Membership).insert({ workspaceId, userId: user.id, role: 'owner' })
   const own = await dataSource.getRepository(Workspace).save(dataSource.getRepository(Workspace).create({ name: 'Tarrow scratch' }))
   ownWorkspaceId = own.id
@@ -84,7 +88,9 @@ function problemsIn(path: string, text: string, allowed = DECLARED[path] ?? 3): 
   for (const line of text.split('\n')) {
     const metric = METRIC.exec(line)
     if (metric) problems.push(`${path}: metric unit "${metric[0]}" in "${line.trim().slice(0, 120)}"`)
-    for (const f of figuresIn(line)) if (f.digits > allowed) problems.push(`${path}: ${f.figure} has ${f.digits} significant digits (the screen rounds to ${allowed}) in "${line.trim().slice(0, 120)}"`)
+    for (const f of figuresIn(line))
+      if (f.digits > allowed)
+        problems.push(`${path}: ${f.figure} has ${f.digits} significant digits (the screen rounds to ${allowed}) in "${line.trim().slice(0, 120)}"`)
   }
   return problems
 }
@@ -127,11 +133,28 @@ describe('US customary units on the main screens', () => {
       const luminaireId = site.luminaires[0]?.id
       const sheets = (await page.evaluate(async () => (await fetch('/api/sheets')).json())) as { items?: Array<{ id: string }>; sheets?: Array<{ id: string }> }
       const sheetId = (sheets.items ?? sheets.sheets ?? [])[0]?.id
-      const logs = (await page.evaluate(async () => (await fetch('/api/discharge/logs')).json())) as { items?: Array<{ id: string }>; logs?: Array<{ id: string }> }
+      const logs = (await page.evaluate(async () => (await fetch('/api/discharge/logs')).json())) as {
+        items?: Array<{ id: string }>
+        logs?: Array<{ id: string }>
+      }
       const logId = (logs.items ?? logs.logs ?? [])[0]?.id
       const screens = [
-        '/home', '/sites', `/sites/${siteId}`, `/luminaires/${luminaireId}`, '/pack-bench', '/replace-pack', '/charger-check', '/claim-check',
-        '/route-spacing', '/route-spacing/selector', '/route-spacing/types', '/account', '/sheets', sheetId ? `/sheets/${sheetId}` : null, '/discharge', logId ? `/discharge/${logId}` : null,
+        '/home',
+        '/sites',
+        `/sites/${siteId}`,
+        `/luminaires/${luminaireId}`,
+        '/pack-bench',
+        '/replace-pack',
+        '/charger-check',
+        '/claim-check',
+        '/route-spacing',
+        '/route-spacing/selector',
+        '/route-spacing/types',
+        '/account',
+        '/sheets',
+        sheetId ? `/sheets/${sheetId}` : null,
+        '/discharge',
+        logId ? `/discharge/${logId}` : null,
       ].filter((p): p is string => !!p)
       for (const path of screens) {
         await page.goto(`${app.url}${path}`)
@@ -161,7 +184,11 @@ describe('US customary units on the main screens', () => {
       // Into the user's own workspace: the demo workspace is read by other files and keeps its three sites.
       const switched = await page.evaluate(async (workspaceId) => {
         const { csrfToken } = (await (await fetch('/api/auth/csrf')).json()) as { csrfToken: string }
-        const res = await fetch('/api/workspaces/switch', { method: 'POST', headers: { 'Content-Type': 'application/json', 'X-CSRF-Token': csrfToken }, body: JSON.stringify({ workspaceId }) })
+        const res = await fetch('/api/workspaces/switch', {
+          method: 'POST',
+          headers: { 'Content-Type': 'application/json', 'X-CSRF-Token': csrfToken },
+          body: JSON.stringify({ workspaceId }),
+        })
         return res.status
       }, ownWorkspaceId)
       expect(switched).toBe(200)

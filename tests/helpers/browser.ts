@@ -34,12 +34,28 @@ export async function startE2eApp(): Promise<RunningApp> {
   }
 }
 
-const ARGS = ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--disable-dev-shm-usage']
+const ARGS = [
+  '--headless',
+  '--no-sandbox',
+  '--disable-gpu',
+  '--disable-quic',
+  '--no-first-run',
+  '--disable-background-networking',
+  '--disable-component-update',
+  '--disable-sync',
+  '--disable-dev-shm-usage',
+]
 
 /** A fresh browser profile (no cookies): each call is a separate person. */
 export async function newBrowser(viewport = { width: 1280, height: 860 }): Promise<{ context: BrowserContext; page: Page; close: () => Promise<void> }> {
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'lw-chromium-'))
-  const context = await chromium.launchPersistentContext(dir, { executablePath: '/usr/bin/chromium', headless: true, args: ARGS, viewport, acceptDownloads: true })
+  const context = await chromium.launchPersistentContext(dir, {
+    executablePath: '/usr/bin/chromium',
+    headless: true,
+    args: ARGS,
+    viewport,
+    acceptDownloads: true,
+  })
   // A busy CI machine can take a while to render; wait longer than Playwright's 30 s default.
   context.setDefaultTimeout(90_000)
   const page = context.pages()[0] ?? (await context.newPage())

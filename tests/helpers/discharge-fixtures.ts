@@ -59,7 +59,10 @@ export function logText(log: LineLog, style: Style = 'comma'): string {
     case 'semicolon-decimal-comma':
       return ['Elapsed (s);Voltage (V);Current (A)', ...rows.map((r) => `${r.s};${f(r.v).replace('.', ',')};${f(r.a).replace('.', ',')}`)].join('\r\n') + '\r\n'
     case 'tab':
-      return ['# bench logger export (invented)', '# channel 1: pack', 'time_s\tpack_v\tcurrent_a', ...rows.map((r) => `${r.s}\t${f(r.v)}\t${f(r.a)}`)].join('\n') + '\n'
+      return (
+        ['# bench logger export (invented)', '# channel 1: pack', 'time_s\tpack_v\tcurrent_a', ...rows.map((r) => `${r.s}\t${f(r.v)}\t${f(r.a)}`)].join('\n') +
+        '\n'
+      )
     case 'clock':
       return ['Time,Voltage (V),Current (A)', ...rows.map((r) => `${hms(r.s)},${f(r.v)},${f(r.a)}`)].join('\n') + '\n'
     case 'iso':

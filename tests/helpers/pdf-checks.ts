@@ -28,8 +28,11 @@ export function layoutProblems(pdf: Buffer): LayoutProblem[] {
     // Whatever sits in a band must lie wholly inside it: a body line crossing into it is printed under the footer.
     for (const b of inFooter) if (b.top < footerTop) out.push({ page: page.number, problem: `text crosses into the footer band: "${b.text}"` })
     for (const b of inHeader) if (b.bottom > HEADER_BAND) out.push({ page: page.number, problem: `text crosses into the header band: "${b.text}"` })
-    for (const b of page.boxes) if (b.text.trim() && (b.x < 0 || b.x + b.width > page.width + 0.5 || b.bottom > page.height)) out.push({ page: page.number, problem: `text runs off the page: "${b.text}"` })
-    for (const { a, b } of overlaps(page)) out.push({ page: page.number, problem: `"${a.text}" and "${b.text}" are printed over each other at ${Math.round(a.baseline)} pt` })
+    for (const b of page.boxes)
+      if (b.text.trim() && (b.x < 0 || b.x + b.width > page.width + 0.5 || b.bottom > page.height))
+        out.push({ page: page.number, problem: `text runs off the page: "${b.text}"` })
+    for (const { a, b } of overlaps(page))
+      out.push({ page: page.number, problem: `"${a.text}" and "${b.text}" are printed over each other at ${Math.round(a.baseline)} pt` })
   }
   return out
 }
@@ -38,7 +41,11 @@ const CODES = tellTaleCodes()
 const escape = (s: string) => s.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')
 /** Codes that are also ordinary hyphenated English, written so in sentences. */
 const ORDINARY_WORDS = new Set(['non-maintained', 'lead-acid', 'high-risk', 'escape-route'])
-const CODE_PATTERN = new RegExp(`(?<![\\w-])(${CODES.filter((c) => !ORDINARY_WORDS.has(c)).map(escape).join('|')})(?![\\w-])`)
+const CODE_PATTERN = new RegExp(
+  `(?<![\\w-])(${CODES.filter((c) => !ORDINARY_WORDS.has(c))
+    .map(escape)
+    .join('|')})(?![\\w-])`,
+)
 
 /** Enumeration codes, field paths or engine unit names in the text, with the line they are in. */
 export function codesIn(lines: string[]): string[] {

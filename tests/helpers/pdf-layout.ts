@@ -29,9 +29,12 @@ export interface PdfPage {
 
 type Matrix = [number, number, number, number, number, number]
 const multiply = (m: Matrix, n: Matrix): Matrix => [
-  m[0] * n[0] + m[1] * n[2], m[0] * n[1] + m[1] * n[3],
-  m[2] * n[0] + m[3] * n[2], m[2] * n[1] + m[3] * n[3],
-  m[4] * n[0] + m[5] * n[2] + n[4], m[4] * n[1] + m[5] * n[3] + n[5],
+  m[0] * n[0] + m[1] * n[2],
+  m[0] * n[1] + m[1] * n[3],
+  m[2] * n[0] + m[3] * n[2],
+  m[2] * n[1] + m[3] * n[3],
+  m[4] * n[0] + m[5] * n[2] + n[4],
+  m[4] * n[1] + m[5] * n[3] + n[5],
 ]
 
 interface FontInfo {
@@ -105,15 +108,22 @@ export function pdfPages(pdf: Buffer): PdfPage[] {
         if (f) fontNames.set(name, f)
       }
     }
-    const contentIds = [...(page.dict.match(/\/Contents (?:\[([^\]]*)\]|(\d+) 0 R)/) ?? [])].slice(1).filter(Boolean).flatMap((s) => [...s.matchAll(/(\d+)(?: 0 R)?/g)].map((m) => m[1]))
-    const content = contentIds.map((id) => objects.get(id)?.stream ?? Buffer.alloc(0)).map((b) => b.toString('latin1')).join('\n')
+    const contentIds = [...(page.dict.match(/\/Contents (?:\[([^\]]*)\]|(\d+) 0 R)/) ?? [])]
+      .slice(1)
+      .filter(Boolean)
+      .flatMap((s) => [...s.matchAll(/(\d+)(?: 0 R)?/g)].map((m) => m[1]))
+    const content = contentIds
+      .map((id) => objects.get(id)?.stream ?? Buffer.alloc(0))
+      .map((b) => b.toString('latin1'))
+      .join('\n')
     const boxes: TextBox[] = []
     let ctm: Matrix = [1, 0, 0, 1, 0, 0]
     const stack: Matrix[] = []
     let tm: Matrix = [1, 0, 0, 1, 0, 0]
     let font: FontInfo | undefined
     let size = 10
-    const ops = /(-?[\d.]+)\s+(-?[\d.]+)\s+(-?[\d.]+)\s+(-?[\d.]+)\s+(-?[\d.]+)\s+(-?[\d.]+)\s+(cm|Tm)\b|\bq\b|\bQ\b|\/([\w.-]+)\s+([\d.]+)\s+Tf|\[((?:[^\]])*)\]\s*TJ|<([0-9a-fA-F]*)>\s*Tj/g
+    const ops =
+      /(-?[\d.]+)\s+(-?[\d.]+)\s+(-?[\d.]+)\s+(-?[\d.]+)\s+(-?[\d.]+)\s+(-?[\d.]+)\s+(cm|Tm)\b|\bq\b|\bQ\b|\/([\w.-]+)\s+([\d.]+)\s+Tf|\[((?:[^\]])*)\]\s*TJ|<([0-9a-fA-F]*)>\s*Tj/g
     for (const op of content.matchAll(ops)) {
       if (op[7] === 'cm') ctm = multiply([1, 2, 3, 4, 5, 6].map((i) => Number(op[i])) as Matrix, ctm)
       else if (op[7] === 'Tm') tm = [1, 2, 3, 4, 5, 6].map((i) => Number(op[i])) as Matrix
@@ -171,6 +181,12 @@ export function pageLines(page: PdfPage): string[] {
     const key = Math.round(b.baseline)
     rows.set(key, [...(rows.get(key) ?? []), b])
   }
-  return [...rows.entries()].sort((a, b) => a[0] - b[0]).map(([, bs]) => bs.sort((a, b) => a.x - b.x).map((b) => b.text).join(''))
+  return [...rows.entries()]
+    .sort((a, b) => a[0] - b[0])
+    .map(([, bs]) =>
+      bs
+        .sort((a, b) => a.x - b.x)
+        .map((b) => b.text)
+        .join(''),
+    )
 }
-

@@ -6,9 +6,13 @@ import { LuminaireEntity } from '../../server/modules/register/luminaire.entity'
 import { SiteEntity } from '../../server/modules/register/site.entity'
 
 export async function siteIn(workspaceId: string, over: Partial<SiteEntity> = {}) {
-  return dataSource.getRepository(SiteEntity).save(
-    dataSource.getRepository(SiteEntity).create({ workspaceId, name: `Test building ${crypto.randomBytes(3).toString('hex')}`, regime: 'en50172', ceilingTemperatureC: 25, ...over }),
-  )
+  return dataSource
+    .getRepository(SiteEntity)
+    .save(
+      dataSource
+        .getRepository(SiteEntity)
+        .create({ workspaceId, name: `Test building ${crypto.randomBytes(3).toString('hex')}`, regime: 'en50172', ceilingTemperatureC: 25, ...over }),
+    )
 }
 
 export async function areaIn(workspaceId: string, siteId: string, name = `Area ${crypto.randomBytes(3).toString('hex')}`) {
@@ -43,7 +47,11 @@ export async function siteWithLuminaire(workspaceId: string) {
 }
 
 /** Inserts a test record directly (bypassing the API), e.g. to build history. */
-export async function testIn(workspaceId: string, luminaireId: string, t: { kind: 'functional' | 'duration'; testedOn: string; passed?: boolean; achievedDurationH?: number | null; faults?: string }) {
+export async function testIn(
+  workspaceId: string,
+  luminaireId: string,
+  t: { kind: 'functional' | 'duration'; testedOn: string; passed?: boolean; achievedDurationH?: number | null; faults?: string },
+) {
   const rows: Array<{ id: string }> = await dataSource.query(
     `INSERT INTO test_records (workspace_id, luminaire_id, client_id, kind, tested_on, passed, achieved_duration_h, faults) VALUES ($1,$2,$3,$4,$5,$6,$7,$8) RETURNING id`,
     [workspaceId, luminaireId, crypto.randomUUID(), t.kind, t.testedOn, t.passed ?? true, t.achievedDurationH ?? null, t.faults ?? ''],

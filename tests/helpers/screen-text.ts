@@ -39,7 +39,10 @@ export async function splitWords(page: Page): Promise<string[]> {
 
 /** Codes, machine dates and library placeholders in the visible text of the page. */
 export async function codesOnScreen(page: Page): Promise<string[]> {
-  const lines = (await page.evaluate(() => document.body.innerText)).split('\n').map((l) => l.trim()).filter(Boolean)
+  const lines = (await page.evaluate(() => document.body.innerText))
+    .split('\n')
+    .map((l) => l.trim())
+    .filter(Boolean)
   const found = codesIn(lines)
   for (const line of lines) {
     const iso = /\b\d{4}-\d{2}-\d{2}\b/.exec(line)

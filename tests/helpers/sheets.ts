@@ -17,7 +17,15 @@ export const PACK_INPUTS = {
 }
 
 export function sheetBody(overrides: Record<string, unknown> = {}) {
-  return { title: 'Stair core B, level 2', reference: 'T-001', client: 'Invented client', site: 'Invented site', luminaire: '3 W LED bulkhead, non-maintained', inputs: PACK_INPUTS, ...overrides }
+  return {
+    title: 'Stair core B, level 2',
+    reference: 'T-001',
+    client: 'Invented client',
+    site: 'Invented site',
+    luminaire: '3 W LED bulkhead, non-maintained',
+    inputs: PACK_INPUTS,
+    ...overrides,
+  }
 }
 
 /** A sheet in the team's workspace, written by its designer; issued when asked. */
@@ -33,7 +41,15 @@ export async function shareIn(team: TestTeam, sheetId?: string) {
   const id = sheetId ?? (await sheetIn(team, { issued: true })).id
   const { token, hash } = newToken()
   const link = await dataSource.getRepository(ShareLink).save(
-    dataSource.getRepository(ShareLink).create({ workspaceId: team.workspaceId, sheetId: id, tokenHash: hash, createdBy: team.users.designer.id, expiresAt: null, revokedAt: null, revokedBy: null }),
+    dataSource.getRepository(ShareLink).create({
+      workspaceId: team.workspaceId,
+      sheetId: id,
+      tokenHash: hash,
+      createdBy: team.users.designer.id,
+      expiresAt: null,
+      revokedAt: null,
+      revokedBy: null,
+    }),
   )
   return { sheetId: id, shareId: link.id, token }
 }

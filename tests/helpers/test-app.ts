@@ -29,7 +29,9 @@ export const SIGN_IN_WINDOW_MS = 2000
  */
 export const ROOMY_LIMITS: Partial<Limits> = Object.fromEntries(
   // The per-account sign-in limit stays (it is not in this table); tests of the others build their own app.
-  Object.entries(DEFAULT_LIMITS).filter(([name]) => name !== 'signInSlowLane').map(([name, l]) => [name, { ...l, max: 100_000 }]),
+  Object.entries(DEFAULT_LIMITS)
+    .filter(([name]) => name !== 'signInSlowLane')
+    .map(([name, l]) => [name, { ...l, max: 100_000 }]),
 )
 
 export async function getTestApp(): Promise<BuiltApp> {
@@ -72,7 +74,9 @@ export async function makeTeam(name = 'Test team'): Promise<TestTeam> {
   const users = {} as TestTeam['users']
   for (const role of ['viewer', 'technician', 'designer', 'owner'] as Role[]) {
     const email = uniqueEmail(role)
-    const user = await dataSource.getRepository(User).save(dataSource.getRepository(User).create({ email, name: `${role} person`, passwordHash, emailConfirmedAt: new Date() }))
+    const user = await dataSource
+      .getRepository(User)
+      .save(dataSource.getRepository(User).create({ email, name: `${role} person`, passwordHash, emailConfirmedAt: new Date() }))
     await dataSource.getRepository(Membership).insert({ workspaceId: ws.id, userId: user.id, role })
     users[role] = { id: user.id, email }
   }

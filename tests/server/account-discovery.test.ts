@@ -25,7 +25,9 @@ const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms))
 
 async function linkIn(address: string, pattern: RegExp, count = 1): Promise<string> {
   for (let i = 0; i < 50; i++) {
-    const found = mailTo(address).map((m) => pattern.exec(m.text)).filter((m): m is RegExpExecArray => m !== null)
+    const found = mailTo(address)
+      .map((m) => pattern.exec(m.text))
+      .filter((m): m is RegExpExecArray => m !== null)
     if (found.length >= count) return decodeURIComponent(found[0][1])
     await sleep(100)
   }
@@ -39,7 +41,9 @@ describe('answers do not reveal which e-mails have accounts', () => {
   it('sign-up answers a taken address exactly as a new one', async () => {
     const team = await makeTeam()
     const taken = await supertest(built.app).post('/api/auth/sign-up').send(signUpBody(team.users.viewer.email))
-    const fresh = await supertest(built.app).post('/api/auth/sign-up').send(signUpBody(uniqueEmail('fresh')))
+    const fresh = await supertest(built.app)
+      .post('/api/auth/sign-up')
+      .send(signUpBody(uniqueEmail('fresh')))
     expect(taken.status).toBe(fresh.status)
     expect(taken.body).toEqual(fresh.body)
     expect(taken.headers['set-cookie']).toEqual(fresh.headers['set-cookie'])
@@ -57,7 +61,9 @@ describe('answers do not reveal which e-mails have accounts', () => {
     useCatcherPort(1)
     try {
       const known = await supertest(built.app).post('/api/auth/forgot-password').send({ email: team.users.viewer.email })
-      const unknown = await supertest(built.app).post('/api/auth/forgot-password').send({ email: uniqueEmail('ghost') })
+      const unknown = await supertest(built.app)
+        .post('/api/auth/forgot-password')
+        .send({ email: uniqueEmail('ghost') })
       expect(known.status).toBe(202)
       expect(unknown.status).toBe(202)
       expect(known.body).toEqual(unknown.body)
@@ -113,7 +119,9 @@ describe('a new account confirms its e-mail address', () => {
     await owner.post('/api/workspace/invitations', { email, role: 'viewer' })
     const token = await linkIn(email, /invitation\?token=([\w%-]+)/)
     const other = uniqueEmail('interloper')
-    const res = await supertest(built.app).post('/api/auth/sign-up').send({ email: other, password: 'joining the crew today', name: 'Interloper', invitation: token })
+    const res = await supertest(built.app)
+      .post('/api/auth/sign-up')
+      .send({ email: other, password: 'joining the crew today', name: 'Interloper', invitation: token })
     expect(res.status).toBe(403)
     expect(await dataSource.getRepository(User).findOneBy({ email: other })).toBeNull()
   })

@@ -40,7 +40,8 @@ function send(client: Client, route: RouteSpec, path: string, body?: unknown) {
 
 /** The example body with one undeclared field added, and the pointer it must be refused at. */
 function withUnknownField(body: unknown): { body: unknown; pointer: string } {
-  if (Array.isArray(body) && body.length && typeof body[0] === 'object') return { body: [{ ...body[0], [UNKNOWN]: 1 }, ...body.slice(1)], pointer: `/0/${UNKNOWN}` }
+  if (Array.isArray(body) && body.length && typeof body[0] === 'object')
+    return { body: [{ ...body[0], [UNKNOWN]: 1 }, ...body.slice(1)], pointer: `/0/${UNKNOWN}` }
   return { body: { ...((body as object | undefined) ?? {}), [UNKNOWN]: 1 }, pointer: `/${UNKNOWN}` }
 }
 

@@ -20,7 +20,10 @@ describe('API tokens', () => {
     const me = await supertest(built.app).get('/api/auth/me').set('Authorization', bearer)
     expect(me.status).toBe(200)
     expect(me.body.role).toBe('technician')
-    const calc = await supertest(built.app).post('/api/calc/size').set('Authorization', bearer).send({ chemistry: 'nicd', duration: '3 h', load: { power: '1 W' } })
+    const calc = await supertest(built.app)
+      .post('/api/calc/size')
+      .set('Authorization', bearer)
+      .send({ chemistry: 'nicd', duration: '3 h', load: { power: '1 W' } })
     expect(calc.status).toBe(200)
     // The token's role caps what it can do: an owner-only route is forbidden.
     const members = await supertest(built.app).get('/api/workspace/invitations').set('Authorization', bearer)

@@ -24,7 +24,8 @@ beforeAll(async () => {
 })
 afterAll(closeTestApp)
 
-const sitesNamed = async (name: string) => Number((await dataSource.query('SELECT count(*)::int AS n FROM sites WHERE workspace_id = $1 AND name = $2', [team.workspaceId, name]))[0].n)
+const sitesNamed = async (name: string) =>
+  Number((await dataSource.query('SELECT count(*)::int AS n FROM sites WHERE workspace_id = $1 AND name = $2', [team.workspaceId, name]))[0].n)
 const siteBody = (name: string) => ({ name, regime: 'en50172', ceilingTemperatureC: 22 })
 const today = new Date().toISOString().slice(0, 10)
 

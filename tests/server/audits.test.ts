@@ -71,7 +71,10 @@ describe('saving an audit', () => {
   })
 
   it('answers impossible readings with field errors under inputs', async () => {
-    const res = await tech.post('/api/audits', auditBody({ inputs: { ...AUDIT_READINGS, powerFactor: 1.3, supplyVoltage: '-230 V', ledCurrentMains: undefined, measuredCurrent: '25 kg' } }))
+    const res = await tech.post(
+      '/api/audits',
+      auditBody({ inputs: { ...AUDIT_READINGS, powerFactor: 1.3, supplyVoltage: '-230 V', ledCurrentMains: undefined, measuredCurrent: '25 kg' } }),
+    )
     expect(res.status).toBe(400)
     const paths = (res.body.fields as Array<{ path: string; message: string }>).map((f) => f.path)
     expect(paths).toEqual(expect.arrayContaining(['inputs.powerFactor', 'inputs.supplyVoltage', 'inputs.measuredCurrent']))
@@ -184,7 +187,10 @@ describe('attaching', () => {
     const foreignSheet = await sheetIn(other)
     const { luminaire: foreignLuminaire } = await siteWithLuminaire(other.workspaceId)
     const foreign = await tech.post(`/api/audits/${a.id}/attach`, { specSheetId: foreignSheet.id, luminaireId: foreignLuminaire.id })
-    const missing = await tech.post(`/api/audits/${a.id}/attach`, { specSheetId: '00000000-0000-4000-8000-000000000001', luminaireId: '00000000-0000-4000-8000-000000000002' })
+    const missing = await tech.post(`/api/audits/${a.id}/attach`, {
+      specSheetId: '00000000-0000-4000-8000-000000000001',
+      luminaireId: '00000000-0000-4000-8000-000000000002',
+    })
     expect(foreign.status).toBe(404)
     expect(foreign.body).toEqual(missing.body)
     expect(foreign.body.fields.map((f: { path: string }) => f.path)).toEqual(['specSheetId', 'luminaireId'])

@@ -24,7 +24,9 @@ async function waitForMail(address: string) {
 describe('sign-up and sign-in', () => {
   it('creates an account with its own workspace, hashes the password with bcrypt cost 12, and signs in once confirmed', async () => {
     const email = uniqueEmail('signup')
-    const res = await supertest(built.app).post('/api/auth/sign-up').send({ email, password: 'a sentence as a password', name: 'Ada Example', workspaceName: 'Example crew' })
+    const res = await supertest(built.app)
+      .post('/api/auth/sign-up')
+      .send({ email, password: 'a sentence as a password', name: 'Ada Example', workspaceName: 'Example crew' })
     expect(res.status).toBe(202)
     const stored = await dataSource.getRepository(User).findOneByOrFail({ email })
     expect(stored.passwordHash).toMatch(/^\$2[aby]\$12\$/)
@@ -41,7 +43,9 @@ describe('sign-up and sign-in', () => {
   })
 
   it('refuses a short password with the field and the reason', async () => {
-    const res = await supertest(built.app).post('/api/auth/sign-up').send({ email: uniqueEmail('short'), password: 'short', name: 'X' })
+    const res = await supertest(built.app)
+      .post('/api/auth/sign-up')
+      .send({ email: uniqueEmail('short'), password: 'short', name: 'X' })
     expect(res.status).toBe(400)
     expect(res.body.fields).toEqual([expect.objectContaining({ path: 'password', message: expect.stringMatching(/at least 12/) })])
   })
@@ -51,7 +55,10 @@ describe('sign-up and sign-in', () => {
     const agent = supertest.agent(built.app)
     const before = await agent.get('/api/auth/csrf')
     const cookieBefore = String(before.headers['set-cookie']?.[0] ?? '').split(';')[0]
-    const res = await agent.post('/api/auth/sign-in').set('X-CSRF-Token', before.body.csrfToken).send({ email: team.users.viewer.email, password: TEST_PASSWORD })
+    const res = await agent
+      .post('/api/auth/sign-in')
+      .set('X-CSRF-Token', before.body.csrfToken)
+      .send({ email: team.users.viewer.email, password: TEST_PASSWORD })
     expect(res.status).toBe(200)
     const cookieAfter = String(res.headers['set-cookie']?.[0] ?? '').split(';')[0]
     expect(cookieBefore).not.toBe('')
@@ -90,7 +97,9 @@ describe('failed sign-in limit', () => {
     const email = team.users.designer.email
     const statuses: number[] = []
     for (let i = 0; i < 10; i++) {
-      const res = await supertest(built.app).post('/api/auth/sign-in').send({ email, password: `wrong-${i}-password` })
+      const res = await supertest(built.app)
+        .post('/api/auth/sign-in')
+        .send({ email, password: `wrong-${i}-password` })
       statuses.push(res.status)
       if (i === 9) {
         expect(res.body.error).toMatch(/Try again in \d+ (seconds|minutes)/)
@@ -112,7 +121,13 @@ describe('failed sign-in limit', () => {
       const statuses: number[] = []
       for (let i = 0; i < 9; i++) {
         const app = i < 5 ? built.app : second.app
-        statuses.push((await supertest(app).post('/api/auth/sign-in').send({ email, password: `wrong-${i}-password` })).status)
+        statuses.push(
+          (
+            await supertest(app)
+              .post('/api/auth/sign-in')
+              .send({ email, password: `wrong-${i}-password` })
+          ).status,
+        )
       }
       const tenth = await supertest(second.app).post('/api/auth/sign-in').send({ email, password: 'wrong-9-password' })
       expect(statuses).toEqual([401, 401, 401, 401, 401, 401, 401, 401, 401])
@@ -163,7 +178,9 @@ describe('password reset', () => {
   })
 
   it('answers an unknown e-mail exactly like a known one (no account discovery)', async () => {
-    const res = await supertest(built.app).post('/api/auth/forgot-password').send({ email: uniqueEmail('ghost') })
+    const res = await supertest(built.app)
+      .post('/api/auth/forgot-password')
+      .send({ email: uniqueEmail('ghost') })
     expect(res.status).toBe(202)
   })
 })

@@ -53,7 +53,21 @@ describe('POST /api/calc/:tool', () => {
       ['size', { ...INPUT, duration: 3 }, 'duration'],
       ['charge', { chemistry: 'nicd', capacity: 4, duration: '3 h', load: { power: '3 W' }, chargeCurrent: '0.2 A' }, 'capacity'],
       ['compare', { duration: 3, load: { power: '3 W' } }, 'duration'],
-      ['retrofit', { chemistry: 'nicd', cellsInSeries: 3, capacity: '4 Ah', trickleCurrent: '0.2 A', batteryVoltage: '4.35 V', secondReading: { kind: 'open-circuit', voltage: '12 V' }, targetTrickleCurrent: '0.12 A', dischargeCurrent: '0.9 A', duration: 3 }, 'duration'],
+      [
+        'retrofit',
+        {
+          chemistry: 'nicd',
+          cellsInSeries: 3,
+          capacity: '4 Ah',
+          trickleCurrent: '0.2 A',
+          batteryVoltage: '4.35 V',
+          secondReading: { kind: 'open-circuit', voltage: '12 V' },
+          targetTrickleCurrent: '0.12 A',
+          dischargeCurrent: '0.9 A',
+          duration: 3,
+        },
+        'duration',
+      ],
       ['discharge', { samples, chemistry: 'nicd', cellsInSeries: 5, ratedDuration: 3 }, 'ratedDuration'],
     ]
     for (const [tool, body, field] of bare) {
@@ -64,13 +78,26 @@ describe('POST /api/calc/:tool', () => {
   })
 
   it('refuses an absurd magnitude with 400 naming the field', async () => {
-    const res = await viewer.post('/api/calc/audit', { claimedPower: '3 W', supplyVoltage: '230 V', measuredPower: 1e300, measuredCurrent: '25 mA', mode: 'maintained', hoursPerDay: 24, tariffPerKWh: 0.3 })
+    const res = await viewer.post('/api/calc/audit', {
+      claimedPower: '3 W',
+      supplyVoltage: '230 V',
+      measuredPower: 1e300,
+      measuredCurrent: '25 mA',
+      mode: 'maintained',
+      hoursPerDay: 24,
+      tariffPerKWh: 0.3,
+    })
     expect(res.status).toBe(400)
     expect(res.body.fields).toContainEqual(expect.objectContaining({ path: 'measuredPower' }))
   })
 
   it('runs replace from a label: the recommended pack keeps the 4.8 V and suits the charger', async () => {
-    const label = { oldPack: { chemistry: 'nicd', nominalVoltage: '4.8 V', capacity: '1.6 Ah', cellFormat: 'sub-C' }, duration: '3 h', mode: 'non-maintained', charger: { type: 'nickel-constant-current', chargeCurrent: '120 mA' } }
+    const label = {
+      oldPack: { chemistry: 'nicd', nominalVoltage: '4.8 V', capacity: '1.6 Ah', cellFormat: 'sub-C' },
+      duration: '3 h',
+      mode: 'non-maintained',
+      charger: { type: 'nickel-constant-current', chargeCurrent: '120 mA' },
+    }
     const res = await viewer.post('/api/calc/replace', label)
     expect(res.status).toBe(200)
     expect(res.body.oldPackNominalVoltageV).toBeCloseTo(4.8, 12)
@@ -80,7 +107,12 @@ describe('POST /api/calc/:tool', () => {
   })
 
   it('refuses a replace input whose old pack voltage is not whole cells, naming the field', async () => {
-    const res = await viewer.post('/api/calc/replace', { oldPack: { chemistry: 'nicd', nominalVoltage: '5 V', capacity: '1.6 Ah' }, duration: '3 h', mode: 'maintained', charger: { type: 'unknown', chargeCurrent: '100 mA' } })
+    const res = await viewer.post('/api/calc/replace', {
+      oldPack: { chemistry: 'nicd', nominalVoltage: '5 V', capacity: '1.6 Ah' },
+      duration: '3 h',
+      mode: 'maintained',
+      charger: { type: 'unknown', chargeCurrent: '100 mA' },
+    })
     expect(res.status).toBe(400)
     expect(res.body.fields).toEqual(expect.arrayContaining([expect.objectContaining({ path: 'oldPack.nominalVoltage' })]))
   })

@@ -12,8 +12,14 @@ export const dischargeRouteExamples: Record<string, ExampleFn> = {
     return { path: '/api/discharge/logs', body: { uploadId: up.uploadId, title: 'Example log', mapping: COMMA_MAPPING, options: NICD_3H } }
   },
   'get /api/discharge/logs': async () => ({ path: '/api/discharge/logs' }),
-  'get /api/discharge/logs/:id': async ({ team, other }) => ({ path: `/api/discharge/logs/${(await savedLogIn(team)).id}`, foreignPath: `/api/discharge/logs/${(await savedLogIn(other)).id}` }),
-  'delete /api/discharge/logs/:id': async ({ team, other }) => ({ path: `/api/discharge/logs/${(await savedLogIn(team)).id}`, foreignPath: `/api/discharge/logs/${(await savedLogIn(other)).id}` }),
+  'get /api/discharge/logs/:id': async ({ team, other }) => ({
+    path: `/api/discharge/logs/${(await savedLogIn(team)).id}`,
+    foreignPath: `/api/discharge/logs/${(await savedLogIn(other)).id}`,
+  }),
+  'delete /api/discharge/logs/:id': async ({ team, other }) => ({
+    path: `/api/discharge/logs/${(await savedLogIn(team)).id}`,
+    foreignPath: `/api/discharge/logs/${(await savedLogIn(other)).id}`,
+  }),
   'get /api/discharge/compare': async ({ team, other }) => {
     const [a, b] = [await savedLogIn(team, PASSING), await savedLogIn(team, FAILING)]
     const [x, y] = [await savedLogIn(other, PASSING), await savedLogIn(other, FAILING)]

@@ -28,13 +28,25 @@ async function staged(text: string) {
   return up.body.uploadId as string
 }
 const recordRow = async (id: string) =>
-  (await dataSource.query('SELECT kind, tested_on::text AS "testedOn", passed, achieved_duration_h AS "achievedDurationH", faults, discharge_log_id AS "dischargeLogId", runtime_note AS "runtimeNote" FROM test_records WHERE id = $1', [id]))[0]
+  (
+    await dataSource.query(
+      'SELECT kind, tested_on::text AS "testedOn", passed, achieved_duration_h AS "achievedDurationH", faults, discharge_log_id AS "dischargeLogId", runtime_note AS "runtimeNote" FROM test_records WHERE id = $1',
+      [id],
+    )
+  )[0]
 
 describe('a discharge log saved for a luminaire', () => {
   it('creates the luminaire’s full-duration record with the log’s runtime, verdict and day', async () => {
     const site = await siteIn(team.workspaceId)
     const l = await luminaireIn(team.workspaceId, site.id, { tag: 'LOG-1' })
-    const saved = await tech.post('/api/discharge/logs', { uploadId: await staged(logText(PASSING)), title: 'Annual test', mapping: COMMA_MAPPING, options: NICD_3H, luminaireId: l.id, testedOn: '2026-03-04' })
+    const saved = await tech.post('/api/discharge/logs', {
+      uploadId: await staged(logText(PASSING)),
+      title: 'Annual test',
+      mapping: COMMA_MAPPING,
+      options: NICD_3H,
+      luminaireId: l.id,
+      testedOn: '2026-03-04',
+    })
     expect(saved.status, JSON.stringify(saved.body)).toBe(201)
     expect(saved.body.luminaire).toMatchObject({ id: l.id, tag: 'LOG-1', siteId: site.id })
     expect(saved.body.testRecord).toMatchObject({ testedOn: '2026-03-04', luminaireId: l.id })
@@ -46,7 +58,14 @@ describe('a discharge log saved for a luminaire', () => {
     const byLuminaire = await tech.get(`/api/discharge/logs?luminaireId=${l.id}`)
     expect(byLuminaire.body.items.map((x: { id: string }) => x.id)).toEqual([saved.body.id])
 
-    const failing = await tech.post('/api/discharge/logs', { uploadId: await staged(logText(FAILING)), title: 'Retest', mapping: COMMA_MAPPING, options: NICD_3H, luminaireId: l.id, testedOn: '2026-03-05' })
+    const failing = await tech.post('/api/discharge/logs', {
+      uploadId: await staged(logText(FAILING)),
+      title: 'Retest',
+      mapping: COMMA_MAPPING,
+      options: NICD_3H,
+      luminaireId: l.id,
+      testedOn: '2026-03-05',
+    })
     expect(failing.status, JSON.stringify(failing.body)).toBe(201)
     const bad = await recordRow(failing.body.testRecord.id)
     // 0.6 V/h: (5.6 − 4.0) / 0.6 = 2.67 h, short of 3 h.
@@ -93,13 +112,28 @@ describe('a discharge log saved for a luminaire', () => {
     const base = { clientId: crypto.randomUUID(), luminaireId: l.id, kind: 'duration', testedOn: '2026-03-06', passed: true, dischargeLogId: saved.id }
     const close = await tech.post('/api/tests', { records: [{ ...base, achievedDurationH: 3.25 }] })
     expect(close.status, JSON.stringify(close.body)).toBe(201)
-    const far = await tech.post('/api/tests', { records: [{ ...base, clientId: crypto.randomUUID(), achievedDurationH: 2.5, passed: false, faults: 'Went out early' }] })
+    const far = await tech.post('/api/tests', {
+      records: [{ ...base, clientId: crypto.randomUUID(), achievedDurationH: 2.5, passed: false, faults: 'Went out early' }],
+    })
     expect(far.status).toBe(400)
     expect(far.body.fields).toEqual([{ path: 'records.0.runtimeNote', message: 'the record says 2.5 h, the log 3.2 h (42 min apart): say why they differ' }])
-    const noted = await tech.post('/api/tests', { records: [{ ...base, clientId: crypto.randomUUID(), achievedDurationH: 2.5, passed: false, faults: 'Went out early', runtimeNote: 'Lamp went out early; the log ran on a spare pack' }] })
+    const noted = await tech.post('/api/tests', {
+      records: [
+        {
+          ...base,
+          clientId: crypto.randomUUID(),
+          achievedDurationH: 2.5,
+          passed: false,
+          faults: 'Went out early',
+          runtimeNote: 'Lamp went out early; the log ran on a spare pack',
+        },
+      ],
+    })
     expect(noted.status).toBe(201)
     // A pass typed against a runtime short of the rating needs its own reason.
     const override = await tech.post('/api/tests', { records: [{ ...base, clientId: crypto.randomUUID(), dischargeLogId: null, achievedDurationH: 2.5 }] })
-    expect(override.body.fields).toEqual([{ path: 'records.0.verdictOverrideReason', message: '2.5 h against the required 3 h is a fail: give a reason to record a pass' }])
+    expect(override.body.fields).toEqual([
+      { path: 'records.0.verdictOverrideReason', message: '2.5 h against the required 3 h is a fail: give a reason to record a pass' },
+    ])
   })
 })

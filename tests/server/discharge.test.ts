@@ -28,7 +28,10 @@ beforeAll(async () => {
 afterAll(closeTestApp)
 
 async function uploadFile(client: Client, text: string | Buffer, name = 'log.csv') {
-  return client.agent.post('/api/discharge/uploads').set('X-CSRF-Token', client.csrf).attach('file', Buffer.isBuffer(text) ? text : Buffer.from(text), name)
+  return client.agent
+    .post('/api/discharge/uploads')
+    .set('X-CSRF-Token', client.csrf)
+    .attach('file', Buffer.isBuffer(text) ? text : Buffer.from(text), name)
 }
 
 /** Upload, take the server's guesses as the mapping, analyse without storing. */
@@ -36,7 +39,15 @@ async function analyseGuessed(text: string, extra: Record<string, unknown> = {})
   const up = await uploadFile(tech, text)
   expect(up.status, JSON.stringify(up.body)).toBe(201)
   const g = up.body.guess
-  const mapping = { delimiter: up.body.delimiter, decimal: up.body.decimal, header: up.body.header, firstLine: up.body.firstLine, time: g.time, voltage: g.voltage, current: g.current }
+  const mapping = {
+    delimiter: up.body.delimiter,
+    decimal: up.body.decimal,
+    header: up.body.header,
+    firstLine: up.body.firstLine,
+    time: g.time,
+    voltage: g.voltage,
+    current: g.current,
+  }
   const res = await tech.post('/api/discharge/logs', { uploadId: up.body.uploadId, mapping, options: NICD_3H, dryRun: true, ...extra })
   return { up, res, mapping }
 }
@@ -153,7 +164,12 @@ describe('bad files and bad rows', () => {
   })
 
   it('names a missing column', async () => {
-    const res = await tech.post('/api/discharge/logs', { uploadId: (await uploadFile(tech, logText(PASSING))).body.uploadId, mapping: { ...COMMA_MAPPING, current: { column: 7, unit: 'A' } }, options: NICD_3H, dryRun: true })
+    const res = await tech.post('/api/discharge/logs', {
+      uploadId: (await uploadFile(tech, logText(PASSING))).body.uploadId,
+      mapping: { ...COMMA_MAPPING, current: { column: 7, unit: 'A' } },
+      options: NICD_3H,
+      dryRun: true,
+    })
     expect(res.status).toBe(400)
     expect(res.body.error).toContain('has 3 cell(s), so no "Column 8"')
   })
@@ -191,10 +207,22 @@ describe('bad files and bad rows', () => {
     const bad = await client.post('/api/discharge/logs', { uploadId: up.body.uploadId, title: 'Refused', mapping: COMMA_MAPPING, options: NICD_3H })
     expect(bad.status).toBe(422)
     const foreignSheet = await sheetIn(team)
-    const wrongLink = await client.post('/api/discharge/logs', { uploadId: up.body.uploadId, title: 'Refused', mapping: COMMA_MAPPING, options: NICD_3H, acceptBadRows: true, specSheetId: foreignSheet.id })
+    const wrongLink = await client.post('/api/discharge/logs', {
+      uploadId: up.body.uploadId,
+      title: 'Refused',
+      mapping: COMMA_MAPPING,
+      options: NICD_3H,
+      acceptBadRows: true,
+      specSheetId: foreignSheet.id,
+    })
     expect(wrongLink.status).toBe(404)
     expect(wrongLink.body.fields).toEqual([{ path: 'specSheetId', message: 'is not a specification sheet of this workspace' }])
-    const badOptions = await client.post('/api/discharge/logs', { uploadId: up.body.uploadId, title: 'Refused', mapping: COMMA_MAPPING, options: { ...NICD_3H, ratedDuration: '3 kg' } })
+    const badOptions = await client.post('/api/discharge/logs', {
+      uploadId: up.body.uploadId,
+      title: 'Refused',
+      mapping: COMMA_MAPPING,
+      options: { ...NICD_3H, ratedDuration: '3 kg' },
+    })
     expect(badOptions.status).toBe(400)
     expect(badOptions.body.fields[0].path).toBe('options.ratedDuration')
     expect(await count('discharge_files', fresh.workspaceId)).toBe(0)
@@ -220,15 +248,33 @@ describe('saving, attaching, comparing', () => {
     const functional = await testIn(fresh.workspaceId, luminaire.id, { kind: 'functional', testedOn: '2026-03-02' })
 
     const first = await uploadFile(client, logText(PASSING), 'a.csv')
-    const saved = await client.post('/api/discharge/logs', { uploadId: first.body.uploadId, title: 'After the new pack', mapping: COMMA_MAPPING, options: NICD_3H, specSheetId: sheet.id })
+    const saved = await client.post('/api/discharge/logs', {
+      uploadId: first.body.uploadId,
+      title: 'After the new pack',
+      mapping: COMMA_MAPPING,
+      options: NICD_3H,
+      specSheetId: sheet.id,
+    })
     expect(saved.status, JSON.stringify(saved.body)).toBe(201)
     expect(saved.body.specSheet).toEqual({ id: sheet.id, title: 'Sheet with logs' })
     // The staged copy is gone once saved; the same bytes uploaded again point at the stored file.
     const second = await uploadFile(client, logText(PASSING), 'a-again.csv')
     expect(second.body.storedFileId).toBe(saved.body.fileId)
-    const onFunctional = await client.post('/api/discharge/logs', { uploadId: second.body.uploadId, title: 'Wrong test', mapping: COMMA_MAPPING, options: NICD_3H, testRecordId: functional })
+    const onFunctional = await client.post('/api/discharge/logs', {
+      uploadId: second.body.uploadId,
+      title: 'Wrong test',
+      mapping: COMMA_MAPPING,
+      options: NICD_3H,
+      testRecordId: functional,
+    })
     expect(onFunctional.status).toBe(400)
-    const onTest = await client.post('/api/discharge/logs', { uploadId: second.body.uploadId, title: 'Same file, on the test', mapping: COMMA_MAPPING, options: NICD_3H, testRecordId: test })
+    const onTest = await client.post('/api/discharge/logs', {
+      uploadId: second.body.uploadId,
+      title: 'Same file, on the test',
+      mapping: COMMA_MAPPING,
+      options: NICD_3H,
+      testRecordId: test,
+    })
     expect(onTest.status, JSON.stringify(onTest.body)).toBe(201)
     expect(onTest.body.fileId).toBe(saved.body.fileId)
     expect(await count('discharge_files', fresh.workspaceId)).toBe(1)
@@ -241,16 +287,24 @@ describe('saving, attaching, comparing', () => {
     expect(byLuminaire.body.items[0].testRecord).toMatchObject({ id: test, testedOn: '2026-03-01', luminaireTag: luminaire.tag })
 
     // Re-analyse the stored file with other options: no new file row.
-    const again = await client.post('/api/discharge/logs', { fileId: saved.body.fileId, mapping: COMMA_MAPPING, options: { ...NICD_3H, cutoffPerCell: '1.1 V' }, dryRun: true })
+    const again = await client.post('/api/discharge/logs', {
+      fileId: saved.body.fileId,
+      mapping: COMMA_MAPPING,
+      options: { ...NICD_3H, cutoffPerCell: '1.1 V' },
+      dryRun: true,
+    })
     expect(again.status).toBe(200)
     // 5.6 − 0.5 h = 4.4 V at h = 2.4.
     expect(again.body.summary.runtimeH).toBeCloseTo(2.4, 9)
 
-    const pdf = await client.agent.get(`/api/sheets/${sheet.id}/pdf`).buffer(true).parse((res, cb) => {
-      const chunks: Buffer[] = []
-      res.on('data', (c: Buffer) => chunks.push(c))
-      res.on('end', () => cb(null, Buffer.concat(chunks)))
-    })
+    const pdf = await client.agent
+      .get(`/api/sheets/${sheet.id}/pdf`)
+      .buffer(true)
+      .parse((res, cb) => {
+        const chunks: Buffer[] = []
+        res.on('data', (c: Buffer) => chunks.push(c))
+        res.on('end', () => cb(null, Buffer.concat(chunks)))
+      })
     const text = pdfText(pdf.body as Buffer)
     expect(text).toContain('Discharge logs')
     expect(text).toContain('After the new pack')

@@ -19,7 +19,16 @@ let pgPort: number
 const children: ChildProcess[] = []
 
 function env(port: number) {
-  return { ...process.env, NODE_ENV: 'test', DATABASE_URL: cluster.url, PORT: String(port), SMTP_CATCHER_PORT: '0', DATA_DIR: path.join(work, 'data'), JOBS: '0', LOG_LEVEL: 'silent' }
+  return {
+    ...process.env,
+    NODE_ENV: 'test',
+    DATABASE_URL: cluster.url,
+    PORT: String(port),
+    SMTP_CATCHER_PORT: '0',
+    DATA_DIR: path.join(work, 'data'),
+    JOBS: '0',
+    LOG_LEVEL: 'silent',
+  }
 }
 
 async function startApp(port: number): Promise<void> {
@@ -59,7 +68,8 @@ async function signUp(port: number, email: string): Promise<Session> {
     }
     if (!token) await new Promise((r) => setTimeout(r, 100))
   }
-  const post = (p: string, body: unknown) => fetch(`http://127.0.0.1:${port}${p}`, { method: 'POST', headers: { 'Content-Type': 'application/json' }, body: JSON.stringify(body) })
+  const post = (p: string, body: unknown) =>
+    fetch(`http://127.0.0.1:${port}${p}`, { method: 'POST', headers: { 'Content-Type': 'application/json' }, body: JSON.stringify(body) })
   expect((await post('/api/auth/confirm-email', { token })).status).toBe(200)
   const signedIn = await post('/api/auth/sign-in', { email, password: 'a fault tolerant passphrase' })
   expect(signedIn.status).toBe(200)
@@ -68,7 +78,10 @@ async function signUp(port: number, email: string): Promise<Session> {
 
 function pgCtl(action: 'stop' | 'start') {
   const dir = path.join(work, 'pg')
-  const args = action === 'stop' ? ['-D', dir, '-m', 'fast', '-w', 'stop'] : ['-D', dir, '-l', path.join(dir, 'server.log'), '-o', `-c listen_addresses=127.0.0.1 -p ${pgPort} -c unix_socket_directories=''`, '-w', 'start']
+  const args =
+    action === 'stop'
+      ? ['-D', dir, '-m', 'fast', '-w', 'stop']
+      : ['-D', dir, '-l', path.join(dir, 'server.log'), '-o', `-c listen_addresses=127.0.0.1 -p ${pgPort} -c unix_socket_directories=''`, '-w', 'start']
   const cmd = process.getuid?.() === 0 ? ['runuser', ['-u', 'postgres', '--', path.join(bin, 'pg_ctl'), ...args]] : [path.join(bin, 'pg_ctl'), args]
   const r = spawnSync(cmd[0] as string, cmd[1] as string[], { cwd: '/tmp', encoding: 'utf8' })
   if (r.status !== 0) throw new Error(`pg_ctl ${action}: ${r.stderr}`)
@@ -95,7 +108,11 @@ describe('faults', () => {
     const s = await signUp(a, `two-${Date.now()}@test.example`)
     const me = await fetch(`http://127.0.0.1:${b}/api/auth/me`, { headers: { cookie: s.cookie } })
     expect(me.status).toBe(200)
-    const write = await fetch(`http://127.0.0.1:${b}/api/workspaces`, { method: 'POST', headers: { cookie: s.cookie, 'X-CSRF-Token': s.csrf, 'Content-Type': 'application/json' }, body: JSON.stringify({ name: 'Made on B' }) })
+    const write = await fetch(`http://127.0.0.1:${b}/api/workspaces`, {
+      method: 'POST',
+      headers: { cookie: s.cookie, 'X-CSRF-Token': s.csrf, 'Content-Type': 'application/json' },
+      body: JSON.stringify({ name: 'Made on B' }),
+    })
     expect(write.status).toBe(201)
   })
 
@@ -111,7 +128,11 @@ describe('faults', () => {
       while (running) {
         const name = `w-${n++}`
         try {
-          const res = await fetch(`http://127.0.0.1:${port}/api/workspaces`, { method: 'POST', headers: { cookie: s.cookie, 'X-CSRF-Token': s.csrf, 'Content-Type': 'application/json' }, body: JSON.stringify({ name }) })
+          const res = await fetch(`http://127.0.0.1:${port}/api/workspaces`, {
+            method: 'POST',
+            headers: { cookie: s.cookie, 'X-CSRF-Token': s.csrf, 'Content-Type': 'application/json' },
+            body: JSON.stringify({ name }),
+          })
           statuses[res.status] = (statuses[res.status] ?? 0) + 1
           if (res.status === 201) acknowledged.push((await res.json()).id)
           else await res.text()
@@ -135,7 +156,9 @@ describe('faults', () => {
     const recoverySeconds = (Date.now() - restartedAt) / 1000
     running = false
     await writer
-    console.log(`faults: ${acknowledged.length} acknowledged writes; statuses ${JSON.stringify(statuses)}; recovered ${recoverySeconds.toFixed(2)} s after restart`)
+    console.log(
+      `faults: ${acknowledged.length} acknowledged writes; statuses ${JSON.stringify(statuses)}; recovered ${recoverySeconds.toFixed(2)} s after restart`,
+    )
     expect(statuses['500'] ?? 0).toBe(0)
     expect(statuses['503']).toBeGreaterThan(0)
     expect(recoverySeconds).toBeLessThan(10)

@@ -27,7 +27,30 @@ beforeAll(async () => {
 afterAll(closeTestApp)
 
 const nasty = fc.oneof(
-  fc.constantFrom('NaN', 'Infinity', '-Infinity', '1e309', '-0', '', ' ', 'null', 'undefined', '__proto__', '3 kg', '120 mA mA', '∞ A', '½ h', '1,5 V', '0x10', '😀', '\u0000', '../../etc/passwd', "'; DROP TABLE users; --", '<script>alert(1)</script>', '=cmd|calc'),
+  fc.constantFrom(
+    'NaN',
+    'Infinity',
+    '-Infinity',
+    '1e309',
+    '-0',
+    '',
+    ' ',
+    'null',
+    'undefined',
+    '__proto__',
+    '3 kg',
+    '120 mA mA',
+    '∞ A',
+    '½ h',
+    '1,5 V',
+    '0x10',
+    '😀',
+    '\u0000',
+    '../../etc/passwd',
+    "'; DROP TABLE users; --",
+    '<script>alert(1)</script>',
+    '=cmd|calc',
+  ),
   fc.string({ maxLength: 40 }),
   fc.string({ unit: 'binary', maxLength: 20 }),
   fc.integer(),
@@ -75,7 +98,10 @@ function planArbitrary(routes: RouteSpec[]) {
     route: fc.constantFrom(...routes),
     shape: fc.constantFrom<Shape>('valid-mutated', 'valid-mutated', 'valid-mutated', 'anything', 'wrong-type', 'truncated', 'text', 'form', 'deep', 'huge'),
     value: fc.oneof(nasty, fc.jsonValue({ maxDepth: 3 })),
-    pathNoise: fc.oneof(fc.uuid(), fc.constantFrom('0', '-1', 'null', 'NaN', '%00', 'x'.repeat(300), '1;DROP', '..', '😀', '00000000-0000-0000-0000-000000000000')),
+    pathNoise: fc.oneof(
+      fc.uuid(),
+      fc.constantFrom('0', '-1', 'null', 'NaN', '%00', 'x'.repeat(300), '1;DROP', '..', '😀', '00000000-0000-0000-0000-000000000000'),
+    ),
     seedFraction: fc.double({ min: 0, max: 1, noNaN: true }),
   })
 }
@@ -90,7 +116,9 @@ function str(v: unknown): string {
 }
 
 function fillPath(route: RouteSpec, noise: string): string {
-  return route.path.replace(/:(\w+)/g, (_m, name: string) => (name === 'tool' ? (noise.length % 3 === 0 ? 'size' : encodeURIComponent(noise)) : encodeURIComponent(noise)))
+  return route.path.replace(/:(\w+)/g, (_m, name: string) =>
+    name === 'tool' ? (noise.length % 3 === 0 ? 'size' : encodeURIComponent(noise)) : encodeURIComponent(noise),
+  )
 }
 
 async function send(client: Client, plan: Plan, exampleBody: unknown) {
@@ -98,7 +126,16 @@ async function send(client: Client, plan: Plan, exampleBody: unknown) {
   const method = plan.route.method
   const t0 = client.agent[method](path).set('X-CSRF-Token', client.csrf)
   const asText = str(plan.value)
-  if (method === 'get') return t0.query({ page: asText.slice(0, 300), pageSize: asText.slice(0, 50), sort: asText.slice(0, 50), order: asText.slice(0, 10), q: asText.slice(0, 500), status: asText.slice(0, 20), from: asText.slice(0, 30) })
+  if (method === 'get')
+    return t0.query({
+      page: asText.slice(0, 300),
+      pageSize: asText.slice(0, 50),
+      sort: asText.slice(0, 50),
+      order: asText.slice(0, 10),
+      q: asText.slice(0, 500),
+      status: asText.slice(0, 20),
+      from: asText.slice(0, 30),
+    })
   let n = plan.seedFraction
   const rnd = () => {
     n = (n * 9301 + 0.49297) % 1
@@ -127,36 +164,44 @@ async function send(client: Client, plan: Plan, exampleBody: unknown) {
 }
 
 describe('bad-input fuzzing of every /api route', () => {
-  it(`answers ${TOTAL} generated bad requests with 4xx JSON (never 5xx, never a stack trace) and stays healthy`, { timeout: 60_000 + TOTAL * 150 }, async () => {
-    const team = await makeTeam('Fuzz team')
-    const owner = await signIn(built.app, team.users.owner.email)
-    const stranger = anonymous(built.app)
-    const routes = built.routeTable.filter((r) => !SKIP.has(`${r.method} ${r.path}`))
-    const examples = new Map<string, unknown>()
-    for (const r of routes) {
-      const key = `${r.method} ${r.path}`
-      const ex = await routeExamples[key]?.({ team, other: team, role: 'owner', callerEmail: team.users.owner.email })
-      examples.set(key, ex?.body)
-    }
-    const counts: Record<string, number> = {}
-    const failures: string[] = []
-    let sent = 0
-    await fc.assert(
-      fc.asyncProperty(planArbitrary(routes), async (plan) => {
-        const key = `${plan.route.method} ${plan.route.path}`
-        const res = await send(WITHOUT_SESSION.has(key) ? stranger : owner, plan, examples.get(key))
-        sent++
-        counts[String(res.status)] = (counts[String(res.status)] ?? 0) + 1
-        const text = res.text ?? ''
-        const bad = res.status >= 500 || /\bat .+\.(ts|js):\d+|node_modules|stack/i.test(text) || (res.status >= 400 && !/json/.test(String(res.headers['content-type'])))
-        if (bad && failures.length < 10) failures.push(`${plan.route.method} ${fillPath(plan.route, plan.pathNoise)} [${plan.shape}] → ${res.status} ${text.slice(0, 200)}`)
-        return true
-      }),
-      { numRuns: TOTAL, seed: SEED, endOnFailure: true },
-    )
-    console.log(`fuzz: ${sent} requests over ${routes.length} routes; statuses ${JSON.stringify(counts)}`)
-    expect(failures).toEqual([])
-    const health = await supertest(built.app).get('/api/health')
-    expect(health.status).toBe(200)
-  })
+  it(
+    `answers ${TOTAL} generated bad requests with 4xx JSON (never 5xx, never a stack trace) and stays healthy`,
+    { timeout: 60_000 + TOTAL * 150 },
+    async () => {
+      const team = await makeTeam('Fuzz team')
+      const owner = await signIn(built.app, team.users.owner.email)
+      const stranger = anonymous(built.app)
+      const routes = built.routeTable.filter((r) => !SKIP.has(`${r.method} ${r.path}`))
+      const examples = new Map<string, unknown>()
+      for (const r of routes) {
+        const key = `${r.method} ${r.path}`
+        const ex = await routeExamples[key]?.({ team, other: team, role: 'owner', callerEmail: team.users.owner.email })
+        examples.set(key, ex?.body)
+      }
+      const counts: Record<string, number> = {}
+      const failures: string[] = []
+      let sent = 0
+      await fc.assert(
+        fc.asyncProperty(planArbitrary(routes), async (plan) => {
+          const key = `${plan.route.method} ${plan.route.path}`
+          const res = await send(WITHOUT_SESSION.has(key) ? stranger : owner, plan, examples.get(key))
+          sent++
+          counts[String(res.status)] = (counts[String(res.status)] ?? 0) + 1
+          const text = res.text ?? ''
+          const bad =
+            res.status >= 500 ||
+            /\bat .+\.(ts|js):\d+|node_modules|stack/i.test(text) ||
+            (res.status >= 400 && !/json/.test(String(res.headers['content-type'])))
+          if (bad && failures.length < 10)
+            failures.push(`${plan.route.method} ${fillPath(plan.route, plan.pathNoise)} [${plan.shape}] → ${res.status} ${text.slice(0, 200)}`)
+          return true
+        }),
+        { numRuns: TOTAL, seed: SEED, endOnFailure: true },
+      )
+      console.log(`fuzz: ${sent} requests over ${routes.length} routes; statuses ${JSON.stringify(counts)}`)
+      expect(failures).toEqual([])
+      const health = await supertest(built.app).get('/api/health')
+      expect(health.status).toBe(200)
+    },
+  )
 })

@@ -33,9 +33,20 @@ beforeAll(async () => {
   designer = await signIn(app, team.users.designer.email)
   viewer = await signIn(app, team.users.viewer.email)
   typeId = (await typeIn(team)).id
-  const site = await siteIn(team.workspaceId, { name: 'Harbour Yard Offices', address: '4 Quay Row\nPortown', responsibleName: 'Dana Keeper', responsibleEmail: 'dana@example.test' })
+  const site = await siteIn(team.workspaceId, {
+    name: 'Harbour Yard Offices',
+    address: '4 Quay Row\nPortown',
+    responsibleName: 'Dana Keeper',
+    responsibleEmail: 'dana@example.test',
+  })
   siteId = site.id
-  const a = await luminaireIn(team.workspaceId, siteId, { tag: 'EL-01', location: 'Stair A', luminaireTypeId: typeId, packFittedOn: '2025-06-01', chemistry: 'nicd-ht' })
+  const a = await luminaireIn(team.workspaceId, siteId, {
+    tag: 'EL-01',
+    location: 'Stair A',
+    luminaireTypeId: typeId,
+    packFittedOn: '2025-06-01',
+    chemistry: 'nicd-ht',
+  })
   const b = await luminaireIn(team.workspaceId, siteId, { tag: 'EL-02', location: 'Corridor by lift', packFittedOn: '2025-06-01', mode: 'maintained' })
   await luminaireIn(team.workspaceId, siteId, { tag: 'EL-03', location: 'Plant room', purpose: 'high-risk', packFittedOn: '2025-06-01' })
   // An old test from before the pack was fitted is not its first full-duration test.
@@ -98,7 +109,10 @@ describe('making a handover pack', () => {
     const unsigned = await designer.post(`/api/sites/${siteId}/handover-packs`, handoverBody(typeId, { signedByName: '  ' }))
     expect(unsigned.status).toBe(400)
     expect(JSON.stringify(unsigned.body)).toContain('signedByName')
-    const badRoute = await designer.post(`/api/sites/${siteId}/handover-packs`, handoverBody(typeId, { routes: [{ name: 'Stairs', typeId, route: { routeLength: 'ten metres' } }] }))
+    const badRoute = await designer.post(
+      `/api/sites/${siteId}/handover-packs`,
+      handoverBody(typeId, { routes: [{ name: 'Stairs', typeId, route: { routeLength: 'ten metres' } }] }),
+    )
     expect(badRoute.status).toBe(400)
     expect(JSON.stringify(badRoute.body)).toContain('routes')
     const list = await viewer.get(`/api/sites/${siteId}/handover-packs`)

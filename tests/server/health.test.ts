@@ -40,7 +40,10 @@ describe('bad requests', () => {
   })
 
   it('refuses an oversized JSON body with 413, not 500', async () => {
-    const res = await supertest(built.app).post('/api/auth/sign-in').set('Content-Type', 'application/json').send(JSON.stringify({ email: 'x'.repeat(2_000_000) }))
+    const res = await supertest(built.app)
+      .post('/api/auth/sign-in')
+      .set('Content-Type', 'application/json')
+      .send(JSON.stringify({ email: 'x'.repeat(2_000_000) }))
     expect(res.status).toBe(413)
     expect(res.body.error).toBeTruthy()
   })

@@ -54,7 +54,8 @@ const SITES = [
   { name: 'Marrowby Clinic (test)', count: 200 },
   { name: 'Ostrel Lane Offices (test)', count: 100 },
 ]
-const HEADER = 'external_id,tag,area,location,type,purpose,mode,rated_duration_h,chemistry,cells,capacity_ah,pack_fitted_on,last_functional_test_on,last_duration_test_on'
+const HEADER =
+  'external_id,tag,area,location,type,purpose,mode,rated_duration_h,chemistry,cells,capacity_ah,pack_fitted_on,last_functional_test_on,last_duration_test_on'
 function schedules(): SiteSchedule[] {
   const fitted = addDays(today, -700)
   return SITES.map((s, si) => ({
@@ -64,7 +65,22 @@ function schedules(): SiteSchedule[] {
       ...Array.from({ length: s.count }, (_, i) => {
         const carried = i % 3 === 0
         const type = i % 50 === 49 ? 'Unlisted spot' : i % 2 ? 'Bulkhead 3 h' : 'Exit sign 3 h'
-        return [`S${si}-${i}`, `E-${si}-${String(i).padStart(3, '0')}`, `Floor ${i % 4}`, 'Corridor', type, i % 2 ? 'escape-route' : 'exit-sign', 'non-maintained', 3, 'nicd', 3, 1.6, fitted, carried ? addDays(today, -5) : '', carried ? addDays(today, -60) : ''].join(',')
+        return [
+          `S${si}-${i}`,
+          `E-${si}-${String(i).padStart(3, '0')}`,
+          `Floor ${i % 4}`,
+          'Corridor',
+          type,
+          i % 2 ? 'escape-route' : 'exit-sign',
+          'non-maintained',
+          3,
+          'nicd',
+          3,
+          1.6,
+          fitted,
+          carried ? addDays(today, -5) : '',
+          carried ? addDays(today, -60) : '',
+        ].join(',')
       }),
     ].join('\n'),
   }))
@@ -75,7 +91,10 @@ describe('the integrator jobs, on the generated client', () => {
     const served = (await (await fetch(`${baseUrl}/api/openapi.json`)).json()) as Record<string, unknown>
     // docs/examples/api.d.ts is what the jobs are type-checked against; `npm run api:types` writes it.
     const fresh = await apiTypesOf(served)
-    expect(fresh === fs.readFileSync(API_TYPES_FILE, 'utf8'), 'docs/examples/api.d.ts is older than the API: run `npm run api:types` (npm test does it first)').toBe(true)
+    expect(
+      fresh === fs.readFileSync(API_TYPES_FILE, 'utf8'),
+      'docs/examples/api.d.ts is older than the API: run `npm run api:types` (npm test does it first)',
+    ).toBe(true)
   })
 
   it('job 1: imports the schedules of three sites, then again with no change', async () => {
@@ -110,7 +129,10 @@ describe('the integrator jobs, on the generated client', () => {
   it('job 4: archives a month of log book PDFs, one per site that tested, holding only that month', async () => {
     const month = addDays(today, -40).slice(0, 7)
     const { from, to } = monthSpan(month)
-    const ids: Array<{ id: string; tag: string }> = await dataSource.query('SELECT id, tag FROM luminaires WHERE workspace_id = $1 AND site_id IN (SELECT id FROM sites WHERE name = $2) ORDER BY tag LIMIT 3', [team.workspaceId, SITES[0]!.name])
+    const ids: Array<{ id: string; tag: string }> = await dataSource.query(
+      'SELECT id, tag FROM luminaires WHERE workspace_id = $1 AND site_id IN (SELECT id FROM sites WHERE name = $2) ORDER BY tag LIMIT 3',
+      [team.workspaceId, SITES[0]!.name],
+    )
     await testIn(team.workspaceId, ids[0]!.id, { kind: 'functional', testedOn: from })
     await testIn(team.workspaceId, ids[1]!.id, { kind: 'functional', testedOn: to, passed: false, faults: 'Lamp out' })
     await testIn(team.workspaceId, ids[2]!.id, { kind: 'functional', testedOn: addDays(from, -1) })

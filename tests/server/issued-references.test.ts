@@ -8,14 +8,23 @@ import { issuedReferences } from '../../server/modules/sheets/sheet-pdf'
 import type { WorkingStep } from '../../shared/engine/types'
 
 const step = (references: WorkingStep['references']): WorkingStep => ({
-  id: 'x', label: 'x', formula: 'x', explanation: 'x', inputs: [], result: { symbol: 'x', label: 'x', value: 1, unit: '' }, references,
+  id: 'x',
+  label: 'x',
+  formula: 'x',
+  explanation: 'x',
+  inputs: [],
+  result: { symbol: 'x', label: 'x', value: 1, unit: '' },
+  references,
 })
 
 describe('issued references', () => {
   it('keeps the from-memory mark when the same source was first cited as published', () => {
     const refs = issuedReferences([
       step([{ source: 'Handbook of Batteries, chemistry chapters', basis: 'published' }]),
-      step([{ source: 'Handbook of Batteries, chemistry chapters', basis: 'from memory' }, { source: 'Handbook of Batteries, chemistry chapters', basis: 'published' }]),
+      step([
+        { source: 'Handbook of Batteries, chemistry chapters', basis: 'from memory' },
+        { source: 'Handbook of Batteries, chemistry chapters', basis: 'published' },
+      ]),
     ])
     expect(refs.map((r) => r.basis)).toEqual(['published', 'from memory'])
   })

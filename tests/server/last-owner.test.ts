@@ -67,10 +67,17 @@ describe('the last owner under concurrency', () => {
   }, 120_000)
 
   it(`two owners removing each other at once, ${SHORT_ROUNDS} rounds: the workspace keeps an owner`, async () => {
-    await race('remove', SHORT_ROUNDS, ({ a, b, aId, bId }) => Promise.all([a.delete(`/api/workspace/members/${bId}`), b.delete(`/api/workspace/members/${aId}`)]))
+    await race('remove', SHORT_ROUNDS, ({ a, b, aId, bId }) =>
+      Promise.all([a.delete(`/api/workspace/members/${bId}`), b.delete(`/api/workspace/members/${aId}`)]),
+    )
   }, 120_000)
 
   it(`one owner leaving while the other demotes themself, ${ROUNDS} rounds: the workspace keeps an owner`, async () => {
-    await race('leave and demote', ROUNDS, ({ a, b, bId }) => Promise.all([a.post('/api/workspace/leave'), b.patch(`/api/workspace/members/${bId}`, { role: 'viewer' })]), true)
+    await race(
+      'leave and demote',
+      ROUNDS,
+      ({ a, b, bId }) => Promise.all([a.post('/api/workspace/leave'), b.patch(`/api/workspace/members/${bId}`, { role: 'viewer' })]),
+      true,
+    )
   }, 120_000)
 })

@@ -69,7 +69,13 @@ describe('limits', () => {
     const statuses: number[] = []
     for (let i = 0; i < 8; i++) {
       const app = i % 2 ? second.app : strict.app
-      statuses.push((await supertest(app).post('/api/auth/sign-up').send({ email: uniqueEmail('burst'), password: 'a long enough passphrase', name: 'Burst', workspaceName: 'Burst' })).status)
+      statuses.push(
+        (
+          await supertest(app)
+            .post('/api/auth/sign-up')
+            .send({ email: uniqueEmail('burst'), password: 'a long enough passphrase', name: 'Burst', workspaceName: 'Burst' })
+        ).status,
+      )
     }
     // Other test files may sign up from this address at the same time: never more than three get through.
     expect(statuses.filter((s) => s === 202).length).toBeLessThanOrEqual(3)

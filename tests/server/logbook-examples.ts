@@ -21,7 +21,10 @@ export const logbookRouteExamples: Record<string, ExampleFn> = {
     body: { expiresOn: null },
     foreignPath: `/api/sites/${(await siteIn(other.workspaceId)).id}/logbook-links`,
   }),
-  'get /api/sites/:id/logbook-links': async ({ team, other }) => ({ path: `/api/sites/${(await linkIn(team)).site.id}/logbook-links`, foreignPath: `/api/sites/${(await linkIn(other)).site.id}/logbook-links` }),
+  'get /api/sites/:id/logbook-links': async ({ team, other }) => ({
+    path: `/api/sites/${(await linkIn(team)).site.id}/logbook-links`,
+    foreignPath: `/api/sites/${(await linkIn(other)).site.id}/logbook-links`,
+  }),
   'delete /api/sites/:id/logbook-links/:linkId': async ({ team, other }) => {
     const mine = await linkIn(team)
     const theirs = await linkIn(other)

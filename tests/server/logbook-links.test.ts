@@ -34,7 +34,12 @@ let siteId: string
 /** Every test row this file makes, as the log book holds it: the hand count reads these. */
 const rows: Array<{ tag: string; kind: 'functional' | 'duration'; testedOn: string; passed: boolean; inError?: boolean }> = []
 
-async function record(workspaceId: string, luminaireId: string, tag: string, t: { kind: 'functional' | 'duration'; testedOn: string; passed?: boolean; faults?: string; achievedDurationH?: number }) {
+async function record(
+  workspaceId: string,
+  luminaireId: string,
+  tag: string,
+  t: { kind: 'functional' | 'duration'; testedOn: string; passed?: boolean; faults?: string; achievedDurationH?: number },
+) {
   const id = await testIn(workspaceId, luminaireId, t)
   rows.push({ tag, kind: t.kind, testedOn: t.testedOn, passed: t.passed ?? true })
   return id
@@ -45,7 +50,12 @@ beforeAll(async () => {
   team = await makeTeam('Invented Fire Care')
   designer = await signIn(app, team.users.designer.email)
   viewer = await signIn(app, team.users.viewer.email)
-  const site = await siteIn(team.workspaceId, { name: 'Mill Lane Library', address: '12 Mill Lane\nOldbridge', responsibleName: 'Sam Holder', responsibleEmail: 'sam@example.test' })
+  const site = await siteIn(team.workspaceId, {
+    name: 'Mill Lane Library',
+    address: '12 Mill Lane\nOldbridge',
+    responsibleName: 'Sam Holder',
+    responsibleEmail: 'sam@example.test',
+  })
   siteId = site.id
   const w = team.workspaceId
   const lum = (tag: string, packFittedOn: string) => luminaireIn(w, siteId, { tag, packFittedOn })
@@ -151,7 +161,12 @@ describe('a log book link', () => {
     expect(b.totalEntries).toBe(rows.length)
     expect(b.entries).toHaveLength(rows.length)
     expect(b.entries[0]).toMatchObject({ tag: 'EL-F', recordedInError: true, recordedInErrorReason: 'Wrong luminaire' })
-    expect(b.entries.map((x: { testedOn: string }) => x.testedOn)).toEqual([...rows].map((r) => r.testedOn).sort().reverse())
+    expect(b.entries.map((x: { testedOn: string }) => x.testedOn)).toEqual(
+      [...rows]
+        .map((r) => r.testedOn)
+        .sort()
+        .reverse(),
+    )
   })
 
   it('gives the PDF signed out: the summary page first, then the entries, words and dates only', async () => {
@@ -184,7 +199,10 @@ describe('a log book link', () => {
     expect(text).toContain('Failures and what became of them')
     expect(text).toContain(`Still failed: retest due by ${words(addDays(ago(3), 14))}`)
     // An extract of some days is that period's entries only: the summary describes the whole book today.
-    const extract = await viewer.get(`/api/sites/${siteId}/export/logbook.pdf?from=${ago(10)}&to=${ago(1)}`).buffer(true).parse(binary)
+    const extract = await viewer
+      .get(`/api/sites/${siteId}/export/logbook.pdf?from=${ago(10)}&to=${ago(1)}`)
+      .buffer(true)
+      .parse(binary)
     expect(extract.status).toBe(200)
     const extractText = pdfLines(extract.body as Buffer).join('\n')
     expect(extractText).toContain('Log book entries')
@@ -211,7 +229,10 @@ describe('a log book link', () => {
     expect((await anonymous(app).get(`/api/logbook-links/${token}/pdf`)).status).toBe(410)
     const listed = await designer.get(`/api/sites/${siteId}/logbook-links`)
     expect(listed.body.links[0]).toMatchObject({ id: linkId, state: 'revoked' })
-    const audit: Array<{ action: string; data: { linkId: string } }> = await dataSource.query(`SELECT action, data FROM audit_events WHERE entity_id = $1 AND action LIKE 'logbook.%' ORDER BY at`, [siteId])
+    const audit: Array<{ action: string; data: { linkId: string } }> = await dataSource.query(
+      `SELECT action, data FROM audit_events WHERE entity_id = $1 AND action LIKE 'logbook.%' ORDER BY at`,
+      [siteId],
+    )
     expect(audit.map((x) => x.action)).toEqual(['logbook.shared', 'logbook.link-revoked'])
     expect(audit.every((x) => x.data.linkId === linkId)).toBe(true)
     expect(JSON.stringify(audit)).not.toContain(token)

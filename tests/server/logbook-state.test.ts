@@ -52,12 +52,26 @@ describe('failures stay open until put right', () => {
     const site = await siteIn(team.workspaceId)
     const l = await testedLuminaire(site.id, 'S-1')
     const failedOn = addDays(today, -6)
-    await record(l.id, { kind: 'duration', testedOn: failedOn, passed: false, achievedDurationH: 2.5, faults: 'Went out after 2 h 30 min', remedialAction: 'Pack to be replaced' })
+    await record(l.id, {
+      kind: 'duration',
+      testedOn: failedOn,
+      passed: false,
+      achievedDurationH: 2.5,
+      faults: 'Went out after 2 h 30 min',
+      remedialAction: 'Pack to be replaced',
+    })
     await record(l.id, { kind: 'functional', testedOn: addDays(today, -2), passed: true })
     const d = (await detail(l.id)).due
     expect(d.state).toBe('failed')
     expect(d.failed).toBe(true)
-    expect(d.lastFailure).toMatchObject({ kind: 'duration', testedOn: failedOn, faults: 'Went out after 2 h 30 min', remedialAction: 'Pack to be replaced', retestBy: addDays(failedOn, 14), retestOverdue: false })
+    expect(d.lastFailure).toMatchObject({
+      kind: 'duration',
+      testedOn: failedOn,
+      faults: 'Went out after 2 h 30 min',
+      remedialAction: 'Pack to be replaced',
+      retestBy: addDays(failedOn, 14),
+      retestOverdue: false,
+    })
     // The retest is due at once, not a year on.
     expect(d.duration).toMatchObject({ reason: 'retest', nextDueOn: failedOn, overdueAfter: addDays(failedOn, 14), state: 'due-now' })
   })
@@ -65,7 +79,14 @@ describe('failures stay open until put right', () => {
   it('a failed full-duration test, a new pack, then a passing full-duration test is ok', async () => {
     const site = await siteIn(team.workspaceId)
     const l = await testedLuminaire(site.id, 'S-2')
-    await record(l.id, { kind: 'duration', testedOn: addDays(today, -20), passed: false, achievedDurationH: 1.9, faults: 'Dark after 1 h 54 min', remedialAction: 'New pack' })
+    await record(l.id, {
+      kind: 'duration',
+      testedOn: addDays(today, -20),
+      passed: false,
+      achievedDurationH: 1.9,
+      faults: 'Dark after 1 h 54 min',
+      remedialAction: 'New pack',
+    })
     const pack = await technician.post(`/api/luminaires/${l.id}/pack`, { packFittedOn: addDays(today, -5), note: 'Replaced after the failed test' })
     expect(pack.status).toBe(200)
     // A new pack alone does not clear the failure.
@@ -98,10 +119,20 @@ describe('failures stay open until put right', () => {
     const site = await siteIn(t.workspaceId, { name: 'Window building', responsibleEmail: `window-${crypto.randomBytes(3).toString('hex')}@example.test` })
     const l = await luminaireIn(t.workspaceId, site.id, { tag: 'W-1', packFittedOn: addDays(today, -800) })
     const failedOn = addDays(today, -20)
-    const rec = await tech.post('/api/tests', { records: [
-      { clientId: crypto.randomUUID(), luminaireId: l.id, kind: 'duration', testedOn: addDays(today, -300), passed: true, achievedDurationH: 3.2 },
-      { clientId: crypto.randomUUID(), luminaireId: l.id, kind: 'functional', testedOn: failedOn, passed: false, faults: 'Charge indicator off', remedialAction: 'Charger board to be checked' },
-    ] })
+    const rec = await tech.post('/api/tests', {
+      records: [
+        { clientId: crypto.randomUUID(), luminaireId: l.id, kind: 'duration', testedOn: addDays(today, -300), passed: true, achievedDurationH: 3.2 },
+        {
+          clientId: crypto.randomUUID(),
+          luminaireId: l.id,
+          kind: 'functional',
+          testedOn: failedOn,
+          passed: false,
+          faults: 'Charge indicator off',
+          remedialAction: 'Charger board to be checked',
+        },
+      ],
+    })
     expect(rec.status).toBe(201)
 
     // Default window: 14 days, so a failure 20 days old has its retest overdue.
@@ -113,17 +144,27 @@ describe('failures stay open until put right', () => {
     expect(siteView.luminaires[0].due.lastFailure.retestOverdue).toBe(true)
 
     const overview = (await own.get('/api/sites')).body
-    expect(overview.attention.map((a: { tag: string; state: string; kind: string; reason: string }) => `${a.tag} ${a.kind} ${a.reason} ${a.state}`)).toEqual(['W-1 functional retest overdue'])
+    expect(overview.attention.map((a: { tag: string; state: string; kind: string; reason: string }) => `${a.tag} ${a.kind} ${a.reason} ${a.state}`)).toEqual([
+      'W-1 functional retest overdue',
+    ])
     expect(overview.attention[0]).toMatchObject({ siteName: 'Window building', failedOn, faults: 'Charge indicator off' })
 
     const csv = await own.get(`/api/sites/${site.id}/export/register.csv?as=json`)
     const [header, row] = csv.body.content.split('\r\n')
     const cells = Object.fromEntries(header.split(',').map((h: string, i: number) => [h, row.split(',')[i]]))
-    expect(cells).toMatchObject({ state: 'failed', open_failure: 'functional', failed_on: failedOn, retest_due_by: addDays(failedOn, 14), retest_overdue: 'true' })
+    expect(cells).toMatchObject({
+      state: 'failed',
+      open_failure: 'functional',
+      failed_on: failedOn,
+      retest_due_by: addDays(failedOn, 14),
+      retest_overdue: 'true',
+    })
 
     await runReminders(today, { workspaceId: t.workspaceId })
     const mail = (await mailTo(site.responsibleEmail)).at(-1)
-    expect(mail?.text).toContain(`W-1 (Corridor): failed its functional test on ${failedOn} (Charge indicator off); retest overdue (was due by ${addDays(failedOn, 14)})`)
+    expect(mail?.text).toContain(
+      `W-1 (Corridor): failed its functional test on ${failedOn} (Charge indicator off); retest overdue (was due by ${addDays(failedOn, 14)})`,
+    )
 
     // A workspace that allows 30 days: the same retest is due, not yet overdue.
     const patched = await own.patch('/api/register/settings', { repairWindowDays: 30 })
@@ -138,7 +179,14 @@ describe('failures stay open until put right', () => {
     const site = await siteIn(team.workspaceId)
     const fitted = addDays(today, -3)
     const created = await designer.post(`/api/sites/${site.id}/luminaires`, {
-      tag: 'N-1', purpose: 'escape-route', mode: 'non-maintained', ratedDurationH: 3, chemistry: 'nicd', cellsInSeries: 3, capacityAh: 1.6, packFittedOn: fitted,
+      tag: 'N-1',
+      purpose: 'escape-route',
+      mode: 'non-maintained',
+      ratedDurationH: 3,
+      chemistry: 'nicd',
+      cellsInSeries: 3,
+      capacityAh: 1.6,
+      packFittedOn: fitted,
     })
     expect(created.status, JSON.stringify(created.body)).toBe(201)
     const d = (await detail(created.body.id)).due
@@ -157,13 +205,35 @@ describe('failures stay open until put right', () => {
     const site = await siteIn(team.workspaceId)
     const l = await testedLuminaire(site.id, 'R-1')
     const round = crypto.randomUUID()
-    const rec = await technician.post('/api/tests', { records: [{ clientId: crypto.randomUUID(), luminaireId: l.id, kind: 'duration', testedOn: today, passed: false, achievedDurationH: 2.5, faults: 'Dark at 2 h 30 min', remedialAction: 'New pack ordered', roundClientId: round, checklist: { 'lamp-lit': true, 'lit-full-duration': false } }] })
+    const rec = await technician.post('/api/tests', {
+      records: [
+        {
+          clientId: crypto.randomUUID(),
+          luminaireId: l.id,
+          kind: 'duration',
+          testedOn: today,
+          passed: false,
+          achievedDurationH: 2.5,
+          faults: 'Dark at 2 h 30 min',
+          remedialAction: 'New pack ordered',
+          roundClientId: round,
+          checklist: { 'lamp-lit': true, 'lit-full-duration': false },
+        },
+      ],
+    })
     expect(rec.status, JSON.stringify(rec.body)).toBe(201)
     const signed = await technician.post(`/api/sites/${site.id}/rounds`, { clientId: round, signedOffByName: 'Invented Tester', signedOffOn: today })
     expect(signed.status, JSON.stringify(signed.body)).toBe(201)
-    expect(signed.body).toMatchObject({ records: 1, failures: [{ tag: 'R-1', kind: 'duration', faults: 'Dark at 2 h 30 min', remedialAction: 'New pack ordered' }] })
-    expect((await technician.post(`/api/sites/${site.id}/rounds`, { clientId: round, signedOffByName: 'Invented Tester', signedOffOn: today })).status).toBe(200)
-    expect((await technician.post(`/api/sites/${site.id}/rounds`, { clientId: crypto.randomUUID(), signedOffByName: ' ', signedOffOn: today })).body.fields[0].path).toBe('signedOffByName')
+    expect(signed.body).toMatchObject({
+      records: 1,
+      failures: [{ tag: 'R-1', kind: 'duration', faults: 'Dark at 2 h 30 min', remedialAction: 'New pack ordered' }],
+    })
+    expect((await technician.post(`/api/sites/${site.id}/rounds`, { clientId: round, signedOffByName: 'Invented Tester', signedOffOn: today })).status).toBe(
+      200,
+    )
+    expect(
+      (await technician.post(`/api/sites/${site.id}/rounds`, { clientId: crypto.randomUUID(), signedOffByName: ' ', signedOffOn: today })).body.fields[0].path,
+    ).toBe('signedOffByName')
     const stored = (await viewer.get(`/api/luminaires/${l.id}/tests`)).body.tests[0]
     expect(stored.checklist).toEqual({ 'lamp-lit': true, 'lit-full-duration': false })
   })

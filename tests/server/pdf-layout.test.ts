@@ -32,7 +32,8 @@ beforeAll(async () => {
     expect(res.status, `${name}: ${path}`).toBe(200)
     documents.push({ name, pdf: res.body as Buffer })
     // PDF_OUT_DIR=/tmp/pdfs keeps the documents, to render them (pdftoppm) and look at each page.
-    if (process.env.PDF_OUT_DIR) fs.writeFileSync(nodePath.join(process.env.PDF_OUT_DIR, `${documents.length}-${name.replace(/[^\w]+/g, '-').slice(0, 50)}.pdf`), res.body as Buffer)
+    if (process.env.PDF_OUT_DIR)
+      fs.writeFileSync(nodePath.join(process.env.PDF_OUT_DIR, `${documents.length}-${name.replace(/[^\w]+/g, '-').slice(0, 50)}.pdf`), res.body as Buffer)
   }
   const sheets = (await owner.get('/api/sheets?pageSize=100')).body.items as Array<{ id: string; title: string }>
   for (const s of sheets) await fetchPdf(`sheet "${s.title}"`, `/api/sheets/${s.id}/pdf`)
@@ -52,24 +53,42 @@ beforeAll(async () => {
   const status = (await owner.get(`/api/sites/${sites[0].id}`)).body as { today: string; luminaires: Array<{ id: string; ratedDurationH: number }> }
   const roundId = crypto.randomUUID()
   const records = status.luminaires.slice(0, 12).map((l, i) => ({
-    clientId: crypto.randomUUID(), luminaireId: l.id, kind: i === 2 ? 'duration' : 'functional', testedOn: status.today, passed: i !== 2,
-    achievedDurationH: i === 2 ? l.ratedDurationH - 0.8 : null, faults: i === 2 ? 'Went dark before the end of the rated duration' : '',
-    remedialAction: i === 2 ? 'Replacement pack ordered' : '', roundClientId: roundId,
+    clientId: crypto.randomUUID(),
+    luminaireId: l.id,
+    kind: i === 2 ? 'duration' : 'functional',
+    testedOn: status.today,
+    passed: i !== 2,
+    achievedDurationH: i === 2 ? l.ratedDurationH - 0.8 : null,
+    faults: i === 2 ? 'Went dark before the end of the rated duration' : '',
+    remedialAction: i === 2 ? 'Replacement pack ordered' : '',
+    roundClientId: roundId,
     checklist: i === 2 ? { 'lamp-lit': true, 'lit-full-duration': false } : { 'lamp-lit': true, 'charge-indicator': true, 'no-damage': true },
   }))
   expect((await owner.post('/api/tests').send({ records })).status).toBe(201)
-  const signed = await owner.post(`/api/sites/${sites[0].id}/rounds`).send({ clientId: roundId, signedOffByName: 'Demo technician', signedOffOn: status.today, notes: 'Monthly round' })
+  const signed = await owner
+    .post(`/api/sites/${sites[0].id}/rounds`)
+    .send({ clientId: roundId, signedOffByName: 'Demo technician', signedOffOn: status.today, notes: 'Monthly round' })
   expect(signed.status).toBe(201)
   await fetchPdf(`round record of ${sites[0].name}`, `/api/sites/${sites[0].id}/rounds/${signed.body.id}/record.pdf`)
   // A plan of the full-duration tests of every site, printed as a work order.
   for (const [i, site] of sites.entries()) {
-    const plan = await owner.post(`/api/sites/${site.id}/test-plans`).send({ grouping: (['alternate', 'area', 'circuit'] as const)[i % 3], firstDay: status.today, windowStart: '19:00', windowEnd: '07:00' })
+    const plan = await owner
+      .post(`/api/sites/${site.id}/test-plans`)
+      .send({ grouping: (['alternate', 'area', 'circuit'] as const)[i % 3], firstDay: status.today, windowStart: '19:00', windowEnd: '07:00' })
     expect(plan.status).toBe(201)
     await fetchPdf(`work order of ${site.name}`, `/api/sites/${site.id}/test-plans/${plan.body.id}/work-order.pdf`)
   }
   // A handover pack of each demo site, with a corridor laid out with the first catalogue type.
   const types = (await owner.get('/api/luminaire-types')).body.types as Array<{ id: string }>
-  const routes = types.length ? [{ name: 'Main corridor', typeId: types[0].id, route: { routeLength: '24 m', routeWidth: '2 m', mountingHeight: '2.6 m', criteria: 'en1838-route', ratedDuration: '3 h' } }] : []
+  const routes = types.length
+    ? [
+        {
+          name: 'Main corridor',
+          typeId: types[0].id,
+          route: { routeLength: '24 m', routeWidth: '2 m', mountingHeight: '2.6 m', criteria: 'en1838-route', ratedDuration: '3 h' },
+        },
+      ]
+    : []
   for (const site of sites) {
     const made = await owner.post(`/api/sites/${site.id}/handover-packs`, { signedByName: 'Demo Engineer', signedOn: '2026-01-15', routes })
     expect(made.status, JSON.stringify(made.body)).toBe(201)

@@ -41,7 +41,11 @@ async function pageSize(path: string): Promise<{ width: number; height: number; 
   const pages = pdfPages(pdf)
   // Text in the right margin (36 pt on these landscape documents) is cut off by many printers.
   const offPage = pages.flatMap((p) => p.boxes.filter((b) => b.x + b.width > p.width - 36 + 0.5))
-  return { width: Math.round(pages[0].width * 100) / 100, height: Math.round(pages[0].height * 100) / 100, problems: layoutProblems(pdf).length + offPage.length }
+  return {
+    width: Math.round(pages[0].width * 100) / 100,
+    height: Math.round(pages[0].height * 100) / 100,
+    problems: layoutProblems(pdf).length + offPage.length,
+  }
 }
 
 describe('paper by preference', () => {
@@ -57,11 +61,20 @@ describe('paper by preference', () => {
   })
 
   it('signed out, the browser region decides (Letter in the US and Canada, A4 in the UK and Germany)', () => {
-    expect(['en-US', 'en-CA', 'fr-CA', 'es-MX', 'en-GB', 'de-DE', 'en', 'fr'].map(paperForLocale)).toEqual(['letter', 'letter', 'letter', 'letter', 'a4', 'a4', 'a4', 'a4'])
+    expect(['en-US', 'en-CA', 'fr-CA', 'es-MX', 'en-GB', 'de-DE', 'en', 'fr'].map(paperForLocale)).toEqual([
+      'letter',
+      'letter',
+      'letter',
+      'letter',
+      'a4',
+      'a4',
+      'a4',
+      'a4',
+    ])
   })
 })
 
-describe('quantities in the reader\'s units', () => {
+describe("quantities in the reader's units", () => {
   it('a sheet printed for someone in US customary units gives its temperatures in °F; typed inputs stay as typed with °F beside them', async () => {
     const designer = await signIn((await getTestApp()).app, team.users.designer.email)
     const made = await designer.post('/api/sheets', sheetBody({ title: 'Boiler house exit', inputs: { ...PACK_INPUTS, ambientMax: '48 °C' } }))

@@ -17,7 +17,10 @@ afterAll(closeTestApp)
 
 describe('EULUMDAT upload', () => {
   it('stores an .ldt file sent as a file, named from its luminaire line, with the stored quadrant as its table', async () => {
-    const res = await designer.agent.post('/api/photometry').set('X-CSRF-Token', designer.csrf).attach('file', Buffer.from(ldt), { filename: 'corridor.ldt', contentType: 'application/octet-stream' })
+    const res = await designer.agent
+      .post('/api/photometry')
+      .set('X-CSRF-Token', designer.csrf)
+      .attach('file', Buffer.from(ldt), { filename: 'corridor.ldt', contentType: 'application/octet-stream' })
     expect(res.status, JSON.stringify(res.body)).toBe(201)
     expect(res.body.edition).toBe('EULUMDAT')
     expect(res.body.horizontalCount).toBe(7)

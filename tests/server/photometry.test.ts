@@ -60,7 +60,10 @@ describe('photometric files', () => {
 
   it('uploads a multipart file (field "file"), naming it after the file when no name is given', async () => {
     const text = corridorLm63()
-    const res = await designer.agent.post('/api/photometry').set('X-CSRF-Token', designer.csrf).attach('file', Buffer.from(text), { filename: 'hall-unit.ies', contentType: 'application/octet-stream' })
+    const res = await designer.agent
+      .post('/api/photometry')
+      .set('X-CSRF-Token', designer.csrf)
+      .attach('file', Buffer.from(text), { filename: 'hall-unit.ies', contentType: 'application/octet-stream' })
     expect(res.status, JSON.stringify(res.body)).toBe(201)
     expect(res.body.name).toBe('hall-unit')
     expect((await viewer.get(`/api/photometry/${res.body.id}`)).body.rawText).toBe(text)
@@ -178,7 +181,17 @@ describe('luminaire types', () => {
     expect((await technician.post('/api/luminaire-types', body)).status).toBe(403)
     const created = await designer.post('/api/luminaire-types', body)
     expect(created.status, JSON.stringify(created.body)).toBe(201)
-    expect(created.body).toMatchObject({ name: body.name, photometricFileId: file.id, photometricFileName: file.name, ratedDurationS: 10800, ratedDurationH: 3, modes: ['maintained', 'non-maintained'], capacityAh: 1.6, emergencyPowerW: 1.6, inputPowerW: 1.2 })
+    expect(created.body).toMatchObject({
+      name: body.name,
+      photometricFileId: file.id,
+      photometricFileName: file.name,
+      ratedDurationS: 10800,
+      ratedDurationH: 3,
+      modes: ['maintained', 'non-maintained'],
+      capacityAh: 1.6,
+      emergencyPowerW: 1.6,
+      inputPowerW: 1.2,
+    })
 
     const list = await viewer.get('/api/luminaire-types')
     expect(list.body.types.map((t: { id: string }) => t.id)).toContain(created.body.id)
@@ -214,7 +227,10 @@ describe('luminaire types', () => {
   })
 
   it('gives field messages for bad input', async () => {
-    const res = await designer.post('/api/luminaire-types', typeBody(null, { emergencyOutputFactor: 1.5, ratedDuration: '3 kg', modes: [], chemistry: 'unobtainium', name: '' }))
+    const res = await designer.post(
+      '/api/luminaire-types',
+      typeBody(null, { emergencyOutputFactor: 1.5, ratedDuration: '3 kg', modes: [], chemistry: 'unobtainium', name: '' }),
+    )
     expect(res.status).toBe(400)
     const paths = res.body.fields.map((f: { path: string }) => f.path)
     expect(paths).toEqual(expect.arrayContaining(['name', 'emergencyOutputFactor', 'ratedDuration', 'modes', 'chemistry']))
@@ -271,9 +287,20 @@ describe('choosing a type for a route', () => {
     // The engine's own answer for the same route and photometry.
     const file = (await c.get(`/api/photometry/${good.photometricFileId}`)).body
     const spacing = computeSpacing(
-      spacingInput.parse({ photometry: file.rawText, mountingHeight: 2.5, emergencyOutputFactor: 0.5, maintenanceFactor: 0.8, criteria: 'en1838-route', routeWidth: 2, routeLength: 30 }),
+      spacingInput.parse({
+        photometry: file.rawText,
+        mountingHeight: 2.5,
+        emergencyOutputFactor: 0.5,
+        maintenanceFactor: 0.8,
+        criteria: 'en1838-route',
+        routeWidth: 2,
+        routeLength: 30,
+      }),
     )
-    const pack = sizePack(sizeInputSchema.parse({ chemistry: 'nicd', cellsInSeries: 4, duration: '3 h', driver: 'converter', load: { power: 1.6, mainsPower: 1.2 } }), { explain: false })
+    const pack = sizePack(
+      sizeInputSchema.parse({ chemistry: 'nicd', cellsInSeries: 4, duration: '3 h', driver: 'converter', load: { power: 1.6, mainsPower: 1.2 } }),
+      { explain: false },
+    )
     const g = results.find((r) => r.id === good.id)!
     expect(g.meets).toBe(true)
     expect(g.reasons).toEqual([])
@@ -282,7 +309,13 @@ describe('choosing a type for a route', () => {
     expect(g.maxSpacingM).toBe(spacing.maxSpacingM)
     expect(g.maxEndSpacingM).toBe(spacing.maxEndSpacingM)
     expect(g.totalStandbyPowerW).toBeCloseTo((spacing.luminairesNeeded as number) * 1.2, 6)
-    expect(g.pack).toMatchObject({ chemistry: 'nicd', cellsInSeries: 4, selectedCapacityAh: pack.selectedCapacityAh, fittedCapacityAh: null, fittedPackEnough: null })
+    expect(g.pack).toMatchObject({
+      chemistry: 'nicd',
+      cellsInSeries: 4,
+      selectedCapacityAh: pack.selectedCapacityAh,
+      fittedCapacityAh: null,
+      fittedPackEnough: null,
+    })
     expect(g.pack!.requiredCapacityAh).toBeCloseTo(pack.requiredCapacityAh, 3)
 
     const s = results.find((r) => r.id === short.id)!
@@ -341,7 +374,12 @@ describe('choosing a type for a route', () => {
     const read = await viewer.get(`/api/sheets/${sheet.id}`)
     expect(read.status).toBe(200)
 
-    const again = await designer.post('/api/route-spacing/pick', { typeId: t.id, route: { ...ROUTE_EXAMPLE, routeLength: 60 }, sheetId: sheet.id, version: sheet.version })
+    const again = await designer.post('/api/route-spacing/pick', {
+      typeId: t.id,
+      route: { ...ROUTE_EXAMPLE, routeLength: 60 },
+      sheetId: sheet.id,
+      version: sheet.version,
+    })
     expect(again.status, JSON.stringify(again.body)).toBe(200)
     expect(again.body.sheet.id).toBe(sheet.id)
     expect(again.body.sheet.currentRevision).toBe(2)
@@ -368,8 +406,12 @@ describe('choosing a type for a route', () => {
     const foreign = await typeIn(other)
     expect((await designer.post('/api/route-spacing/pick', { typeId: foreign.id, route: ROUTE_EXAMPLE })).status).toBe(404)
     const mine = await typeIn(team)
-    const theirSheet = (await (await signIn(built.app, other.users.designer.email)).post('/api/route-spacing/pick', { typeId: foreign.id, route: ROUTE_EXAMPLE })).body.sheet
-    expect((await designer.post('/api/route-spacing/pick', { typeId: mine.id, route: ROUTE_EXAMPLE, sheetId: theirSheet.id, version: theirSheet.version })).status).toBe(404)
+    const theirSheet = (
+      await (await signIn(built.app, other.users.designer.email)).post('/api/route-spacing/pick', { typeId: foreign.id, route: ROUTE_EXAMPLE })
+    ).body.sheet
+    expect(
+      (await designer.post('/api/route-spacing/pick', { typeId: mine.id, route: ROUTE_EXAMPLE, sheetId: theirSheet.id, version: theirSheet.version })).status,
+    ).toBe(404)
   })
 })
 

@@ -80,7 +80,15 @@ describe('a busy pool is not a database outage', () => {
 
 describe('connections one process may hold', () => {
   it('adds the main pool, the session store and the job queue, per process and for every process', () => {
-    const cfg = loadConfig({ DB_POOL_MAX: '7', SESSION_POOL_MAX: '3', JOBS_POOL_MAX: '2', JOBS: '1', WEB_CONCURRENCY: '4', SESSION_SECRET: 'x'.repeat(40), DATA_DIR: '/tmp' })
+    const cfg = loadConfig({
+      DB_POOL_MAX: '7',
+      SESSION_POOL_MAX: '3',
+      JOBS_POOL_MAX: '2',
+      JOBS: '1',
+      WEB_CONCURRENCY: '4',
+      SESSION_SECRET: 'x'.repeat(40),
+      DATA_DIR: '/tmp',
+    })
     // Jobs run in one process of the group (npm start gives JOBS=1 to the first only).
     expect(connectionBudget(cfg)).toEqual({ app: 7, sessions: 3, jobs: 2, perProcess: 12, processes: 4, total: 42 })
     const noJobs = loadConfig({ DB_POOL_MAX: '7', SESSION_POOL_MAX: '3', JOBS: '0', WEB_CONCURRENCY: '2', SESSION_SECRET: 'x'.repeat(40), DATA_DIR: '/tmp' })

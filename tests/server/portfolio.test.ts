@@ -72,7 +72,9 @@ function handState(r: Row): 'failed' | 'overdue' | null {
   const functionalDue = r.regime === 'nfpa101' ? addDays(lastAny ?? since, 30) : addMonthsClamped(lastAny ?? since, 1)
   const durations = r.tests.filter((t) => t.kind === 'duration')
   const passedSincePack = durations.some((t) => t.passed && t.on >= r.fitted)
-  const durationDue = passedSincePack ? addMonthsClamped(durations[durations.length - 1].on, 12) : addDays(r.fitted > r.registered ? r.fitted : r.registered, 14)
+  const durationDue = passedSincePack
+    ? addMonthsClamped(durations[durations.length - 1].on, 12)
+    : addDays(r.fitted > r.registered ? r.fitted : r.registered, 14)
   return functionalDue < today || durationDue < today ? 'overdue' : null
 }
 
@@ -94,7 +96,11 @@ describe('portfolio of the demo workspace against a hand count', () => {
     expect(open!.failures[0].testedOn).toBe(addDays(today, -6))
     const touchedToday = new Set(rows.filter((r) => r.tests.some((t) => t.on === today)).map((r) => r.site))
     for (const site of new Set(rows.map((r) => r.site))) {
-      if (!touchedToday.has(site)) expect(p.items.some((i) => i.siteName === site && i.state === 'overdue'), `an overdue luminaire at ${site}`).toBe(true)
+      if (!touchedToday.has(site))
+        expect(
+          p.items.some((i) => i.siteName === site && i.state === 'overdue'),
+          `an overdue luminaire at ${site}`,
+        ).toBe(true)
     }
     // Failed first, then overdue; one site filtered.
     expect(p.items.findIndex((i) => i.state === 'overdue')).toBeGreaterThan(p.items.findLastIndex((i) => i.state === 'failed'))
@@ -111,7 +117,11 @@ describe('portfolio of the demo workspace against a hand count', () => {
       { typeLabel: 'High-bay module HB-90', price: 64, currency: 'EUR' },
       // The exit signs are left without a price: counted, not costed.
     ]
-    await setPackPrices(ws, (await dataSource.query(`SELECT user_id FROM memberships WHERE workspace_id = $1 AND role = 'owner' LIMIT 1`, [ws]))[0].user_id, prices)
+    await setPackPrices(
+      ws,
+      (await dataSource.query(`SELECT user_id FROM memberships WHERE workspace_id = $1 AND role = 'owner' LIMIT 1`, [ws]))[0].user_id,
+      prices,
+    )
     const budget = await workspacePackBudget(ws, today)
     expect([budget.from, budget.to, budget.months]).toEqual([today, addMonthsClamped(today, 12), 12])
     // By hand: each site's luminaires with their replacement dates, counted and priced here.
@@ -166,7 +176,12 @@ describe('portfolio over the API', () => {
     const negative = await owner.put('/api/portfolio/pack-prices', { prices: [{ typeLabel: 'Corridor unit', price: -1, currency: 'GBP' }] })
     expect(negative.status).toBe(400)
     expect(negative.body.fields).toContainEqual(expect.objectContaining({ path: 'prices.0.price' }))
-    const twice = await owner.put('/api/portfolio/pack-prices', { prices: [{ typeLabel: 'A', price: 1, currency: 'EUR' }, { typeLabel: 'A', price: 2, currency: 'EUR' }] })
+    const twice = await owner.put('/api/portfolio/pack-prices', {
+      prices: [
+        { typeLabel: 'A', price: 1, currency: 'EUR' },
+        { typeLabel: 'A', price: 2, currency: 'EUR' },
+      ],
+    })
     expect(twice.body.fields).toContainEqual(expect.objectContaining({ path: 'prices.1.typeLabel' }))
     expect((await owner.get('/api/portfolio/pack-prices')).body.prices).toEqual([{ typeLabel: 'Corridor unit', price: 15, currency: 'GBP' }])
   })

@@ -58,7 +58,11 @@ interface Session {
 async function signInAt(port: number, email: string): Promise<Session> {
   // A client address of its own (TEST-NET-3 behind the trusted proxy hop): failed sign-ins of other
   // test files from 127.0.0.1 are counted in the same database and must not lock this client out.
-  const res = await fetch(`http://127.0.0.1:${port}/api/auth/sign-in`, { method: 'POST', headers: { 'Content-Type': 'application/json', 'X-Forwarded-For': '203.0.113.42' }, body: JSON.stringify({ email, password: TEST_PASSWORD }) })
+  const res = await fetch(`http://127.0.0.1:${port}/api/auth/sign-in`, {
+    method: 'POST',
+    headers: { 'Content-Type': 'application/json', 'X-Forwarded-For': '203.0.113.42' },
+    body: JSON.stringify({ email, password: TEST_PASSWORD }),
+  })
   expect(res.status).toBe(200)
   return { cookie: res.headers.get('set-cookie')!.split(';')[0], csrf: (await res.json()).csrfToken }
 }
@@ -67,7 +71,11 @@ async function uploadAt(port: number, s: Session, text: string) {
   const form = new FormData()
   form.append('file', new Blob([text], { type: 'text/csv' }), 'two-processes.csv')
   // A fresh connection each time, so behind one port the cluster may hand it to any process.
-  const res = await fetch(`http://127.0.0.1:${port}/api/discharge/uploads`, { method: 'POST', headers: { cookie: s.cookie, 'X-CSRF-Token': s.csrf, Connection: 'close' }, body: form })
+  const res = await fetch(`http://127.0.0.1:${port}/api/discharge/uploads`, {
+    method: 'POST',
+    headers: { cookie: s.cookie, 'X-CSRF-Token': s.csrf, Connection: 'close' },
+    body: form,
+  })
   return { status: res.status, body: await res.json() }
 }
 

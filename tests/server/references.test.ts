@@ -36,7 +36,8 @@ const RECORD_IN: Record<ReferenceKind, (team: TestTeam) => Promise<string>> = {
   site: async (t) => (await siteIn(t.workspaceId)).id,
   area: async (t) => (await areaIn(t.workspaceId, (await siteIn(t.workspaceId)).id)).id,
   luminaire: async (t) => (await siteWithLuminaire(t.workspaceId)).luminaire.id,
-  testRecord: async (t) => testIn(t.workspaceId, (await siteWithLuminaire(t.workspaceId)).luminaire.id, { kind: 'duration', testedOn: '2025-01-10', achievedDurationH: 3 }),
+  testRecord: async (t) =>
+    testIn(t.workspaceId, (await siteWithLuminaire(t.workspaceId)).luminaire.id, { kind: 'duration', testedOn: '2025-01-10', achievedDurationH: 3 }),
   specSheet: async (t) => (await sheetIn(t)).id,
   luminaireType: async (t) => (await typeIn(t, false)).id,
   photometricFile: async (t) => (await photometryIn(t)).id,
@@ -101,7 +102,11 @@ describe('ids in request bodies, generated from the route schemas', async () => 
   const withBodies = table.filter((r): r is RouteSpec & { body: z.ZodTypeAny } => !!r.body)
 
   it('every UUID field of every body says which record it names', () => {
-    const unexplained = withBodies.flatMap((r) => idFieldsOf(r.body).filter((f) => f.kind === null && !NOT_REFERENCES[f.path[f.path.length - 1]]).map((f) => `${r.method} ${r.path}: ${f.path.join('.')}`))
+    const unexplained = withBodies.flatMap((r) =>
+      idFieldsOf(r.body)
+        .filter((f) => f.kind === null && !NOT_REFERENCES[f.path[f.path.length - 1]])
+        .map((f) => `${r.method} ${r.path}: ${f.path.join('.')}`),
+    )
     expect(unexplained).toEqual([])
   })
 

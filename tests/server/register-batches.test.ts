@@ -47,7 +47,18 @@ describe('sizing many packs in one request', () => {
     const l = await luminaireIn(team.workspaceId, site.id, { chemistry: 'nimh', cellsInSeries: 4, capacityAh: 2.2, ratedDurationH: 1 })
     const res = await viewer.post('/api/calc/size/batch', { items: [{ luminaireId: l.id, input: { load: { power: '2 W' } } }, { luminaireId: l.id }] })
     expect(res.status).toBe(200)
-    const byHand = sizePack(sizeTool.input.parse({ chemistry: 'nimh', cellsInSeries: 4, capacity: '2.2 Ah', duration: '1 h', mode: 'non-maintained', ambientMax: 35, load: { power: '2 W' } }), { explain: false })
+    const byHand = sizePack(
+      sizeTool.input.parse({
+        chemistry: 'nimh',
+        cellsInSeries: 4,
+        capacity: '2.2 Ah',
+        duration: '1 h',
+        mode: 'non-maintained',
+        ambientMax: 35,
+        load: { power: '2 W' },
+      }),
+      { explain: false },
+    )
     expect(res.body.results[0]).toMatchObject({ ok: true, luminaireId: l.id })
     expect(res.body.results[0].result.selectedCapacityAh).toBe(byHand.selectedCapacityAh)
     // Without a type in the register the load is unknown: that item alone is refused, naming where to add it.
@@ -100,7 +111,11 @@ describe('lists across sites', () => {
     const s2 = await siteIn(t.workspaceId)
     const fitted = addDays(today, -400)
     // Overdue: never tested, pack fitted over a year ago (functional test due a month after it).
-    const overdue = await Promise.all([luminaireIn(t.workspaceId, s1.id, { packFittedOn: fitted }), luminaireIn(t.workspaceId, s2.id, { packFittedOn: fitted }), luminaireIn(t.workspaceId, s2.id, { packFittedOn: fitted })])
+    const overdue = await Promise.all([
+      luminaireIn(t.workspaceId, s1.id, { packFittedOn: fitted }),
+      luminaireIn(t.workspaceId, s2.id, { packFittedOn: fitted }),
+      luminaireIn(t.workspaceId, s2.id, { packFittedOn: fitted }),
+    ])
     // Failed yesterday: a failure is open (its retest is not yet overdue).
     const failed = await luminaireIn(t.workspaceId, s1.id, { packFittedOn: addDays(today, -200) })
     await testIn(t.workspaceId, failed.id, { kind: 'duration', testedOn: addDays(today, -100), achievedDurationH: 3 })

@@ -38,7 +38,11 @@ async function newSite(regime = 'en50172') {
 describe("a site's regime", () => {
   it('changes to each of the four regimes, and the history keeps every step with the profile version and the reason', async () => {
     const id = await newSite('en50172')
-    for (const [regime, reason] of [['nfpa101', 'Building is in the United States'], ['ca-nfc', 'Moved to the Canadian office'], ['asnzs2293', 'Moved again']] as const) {
+    for (const [regime, reason] of [
+      ['nfpa101', 'Building is in the United States'],
+      ['ca-nfc', 'Moved to the Canadian office'],
+      ['asnzs2293', 'Moved again'],
+    ] as const) {
       const res = await designer.patch(`/api/sites/${id}`, { regime, regimeChangeReason: reason })
       expect(res.status, JSON.stringify(res.body)).toBe(200)
       expect(res.body.regime).toBe(regime)
@@ -74,7 +78,9 @@ describe("a site's regime", () => {
   it("the site's due dates follow the new regime: a yearly test passed 7 months ago is overdue under AS/NZS 2293.2", async () => {
     const id = await newSite('en50172')
     const l = await luminaireIn(team.workspaceId, id, { packFittedOn: addDays(today, -900) })
-    const rec = await technician.post('/api/tests', { records: [{ clientId: crypto.randomUUID(), luminaireId: l.id, kind: 'duration', testedOn: addDays(today, -213), passed: true, achievedDurationH: 3.2 }] })
+    const rec = await technician.post('/api/tests', {
+      records: [{ clientId: crypto.randomUUID(), luminaireId: l.id, kind: 'duration', testedOn: addDays(today, -213), passed: true, achievedDurationH: 3.2 }],
+    })
     expect(rec.status).toBe(201)
     expect((await viewer.get(`/api/luminaires/${l.id}`)).body.luminaire.due.duration.state).toBe('scheduled')
     await designer.patch(`/api/sites/${id}`, { regime: 'asnzs2293' })
@@ -86,8 +92,12 @@ describe('a test recorded in error', () => {
   it('stays in the log book marked with the reason, leaves the state, and is kept in the audit trail', async () => {
     const id = await newSite()
     const l = await luminaireIn(team.workspaceId, id, { packFittedOn: addDays(today, -900) })
-    await technician.post('/api/tests', { records: [{ clientId: crypto.randomUUID(), luminaireId: l.id, kind: 'duration', testedOn: addDays(today, -100), passed: true, achievedDurationH: 3.1 }] })
-    const wrong = await technician.post('/api/tests', { records: [{ clientId: crypto.randomUUID(), luminaireId: l.id, kind: 'functional', testedOn: addDays(today, -3), passed: false, faults: 'Lamp out' }] })
+    await technician.post('/api/tests', {
+      records: [{ clientId: crypto.randomUUID(), luminaireId: l.id, kind: 'duration', testedOn: addDays(today, -100), passed: true, achievedDurationH: 3.1 }],
+    })
+    const wrong = await technician.post('/api/tests', {
+      records: [{ clientId: crypto.randomUUID(), luminaireId: l.id, kind: 'functional', testedOn: addDays(today, -3), passed: false, faults: 'Lamp out' }],
+    })
     const wrongId = wrong.body.records[0].id
     expect((await viewer.get(`/api/luminaires/${l.id}`)).body.luminaire.due.state).toBe('failed')
 
@@ -123,7 +133,9 @@ describe('a test recorded in error', () => {
   it('needs a reason, and a viewer may not mark one', async () => {
     const id = await newSite()
     const l = await luminaireIn(team.workspaceId, id)
-    const rec = await technician.post('/api/tests', { records: [{ clientId: crypto.randomUUID(), luminaireId: l.id, kind: 'functional', testedOn: today, passed: true }] })
+    const rec = await technician.post('/api/tests', {
+      records: [{ clientId: crypto.randomUUID(), luminaireId: l.id, kind: 'functional', testedOn: today, passed: true }],
+    })
     const testId = rec.body.records[0].id
     const empty = await technician.post(`/api/tests/${testId}/recorded-in-error`, { reason: '' })
     expect(empty.status).toBe(400)
@@ -136,7 +148,11 @@ describe('pack changes in the log book', () => {
   it('a pack fitted in the field and a corrected pack detail appear with their notes, newest first', async () => {
     const id = await newSite()
     const l = await luminaireIn(team.workspaceId, id, { tag: 'PK-1', packFittedOn: '2021-04-01', capacityAh: 1.6 })
-    const fitted = await technician.post(`/api/luminaires/${l.id}/pack`, { packFittedOn: addDays(today, -10), capacityAh: 2.2, note: 'Swollen cells found on the monthly test' })
+    const fitted = await technician.post(`/api/luminaires/${l.id}/pack`, {
+      packFittedOn: addDays(today, -10),
+      capacityAh: 2.2,
+      note: 'Swollen cells found on the monthly test',
+    })
     expect(fitted.status).toBe(200)
     const corrected = await designer.patch(`/api/luminaires/${l.id}`, { cellsInSeries: 4 })
     expect(corrected.status).toBe(200)
@@ -144,7 +160,13 @@ describe('pack changes in the log book', () => {
     expect(book.status).toBe(200)
     expect(book.body.packChanges).toHaveLength(2)
     const [correction, field] = book.body.packChanges
-    expect(field).toMatchObject({ tag: 'PK-1', changedOn: addDays(today, -10), note: 'Swollen cells found on the monthly test', before: { capacityAh: 1.6, packFittedOn: '2021-04-01' }, after: { capacityAh: 2.2 } })
+    expect(field).toMatchObject({
+      tag: 'PK-1',
+      changedOn: addDays(today, -10),
+      note: 'Swollen cells found on the monthly test',
+      before: { capacityAh: 1.6, packFittedOn: '2021-04-01' },
+      after: { capacityAh: 2.2 },
+    })
     expect(correction).toMatchObject({ tag: 'PK-1', before: { cellsInSeries: 3 }, after: { cellsInSeries: 4 } })
     // Another site's log book does not show them.
     const other = await newSite()

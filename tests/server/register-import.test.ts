@@ -57,8 +57,19 @@ describe('luminaire schedule import', () => {
     expect(ok.status, JSON.stringify(ok.body)).toBe(201)
     expect(ok.body).toMatchObject({ imported: 4, areasCreated: 2 })
     expect(await rowsIn(site.id)).toBe(4)
-    const stored = await dataSource.query('SELECT tag, location, purpose, chemistry, cells_in_series, capacity_ah, pack_fitted_on::text AS fitted FROM luminaires WHERE site_id = $1 ORDER BY tag', [site.id])
-    expect(stored[1]).toEqual({ tag: 'G-02', location: 'Reading room north', purpose: 'open-area', chemistry: 'nimh', cells_in_series: 3, capacity_ah: 2.2, fitted: '2024-03-01' })
+    const stored = await dataSource.query(
+      'SELECT tag, location, purpose, chemistry, cells_in_series, capacity_ah, pack_fitted_on::text AS fitted FROM luminaires WHERE site_id = $1 ORDER BY tag',
+      [site.id],
+    )
+    expect(stored[1]).toEqual({
+      tag: 'G-02',
+      location: 'Reading room north',
+      purpose: 'open-area',
+      chemistry: 'nimh',
+      cells_in_series: 3,
+      capacity_ah: 2.2,
+      fitted: '2024-03-01',
+    })
     expect(stored[2].location).toBe('Plant room, by the board')
     const audits = await dataSource.query(`SELECT count(*)::int AS n FROM audit_events WHERE action = 'register.imported' AND entity_id = $1`, [site.id])
     expect(audits[0].n).toBe(1)
@@ -79,7 +90,9 @@ describe('luminaire schedule import', () => {
         { row: 1, column: 'purpose', reason: 'is missing from the header' },
       ]),
     )
-    const repeated = await designer.post(`/api/sites/${site.id}/import/preview`, { csv: [HEADER, GOOD[0], GOOD[0].replace('G-01', 'g-01'), 'G-09,,,,escape-route,maintained'].join('\n') })
+    const repeated = await designer.post(`/api/sites/${site.id}/import/preview`, {
+      csv: [HEADER, GOOD[0], GOOD[0].replace('G-01', 'g-01'), 'G-09,,,,escape-route,maintained'].join('\n'),
+    })
     expect(repeated.body.errors).toEqual(
       expect.arrayContaining([
         { row: 3, column: 'tag', reason: '"g-01" repeats the tag of row 2' },
@@ -108,7 +121,14 @@ describe('a large schedule', () => {
   // About 1.9 MB: the size that, read in one piece, held the event loop for over a second and
   // answered with every row (eight at once took most of a gigabyte).
   const big = (rows: number, bad = false) =>
-    [HEADER, ...Array.from({ length: rows }, (_, i) => `B-${String(i).padStart(5, '0')},Floor ${i % 40},Corridor ${i} by the stair core,Bulkhead,escape-route,non-maintained,${bad ? 'three' : '3'},nicd,3,1.6,2024-03-01`)].join('\n')
+    [
+      HEADER,
+      ...Array.from(
+        { length: rows },
+        (_, i) =>
+          `B-${String(i).padStart(5, '0')},Floor ${i % 40},Corridor ${i} by the stair core,Bulkhead,escape-route,non-maintained,${bad ? 'three' : '3'},nicd,3,1.6,2024-03-01`,
+      ),
+    ].join('\n')
 
   it('is read in full but answered in bounded size: the first rows and problems listed, all counted', async () => {
     const site = await siteIn(team.workspaceId)
@@ -121,7 +141,10 @@ describe('a large schedule', () => {
     expect(res.body.rows[99].row).toBe(101)
     expect(res.body.newAreas).toHaveLength(40)
 
-    const allBad = await designer.agent.post(`/api/sites/${site.id}/import/preview`).set('X-CSRF-Token', designer.csrf).attach('file', Buffer.from(big(17_500, true)), 'bad.csv')
+    const allBad = await designer.agent
+      .post(`/api/sites/${site.id}/import/preview`)
+      .set('X-CSRF-Token', designer.csrf)
+      .attach('file', Buffer.from(big(17_500, true)), 'bad.csv')
     expect(allBad.status).toBe(200)
     expect(allBad.body).toMatchObject({ totalRows: 17_500, validRows: 0, errorCount: 17_500 })
     expect(allBad.body.errors).toHaveLength(500)

@@ -18,9 +18,24 @@ beforeAll(async () => {
 })
 afterAll(closeTestApp)
 
-const HEADER = 'external_id,tag,area,location,purpose,mode,rated_duration_h,chemistry,cells,capacity_ah,pack_fitted_on,last_functional_test_on,last_duration_test_on'
+const HEADER =
+  'external_id,tag,area,location,purpose,mode,rated_duration_h,chemistry,cells,capacity_ah,pack_fitted_on,last_functional_test_on,last_duration_test_on'
 const row = (ext: string, tag: string, over: { location?: string; fitted?: string; lastF?: string; lastD?: string } = {}) =>
-  [ext, tag, 'Level 1', over.location ?? 'Corridor', 'escape-route', 'non-maintained', 3, 'nicd', 3, 1.6, over.fitted ?? '2024-01-10', over.lastF ?? '', over.lastD ?? ''].join(',')
+  [
+    ext,
+    tag,
+    'Level 1',
+    over.location ?? 'Corridor',
+    'escape-route',
+    'non-maintained',
+    3,
+    'nicd',
+    3,
+    1.6,
+    over.fitted ?? '2024-01-10',
+    over.lastF ?? '',
+    over.lastD ?? '',
+  ].join(',')
 
 describe('importing a schedule again', () => {
   it('updates by external id, even when the tag changed, and audits only what changed', async () => {
@@ -28,13 +43,21 @@ describe('importing a schedule again', () => {
     const first = await designer.post(`/api/sites/${site.id}/import`, { csv: [HEADER, row('SCH-1', 'A-1'), row('SCH-2', 'A-2')].join('\n') })
     expect(first.status).toBe(201)
     expect(first.body).toMatchObject({ imported: 2, updated: 0, unchanged: 0 })
-    const second = await designer.post(`/api/sites/${site.id}/import/preview`, { csv: [HEADER, row('SCH-1', 'A-1b'), row('SCH-2', 'A-2'), row('SCH-3', 'A-3')].join('\n') })
+    const second = await designer.post(`/api/sites/${site.id}/import/preview`, {
+      csv: [HEADER, row('SCH-1', 'A-1b'), row('SCH-2', 'A-2'), row('SCH-3', 'A-3')].join('\n'),
+    })
     expect(second.body).toMatchObject({ creates: 1, updates: 1, unchanged: 1, errorCount: 0 })
-    const done = await designer.post(`/api/sites/${site.id}/import`, { csv: [HEADER, row('SCH-1', 'A-1b'), row('SCH-2', 'A-2'), row('SCH-3', 'A-3')].join('\n') })
+    const done = await designer.post(`/api/sites/${site.id}/import`, {
+      csv: [HEADER, row('SCH-1', 'A-1b'), row('SCH-2', 'A-2'), row('SCH-3', 'A-3')].join('\n'),
+    })
     expect(done.status).toBe(201)
     expect(done.body).toMatchObject({ imported: 1, updated: 1, unchanged: 1 })
     const rows = await dataSource.query('SELECT external_id, tag FROM luminaires WHERE site_id = $1 ORDER BY external_id', [site.id])
-    expect(rows).toEqual([{ external_id: 'SCH-1', tag: 'A-1b' }, { external_id: 'SCH-2', tag: 'A-2' }, { external_id: 'SCH-3', tag: 'A-3' }])
+    expect(rows).toEqual([
+      { external_id: 'SCH-1', tag: 'A-1b' },
+      { external_id: 'SCH-2', tag: 'A-2' },
+      { external_id: 'SCH-3', tag: 'A-3' },
+    ])
     const audits = await dataSource.query(`SELECT data FROM audit_events WHERE action = 'luminaire.updated' AND entity_id = $1`, [done.body.updatedIds[0]])
     expect(audits).toHaveLength(1)
     expect(audits[0].data.changes).toEqual({ tag: { from: 'A-1', to: 'A-1b' } })
@@ -43,7 +66,9 @@ describe('importing a schedule again', () => {
   it('refuses a row whose tag belongs to a luminaire with another external id, and a repeated external id', async () => {
     const site = await siteIn(team.workspaceId)
     await designer.post(`/api/sites/${site.id}/import`, { csv: [HEADER, row('SCH-1', 'B-1')].join('\n') })
-    const clash = await designer.post(`/api/sites/${site.id}/import/preview`, { csv: [HEADER, row('SCH-9', 'B-1'), row('SCH-7', 'B-7'), row('SCH-7', 'B-8')].join('\n') })
+    const clash = await designer.post(`/api/sites/${site.id}/import/preview`, {
+      csv: [HEADER, row('SCH-9', 'B-1'), row('SCH-7', 'B-7'), row('SCH-7', 'B-8')].join('\n'),
+    })
     expect(clash.body.errors).toEqual([
       { row: 2, column: 'tag', reason: `"B-1" is already in this site's register with another external id (SCH-1)` },
       { row: 4, column: 'external_id', reason: '"SCH-7" repeats the external id of row 3' },
@@ -57,7 +82,9 @@ describe('importing a schedule again', () => {
     const res = await designer.post(`/api/sites/${site.id}/import`, { csv })
     expect(res.status).toBe(201)
     const status = await designer.get(`/api/sites/${site.id}`)
-    const byTag = Object.fromEntries(status.body.luminaires.map((l: { tag: string; due: { state: string; functional: { lastTestedOn: string | null } } }) => [l.tag, l.due]))
+    const byTag = Object.fromEntries(
+      status.body.luminaires.map((l: { tag: string; due: { state: string; functional: { lastTestedOn: string | null } } }) => [l.tag, l.due]),
+    )
     expect(byTag['C-1'].state).toBe('ok')
     expect(byTag['C-1'].functional.lastTestedOn).toBe(addDays(today, -10))
     expect(byTag['C-2'].state).toBe('overdue')

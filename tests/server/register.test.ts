@@ -32,15 +32,29 @@ beforeAll(async () => {
 afterAll(closeTestApp)
 
 const luminaire = (over: Record<string, unknown> = {}) => ({
-  tag: 'E-01', location: 'Stair 1 landing', purpose: 'escape-route', mode: 'non-maintained', ratedDurationH: 3,
-  chemistry: 'nicd', cellsInSeries: 3, capacityAh: 1.6, packFittedOn: '2024-04-01', ...over,
+  tag: 'E-01',
+  location: 'Stair 1 landing',
+  purpose: 'escape-route',
+  mode: 'non-maintained',
+  ratedDurationH: 3,
+  chemistry: 'nicd',
+  cellsInSeries: 3,
+  capacityAh: 1.6,
+  packFittedOn: '2024-04-01',
+  ...over,
 })
 const auditCount = async (entityId: string, action: string) =>
   Number((await dataSource.query('SELECT count(*)::int AS n FROM audit_events WHERE entity_id = $1 AND action = $2', [entityId, action]))[0].n)
 
 describe('sites, areas and luminaires', () => {
   it('a designer builds a site; everyone in the workspace reads it; outsiders get 404', async () => {
-    const created = await designer.post('/api/sites', { name: 'Test library', address: '1 Reading Row', responsibleEmail: 'Keeper@Example.test', regime: 'en50172', ceilingTemperatureC: 24 })
+    const created = await designer.post('/api/sites', {
+      name: 'Test library',
+      address: '1 Reading Row',
+      responsibleEmail: 'Keeper@Example.test',
+      regime: 'en50172',
+      ceilingTemperatureC: 24,
+    })
     expect(created.status, JSON.stringify(created.body)).toBe(201)
     expect(created.body.responsibleEmail).toBe('keeper@example.test')
     const id = created.body.id
@@ -136,7 +150,16 @@ describe('test records', () => {
     const b = await luminaireIn(team.workspaceId, site.id, { tag: 'A-2' })
     const records = [
       { clientId: crypto.randomUUID(), luminaireId: a.id, kind: 'functional', testedOn: today, passed: true },
-      { clientId: crypto.randomUUID(), luminaireId: b.id, kind: 'duration', testedOn: today, passed: false, achievedDurationH: 2.1, faults: 'Went out after 2 h 6 min', remedialAction: 'Pack to be replaced' },
+      {
+        clientId: crypto.randomUUID(),
+        luminaireId: b.id,
+        kind: 'duration',
+        testedOn: today,
+        passed: false,
+        achievedDurationH: 2.1,
+        faults: 'Went out after 2 h 6 min',
+        remedialAction: 'Pack to be replaced',
+      },
     ]
     const first = await technician.post('/api/tests', { records })
     expect(first.status, JSON.stringify(first.body)).toBe(201)
@@ -168,7 +191,9 @@ describe('test records', () => {
     const site = await siteIn(team.workspaceId)
     const a = await luminaireIn(team.workspaceId, site.id)
     const b = await luminaireIn(team.workspaceId, site.id)
-    const noFault = await technician.post('/api/tests', { records: [{ clientId: crypto.randomUUID(), luminaireId: a.id, kind: 'functional', testedOn: today, passed: false }] })
+    const noFault = await technician.post('/api/tests', {
+      records: [{ clientId: crypto.randomUUID(), luminaireId: a.id, kind: 'functional', testedOn: today, passed: false }],
+    })
     expect(noFault.status).toBe(400)
     expect(noFault.body.fields[0]).toEqual({ path: 'records.0.faults', message: 'say what failed' })
     const clientId = crypto.randomUUID()
@@ -198,11 +223,14 @@ describe('exports', () => {
     const site = await siteIn(team.workspaceId, { name: 'Export building' })
     const l = await luminaireIn(team.workspaceId, site.id, { tag: '=HYPERLINK("http://x.invalid","go")', location: '+44 stairwell', typeLabel: '@SUM(A1)' })
     await testIn(team.workspaceId, l.id, { kind: 'functional', testedOn: today, passed: false, faults: '-lamp out\n=1+1 on second line' })
-    const reg = await viewer.get(`/api/sites/${site.id}/export/register.csv`).buffer(true).parse((res, done) => {
-      let text = ''
-      res.on('data', (c: Buffer) => (text += c.toString('utf8')))
-      res.on('end', () => done(null, text))
-    })
+    const reg = await viewer
+      .get(`/api/sites/${site.id}/export/register.csv`)
+      .buffer(true)
+      .parse((res, done) => {
+        let text = ''
+        res.on('data', (c: Buffer) => (text += c.toString('utf8')))
+        res.on('end', () => done(null, text))
+      })
     expect(reg.status).toBe(200)
     expect(reg.headers['content-type']).toMatch(/text\/csv/)
     expect(reg.headers['content-disposition']).toMatch(/attachment; filename="export-building-register-\d{4}-\d{2}-\d{2}\.csv"/)
@@ -211,14 +239,16 @@ describe('exports', () => {
     expect(text).toContain(`"'+44 stairwell"`)
     expect(text).toContain(`"'@SUM(A1)"`)
     // No cell begins with a bare formula character (cells parsed, so a line break inside a quoted cell is not a new row).
-    const cells = (Papa.parse<string[]>(text.trim()).data).flat()
+    const cells = Papa.parse<string[]>(text.trim()).data.flat()
     expect(cells.filter((c) => /^[=+@-]/.test(c))).toEqual([])
     expect(cells).toContain(`'-lamp out\n=1+1 on second line`)
 
     const log = await viewer.get(`/api/sites/${site.id}/export/logbook.csv?as=json`)
     expect(log.status).toBe(200)
     expect(log.body.content).toContain(`"'-lamp out\n=1+1 on second line"`)
-    expect(log.body.content.split('\r\n')[0]).toBe('tested_on,tag,test,result,achieved_duration_h,faults,remedial_action,recorded_by,recorded_at,recorded_in_error')
+    expect(log.body.content.split('\r\n')[0]).toBe(
+      'tested_on,tag,test,result,achieved_duration_h,faults,remedial_action,recorded_by,recorded_at,recorded_in_error',
+    )
   })
 
   it('PDF exports are real PDFs in Source Sans 3 that print names beyond Latin-1', async () => {

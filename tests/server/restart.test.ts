@@ -15,7 +15,10 @@ async function freePort(): Promise<number> {
 }
 
 async function startServer(port: number): Promise<ChildProcess> {
-  const child = spawn('node', ['--import', 'tsx', 'server/index.ts'], { env: { ...process.env, PORT: String(port), SMTP_CATCHER_PORT: '0', JOBS: '0', TRUST_PROXY: '1' }, stdio: 'ignore' })
+  const child = spawn('node', ['--import', 'tsx', 'server/index.ts'], {
+    env: { ...process.env, PORT: String(port), SMTP_CATCHER_PORT: '0', JOBS: '0', TRUST_PROXY: '1' },
+    stdio: 'ignore',
+  })
   for (let i = 0; i < 100; i++) {
     try {
       const res = await fetch(`http://127.0.0.1:${port}/api/health`)

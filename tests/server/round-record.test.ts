@@ -37,7 +37,9 @@ describe('full-duration results', () => {
     const l = await luminaireIn(team.workspaceId, site.id)
     const res = await tech.post('/api/tests', { records: [record(l.id, { kind: 'duration', passed: true })] })
     expect(res.status).toBe(400)
-    expect(res.body.fields).toEqual([{ path: 'records.0.achievedDurationH', message: 'a full-duration test needs the time the luminaire stayed lit (hours), or its discharge log' }])
+    expect(res.body.fields).toEqual([
+      { path: 'records.0.achievedDurationH', message: 'a full-duration test needs the time the luminaire stayed lit (hours), or its discharge log' },
+    ])
   })
 
   it('are judged against the time the site regime requires', async () => {
@@ -50,7 +52,9 @@ describe('full-duration results', () => {
     // EN 50172: the same runtime falls short of the rated 3 h; a pass needs a reason.
     const eu1 = await tech.post('/api/tests', { records: [record(b.id, { kind: 'duration', passed: true, achievedDurationH: 1.6 })] })
     expect(eu1.status).toBe(400)
-    expect(eu1.body.fields).toEqual([{ path: 'records.0.verdictOverrideReason', message: '1.6 h against the required 3 h is a fail: give a reason to record a pass' }])
+    expect(eu1.body.fields).toEqual([
+      { path: 'records.0.verdictOverrideReason', message: '1.6 h against the required 3 h is a fail: give a reason to record a pass' },
+    ])
   })
 })
 
@@ -63,7 +67,15 @@ describe('the printed round record', () => {
     const saved = await tech.post('/api/tests', {
       records: [
         record(l1.id, { kind: 'functional', passed: true, roundClientId: round, checklist: { 'lamp-lit': true, 'charge-indicator': true } }),
-        record(l2.id, { kind: 'duration', passed: false, achievedDurationH: 2.25, faults: 'Went dark after 2 h 15 min', remedialAction: 'New pack ordered', roundClientId: round, checklist: { 'lamp-lit': true, 'lit-full-duration': false } }),
+        record(l2.id, {
+          kind: 'duration',
+          passed: false,
+          achievedDurationH: 2.25,
+          faults: 'Went dark after 2 h 15 min',
+          remedialAction: 'New pack ordered',
+          roundClientId: round,
+          checklist: { 'lamp-lit': true, 'lit-full-duration': false },
+        }),
       ],
     })
     expect(saved.status).toBe(201)

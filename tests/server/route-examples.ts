@@ -49,9 +49,13 @@ async function extraMember(team: TestTeam, role: Role = 'technician') {
 
 async function invitationIn(workspaceId: string, invitedBy: string, email = uniqueEmail('invitee')) {
   const { token, hash } = newToken()
-  const inv = await dataSource.getRepository(Invitation).save(
-    dataSource.getRepository(Invitation).create({ workspaceId, email, role: 'viewer', tokenHash: hash, invitedBy, expiresAt: new Date(Date.now() + 3600_000), acceptedAt: null }),
-  )
+  const inv = await dataSource
+    .getRepository(Invitation)
+    .save(
+      dataSource
+        .getRepository(Invitation)
+        .create({ workspaceId, email, role: 'viewer', tokenHash: hash, invitedBy, expiresAt: new Date(Date.now() + 3600_000), acceptedAt: null }),
+    )
   return { id: inv.id, token }
 }
 
@@ -59,7 +63,16 @@ async function invitationIn(workspaceId: string, invitedBy: string, email = uniq
 async function tokenFor(team: TestTeam, role: Role) {
   const { hash } = newToken()
   const row = await dataSource.getRepository(ApiToken).save(
-    dataSource.getRepository(ApiToken).create({ userId: team.users[role].id, workspaceId: team.workspaceId, role: 'viewer', name: 't', tokenHash: hash, prefix: 'lw_x', lastUsedAt: null, revokedAt: null }),
+    dataSource.getRepository(ApiToken).create({
+      userId: team.users[role].id,
+      workspaceId: team.workspaceId,
+      role: 'viewer',
+      name: 't',
+      tokenHash: hash,
+      prefix: 'lw_x',
+      lastUsedAt: null,
+      revokedAt: null,
+    }),
   )
   return row.id
 }
@@ -78,11 +91,16 @@ export const SIZE_EXAMPLE = {
 export const routeExamples: Record<string, ExampleFn> = {
   'get /api/health': async () => ({ path: '/api/health' }),
   'get /api/openapi.json': async () => ({ path: '/api/openapi.json' }),
-  'post /api/auth/sign-up': async () => ({ path: '/api/auth/sign-up', body: { email: uniqueEmail('new'), password: 'a long enough passphrase', name: 'New Person', workspaceName: 'New team' } }),
+  'post /api/auth/sign-up': async () => ({
+    path: '/api/auth/sign-up',
+    body: { email: uniqueEmail('new'), password: 'a long enough passphrase', name: 'New Person', workspaceName: 'New team' },
+  }),
   'post /api/auth/confirm-email': async () => {
     const stranger = await makeTeam('stranger')
     const { token, hash } = newToken()
-    await dataSource.getRepository(EmailConfirmation).insert({ userId: stranger.users.viewer.id, tokenHash: hash, expiresAt: new Date(Date.now() + 3600_000), usedAt: null })
+    await dataSource
+      .getRepository(EmailConfirmation)
+      .insert({ userId: stranger.users.viewer.id, tokenHash: hash, expiresAt: new Date(Date.now() + 3600_000), usedAt: null })
     return { path: '/api/auth/confirm-email', body: { token } }
   },
   'post /api/auth/sign-in': async ({ team }) => ({ path: '/api/auth/sign-in', body: { email: team.users.viewer.email, password: 'correct-horse-lamp-42' } }),
@@ -97,7 +115,9 @@ export const routeExamples: Record<string, ExampleFn> = {
     // A user outside the calling team: a reset signs its user out everywhere.
     const stranger = await makeTeam('stranger')
     const { token, hash } = newToken()
-    await dataSource.getRepository(PasswordReset).insert({ userId: stranger.users.viewer.id, tokenHash: hash, expiresAt: new Date(Date.now() + 3600_000), usedAt: null })
+    await dataSource
+      .getRepository(PasswordReset)
+      .insert({ userId: stranger.users.viewer.id, tokenHash: hash, expiresAt: new Date(Date.now() + 3600_000), usedAt: null })
     return { path: '/api/auth/reset-password', body: { token, password: 'correct-horse-lamp-42' } }
   },
   'get /api/workspaces': async () => ({ path: '/api/workspaces' }),

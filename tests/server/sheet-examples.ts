@@ -9,25 +9,53 @@ export const sheetRouteExamples: Record<string, ExampleFn> = {
   'get /api/sheets': async () => ({ path: '/api/sheets?page=1&pageSize=5&sort=title&order=asc' }),
   'get /api/sheets/authors': async () => ({ path: '/api/sheets/authors' }),
   'post /api/sheets': async () => ({ path: '/api/sheets', body: sheetBody() }),
-  'get /api/sheets/:id': async ({ team, other }) => ({ path: `/api/sheets/${(await sheetIn(team)).id}`, foreignPath: `/api/sheets/${(await sheetIn(other)).id}` }),
+  'get /api/sheets/:id': async ({ team, other }) => ({
+    path: `/api/sheets/${(await sheetIn(team)).id}`,
+    foreignPath: `/api/sheets/${(await sheetIn(other)).id}`,
+  }),
   'put /api/sheets/:id': async ({ team, other }) => ({
     path: `/api/sheets/${(await sheetIn(team)).id}`,
     body: { ...sheetBody({ title: 'Saved again' }), version: 1 },
     foreignPath: `/api/sheets/${(await sheetIn(other)).id}`,
   }),
-  'get /api/sheets/:id/revisions': async ({ team, other }) => ({ path: `/api/sheets/${(await sheetIn(team)).id}/revisions`, foreignPath: `/api/sheets/${(await sheetIn(other)).id}/revisions` }),
-  'get /api/sheets/:id/revisions/:n': async ({ team, other }) => ({ path: `/api/sheets/${(await sheetIn(team)).id}/revisions/1`, foreignPath: `/api/sheets/${(await sheetIn(other)).id}/revisions/1` }),
-  'post /api/sheets/:id/issue': async ({ team, other }) => ({ path: `/api/sheets/${(await sheetIn(team)).id}/issue`, body: { version: 1 }, foreignPath: `/api/sheets/${(await sheetIn(other)).id}/issue` }),
-  'post /api/sheets/:id/clone': async ({ team, other }) => ({ path: `/api/sheets/${(await sheetIn(team)).id}/clone`, foreignPath: `/api/sheets/${(await sheetIn(other)).id}/clone` }),
-  'post /api/sheets/:id/archive': async ({ team, other }) => ({ path: `/api/sheets/${(await sheetIn(team)).id}/archive`, foreignPath: `/api/sheets/${(await sheetIn(other)).id}/archive` }),
-  'post /api/sheets/:id/restore': async ({ team, other }) => ({ path: `/api/sheets/${(await sheetIn(team)).id}/restore`, foreignPath: `/api/sheets/${(await sheetIn(other)).id}/restore` }),
-  'get /api/sheets/:id/pdf': async ({ team, other }) => ({ path: `/api/sheets/${(await sheetIn(team)).id}/pdf`, foreignPath: `/api/sheets/${(await sheetIn(other)).id}/pdf` }),
+  'get /api/sheets/:id/revisions': async ({ team, other }) => ({
+    path: `/api/sheets/${(await sheetIn(team)).id}/revisions`,
+    foreignPath: `/api/sheets/${(await sheetIn(other)).id}/revisions`,
+  }),
+  'get /api/sheets/:id/revisions/:n': async ({ team, other }) => ({
+    path: `/api/sheets/${(await sheetIn(team)).id}/revisions/1`,
+    foreignPath: `/api/sheets/${(await sheetIn(other)).id}/revisions/1`,
+  }),
+  'post /api/sheets/:id/issue': async ({ team, other }) => ({
+    path: `/api/sheets/${(await sheetIn(team)).id}/issue`,
+    body: { version: 1 },
+    foreignPath: `/api/sheets/${(await sheetIn(other)).id}/issue`,
+  }),
+  'post /api/sheets/:id/clone': async ({ team, other }) => ({
+    path: `/api/sheets/${(await sheetIn(team)).id}/clone`,
+    foreignPath: `/api/sheets/${(await sheetIn(other)).id}/clone`,
+  }),
+  'post /api/sheets/:id/archive': async ({ team, other }) => ({
+    path: `/api/sheets/${(await sheetIn(team)).id}/archive`,
+    foreignPath: `/api/sheets/${(await sheetIn(other)).id}/archive`,
+  }),
+  'post /api/sheets/:id/restore': async ({ team, other }) => ({
+    path: `/api/sheets/${(await sheetIn(team)).id}/restore`,
+    foreignPath: `/api/sheets/${(await sheetIn(other)).id}/restore`,
+  }),
+  'get /api/sheets/:id/pdf': async ({ team, other }) => ({
+    path: `/api/sheets/${(await sheetIn(team)).id}/pdf`,
+    foreignPath: `/api/sheets/${(await sheetIn(other)).id}/pdf`,
+  }),
   'post /api/sheets/:id/shares': async ({ team, other }) => ({
     path: `/api/sheets/${(await sheetIn(team, { issued: true })).id}/shares`,
     body: {},
     foreignPath: `/api/sheets/${(await sheetIn(other, { issued: true })).id}/shares`,
   }),
-  'get /api/sheets/:id/shares': async ({ team, other }) => ({ path: `/api/sheets/${(await shareIn(team)).sheetId}/shares`, foreignPath: `/api/sheets/${(await shareIn(other)).sheetId}/shares` }),
+  'get /api/sheets/:id/shares': async ({ team, other }) => ({
+    path: `/api/sheets/${(await shareIn(team)).sheetId}/shares`,
+    foreignPath: `/api/sheets/${(await shareIn(other)).sheetId}/shares`,
+  }),
   'delete /api/sheets/:id/shares/:shareId': async ({ team, other }) => {
     const mine = await shareIn(team)
     const theirs = await shareIn(other)

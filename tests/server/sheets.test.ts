@@ -228,7 +228,7 @@ describe('the list', () => {
     expect((await d.get(`/api/sheets?q=ord&chemistry=nicd&author=${own.users.designer.id}&page=5`)).body).toMatchObject({ items: [], total: 3 })
   })
 
-  it('never lists another workspace\'s sheets', async () => {
+  it("never lists another workspace's sheets", async () => {
     const elsewhere = await makeTeam('Elsewhere')
     const stranger = await signIn(built.app, elsewhere.users.designer.email)
     await createSheet(stranger, { title: 'Stranger sheet' })
@@ -331,7 +331,11 @@ describe('sharing', () => {
     const to = uniqueEmail('client')
     const wrong = await designer.post(`/api/sheets/${sheet.id}/shares/${made.body.id}/email`, { to, message: 'Hi', token: 'y'.repeat(43) })
     expect(wrong.status).toBe(400)
-    const res = await designer.post(`/api/sheets/${sheet.id}/shares/${made.body.id}/email`, { to, message: 'Please check the stair cores.', token: made.body.token })
+    const res = await designer.post(`/api/sheets/${sheet.id}/shares/${made.body.id}/email`, {
+      to,
+      message: 'Please check the stair cores.',
+      token: made.body.token,
+    })
     expect(res.status).toBe(202)
     await expect.poll(() => mailTo(to).length).toBe(1)
     const mail = mailTo(to)[0]
@@ -345,7 +349,9 @@ describe('sharing', () => {
     const made = await designer.post(`/api/sheets/${sheet.id}/shares`, { expiresAt: '2031-03-04T12:00:00.000Z' })
     expect(made.status).toBe(201)
     const to = uniqueEmail('client')
-    const res = await designer.post(`/api/sheets/${sheet.id}/shares/${made.body.id}/email`, { to, message: '', token: made.body.token }).set('Accept-Language', 'en-GB')
+    const res = await designer
+      .post(`/api/sheets/${sheet.id}/shares/${made.body.id}/email`, { to, message: '', token: made.body.token })
+      .set('Accept-Language', 'en-GB')
     expect(res.status).toBe(202)
     await expect.poll(() => mailTo(to).length).toBe(1)
     const mail = mailTo(to)[0]
@@ -373,7 +379,16 @@ describe('the PDF', () => {
   })
 
   it('shows the pack to order (voltage, format) and the charger check when the sheet carries the charger', async () => {
-    const inputs = { chemistry: 'nicd-ht', cellsInSeries: 4, capacity: '1.6 Ah', cellFormat: 'sub-C', duration: '3 h', mode: 'non-maintained', dischargeCurrent: '0.4 A', charger: { type: 'nickel-constant-current', chargeCurrent: '120 mA' } }
+    const inputs = {
+      chemistry: 'nicd-ht',
+      cellsInSeries: 4,
+      capacity: '1.6 Ah',
+      cellFormat: 'sub-C',
+      duration: '3 h',
+      mode: 'non-maintained',
+      dischargeCurrent: '0.4 A',
+      charger: { type: 'nickel-constant-current', chargeCurrent: '120 mA' },
+    }
     const sheet = await createSheet(designer, { title: 'Pack and charger sheet', inputs })
     expect(sheet.results.chargerCheck.compatible).toBe('yes')
     const res = await viewer.get(`/api/sheets/${sheet.id}/pdf`).buffer(true).parse(binary)
@@ -421,7 +436,10 @@ describe('roles', () => {
 describe('demo sheets', () => {
   it('seeds issued sheets with revisions once, however often it runs', async () => {
     const demo = await makeTeam('Demo copy')
-    const ctx = { workspaceId: demo.workspaceId, users: { owner: demo.users.owner.id, designer: demo.users.designer.id, technician: demo.users.technician.id, viewer: demo.users.viewer.id } }
+    const ctx = {
+      workspaceId: demo.workspaceId,
+      users: { owner: demo.users.owner.id, designer: demo.users.designer.id, technician: demo.users.technician.id, viewer: demo.users.viewer.id },
+    }
     await dataSource.transaction((m) => seedSheets(m, ctx))
     await dataSource.transaction((m) => seedSheets(m, ctx))
     const rows = await dataSource.getRepository(SpecSheet).find({ where: { workspaceId: demo.workspaceId }, order: { reference: 'ASC' } })

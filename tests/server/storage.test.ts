@@ -24,8 +24,10 @@ async function uploadFile(client: Client, text: string, name = 'log.csv') {
   return client.agent.post('/api/discharge/uploads').set('X-CSRF-Token', client.csrf).attach('file', Buffer.from(text), name)
 }
 
-const setQuota = (team: TestTeam, bytes: number | null) => dataSource.query('UPDATE workspaces SET storage_quota_bytes = $2 WHERE id = $1', [team.workspaceId, bytes])
-const stagedRows = async (team: TestTeam) => Number((await dataSource.query('SELECT count(*)::int AS n FROM staged_uploads WHERE workspace_id = $1', [team.workspaceId]))[0].n)
+const setQuota = (team: TestTeam, bytes: number | null) =>
+  dataSource.query('UPDATE workspaces SET storage_quota_bytes = $2 WHERE id = $1', [team.workspaceId, bytes])
+const stagedRows = async (team: TestTeam) =>
+  Number((await dataSource.query('SELECT count(*)::int AS n FROM staged_uploads WHERE workspace_id = $1', [team.workspaceId]))[0].n)
 const onDisk = (uploadId: string) => fs.existsSync(path.join(stagingDir(), `${uploadId}.upload`))
 
 describe('storage quota per workspace', () => {
@@ -49,7 +51,14 @@ describe('storage quota per workspace', () => {
 
     const use = await tech.get('/api/workspace/storage')
     expect(use.status).toBe(200)
-    expect(use.body).toMatchObject({ usedBytes: size, quotaBytes: Math.round(size * 1.5), stagedBytes: size, stagedUploads: 1, storedLogBytes: 0, photometricBytes: 0 })
+    expect(use.body).toMatchObject({
+      usedBytes: size,
+      quotaBytes: Math.round(size * 1.5),
+      stagedBytes: size,
+      stagedUploads: 1,
+      storedLogBytes: 0,
+      photometricBytes: 0,
+    })
   })
 
   it('counts stored logs and photometric files too, and refuses a photometric file past the quota', async () => {
@@ -109,7 +118,9 @@ describe('staged uploads go when saved or abandoned', () => {
     const abandoned = await uploadFile(tech, logText(FAILING))
     expect(abandoned.status).toBe(201)
     // An hour and a minute later.
-    await dataSource.query("UPDATE staged_uploads SET created_at = now() - interval '61 minutes', expires_at = now() - interval '1 minute' WHERE id = $1", [abandoned.body.uploadId])
+    await dataSource.query("UPDATE staged_uploads SET created_at = now() - interval '61 minutes', expires_at = now() - interval '1 minute' WHERE id = $1", [
+      abandoned.body.uploadId,
+    ])
     const counted = (await tech.get('/api/workspace/storage')).body
     expect(counted.stagedBytes).toBe(0)
     expect(await sweepStagedUploads()).toBeGreaterThanOrEqual(1)

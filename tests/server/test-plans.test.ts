@@ -37,9 +37,20 @@ const minutes = (stamp: string) => Date.parse(`${stamp}:00Z`) / 60_000
 
 describe('test planner on the demo library', () => {
   it('alternates luminaires so that no area is ever all under test, and times the groups one after another', async () => {
-    const res = await designer.post(`/api/sites/${site.id}/test-plans`, { grouping: 'alternate', firstDay: '2027-03-01', windowStart: '18:00', windowEnd: '23:00' })
+    const res = await designer.post(`/api/sites/${site.id}/test-plans`, {
+      grouping: 'alternate',
+      firstDay: '2027-03-01',
+      windowStart: '18:00',
+      windowEnd: '23:00',
+    })
     expect(res.status).toBe(201)
-    const { plan, id } = res.body as { id: string; plan: { groups: Array<{ luminaireIds: string[]; tags: string[]; startsAt: string; endsAt: string; fullCoverAt: string; testH: number; rechargeH: number }>; warnings: unknown[] } }
+    const { plan, id } = res.body as {
+      id: string
+      plan: {
+        groups: Array<{ luminaireIds: string[]; tags: string[]; startsAt: string; endsAt: string; fullCoverAt: string; testH: number; rechargeH: number }>
+        warnings: unknown[]
+      }
+    }
     expect(id).toMatch(/^[0-9a-f-]{36}$/)
     expect(plan.groups).toHaveLength(2)
     // Every luminaire of the site is in exactly one group.
@@ -48,7 +59,12 @@ describe('test planner on the demo library', () => {
     const areas = new Map<string, string[]>()
     for (const l of luminaires) areas.set(l.areaName ?? '', [...(areas.get(l.areaName ?? '') ?? []), l.id])
     expect(areas.size).toBe(3)
-    for (const [area, ids] of areas) for (const g of plan.groups) expect(ids.every((x) => g.luminaireIds.includes(x)), `${area} all in one group`).toBe(false)
+    for (const [area, ids] of areas)
+      for (const g of plan.groups)
+        expect(
+          ids.every((x) => g.luminaireIds.includes(x)),
+          `${area} all in one group`,
+        ).toBe(false)
     expect(plan.warnings).toEqual([])
     // The library's luminaires are rated 3 h: each test 18:00 to 21:00, full cover 24 h after the end.
     for (const g of plan.groups) {
@@ -81,7 +97,13 @@ describe('test planner on the demo library', () => {
   })
 
   it('by area: flags every area as left dark during its own test', async () => {
-    const res = await designer.post(`/api/sites/${site.id}/test-plans`, { grouping: 'area', firstDay: '2027-03-01', windowStart: '22:00', windowEnd: '06:00', defaultRechargeH: 20 })
+    const res = await designer.post(`/api/sites/${site.id}/test-plans`, {
+      grouping: 'area',
+      firstDay: '2027-03-01',
+      windowStart: '22:00',
+      windowEnd: '06:00',
+      defaultRechargeH: 20,
+    })
     expect(res.status).toBe(201)
     expect(res.body.plan.groups).toHaveLength(3)
     expect(res.body.plan.warnings.map((w: { code: string }) => w.code)).toEqual(['area-dark', 'area-dark', 'area-dark'])
@@ -100,7 +122,12 @@ describe('test planner on the demo library', () => {
         expect(res.body).toMatchObject({ circuit: i % 2 ? 'DB1/2' : 'DB1/1', walkOrder: place })
       }
     }
-    const res = await designer.post(`/api/sites/${site.id}/test-plans`, { grouping: 'circuit', firstDay: '2027-03-01', windowStart: '18:00', windowEnd: '23:00' })
+    const res = await designer.post(`/api/sites/${site.id}/test-plans`, {
+      grouping: 'circuit',
+      firstDay: '2027-03-01',
+      windowStart: '18:00',
+      windowEnd: '23:00',
+    })
     expect(res.status).toBe(201)
     expect(res.body.plan.groups.map((g: { name: string }) => g.name)).toEqual(['Circuit DB1/1', 'Circuit DB1/2'])
     expect(res.body.plan.groups.every((g: { darkAreas: string[] }) => g.darkAreas.length === 0)).toBe(true)
@@ -116,7 +143,13 @@ describe('test planner on the demo library', () => {
   })
 
   it('refuses what it cannot read, field by field, and leaves planning to designers', async () => {
-    const bad = await designer.post(`/api/sites/${site.id}/test-plans`, { grouping: 'rows', firstDay: '2027-02-30', windowStart: '25:00', windowEnd: '06:00', extra: 1 })
+    const bad = await designer.post(`/api/sites/${site.id}/test-plans`, {
+      grouping: 'rows',
+      firstDay: '2027-02-30',
+      windowStart: '25:00',
+      windowEnd: '06:00',
+      extra: 1,
+    })
     expect(bad.status).toBe(400)
     const paths = (bad.body.fields as Array<{ path: string }>).map((f) => f.path)
     expect(paths).toEqual(expect.arrayContaining(['grouping', 'firstDay', 'windowStart']))

@@ -93,7 +93,9 @@ describe('the audit trail of token writes', () => {
     const made = await makeToken({ name: 'schedule importer', scopes: ['read', 'write'] })
     const created = await as(made.token).post('/api/sites', siteBody(`Imported ${crypto.randomUUID()}`))
     expect(created.status, JSON.stringify(created.body)).toBe(201)
-    const [event] = await dataSource.query(`SELECT actor_id, api_token_id, api_token_name FROM audit_events WHERE action = 'site.created' AND entity_id = $1`, [created.body.id])
+    const [event] = await dataSource.query(`SELECT actor_id, api_token_id, api_token_name FROM audit_events WHERE action = 'site.created' AND entity_id = $1`, [
+      created.body.id,
+    ])
     expect(event).toEqual({ actor_id: team.users.designer.id, api_token_id: made.id, api_token_name: 'schedule importer' })
     // The per-request event is written once the answer has gone out.
     await expect
@@ -103,7 +105,9 @@ describe('the audit trail of token writes', () => {
 
   it('leaves the token out of events made from a signed-in session', async () => {
     const created = await designer.post('/api/sites', siteBody(`By hand ${crypto.randomUUID()}`))
-    const [event] = await dataSource.query(`SELECT api_token_id, api_token_name FROM audit_events WHERE action = 'site.created' AND entity_id = $1`, [created.body.id])
+    const [event] = await dataSource.query(`SELECT api_token_id, api_token_name FROM audit_events WHERE action = 'site.created' AND entity_id = $1`, [
+      created.body.id,
+    ])
     expect(event).toEqual({ api_token_id: null, api_token_name: null })
   })
 })

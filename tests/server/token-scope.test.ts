@@ -34,14 +34,22 @@ describe('API token scope', () => {
     expect((await call('post', '/api/auth/password', { currentPassword: 'x', newPassword: 'a changed passphrase today' })).status).toBe(403)
     const other = await makeTeam()
     const { token, hash } = newToken()
-    await dataSource.getRepository(Invitation).insert({ workspaceId: other.workspaceId, email: team.users.viewer.email, role: 'owner', tokenHash: hash, invitedBy: other.users.owner.id, expiresAt: new Date(Date.now() + 3600_000), acceptedAt: null })
+    await dataSource.getRepository(Invitation).insert({
+      workspaceId: other.workspaceId,
+      email: team.users.viewer.email,
+      role: 'owner',
+      tokenHash: hash,
+      invitedBy: other.users.owner.id,
+      expiresAt: new Date(Date.now() + 3600_000),
+      acceptedAt: null,
+    })
     expect((await call('post', `/api/invitations/${token}/accept`, {})).status).toBe(403)
     const me = await supertest(built.app).get('/api/auth/me').set('Authorization', bearer)
     expect(me.status).toBe(200)
     expect(me.body.user.name).toBe('viewer person')
   })
 
-  it("a token sees only its own workspace in /api/auth/me and /api/workspaces", async () => {
+  it('a token sees only its own workspace in /api/auth/me and /api/workspaces', async () => {
     const { team, session, bearer } = await viewerToken()
     expect((await session.post('/api/workspaces', { name: 'Another of mine' })).status).toBe(201)
     const me = await supertest(built.app).get('/api/auth/me').set('Authorization', bearer)
@@ -55,7 +63,9 @@ describe('API token scope', () => {
     const owner = await signIn(built.app, team.users.owner.email)
     const list = await owner.get('/api/workspace/tokens')
     expect(list.status).toBe(200)
-    expect(list.body.tokens).toEqual([expect.objectContaining({ id, userId: team.users.viewer.id, userName: 'viewer person', role: 'viewer', revokedAt: null })])
+    expect(list.body.tokens).toEqual([
+      expect.objectContaining({ id, userId: team.users.viewer.id, userName: 'viewer person', role: 'viewer', revokedAt: null }),
+    ])
     expect(JSON.stringify(list.body)).not.toContain(bearer.slice(7))
 
     const outsider = await signIn(built.app, (await makeTeam()).users.owner.email)

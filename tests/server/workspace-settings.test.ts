@@ -41,7 +41,10 @@ describe("the workspace's currency", () => {
     expect(res.status, JSON.stringify(res.body)).toBe(200)
     expect(res.body).toEqual({ currency: 'GBP', currencyChosen: true, regionCurrency: 'USD' })
     expect((await designer.get('/api/auth/me')).body.workspace.currency).toBe('GBP')
-    const [audit] = await dataSource.query(`SELECT data FROM audit_events WHERE workspace_id = $1 AND action = 'workspace.settings-updated' ORDER BY at DESC LIMIT 1`, [team.workspaceId])
+    const [audit] = await dataSource.query(
+      `SELECT data FROM audit_events WHERE workspace_id = $1 AND action = 'workspace.settings-updated' ORDER BY at DESC LIMIT 1`,
+      [team.workspaceId],
+    )
     expect(audit.data).toEqual({ currency: { from: null, to: 'GBP' } })
   })
 

@@ -20,14 +20,27 @@ const NICD_NOTES = [
 describe('words by regime', () => {
   test('a US site reads egress path, normal power, battery unit or emergency driver, the authority having jurisdiction, 120/277 V 60 Hz', () => {
     const w = REGIME_WORDS.nfpa101
-    expect([w.escapeRoute, w.normalSupply, w.batteryUnit, w.authority, w.supplyVoltage, w.supplyFrequencyHz]).toEqual(['egress path', 'normal power', 'battery unit or emergency driver', 'authority having jurisdiction', '120/277 V', 60])
+    expect([w.escapeRoute, w.normalSupply, w.batteryUnit, w.authority, w.supplyVoltage, w.supplyFrequencyHz]).toEqual([
+      'egress path',
+      'normal power',
+      'battery unit or emergency driver',
+      'authority having jurisdiction',
+      '120/277 V',
+      60,
+    ])
     expect(w.isolateCaution).not.toMatch(/mains/i)
     expect(w.spacingCriteria).toBe('nfpa101')
   })
 
   test('a UK or EU site reads escape route and mains at 230 V 50 Hz, with EN 1838 as the spacing default', () => {
     const w = REGIME_WORDS.en50172
-    expect([w.escapeRoute, w.normalSupply, w.supplyVoltage, w.supplyFrequencyHz, w.spacingCriteria]).toEqual(['escape route', 'mains', '230 V', 50, 'en1838-route'])
+    expect([w.escapeRoute, w.normalSupply, w.supplyVoltage, w.supplyFrequencyHz, w.spacingCriteria]).toEqual([
+      'escape route',
+      'mains',
+      '230 V',
+      50,
+      'en1838-route',
+    ])
   })
 
   test('a Canadian site is 60 Hz with 347 V lighting circuits; Australia and New Zealand 230 V 50 Hz', () => {
@@ -52,7 +65,11 @@ describe('notes only where they apply', () => {
   })
   test('a UK/EU site keeps all of them; AS/NZS keeps the IEC annex notes but not the EU cadmium limit', () => {
     expect(warningsForRegime(NICD_NOTES, 'en50172')).toHaveLength(4)
-    expect(warningsForRegime(NICD_NOTES, 'asnzs2293').map((w) => w.code)).toEqual(['annex-a-discharge-exceeded', 'design-life-below-4-years', 'competent-person'])
+    expect(warningsForRegime(NICD_NOTES, 'asnzs2293').map((w) => w.code)).toEqual([
+      'annex-a-discharge-exceeded',
+      'design-life-below-4-years',
+      'competent-person',
+    ])
   })
 })
 
@@ -76,7 +93,7 @@ describe('myths corrected where they surface', () => {
   })
 })
 
-describe('purpose labels in the site\'s words', () => {
+describe("purpose labels in the site's words", () => {
   test('an escape-route luminaire reads "Egress path" on a US site and "Escape route" on a UK one; other purposes keep their label', async () => {
     const { PURPOSE_LABELS } = await import('../../shared/labels')
     const { purposeLabelFor } = await import('../../shared/labels/regime-words')

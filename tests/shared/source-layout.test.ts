@@ -33,7 +33,8 @@ function sourceFiles(): string[] {
 /** Where useAsyncAction itself raises its flag. */
 const ASYNC_ACTION = 'src/composables/useAsyncAction.ts'
 /** Flag names that say "an action is out" (pickBusy, isSaving and uploading as well as busy). */
-const BUSY_NAME = /\b(\w*?(?:loading|busy|saving|pending|sending|working|deleting|removing|making|creating|updating|uploading|downloading|importing|exporting|fetching|submitting|analysing|analyzing|attaching|signing|running))(\.value)?\s*=\s*true\b/gi
+const BUSY_NAME =
+  /\b(\w*?(?:loading|busy|saving|pending|sending|working|deleting|removing|making|creating|updating|uploading|downloading|importing|exporting|fetching|submitting|analysing|analyzing|attaching|signing|running))(\.value)?\s*=\s*true\b/gi
 /** A flag put down in a `finally` (`finally { x.value = false }`): the hand-rolled pair whatever its name. */
 const RESET_IN_FINALLY = /finally\s*\{[^{}]*?\b([\w$.]+?)(?:\.value)?\s*=\s*false\b/g
 const escape = (s: string) => s.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')
@@ -78,7 +79,9 @@ describe('source layout', () => {
   })
 
   it('registers ECharts in src/lib/echarts.ts only (charts import VChart from there)', () => {
-    const registering = files.filter((f) => f.startsWith('src/') && /from ['"]echarts\/core['"]|from ['"]vue-echarts['"]/.test(fs.readFileSync(path.join(ROOT, f), 'utf8')))
+    const registering = files.filter(
+      (f) => f.startsWith('src/') && /from ['"]echarts\/core['"]|from ['"]vue-echarts['"]/.test(fs.readFileSync(path.join(ROOT, f), 'utf8')),
+    )
     expect(registering).toEqual(['src/lib/echarts.ts'])
   })
 
@@ -92,7 +95,11 @@ describe('source layout', () => {
   })
 
   it.each([
-    ['a busy flag in a view', 'async function save() {\n  busy.value = true\n  try { await put() } finally { busy.value = false }\n}', ['2: busy.value = true']],
+    [
+      'a busy flag in a view',
+      'async function save() {\n  busy.value = true\n  try { await put() } finally { busy.value = false }\n}',
+      ['2: busy.value = true'],
+    ],
     ['a prefixed name', 'pickBusy.value = true', ['1: pickBusy.value = true']],
     ['a plain let flag', 'let isSaving = false\nisSaving = true', ['2: isSaving = true']],
     ['any name put down in a finally', 'spinner.value = true\ntry {\n  await go()\n} finally {\n  spinner.value = false\n}', ['1: spinner.value = true']],

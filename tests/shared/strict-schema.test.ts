@@ -17,7 +17,10 @@ describe('strictSchema', () => {
       name: z.string(),
       load: Load.optional(),
       rows: z.array(z.object({ tag: z.string() })).default([]),
-      kind: z.discriminatedUnion('type', [z.object({ type: z.literal('a'), x: z.number() }), z.object({ type: z.literal('b'), y: z.number() })]).nullable().default(null),
+      kind: z
+        .discriminatedUnion('type', [z.object({ type: z.literal('a'), x: z.number() }), z.object({ type: z.literal('b'), y: z.number() })])
+        .nullable()
+        .default(null),
       byTag: z.record(z.object({ n: z.number() })).optional(),
     })
     .refine((b) => b.name !== 'forbidden', 'no')
@@ -28,7 +31,14 @@ describe('strictSchema', () => {
   })
 
   it('refuses an undeclared key at any depth, naming where it is', () => {
-    const r = strictSchema(Body).safeParse({ name: 'x', extra: 1, load: { power: '1 W', watts: 2 }, rows: [{ tag: 'A', colour: 'red' }], kind: { type: 'a', x: 1, z: 0 }, byTag: { A: { n: 1, m: 2 } } })
+    const r = strictSchema(Body).safeParse({
+      name: 'x',
+      extra: 1,
+      load: { power: '1 W', watts: 2 },
+      rows: [{ tag: 'A', colour: 'red' }],
+      kind: { type: 'a', x: 1, z: 0 },
+      byTag: { A: { n: 1, m: 2 } },
+    })
     expect(unknownKeys(r).sort()).toEqual(['byTag.A.m', 'extra', 'kind.z', 'load.watts', 'rows.0.colour'])
   })
 

@@ -46,12 +46,20 @@ export const secret: string = listed.token
 
 // A handler must return the declared answer: this one compiles...
 export const good = defineRoute({
-  method: 'get', path: '/api/fixture', access: 'public', summary: 'fixture', response: SheetAuthorsAnswer,
+  method: 'get',
+  path: '/api/fixture',
+  access: 'public',
+  summary: 'fixture',
+  response: SheetAuthorsAnswer,
   handler: () => ({ authors: [{ id: 'a', name: 'Tamsin Vale' }] }),
 })
 // ...and this one, whose answer names the list differently, does not.
 export const bad = defineRoute({
-  method: 'get', path: '/api/fixture', access: 'public', summary: 'fixture', response: SheetAuthorsAnswer,
+  method: 'get',
+  path: '/api/fixture',
+  access: 'public',
+  summary: 'fixture',
+  response: SheetAuthorsAnswer,
   // @ts-expect-error the declared answer has `authors`, not `people`
   handler: () => ({ people: [] }),
 })

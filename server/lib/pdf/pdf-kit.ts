@@ -62,7 +62,10 @@ export type PdfSection<D> = (doc: Doc, data: D) => void
 export const BANDS = { header: 34, footer: 38, gap: 14 } as const
 
 /** A new A4 or Letter document with the font subsets registered (A4, portrait with wide margins unless told). */
-export function newDocument(info: { title: string; subject?: string }, page: { layout?: 'portrait' | 'landscape'; margin?: number; paper?: 'a4' | 'letter' } = {}): Doc {
+export function newDocument(
+  info: { title: string; subject?: string },
+  page: { layout?: 'portrait' | 'landscape'; margin?: number; paper?: 'a4' | 'letter' } = {},
+): Doc {
   const side = page.margin ?? 56
   const margins = {
     top: Math.max(page.margin ?? 56, BANDS.header + BANDS.gap),
@@ -70,7 +73,13 @@ export function newDocument(info: { title: string; subject?: string }, page: { l
     left: side,
     right: side,
   }
-  const doc = new PDFDocument({ size: page.paper === 'letter' ? 'LETTER' : 'A4', layout: page.layout ?? 'portrait', margins, bufferPages: true, info: { Title: info.title, Subject: info.subject ?? '', Creator: 'Lampwright' } })
+  const doc = new PDFDocument({
+    size: page.paper === 'letter' ? 'LETTER' : 'A4',
+    layout: page.layout ?? 'portrait',
+    margins,
+    bufferPages: true,
+    info: { Title: info.title, Subject: info.subject ?? '', Creator: 'Lampwright' },
+  })
   const subsets = loadSubsets()
   for (const weight of Object.keys(subsets) as Weight[]) for (const s of subsets[weight]) doc.registerFont(fontName(weight, s.name), s.file)
   doc.font(fontName('regular', 'latin'))
@@ -146,7 +155,12 @@ export function heading(doc: Doc, text: string) {
   doc.moveDown(0.6)
   write(doc, text, { weight: 'semibold', size: 13, color: '#1f3b4d' })
   const y = doc.y + 2
-  doc.moveTo(doc.page.margins.left, y).lineTo(doc.page.width - doc.page.margins.right, y).lineWidth(0.6).strokeColor('#c98a12').stroke()
+  doc
+    .moveTo(doc.page.margins.left, y)
+    .lineTo(doc.page.width - doc.page.margins.right, y)
+    .lineWidth(0.6)
+    .strokeColor('#c98a12')
+    .stroke()
   doc.moveDown(0.4)
 }
 
@@ -190,8 +204,18 @@ export function frame(doc: Doc, text: FrameText) {
     const small = { size: 8, color: '#5b6b75', lineBreak: false } as const
     writeAt(doc, text.header, left, 16, { ...small, width: text.headerRight ? width * 0.62 : width, ellipsis: true })
     if (text.headerRight) writeAt(doc, text.headerRight, left + width * 0.64, 16, { ...small, width: width * 0.36, align: 'right', ellipsis: true })
-    doc.moveTo(left, BANDS.header - 6).lineTo(left + width, BANDS.header - 6).lineWidth(0.4).strokeColor('#c5ced3').stroke()
-    doc.moveTo(left, h - BANDS.footer + 4).lineTo(left + width, h - BANDS.footer + 4).lineWidth(0.4).strokeColor('#c5ced3').stroke()
+    doc
+      .moveTo(left, BANDS.header - 6)
+      .lineTo(left + width, BANDS.header - 6)
+      .lineWidth(0.4)
+      .strokeColor('#c5ced3')
+      .stroke()
+    doc
+      .moveTo(left, h - BANDS.footer + 4)
+      .lineTo(left + width, h - BANDS.footer + 4)
+      .lineWidth(0.4)
+      .strokeColor('#c5ced3')
+      .stroke()
     writeAt(doc, text.footer, left, h - BANDS.footer + 12, { ...small, width: width - 80, ellipsis: true })
     writeAt(doc, pageText, left + width - 78, h - BANDS.footer + 12, { ...small, width: 78, align: 'right' })
     doc.page.margins.bottom = bottom
@@ -225,11 +249,20 @@ export function signOffBoxes(doc: Doc, boxes: SignOffBox[]) {
     const x = left + i * (width + gap)
     doc.rect(x, top, width, height).lineWidth(0.6).strokeColor('#8a989f').stroke()
     writeAt(doc, b.role, x + 8, top + 6, { weight: 'semibold', size: 9, width: width - 16, lineBreak: false, ellipsis: true })
-    const rows: Array<[string, string]> = [['Name', b.name ?? ''], ['Signature', ''], ['Date', b.date ?? '']]
+    const rows: Array<[string, string]> = [
+      ['Name', b.name ?? ''],
+      ['Signature', ''],
+      ['Date', b.date ?? ''],
+    ]
     rows.forEach(([label, value], k) => {
       const y = top + 28 + k * 22
       writeAt(doc, label, x + 8, y, { size: 8, color: '#5b6b75', lineBreak: false })
-      doc.moveTo(x + 58, y + 11).lineTo(x + width - 8, y + 11).lineWidth(0.4).strokeColor('#8a989f').stroke()
+      doc
+        .moveTo(x + 58, y + 11)
+        .lineTo(x + width - 8, y + 11)
+        .lineWidth(0.4)
+        .strokeColor('#8a989f')
+        .stroke()
       if (value) writeAt(doc, value, x + 60, y, { size: 9, width: width - 70, lineBreak: false, ellipsis: true })
     })
   })

@@ -22,8 +22,19 @@ const markOf = (c: Cell) => (typeof c === 'string' ? undefined : c.mark)
 /** A tick (pass) or a cross (fail), 7 pt high, drawn in lines so it needs no glyph and no colour. */
 export function drawMark(doc: Doc, mark: 'pass' | 'fail', x: number, y: number) {
   doc.save().lineWidth(1.3).strokeColor('#1b2a33').lineCap('round')
-  if (mark === 'pass') doc.moveTo(x, y + 4).lineTo(x + 2.6, y + 7).lineTo(x + 7.5, y + 0.5).stroke()
-  else doc.moveTo(x + 0.5, y + 0.5).lineTo(x + 7, y + 7).moveTo(x + 7, y + 0.5).lineTo(x + 0.5, y + 7).stroke()
+  if (mark === 'pass')
+    doc
+      .moveTo(x, y + 4)
+      .lineTo(x + 2.6, y + 7)
+      .lineTo(x + 7.5, y + 0.5)
+      .stroke()
+  else
+    doc
+      .moveTo(x + 0.5, y + 0.5)
+      .lineTo(x + 7, y + 7)
+      .moveTo(x + 7, y + 0.5)
+      .lineTo(x + 0.5, y + 7)
+      .stroke()
   doc.restore()
 }
 
@@ -50,7 +61,12 @@ export function table(doc: Doc, given: Column[], rows: Cell[][], options: TableO
       writeAt(doc, c.title, x, y, { weight: 'semibold', size, width: c.width - 4 })
       x += c.width
     }
-    doc.moveTo(left, y + height + 2).lineTo(left + tableWidth, y + height + 2).lineWidth(0.5).strokeColor('#1b2a33').stroke()
+    doc
+      .moveTo(left, y + height + 2)
+      .lineTo(left + tableWidth, y + height + 2)
+      .lineWidth(0.5)
+      .strokeColor('#1b2a33')
+      .stroke()
     doc.x = left
     doc.y = y + height + 5
   }
@@ -59,7 +75,10 @@ export function table(doc: Doc, given: Column[], rows: Cell[][], options: TableO
   drawHeader()
   for (const row of rows) {
     const inner = (cell: Cell, i: number) => columns[i].width - 4 - (markOf(cell) ? MARK_W : 0)
-    const height = Math.max(options.writeIn ?? 0, ...row.map((cell, i) => heightOf(doc, textOf(cell), inner(cell, i), { size, weight: typeof cell === 'string' ? 'regular' : cell.weight })))
+    const height = Math.max(
+      options.writeIn ?? 0,
+      ...row.map((cell, i) => heightOf(doc, textOf(cell), inner(cell, i), { size, weight: typeof cell === 'string' ? 'regular' : cell.weight })),
+    )
     if (doc.y + height > doc.page.height - doc.page.margins.bottom - 14) {
       doc.addPage()
       drawHeader()
@@ -72,14 +91,24 @@ export function table(doc: Doc, given: Column[], rows: Cell[][], options: TableO
       writeAt(doc, textOf(cell), x + (mark ? MARK_W : 0), y, { size, width: inner(cell, i), weight: typeof cell === 'string' ? 'regular' : cell.weight })
       x += columns[i].width
     })
-    if (options.writeIn) doc.moveTo(left, y + height + 1).lineTo(left + tableWidth, y + height + 1).lineWidth(0.4).strokeColor('#8a989f').stroke()
+    if (options.writeIn)
+      doc
+        .moveTo(left, y + height + 1)
+        .lineTo(left + tableWidth, y + height + 1)
+        .lineWidth(0.4)
+        .strokeColor('#8a989f')
+        .stroke()
     doc.x = left
     doc.y = y + height + 3
   }
 }
 
 /** The result cell of a test: the word, in semibold for a fail, after its mark. */
-export const resultCell = (passed: boolean): Cell => ({ text: passed ? 'Pass' : 'Fail', mark: passed ? 'pass' : 'fail', weight: passed ? 'regular' : 'semibold' })
+export const resultCell = (passed: boolean): Cell => ({
+  text: passed ? 'Pass' : 'Fail',
+  mark: passed ? 'pass' : 'fail',
+  weight: passed ? 'regular' : 'semibold',
+})
 
 /** Column widths scaled to fill the page's body width, in the given proportions. */
 export function columnsFor(doc: Doc, spec: Array<[string, number]>): Column[] {

@@ -10,12 +10,14 @@ import { ensureSpace, heading, pair, write } from '../../lib/pdf/pdf-kit'
 import type { PdfSection } from '../sheets/sheet-pdf'
 import type { AuditDto } from './audits.service'
 
-
 export function wattageAuditsSection(audits: AuditDto[]): PdfSection {
   return (doc, d) => {
     const prefs = d.prefs ?? DEFAULT_PREFS
     heading(doc, 'Wattage audits')
-    write(doc, 'Readings taken on luminaires against the power their makers declare. Attached audits are listed whatever the revision shown.', { size: 9, color: '#3c4a52' })
+    write(doc, 'Readings taken on luminaires against the power their makers declare. Attached audits are listed whatever the revision shown.', {
+      size: 9,
+      color: '#3c4a52',
+    })
     for (const a of audits) {
       const r = a.results as Record<string, unknown>
       ensureSpace(doc, 120)
@@ -24,7 +26,11 @@ export function wattageAuditsSection(audits: AuditDto[]): PdfSection {
       if (a.luminaire) write(doc, a.luminaire, { size: 9.5 })
       write(doc, `Recorded by ${a.author?.name ?? '—'} on ${formatDate(a.createdAt, prefs)} · engine ${a.engineVersion}`, { size: 8.5, color: '#5b6b75' })
       pair(doc, 'Claimed power', formatNumber(a.claimedPowerW, { unit: 'W' }, prefs))
-      pair(doc, 'Verdict', `${formatNumber(r.measuredPowerW, { unit: 'W' }, prefs)} measured: ${labelOf(CLAIM_VERDICT_PHRASES, String(r.claimVerdict))}; the claim most likely describes ${labelOf(CLAIM_MEANING_LABELS, String(r.claimLikelyMeans))}`)
+      pair(
+        doc,
+        'Verdict',
+        `${formatNumber(r.measuredPowerW, { unit: 'W' }, prefs)} measured: ${labelOf(CLAIM_VERDICT_PHRASES, String(r.claimVerdict))}; the claim most likely describes ${labelOf(CLAIM_MEANING_LABELS, String(r.claimLikelyMeans))}`,
+      )
       for (const f of AUDIT_RESULT_FIGURES) {
         if (f.key === 'measuredPowerW') continue
         const text = auditFigureText(r, f)
@@ -34,7 +40,12 @@ export function wattageAuditsSection(audits: AuditDto[]): PdfSection {
       const warnings = plainAuditWarnings((r.warnings ?? []) as EngineWarning[]).filter((w) => w.severity !== 'info')
       for (const w of warnings) {
         ensureSpace(doc, 24)
-        write(doc, `${SEVERITY_LABELS[w.severity]}: `, { weight: 'semibold', continued: true, size: 9.5, color: w.severity === 'critical' ? '#a3161a' : '#a4460f' })
+        write(doc, `${SEVERITY_LABELS[w.severity]}: `, {
+          weight: 'semibold',
+          continued: true,
+          size: 9.5,
+          color: w.severity === 'critical' ? '#a3161a' : '#a4460f',
+        })
         write(doc, w.message, { size: 9.5 })
       }
     }

@@ -60,7 +60,12 @@ async function linksOf(rows: WattageAudit[], m: EntityManager = dataSource.manag
     )
     for (const l of found) lums.set(l.id, { id: l.id, tag: l.tag, siteId: l.site_id, siteName: l.site_name })
   }
-  return new Map(rows.map((r) => [r.id, { specSheet: r.specSheetId ? (sheets.get(r.specSheetId) ?? null) : null, luminaire: r.luminaireId ? (lums.get(r.luminaireId) ?? null) : null }]))
+  return new Map(
+    rows.map((r) => [
+      r.id,
+      { specSheet: r.specSheetId ? (sheets.get(r.specSheetId) ?? null) : null, luminaire: r.luminaireId ? (lums.get(r.luminaireId) ?? null) : null },
+    ]),
+  )
 }
 
 function dto(a: WattageAudit, people: Map<string, string>, links: AuditLinks | undefined, full: boolean) {
@@ -119,7 +124,14 @@ export async function createAudit(workspaceId: string, userId: string, input: Au
         action: 'wattage-audit.saved',
         entityType: 'wattage_audit',
         entityId: a.id,
-        data: { title: a.title, claimedPowerW, measuredPowerW: results.measuredPowerW, verdict: results.claimVerdict, specSheetId: a.specSheetId, luminaireId: a.luminaireId },
+        data: {
+          title: a.title,
+          claimedPowerW,
+          measuredPowerW: results.measuredPowerW,
+          verdict: results.claimVerdict,
+          specSheetId: a.specSheetId,
+          luminaireId: a.luminaireId,
+        },
       },
       m,
     )
@@ -154,7 +166,14 @@ export async function attachAudit(workspaceId: string, userId: string, id: strin
     if (body.luminaireId !== undefined) a.luminaireId = body.luminaireId
     await audits(m).save(a)
     await recordAudit(
-      { workspaceId, actorId: userId, action: 'wattage-audit.attached', entityType: 'wattage_audit', entityId: a.id, data: { before, after: { specSheetId: a.specSheetId, luminaireId: a.luminaireId } } },
+      {
+        workspaceId,
+        actorId: userId,
+        action: 'wattage-audit.attached',
+        entityType: 'wattage_audit',
+        entityId: a.id,
+        data: { before, after: { specSheetId: a.specSheetId, luminaireId: a.luminaireId } },
+      },
       m,
     )
     return view(a, true, m)
@@ -167,7 +186,14 @@ export async function deleteAudit(workspaceId: string, userId: string, id: strin
     await audits(m).delete({ id: a.id, workspaceId })
     // The readings go into the trail, so a deleted audit can still be accounted for.
     await recordAudit(
-      { workspaceId, actorId: userId, action: 'wattage-audit.deleted', entityType: 'wattage_audit', entityId: a.id, data: { title: a.title, inputs: a.inputs, specSheetId: a.specSheetId, luminaireId: a.luminaireId } },
+      {
+        workspaceId,
+        actorId: userId,
+        action: 'wattage-audit.deleted',
+        entityType: 'wattage_audit',
+        entityId: a.id,
+        data: { title: a.title, inputs: a.inputs, specSheetId: a.specSheetId, luminaireId: a.luminaireId },
+      },
       m,
     )
   })

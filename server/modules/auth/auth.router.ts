@@ -15,7 +15,16 @@ import { AppError, UnauthorizedError } from '../../errors/app-error'
 import { defineRoute, type RouteSpec } from '../../policy/access'
 import type { User } from '../users/user.entity'
 import { forgetUser, users } from '../users/users.repository'
-import { changePassword, confirmEmail, mailConfirmationLink, requestPasswordReset, resetPassword, SIGN_UP_ANSWER, signUp, signUpWithInvitation } from './auth.service'
+import {
+  changePassword,
+  confirmEmail,
+  mailConfirmationLink,
+  requestPasswordReset,
+  resetPassword,
+  SIGN_UP_ANSWER,
+  signUp,
+  signUpWithInvitation,
+} from './auth.service'
 import { afterAnswer } from '../../lib/after-answer'
 import { perAddress, perEmail, type Limits } from '../../lib/limits'
 import { signInGate, stillLocked } from './sign-in-gate'
@@ -40,8 +49,15 @@ export function authRoutes(opts: { signInWindowMs: number; limits: Limits }): Ro
   const linkLimit = perAddress('link', L.linkPerAddress, 'Too many link attempts from your network.')
   return [
     defineRoute({
-      method: 'post', path: '/api/auth/sign-up', response: z.union([MeAnswer, MessageSchema]), access: 'public', summary: 'Create an account (and a workspace, or accept an invitation)',
-      before: [perAddress('sign-up', L.signUpPerAddress, 'Too many sign-ups from your network.'), perEmail('sign-up-email', L.signUpPerEmail, 'Too many sign-ups for this e-mail address.')],
+      method: 'post',
+      path: '/api/auth/sign-up',
+      response: z.union([MeAnswer, MessageSchema]),
+      access: 'public',
+      summary: 'Create an account (and a workspace, or accept an invitation)',
+      before: [
+        perAddress('sign-up', L.signUpPerAddress, 'Too many sign-ups from your network.'),
+        perEmail('sign-up-email', L.signUpPerEmail, 'Too many sign-ups for this e-mail address.'),
+      ],
       body: SignUpSchema,
       handler: async ({ body }, req, res) => {
         if (body.invitation) {
@@ -57,17 +73,27 @@ export function authRoutes(opts: { signInWindowMs: number; limits: Limits }): Ro
       },
     }),
     defineRoute({
-      method: 'post', path: '/api/auth/confirm-email', response: MessageSchema, access: 'public', summary: 'Confirm an e-mail address with the link from the mail',
-      before: [linkLimit], body: ConfirmEmailSchema,
+      method: 'post',
+      path: '/api/auth/confirm-email',
+      response: MessageSchema,
+      access: 'public',
+      summary: 'Confirm an e-mail address with the link from the mail',
+      before: [linkLimit],
+      body: ConfirmEmailSchema,
       handler: async ({ body }) => {
         await confirmEmail(body.token)
         return { message: 'Your e-mail address is confirmed. You can sign in now.' }
       },
     }),
     defineRoute({
-      method: 'post', path: '/api/auth/sign-in', response: MeAnswer, access: 'public', summary: 'Sign in with e-mail and password',
+      method: 'post',
+      path: '/api/auth/sign-in',
+      response: MeAnswer,
+      access: 'public',
+      summary: 'Sign in with e-mail and password',
       // The gate counts failed attempts, including bodies that fail the schema (sign-in-gate.ts).
-      before: [signInGate(opts.signInWindowMs, L)], body: SignInSchema,
+      before: [signInGate(opts.signInWindowMs, L)],
+      body: SignInSchema,
       handler: (_input, req, res, next) => {
         // passport's local strategy reads the parsed body (e-mail trimmed and lower-cased).
         passport.authenticate('local', { session: false }, (err: unknown, user: User | false) => {
@@ -88,8 +114,12 @@ export function authRoutes(opts: { signInWindowMs: number; limits: Limits }): Ro
       },
     }),
     defineRoute({
-      method: 'post', path: '/api/auth/sign-out', access: 'public', summary: 'Sign out',
-      body: false, produces: 'none',
+      method: 'post',
+      path: '/api/auth/sign-out',
+      access: 'public',
+      summary: 'Sign out',
+      body: false,
+      produces: 'none',
       handler: (_input, req, res, next) => {
         req.logout((err) => {
           if (err) return next(err)
@@ -101,7 +131,11 @@ export function authRoutes(opts: { signInWindowMs: number; limits: Limits }): Ro
       },
     }),
     defineRoute({
-      method: 'get', path: '/api/auth/me', response: MeAnswer, access: 'signed-in', summary: 'The user, the current workspace and role',
+      method: 'get',
+      path: '/api/auth/me',
+      response: MeAnswer,
+      access: 'signed-in',
+      summary: 'The user, the current workspace and role',
       // A token sees itself: its user, its one workspace and its role.
       tokens: true,
       handler: (_input, req) => {
@@ -110,11 +144,19 @@ export function authRoutes(opts: { signInWindowMs: number; limits: Limits }): Ro
       },
     }),
     defineRoute({
-      method: 'get', path: '/api/auth/session', response: SessionAnswer, access: 'public', summary: 'The signed-in user, or none: a page checks this on load without a failed request when signed out',
+      method: 'get',
+      path: '/api/auth/session',
+      response: SessionAnswer,
+      access: 'public',
+      summary: 'The signed-in user, or none: a page checks this on load without a failed request when signed out',
       handler: async (_input, req) => ({ me: req.user ? await meResponse(req) : null }),
     }),
     defineRoute({
-      method: 'patch', path: '/api/auth/me', response: MeAnswer, access: 'signed-in', summary: 'Change name or unit preference',
+      method: 'patch',
+      path: '/api/auth/me',
+      response: MeAnswer,
+      access: 'signed-in',
+      summary: 'Change name or unit preference',
       body: UpdateProfileSchema,
       handler: async ({ body }, req) => {
         const user = req.user as User
@@ -125,7 +167,11 @@ export function authRoutes(opts: { signInWindowMs: number; limits: Limits }): Ro
       },
     }),
     defineRoute({
-      method: 'post', path: '/api/auth/password', response: MessageSchema, access: 'signed-in', summary: 'Change my password (ends my other sessions)',
+      method: 'post',
+      path: '/api/auth/password',
+      response: MessageSchema,
+      access: 'signed-in',
+      summary: 'Change my password (ends my other sessions)',
       body: ChangePasswordSchema,
       handler: async ({ body }, req) => {
         await changePassword((req.user as User).id, body.currentPassword, body.newPassword, req.sessionID)
@@ -135,13 +181,25 @@ export function authRoutes(opts: { signInWindowMs: number; limits: Limits }): Ro
       },
     }),
     defineRoute({
-      method: 'get', path: '/api/auth/csrf', response: CsrfAnswer, access: 'public', summary: 'A CSRF token for the X-CSRF-Token header',
+      method: 'get',
+      path: '/api/auth/csrf',
+      response: CsrfAnswer,
+      access: 'public',
+      summary: 'A CSRF token for the X-CSRF-Token header',
       handler: (_input, req) => ({ csrfToken: ensureCsrfToken(req) }),
     }),
     defineRoute({
-      method: 'post', path: '/api/auth/forgot-password', response: MessageSchema, access: 'public', summary: 'E-mail a single-use password reset link',
-      before: [perAddress('forgot', L.forgotPerAddress, 'Too many reset requests from your network.'), perEmail('forgot-email', L.forgotPerEmail, 'Too many reset requests for this e-mail address.')],
-      body: ForgotPasswordSchema, status: 202,
+      method: 'post',
+      path: '/api/auth/forgot-password',
+      response: MessageSchema,
+      access: 'public',
+      summary: 'E-mail a single-use password reset link',
+      before: [
+        perAddress('forgot', L.forgotPerAddress, 'Too many reset requests from your network.'),
+        perEmail('forgot-email', L.forgotPerEmail, 'Too many reset requests for this e-mail address.'),
+      ],
+      body: ForgotPasswordSchema,
+      status: 202,
       handler: async ({ body }) => {
         // Answered before any work, so a known and an unknown address take the same time.
         afterAnswer('password reset', () => requestPasswordReset(body.email))
@@ -149,12 +207,18 @@ export function authRoutes(opts: { signInWindowMs: number; limits: Limits }): Ro
       },
     }),
     defineRoute({
-      method: 'post', path: '/api/auth/reset-password', response: MessageSchema, access: 'public', summary: 'Set a new password with a reset token',
+      method: 'post',
+      path: '/api/auth/reset-password',
+      response: MessageSchema,
+      access: 'public',
+      summary: 'Set a new password with a reset token',
       before: [linkLimit],
       body: ResetPasswordSchema,
       handler: async ({ body }) => {
         await resetPassword(body.token, body.password)
-        return { message: 'Your password has been changed. You have been signed out everywhere and your API tokens have been revoked. Sign in with the new one.' }
+        return {
+          message: 'Your password has been changed. You have been signed out everywhere and your API tokens have been revoked. Sign in with the new one.',
+        }
       },
     }),
   ]

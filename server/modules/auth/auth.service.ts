@@ -66,7 +66,9 @@ export async function signUp(input: z.infer<typeof SignUpSchema>): Promise<void>
   let user: User
   try {
     user = await dataSource.transaction(async (m) => {
-      const created = await m.getRepository(User).save(m.getRepository(User).create({ email: input.email, name: input.name, passwordHash, emailConfirmedAt: null }))
+      const created = await m
+        .getRepository(User)
+        .save(m.getRepository(User).create({ email: input.email, name: input.name, passwordHash, emailConfirmedAt: null }))
       const ws = await m.getRepository(Workspace).save(m.getRepository(Workspace).create({ name: input.workspaceName ?? `${input.name}'s team` }))
       await m.getRepository(Membership).insert({ workspaceId: ws.id, userId: created.id, role: 'owner' })
       await recordAudit({ workspaceId: ws.id, actorId: created.id, action: 'workspace.created', entityType: 'workspace', entityId: ws.id }, m)
@@ -93,7 +95,9 @@ export async function signUpWithInvitation(input: z.infer<typeof SignUpSchema> &
   if (inv.email !== input.email) throw new ForbiddenError(`This invitation was sent to ${inv.email}; sign up with that address to accept it.`)
   if (await findUserByEmail(input.email)) throw new ConflictError('An account with this e-mail already exists: sign in, then accept the invitation.')
   const passwordHash = await hashPassword(input.password)
-  const user = await dataSource.getRepository(User).save(dataSource.getRepository(User).create({ email: input.email, name: input.name, passwordHash, emailConfirmedAt: new Date() }))
+  const user = await dataSource
+    .getRepository(User)
+    .save(dataSource.getRepository(User).create({ email: input.email, name: input.name, passwordHash, emailConfirmedAt: new Date() }))
   await acceptInvitation(input.invitation, user)
   return user
 }
@@ -107,7 +111,11 @@ export async function mailConfirmationLink(user: User): Promise<void> {
   })
   const url = `${config().origin}/confirm-email?token=${encodeURIComponent(token)}`
   const body = composeMail(
-    [`Hello ${user.name},`, 'Please confirm that this is your e-mail address for Lampwright. The link works once, for 48 hours.', 'If you did not create an account, ignore this message.'],
+    [
+      `Hello ${user.name},`,
+      'Please confirm that this is your e-mail address for Lampwright. The link works once, for 48 hours.',
+      'If you did not create an account, ignore this message.',
+    ],
     { label: 'Confirm my e-mail address', url },
   )
   await sendMail({ to: user.email, subject: 'Confirm your e-mail address for Lampwright', ...body }, { kind: 'account', workspaceId: null })
@@ -115,7 +123,11 @@ export async function mailConfirmationLink(user: User): Promise<void> {
 
 async function mailSignUpNotice(user: User): Promise<void> {
   const body = composeMail(
-    [`Hello ${user.name},`, 'Someone tried to create a Lampwright account with this e-mail address, which already has one. No new account was made.', 'If it was you, sign in; if you have forgotten your password, ask for a reset link.'],
+    [
+      `Hello ${user.name},`,
+      'Someone tried to create a Lampwright account with this e-mail address, which already has one. No new account was made.',
+      'If it was you, sign in; if you have forgotten your password, ask for a reset link.',
+    ],
     { label: 'Reset my password', url: `${config().origin}/forgot-password` },
   )
   await sendMail({ to: user.email, subject: 'Your Lampwright account', ...body }, { kind: 'account', workspaceId: null })
@@ -125,12 +137,17 @@ async function mailSignUpNotice(user: User): Promise<void> {
 export async function confirmEmail(token: string): Promise<void> {
   const repo = dataSource.getRepository(EmailConfirmation)
   const row = await repo.findOne({ where: { tokenHash: hashToken(token) } })
-  if (!row) throw new BadRequestError('This confirmation link is not valid (a newer link may have replaced it). Sign in to get a new one.', [{ path: 'token', message: 'is not valid' }])
+  if (!row)
+    throw new BadRequestError('This confirmation link is not valid (a newer link may have replaced it). Sign in to get a new one.', [
+      { path: 'token', message: 'is not valid' },
+    ])
   if (row.usedAt) throw new BadRequestError('This confirmation link has already been used. Sign in.', [{ path: 'token', message: 'has already been used' }])
-  if (row.expiresAt.getTime() < Date.now()) throw new BadRequestError('This confirmation link has expired. Sign in to get a new one.', [{ path: 'token', message: 'has expired' }])
+  if (row.expiresAt.getTime() < Date.now())
+    throw new BadRequestError('This confirmation link has expired. Sign in to get a new one.', [{ path: 'token', message: 'has expired' }])
   await dataSource.transaction(async (m) => {
     const spent = await m.getRepository(EmailConfirmation).update({ id: row.id, usedAt: IsNull() }, { usedAt: new Date() })
-    if (!spent.affected) throw new BadRequestError('This confirmation link has already been used. Sign in.', [{ path: 'token', message: 'has already been used' }])
+    if (!spent.affected)
+      throw new BadRequestError('This confirmation link has already been used. Sign in.', [{ path: 'token', message: 'has already been used' }])
     await m.query('UPDATE users SET email_confirmed_at = now() WHERE id = $1 AND email_confirmed_at IS NULL', [row.userId])
     await recordAudit({ workspaceId: null, actorId: row.userId, action: 'user.email-confirmed', entityType: 'user', entityId: row.userId }, m)
   })
@@ -149,7 +166,11 @@ export async function requestPasswordReset(email: string): Promise<void> {
   })
   const url = `${config().origin}/reset-password?token=${encodeURIComponent(token)}`
   const body = composeMail(
-    [`Hello ${user.name},`, 'Someone asked to reset the password of your Lampwright account. The link below works once, for one hour.', 'If it was not you, ignore this message: your password stays as it is.'],
+    [
+      `Hello ${user.name},`,
+      'Someone asked to reset the password of your Lampwright account. The link below works once, for one hour.',
+      'If it was not you, ignore this message: your password stays as it is.',
+    ],
     { label: 'Choose a new password', url },
   )
   await sendMail({ to: user.email, subject: 'Reset your Lampwright password', ...body }, { kind: 'account', workspaceId: null })
@@ -158,16 +179,22 @@ export async function requestPasswordReset(email: string): Promise<void> {
 export async function resetPassword(token: string, password: string): Promise<void> {
   const repo = dataSource.getRepository(PasswordReset)
   const reset = await repo.findOne({ where: { tokenHash: hashToken(token) } })
-  if (!reset) throw new BadRequestError('This reset link is not valid (a newer link may have replaced it). Ask for a new one.', [{ path: 'token', message: 'is not valid' }])
-  if (reset.usedAt) throw new BadRequestError('This reset link has already been used. Ask for a new one.', [{ path: 'token', message: 'has already been used' }])
-  if (reset.expiresAt.getTime() < Date.now()) throw new BadRequestError('This reset link has expired (links last one hour). Ask for a new one.', [{ path: 'token', message: 'has expired' }])
+  if (!reset)
+    throw new BadRequestError('This reset link is not valid (a newer link may have replaced it). Ask for a new one.', [
+      { path: 'token', message: 'is not valid' },
+    ])
+  if (reset.usedAt)
+    throw new BadRequestError('This reset link has already been used. Ask for a new one.', [{ path: 'token', message: 'has already been used' }])
+  if (reset.expiresAt.getTime() < Date.now())
+    throw new BadRequestError('This reset link has expired (links last one hour). Ask for a new one.', [{ path: 'token', message: 'has expired' }])
   const user = await findUserById(reset.userId)
   if (!user) throw new BadRequestError('This reset link is not valid.', [{ path: 'token', message: 'is not valid' }])
   const passwordHash = await hashPassword(password)
   await dataSource.transaction(async (m) => {
     // Spend the token atomically, so two concurrent uses cannot both succeed.
     const spent = await m.getRepository(PasswordReset).update({ id: reset.id, usedAt: IsNull(), expiresAt: MoreThan(new Date()) }, { usedAt: new Date() })
-    if (!spent.affected) throw new BadRequestError('This reset link has already been used. Ask for a new one.', [{ path: 'token', message: 'has already been used' }])
+    if (!spent.affected)
+      throw new BadRequestError('This reset link has already been used. Ask for a new one.', [{ path: 'token', message: 'has already been used' }])
     // Every other link of this user is void once one has been used.
     await m.query('DELETE FROM password_resets WHERE user_id = $1 AND used_at IS NULL', [user.id])
     // A reset link reached the mailbox, so it also confirms the address.

@@ -41,7 +41,9 @@ export function signInGate(accountWindowMs: number, limits: Limits): RequestHand
 
   async function gate(req: Request, res: Response): Promise<void> {
     const address = clientAddress(req)
-    const email = String((req.body as { email?: unknown } | undefined)?.email ?? '').trim().toLowerCase()
+    const email = String((req.body as { email?: unknown } | undefined)?.email ?? '')
+      .trim()
+      .toLowerCase()
     const accountKey = `${address}|${email}`
     const account = await count('sign-in', accountKey, perAccount)
     const wide = await count('sign-in-address', address, perAddress)

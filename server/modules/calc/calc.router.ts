@@ -21,12 +21,27 @@ export const ToolInputBody = z.unknown()
 // Calculations touch no account or workspace data: API tokens may use them.
 export const calcRoutes: RouteSpec[] = [
   defineRoute({
-    method: 'get', path: '/api/calc', response: ToolListAnswer, access: 'signed-in', tokens: true, scope: 'calc', summary: 'The engine tools',
+    method: 'get',
+    path: '/api/calc',
+    response: ToolListAnswer,
+    access: 'signed-in',
+    tokens: true,
+    scope: 'calc',
+    summary: 'The engine tools',
     handler: () => ({ engineVersion: ENGINE_VERSION, tools: Object.values(tools).map((t) => ({ name: t.name, summary: t.summary })) }),
   }),
   defineRoute({
-    method: 'post', path: '/api/calc/:tool', response: ToolRunAnswer, access: 'signed-in', tokens: true, scope: 'calc', summary: 'Run an engine tool (size, charge, compare, …); ?working=false leaves out the working steps',
-    params: ToolParams, notFound: (raw) => `The engine tool "${raw.tool}"`, query: CalcQuerySchema, body: ToolInputBody,
+    method: 'post',
+    path: '/api/calc/:tool',
+    response: ToolRunAnswer,
+    access: 'signed-in',
+    tokens: true,
+    scope: 'calc',
+    summary: 'Run an engine tool (size, charge, compare, …); ?working=false leaves out the working steps',
+    params: ToolParams,
+    notFound: (raw) => `The engine tool "${raw.tool}"`,
+    query: CalcQuerySchema,
+    body: ToolInputBody,
     handler: ({ params, query, body }) => {
       const name = params.tool
       const tool = tools[name]

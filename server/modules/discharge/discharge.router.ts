@@ -3,13 +3,18 @@ import { AnalyseAnswer, LogComparisonAnswer, LogListAnswer, SavedLogAnswer, Uplo
 import fs from 'node:fs'
 import type { NextFunction, Request, Response } from 'express'
 import multer from 'multer'
-import { DischargeAnalyseSchema, DischargeCompareQuerySchema, DischargeListQuerySchema, DischargeTextUploadSchema, MAX_LOG_BYTES } from '../../../shared/schemas/discharge-log.schema'
+import {
+  DischargeAnalyseSchema,
+  DischargeCompareQuerySchema,
+  DischargeListQuerySchema,
+  DischargeTextUploadSchema,
+  MAX_LOG_BYTES,
+} from '../../../shared/schemas/discharge-log.schema'
 import { AppError } from '../../errors/app-error'
 import { IdParams } from '../../lib/parse'
 import { defineRoute, scope, type RouteSpec } from '../../policy/access'
 import { assertRoomFor } from '../storage/storage.service'
 import * as service from './discharge.service'
-
 
 // Straight to the staging folder on disk: a 50 MB log never sits in memory whole.
 const upload = multer({
@@ -41,7 +46,14 @@ async function receive(req: Request, res: Response, next: NextFunction) {
   }
   upload.single('file')(req, res, (err: unknown) => {
     if ((err as { code?: string } | undefined)?.code === 'LIMIT_FILE_SIZE') {
-      next(new AppError(413, 'too_large', `The file is larger than ${LIMIT_MB} MB, the most a discharge log may be. Log less often (every few seconds is plenty for a 3 h test) or split the file.`, [{ path: 'file', message: `is larger than ${LIMIT_MB} MB` }]))
+      next(
+        new AppError(
+          413,
+          'too_large',
+          `The file is larger than ${LIMIT_MB} MB, the most a discharge log may be. Log less often (every few seconds is plenty for a 3 h test) or split the file.`,
+          [{ path: 'file', message: `is larger than ${LIMIT_MB} MB` }],
+        ),
+      )
       return
     }
     next(err as Error | undefined)
@@ -54,9 +66,16 @@ const WHAT = 'That discharge log'
 // record or an issued sheet) is left to designers, like the other records a sheet rests on.
 export const dischargeRoutes: RouteSpec[] = [
   defineRoute({
-    method: 'post', path: '/api/discharge/uploads', response: UploadPreviewAnswer, access: 'technician', upload: true, tags: ['discharge'],
+    method: 'post',
+    path: '/api/discharge/uploads',
+    response: UploadPreviewAnswer,
+    access: 'technician',
+    upload: true,
+    tags: ['discharge'],
     summary: `Upload a discharge log (CSV or TSV, multipart field "file", at most ${LIMIT_MB} MB; or JSON { name, text }): staged, answered with a preview and column guesses`,
-    before: [receive], body: DischargeTextUploadSchema, status: 201,
+    before: [receive],
+    body: DischargeTextUploadSchema,
+    status: 201,
     handler: ({ body, file }, req) => {
       const s = scope(req)
       if (file) return service.stageUpload(s.workspaceId, s.userId, file.path, file.originalname)
@@ -66,7 +85,12 @@ export const dischargeRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'post', path: '/api/discharge/logs', response: AnalyseAnswer, access: 'technician', body: DischargeAnalyseSchema, tags: ['discharge'],
+    method: 'post',
+    path: '/api/discharge/logs',
+    response: AnalyseAnswer,
+    access: 'technician',
+    body: DischargeAnalyseSchema,
+    tags: ['discharge'],
     summary: 'Analyse an upload (or a stored file) with a column mapping; dryRun answers without storing, otherwise the file and the log are saved',
     handler: async ({ body }, req, res) => {
       const s = scope(req)
@@ -76,17 +100,35 @@ export const dischargeRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'get', path: '/api/discharge/logs', response: LogListAnswer, access: 'viewer', query: DischargeListQuerySchema, tags: ['discharge'], summary: 'Discharge logs, newest first (by sheet, test record or luminaire)',
+    method: 'get',
+    path: '/api/discharge/logs',
+    response: LogListAnswer,
+    access: 'viewer',
+    query: DischargeListQuerySchema,
+    tags: ['discharge'],
+    summary: 'Discharge logs, newest first (by sheet, test record or luminaire)',
     handler: ({ query }, req) => service.listLogs(scope(req).workspaceId, query),
   }),
   defineRoute({
-    method: 'get', path: '/api/discharge/logs/:id', response: SavedLogAnswer, access: 'viewer', tags: ['discharge'], summary: 'One discharge log with its summary, working and down-sampled curve',
-    params: IdParams, notFound: WHAT,
+    method: 'get',
+    path: '/api/discharge/logs/:id',
+    response: SavedLogAnswer,
+    access: 'viewer',
+    tags: ['discharge'],
+    summary: 'One discharge log with its summary, working and down-sampled curve',
+    params: IdParams,
+    notFound: WHAT,
     handler: ({ params }, req) => service.getLog(scope(req).workspaceId, params.id),
   }),
   defineRoute({
-    method: 'delete', path: '/api/discharge/logs/:id', access: 'designer', tags: ['discharge'], summary: 'Delete a discharge log (its file goes with its last log; the trail keeps a record)',
-    params: IdParams, notFound: WHAT, produces: 'none',
+    method: 'delete',
+    path: '/api/discharge/logs/:id',
+    access: 'designer',
+    tags: ['discharge'],
+    summary: 'Delete a discharge log (its file goes with its last log; the trail keeps a record)',
+    params: IdParams,
+    notFound: WHAT,
+    produces: 'none',
     handler: async ({ params }, req, res) => {
       const s = scope(req)
       await service.deleteLog(s.workspaceId, s.userId, params.id)
@@ -94,9 +136,16 @@ export const dischargeRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'get', path: '/api/discharge/compare', response: LogComparisonAnswer, access: 'viewer', tags: ['discharge'], summary: 'Two discharge logs side by side (?a=&b=), with the change from a to b',
+    method: 'get',
+    path: '/api/discharge/compare',
+    response: LogComparisonAnswer,
+    access: 'viewer',
+    tags: ['discharge'],
+    summary: 'Two discharge logs side by side (?a=&b=), with the change from a to b',
     // Ids that are not ids read like missing logs.
-    query: DischargeCompareQuerySchema, invalid: { query: 404 }, notFound: WHAT,
+    query: DischargeCompareQuerySchema,
+    invalid: { query: 404 },
+    notFound: WHAT,
     handler: ({ query }, req) => service.compareLogs(scope(req).workspaceId, query.a, query.b),
   }),
 ]

@@ -7,210 +7,25 @@
  * against the workspace's storage quota until saved or expired. Every query is scoped by
  * workspace; another workspace's ids read as missing.
  */
-import crypto from 'node:crypto'
 import fs from 'node:fs'
-import path from 'node:path'
 import { Readable } from 'node:stream'
 import { In, type EntityManager } from 'typeorm'
-import { analyseDischarge, type DischargeResult } from '../../../shared/engine/discharge'
-import { splitLine } from '../../../shared/engine/discharge-log'
-import { lttbIndices } from '../../../shared/engine/lttb'
+import type { DischargeResult } from '../../../shared/engine/discharge'
 import { ENGINE_VERSION } from '../../../shared/engine/version'
-import { CURVE_POINTS, engineOptions, type ColumnMapping, type DischargeAnalyse, type DischargeListQuery } from '../../../shared/schemas/discharge-log.schema'
+import type { DischargeAnalyse, DischargeListQuery } from '../../../shared/schemas/discharge-log.schema'
 import { runtimeMismatch } from '../../../shared/schemas/test-record.schema'
-import { config } from '../../config'
 import { dataSource } from '../../data-source'
-import { AppError, BadRequestError, NotFoundError } from '../../errors/app-error'
+import { BadRequestError, NotFoundError } from '../../errors/app-error'
 import { recordAudit } from '../audit/audit.service'
-import { admitBytes } from '../storage/storage.service'
 import { User } from '../users/user.entity'
 import { DischargeFile } from './discharge-file.entity'
 import { DischargeLog } from './discharge-log.entity'
-import { fingerprint, lookAtSample, parseLog, type BadRow } from './log-parser'
+import { analyseStream, readStaged, removeStagedFile, sampleOf, type StagedUpload } from './discharge-staging'
 
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/
+export { analyseStream, newStagingPath, stageUpload, stagingDir, sweepStagedUploads, type Analysis, type Curve, type ReadReport } from './discharge-staging'
 
 const logs = (m: EntityManager = dataSource.manager) => m.getRepository(DischargeLog)
 const files = (m: EntityManager = dataSource.manager) => m.getRepository(DischargeFile)
-
-/** The folder every app process stages uploads in (shared: any process may save what another received). */
-export function stagingDir(): string {
-  const dir = path.join(config().dataDir, 'discharge-uploads')
-  fs.mkdirSync(dir, { recursive: true, mode: 0o700 })
-  return dir
-}
-
-interface StagedUpload {
-  id: string
-  workspaceId: string
-  originalName: string
-  sha256: string
-  size: number
-  expiresAt: Date
-}
-
-const stagedFile = (uploadId: string) => path.join(stagingDir(), `${uploadId}.upload`)
-
-function removeStagedFile(uploadId: string) {
-  fs.rmSync(stagedFile(uploadId), { force: true })
-}
-
-const NOT_STAGED = 'That upload (uploads wait an hour to be saved; upload the file again)'
-
-/**
- * Removes uploads nobody saved within the hour: their rows, their files, and files no row claims
- * (an upload cut off half-way). Runs on each upload and every few minutes in each process; two
- * processes sweeping at once each delete what they find.
- */
-export async function sweepStagedUploads(now = Date.now()): Promise<number> {
-  // TypeORM answers a DELETE … RETURNING with [rows, count].
-  const [expired] = (await dataSource.query('DELETE FROM staged_uploads WHERE expires_at <= now() RETURNING id', [])) as [Array<{ id: string }>, number]
-  for (const r of expired) removeStagedFile(r.id)
-  const dir = stagingDir()
-  const old: string[] = []
-  for (const name of fs.readdirSync(dir)) {
-    try {
-      if (now - fs.statSync(path.join(dir, name)).mtimeMs > config().storage.stagedForMs) old.push(name)
-    } catch {
-      // Another process removed it first.
-    }
-  }
-  const ids = old.map((n) => n.replace(/\.upload$/, '')).filter((id) => UUID.test(id))
-  const claimed = new Set(ids.length ? ((await dataSource.query('SELECT id FROM staged_uploads WHERE id = ANY($1::uuid[])', [ids])) as Array<{ id: string }>).map((r) => r.id) : [])
-  for (const name of old) if (!claimed.has(name.replace(/\.upload$/, ''))) fs.rmSync(path.join(dir, name), { force: true })
-  return expired.length
-}
-
-/** A new staging path for an upload written by the caller (multer or a JSON body). */
-export function newStagingPath(): { uploadId: string; file: string } {
-  const uploadId = crypto.randomUUID()
-  return { uploadId, file: stagedFile(uploadId) }
-}
-
-/** Checks a file just written to the staging folder and answers with a preview; refused files are removed. */
-export async function stageUpload(workspaceId: string, userId: string, file: string, originalName: string) {
-  const uploadId = path.basename(file).replace(/\.upload$/, '')
-  try {
-    await sweepStagedUploads()
-    const { sha256, size, sample } = await fingerprint(file)
-    const look = lookAtSample(sample, size <= sample.length)
-    const name = originalName.slice(0, 200)
-    const expiresAt = new Date(Date.now() + config().storage.stagedForMs)
-    await dataSource.transaction(async (m) => {
-      await admitBytes(m, workspaceId, size, { staged: true })
-      await m.query('INSERT INTO staged_uploads (id, workspace_id, user_id, original_name, sha256, size, expires_at) VALUES ($1, $2, $3, $4, $5, $6, $7)', [uploadId, workspaceId, userId, name, sha256, size, expiresAt])
-    })
-    const stored = await files().findOne({ where: { workspaceId, sha256 }, select: { id: true } })
-    return {
-      uploadId,
-      sha256,
-      size,
-      name,
-      /** Save it before then; an upload nobody saves is deleted after an hour. */
-      expiresAt: expiresAt.toISOString(),
-      /** The same file is already stored in this workspace (it will not be stored twice). */
-      storedFileId: stored?.id ?? null,
-      delimiter: look.delimiter,
-      decimal: look.decimal,
-      header: look.header,
-      firstLine: look.firstLine,
-      columns: look.columns,
-      preview: look.rows,
-      guess: look.guess,
-    }
-  } catch (err) {
-    removeStagedFile(uploadId)
-    throw err
-  }
-}
-
-async function readStaged(workspaceId: string, uploadId: string): Promise<{ meta: StagedUpload; file: string }> {
-  if (!UUID.test(uploadId)) throw new NotFoundError(NOT_STAGED)
-  const rows: Array<{ id: string; original_name: string; sha256: string; size: string; expires_at: Date }> = await dataSource.query(
-    'SELECT id, original_name, sha256, size, expires_at FROM staged_uploads WHERE id = $1 AND workspace_id = $2 AND expires_at > now()',
-    [uploadId, workspaceId],
-  )
-  const file = stagedFile(uploadId)
-  if (!rows.length || !fs.existsSync(file)) throw new NotFoundError(NOT_STAGED)
-  const r = rows[0]
-  return { meta: { id: r.id, workspaceId, originalName: r.original_name, sha256: r.sha256, size: Number(r.size), expiresAt: r.expires_at }, file }
-}
-
-/** Column names for the mapping's header line, from the first bytes of the file. */
-function columnNames(sample: Buffer, mapping: ColumnMapping): string[] {
-  const lines = sample.toString('utf8').replace(/^\uFEFF/, '').split(/\r\n|\n|\r/)
-  const line = lines[mapping.firstLine - 1] ?? ''
-  const cells = splitLine(line, mapping.delimiter)
-  return cells.map((c, k) => (mapping.header ? c.trim() || `Column ${k + 1}` : `Column ${k + 1}`))
-}
-
-export interface Curve {
-  tH: number[]
-  v: number[]
-  i: number[] | null
-}
-
-const round = (x: number, digits: number) => Number(x.toFixed(digits))
-
-/** The curve for plotting: at most CURVE_POINTS points, chosen by LTTB on the voltage. */
-function downSample(t: Float64Array, v: Float64Array, i: Float64Array | undefined): Curve {
-  const keep = lttbIndices(t, v, Math.min(CURVE_POINTS, t.length))
-  const t0 = t[0]
-  const tH: number[] = []
-  const vs: number[] = []
-  const is: number[] | null = i ? [] : null
-  for (const k of keep) {
-    tH.push(round((t[k] - t0) / 3600, 6))
-    vs.push(round(v[k], 5))
-    if (is && i) is.push(round(i[k], 5))
-  }
-  return { tH, v: vs, i: is }
-}
-
-export interface ReadReport {
-  rows: number
-  badRows: { count: number; items: BadRow[] }
-  currentInverted: boolean
-}
-
-export interface Analysis {
-  result: DischargeResult
-  curve: Curve
-  read: ReadReport
-  columns: string[]
-}
-
-/** Parses a file stream with the mapping and runs the engine; bad rows stop it unless accepted. */
-export async function analyseStream(input: Readable, sample: Buffer, size: number, body: Pick<DischargeAnalyse, 'mapping' | 'options' | 'acceptBadRows'>): Promise<Analysis> {
-  const columns = columnNames(sample, body.mapping)
-  const sampleLines = sample.toString('latin1').split('\n').length - 1
-  const parsed = await parseLog(input, body.mapping, columns, size, sampleLines > 0 ? sample.length / sampleLines : 12)
-  const read: ReadReport = { rows: parsed.rows, badRows: parsed.badRows, currentInverted: parsed.currentInverted }
-  if (parsed.badRows.count > 0 && !body.acceptBadRows) {
-    const first = parsed.badRows.items[0]
-    throw new AppError(
-      422,
-      'bad_rows',
-      `${parsed.badRows.count} row(s) could not be read; the first is row ${first.row}, column "${first.column}": "${first.value}" ${first.reason}. Fix the file or the mapping, or go on without ${parsed.badRows.count === 1 ? 'it' : 'them'}.`,
-      parsed.badRows.items.map((b) => ({ path: `row ${b.row}, ${b.column}`, message: `"${b.value}" ${b.reason}` })),
-      { badRows: parsed.badRows, rows: parsed.rows + parsed.badRows.count },
-    )
-  }
-  const outcome = analyseDischarge({ t: parsed.t, v: parsed.v, i: parsed.i }, engineOptions(body.options))
-  if (!outcome.ok) throw new BadRequestError('The log could not be analysed.', outcome.fields.map((f) => ({ path: f.path, message: f.message })))
-  return { result: outcome.result, curve: downSample(parsed.t, parsed.v, parsed.i), read, columns }
-}
-
-async function sampleOf(file: string): Promise<Buffer> {
-  const handle = await fs.promises.open(file, 'r')
-  try {
-    const buf = Buffer.alloc(64 * 1024)
-    const { bytesRead } = await handle.read(buf, 0, buf.length, 0)
-    return buf.subarray(0, bytesRead)
-  } finally {
-    await handle.close()
-  }
-}
 
 // ---------------------------------------------------------------------------------------------
 // Links and views
@@ -221,7 +36,9 @@ async function checkLinks(m: EntityManager, workspaceId: string, v: { testRecord
   const rows: Array<{ kind: string }> = await m.query('SELECT kind FROM test_records WHERE id = $1 AND workspace_id = $2', [v.testRecordId, workspaceId])
   if (!rows.length) throw new NotFoundError('That test record')
   if (rows[0].kind !== 'duration') {
-    throw new BadRequestError('A log can only be attached to a full-duration test.', [{ path: 'testRecordId', message: 'is a functional test; attach a discharge log to a full-duration test' }])
+    throw new BadRequestError('A log can only be attached to a full-duration test.', [
+      { path: 'testRecordId', message: 'is a functional test; attach a discharge log to a full-duration test' },
+    ])
   }
 }
 
@@ -236,7 +53,9 @@ async function linksOf(rows: DischargeLog[], m: EntityManager = dataSource.manag
   const testIds = [...new Set(rows.map((r) => r.testRecordId).filter((x): x is string => !!x))]
   const sheets = new Map<string, { id: string; title: string }>()
   const tests = new Map<string, Links['testRecord']>()
-  if (sheetIds.length) for (const s of (await m.query('SELECT id, title FROM spec_sheets WHERE id = ANY($1::uuid[])', [sheetIds])) as Array<{ id: string; title: string }>) sheets.set(s.id, s)
+  if (sheetIds.length)
+    for (const s of (await m.query('SELECT id, title FROM spec_sheets WHERE id = ANY($1::uuid[])', [sheetIds])) as Array<{ id: string; title: string }>)
+      sheets.set(s.id, s)
   if (testIds.length) {
     const found: Array<{ id: string; tested_on: string; luminaire_id: string; tag: string }> = await m.query(
       `SELECT t.id, to_char(t.tested_on, 'YYYY-MM-DD') AS tested_on, t.luminaire_id, l.tag FROM test_records t JOIN luminaires l ON l.id = t.luminaire_id WHERE t.id = ANY($1::uuid[])`,
@@ -247,7 +66,12 @@ async function linksOf(rows: DischargeLog[], m: EntityManager = dataSource.manag
   const luminaireIds = [...new Set(rows.map((r) => r.luminaireId).filter((x): x is string => !!x))]
   const luminaires = new Map<string, { id: string; tag: string; siteId: string }>()
   if (luminaireIds.length) {
-    for (const l of (await m.query('SELECT id, tag, site_id AS "siteId" FROM luminaires WHERE id = ANY($1::uuid[])', [luminaireIds])) as Array<{ id: string; tag: string; siteId: string }>) luminaires.set(l.id, l)
+    for (const l of (await m.query('SELECT id, tag, site_id AS "siteId" FROM luminaires WHERE id = ANY($1::uuid[])', [luminaireIds])) as Array<{
+      id: string
+      tag: string
+      siteId: string
+    }>)
+      luminaires.set(l.id, l)
   }
   return new Map(
     rows.map((r) => [
@@ -326,25 +150,44 @@ async function recordTarget(m: EntityManager, workspaceId: string, body: Dischar
       [body.testRecordId, workspaceId],
     )
     const row = rows[0]
-    if (luminaireId && row.luminaire_id !== luminaireId) throw new BadRequestError('The log and the test record name different luminaires.', [{ path: 'luminaireId', message: 'is not the luminaire of that test record' }])
+    if (luminaireId && row.luminaire_id !== luminaireId)
+      throw new BadRequestError('The log and the test record name different luminaires.', [
+        { path: 'luminaireId', message: 'is not the luminaire of that test record' },
+      ])
     luminaireId = row.luminaire_id
     record = { id: row.id, achievedH: row.achieved_duration_h, faults: row.faults }
   }
   if (!luminaireId) return null
-  const found: Array<{ rated_duration_h: number }> = await m.query('SELECT rated_duration_h FROM luminaires WHERE id = $1 AND workspace_id = $2', [luminaireId, workspaceId])
-  if (!found.length) throw new BadRequestError('The luminaire was not found in this workspace.', [{ path: 'luminaireId', message: 'is not a luminaire of this workspace' }])
+  const found: Array<{ rated_duration_h: number }> = await m.query('SELECT rated_duration_h FROM luminaires WHERE id = $1 AND workspace_id = $2', [
+    luminaireId,
+    workspaceId,
+  ])
+  if (!found.length)
+    throw new BadRequestError('The luminaire was not found in this workspace.', [{ path: 'luminaireId', message: 'is not a luminaire of this workspace' }])
   if (r.pass === null) {
     throw new BadRequestError('The log stops before both the rated duration and the cut-off, so it cannot decide a full-duration test.', [
-      { path: record ? 'testRecordId' : 'luminaireId', message: 'the log is too short to record a pass or fail; save it without a luminaire or log the whole test' },
+      {
+        path: record ? 'testRecordId' : 'luminaireId',
+        message: 'the log is too short to record a pass or fail; save it without a luminaire or log the whole test',
+      },
     ])
   }
   const mismatch = record ? runtimeMismatch(record.achievedH, r.runtimeH) : null
-  if (mismatch && !body.runtimeNote) throw new BadRequestError(`The runtime typed in the test record and the log disagree: ${mismatch}.`, [{ path: 'runtimeNote', message: mismatch }])
+  if (mismatch && !body.runtimeNote)
+    throw new BadRequestError(`The runtime typed in the test record and the log disagree: ${mismatch}.`, [{ path: 'runtimeNote', message: mismatch }])
   return { luminaireId, ratedDurationH: found[0].rated_duration_h, record, mismatch }
 }
 
 /** Records the full-duration test from the log (runtime, verdict, day), or updates the attached record; returns its id. */
-async function recordFromLog(m: EntityManager, workspaceId: string, userId: string, logId: string, target: RecordTarget, r: DischargeResult, body: DischargeAnalyse): Promise<string> {
+async function recordFromLog(
+  m: EntityManager,
+  workspaceId: string,
+  userId: string,
+  logId: string,
+  target: RecordTarget,
+  r: DischargeResult,
+  body: DischargeAnalyse,
+): Promise<string> {
   const passed = r.pass === true
   const shortfall = `Stayed lit ${hoursText(r.runtimeH)} h of the rated ${hoursText(target.ratedDurationH)} h (discharge log)`
   if (target.record) {
@@ -355,7 +198,17 @@ async function recordFromLog(m: EntityManager, workspaceId: string, userId: stri
         WHERE id = $6 AND workspace_id = $7`,
       [logId, r.runtimeH, passed, faults, note, target.record.id, workspaceId],
     )
-    await recordAudit({ workspaceId, actorId: userId, action: 'test.updated', entityType: 'test', entityId: target.record.id, data: { fromDischargeLog: logId, achievedDurationH: r.runtimeH, passed, runtimeNote: note } }, m)
+    await recordAudit(
+      {
+        workspaceId,
+        actorId: userId,
+        action: 'test.updated',
+        entityType: 'test',
+        entityId: target.record.id,
+        data: { fromDischargeLog: logId, achievedDurationH: r.runtimeH, passed, runtimeNote: note },
+      },
+      m,
+    )
     return target.record.id
   }
   const testedOn = body.testedOn ?? new Date().toISOString().slice(0, 10)
@@ -364,7 +217,17 @@ async function recordFromLog(m: EntityManager, workspaceId: string, userId: stri
      VALUES ($1, $2, gen_random_uuid(), 'duration', $3, $4, $5, $6, $7, $8) RETURNING id`,
     [workspaceId, target.luminaireId, testedOn, passed, r.runtimeH, passed ? '' : shortfall, logId, userId],
   )
-  await recordAudit({ workspaceId, actorId: userId, action: 'test.recorded', entityType: 'test', entityId: rows[0].id, data: { luminaireId: target.luminaireId, kind: 'duration', testedOn, passed, achievedDurationH: r.runtimeH, fromDischargeLog: logId } }, m)
+  await recordAudit(
+    {
+      workspaceId,
+      actorId: userId,
+      action: 'test.recorded',
+      entityType: 'test',
+      entityId: rows[0].id,
+      data: { luminaireId: target.luminaireId, kind: 'duration', testedOn, passed, achievedDurationH: r.runtimeH, fromDischargeLog: logId },
+    },
+    m,
+  )
   return rows[0].id
 }
 
@@ -383,7 +246,11 @@ export async function analyseAndMaybeSave(workspaceId: string, userId: string, b
     sample = await sampleOf(staged.file)
     input = fs.createReadStream(staged.file, { highWaterMark: 64 * 1024 })
   } else {
-    const row = await files().createQueryBuilder('f').addSelect('f.bytes').where('f.id = :id AND f.workspace_id = :workspaceId', { id: body.fileId, workspaceId }).getOne()
+    const row = await files()
+      .createQueryBuilder('f')
+      .addSelect('f.bytes')
+      .where('f.id = :id AND f.workspace_id = :workspaceId', { id: body.fileId, workspaceId })
+      .getOne()
     if (!row) throw new NotFoundError('That stored log file')
     storedFileId = row.id
     size = row.size
@@ -439,7 +306,17 @@ export async function analyseAndMaybeSave(workspaceId: string, userId: string, b
         action: 'discharge-log.saved',
         entityType: 'discharge_log',
         entityId: log.id,
-        data: { title: log.title, fileId, runtimeH: r.runtimeH, pass: r.pass, deliveredAh: r.deliveredAh, badRows: analysis.read.badRows.count, specSheetId: log.specSheetId, testRecordId: log.testRecordId, luminaireId: log.luminaireId },
+        data: {
+          title: log.title,
+          fileId,
+          runtimeH: r.runtimeH,
+          pass: r.pass,
+          deliveredAh: r.deliveredAh,
+          badRows: analysis.read.badRows.count,
+          specSheetId: log.specSheetId,
+          testRecordId: log.testRecordId,
+          luminaireId: log.luminaireId,
+        },
       },
       m,
     )
@@ -470,9 +347,19 @@ export async function deleteLog(workspaceId: string, userId: string, id: string)
     const log = await findLog(workspaceId, id, m)
     await logs(m).delete({ id: log.id, workspaceId })
     // The raw file goes with its last log.
-    await m.query('DELETE FROM discharge_files f WHERE f.id = $1 AND f.workspace_id = $2 AND NOT EXISTS (SELECT 1 FROM discharge_logs d WHERE d.file_id = f.id)', [log.fileId, workspaceId])
+    await m.query(
+      'DELETE FROM discharge_files f WHERE f.id = $1 AND f.workspace_id = $2 AND NOT EXISTS (SELECT 1 FROM discharge_logs d WHERE d.file_id = f.id)',
+      [log.fileId, workspaceId],
+    )
     await recordAudit(
-      { workspaceId, actorId: userId, action: 'discharge-log.deleted', entityType: 'discharge_log', entityId: log.id, data: { title: log.title, options: log.options, mapping: log.mapping, specSheetId: log.specSheetId, testRecordId: log.testRecordId } },
+      {
+        workspaceId,
+        actorId: userId,
+        action: 'discharge-log.deleted',
+        entityType: 'discharge_log',
+        entityId: log.id,
+        data: { title: log.title, options: log.options, mapping: log.mapping, specSheetId: log.specSheetId, testRecordId: log.testRecordId },
+      },
       m,
     )
   })

@@ -8,7 +8,16 @@ import crypto from 'node:crypto'
 import fs from 'node:fs'
 import type { Readable } from 'node:stream'
 import Papa from 'papaparse'
-import { CURRENT_UNITS, detectDialect, guessMapping, parseNumberCell, timeCellParser, VOLTAGE_UNITS, type Dialect, type MappingGuess } from '../../../shared/engine/discharge-log'
+import {
+  CURRENT_UNITS,
+  detectDialect,
+  guessMapping,
+  parseNumberCell,
+  timeCellParser,
+  VOLTAGE_UNITS,
+  type Dialect,
+  type MappingGuess,
+} from '../../../shared/engine/discharge-log'
 import { LISTED_BAD_ROWS, MAX_BAD_ROW_SHARE, type ColumnMapping } from '../../../shared/schemas/discharge-log.schema'
 import { AppError, BadRequestError } from '../../errors/app-error'
 
@@ -33,17 +42,22 @@ function refuse(message: string, path = 'file'): never {
 
 /** Empty, binary and UTF-16 files are refused before any parsing; otherwise the dialect and a preview. */
 export function lookAtSample(sample: Buffer, wholeFile: boolean): FileLook {
-  if (sample.length === 0 || sample.toString('utf8').trim() === '') refuse('The file is empty: export the log again and upload the file that holds the readings.')
+  if (sample.length === 0 || sample.toString('utf8').trim() === '')
+    refuse('The file is empty: export the log again and upload the file that holds the readings.')
   if ((sample[0] === 0xff && sample[1] === 0xfe) || (sample[0] === 0xfe && sample[1] === 0xff)) {
     refuse('The file is saved as UTF-16 text; save or export it as UTF-8 (or plain) CSV and upload it again.')
   }
   let control = 0
   for (const b of sample) {
-    if (b === 0) refuse('This is not a text file (it holds binary data). Upload the log as CSV or TSV text, not a spreadsheet workbook or the logger’s own format.')
+    if (b === 0)
+      refuse('This is not a text file (it holds binary data). Upload the log as CSV or TSV text, not a spreadsheet workbook or the logger’s own format.')
     if (b < 9 || (b > 13 && b < 32)) control++
   }
   if (control > sample.length * 0.01) refuse('This does not look like a text file. Upload the log as CSV or TSV text.')
-  const lines = sample.toString('utf8').replace(/^\uFEFF/, '').split(/\r\n|\n|\r/)
+  const lines = sample
+    .toString('utf8')
+    .replace(/^\uFEFF/, '')
+    .split(/\r\n|\n|\r/)
   // The sample may end half-way through a line.
   if (!wholeFile && lines.length > 1) lines.pop()
   const dialect = detectDialect(lines.slice(0, 400))

@@ -41,15 +41,28 @@ const ProblemSchema: Json = {
       items: {
         type: 'object',
         required: ['pointer', 'code', 'detail'],
-        properties: { pointer: { type: 'string' }, code: { type: 'string' }, detail: { type: 'string' }, in: { type: 'string', enum: ['body', 'query', 'header'] } },
+        properties: {
+          pointer: { type: 'string' },
+          code: { type: 'string' },
+          detail: { type: 'string' },
+          in: { type: 'string', enum: ['body', 'query', 'header'] },
+        },
       },
     },
     error: { type: 'string', deprecated: true, description: 'The same as `detail` (removed in v2)' },
-    fields: { type: 'array', deprecated: true, description: '`errors` with dotted paths (removed in v2)', items: { type: 'object', properties: { path: { type: 'string' }, message: { type: 'string' } } } },
+    fields: {
+      type: 'array',
+      deprecated: true,
+      description: '`errors` with dotted paths (removed in v2)',
+      items: { type: 'object', properties: { path: { type: 'string' }, message: { type: 'string' } } },
+    },
   },
 }
 
-const errorResponse = (description: string): ResponseConfig => ({ description, content: { 'application/problem+json': { schema: { $ref: '#/components/schemas/Problem' } } } })
+const errorResponse = (description: string): ResponseConfig => ({
+  description,
+  content: { 'application/problem+json': { schema: { $ref: '#/components/schemas/Problem' } } },
+})
 
 /** The body of POST /api/calc/:tool is the input of the tool named in the path. */
 function calcBody(): ZodTypeAny {
@@ -70,7 +83,9 @@ function requestBody(route: RouteSpec): RouteConfig['request'] extends infer R ?
   return {
     required: true,
     content: {
-      'multipart/form-data': { schema: { type: 'object', required: ['file'], properties: { file: { type: 'string', format: 'binary' }, name: { type: 'string' } } } },
+      'multipart/form-data': {
+        schema: { type: 'object', required: ['file'], properties: { file: { type: 'string', format: 'binary' }, name: { type: 'string' } } },
+      },
       'application/json': { schema: json },
     },
   }
@@ -80,7 +95,11 @@ export function buildOpenApi(routes: RouteSpec[]): Json {
   const registry = new OpenAPIRegistry()
   registry.registerComponent('schemas', 'Problem', ProblemSchema)
   registry.registerComponent('securitySchemes', 'session', { type: 'apiKey', in: 'cookie', name: 'lw.sid' })
-  registry.registerComponent('securitySchemes', 'bearer', { type: 'http', scheme: 'bearer', description: 'A personal API token (lw_…) made on the account page.' })
+  registry.registerComponent('securitySchemes', 'bearer', {
+    type: 'http',
+    scheme: 'bearer',
+    description: 'A personal API token (lw_…) made on the account page.',
+  })
 
   for (const route of routes) {
     const oaPath = route.path.replace(/:(\w+)/g, '{$1}')
@@ -103,7 +122,12 @@ export function buildOpenApi(routes: RouteSpec[]): Json {
       responses: {
         [status]: successResponse(route),
         '400': errorResponse('The request is not valid: `errors[]` names each value by its pointer, and an undeclared field or query parameter is refused'),
-        ...(route.access === 'public' ? {} : { '401': errorResponse('Not signed in, or the API token is not valid (WWW-Authenticate: Bearer)'), '403': errorResponse('Your role does not allow this') }),
+        ...(route.access === 'public'
+          ? {}
+          : {
+              '401': errorResponse('Not signed in, or the API token is not valid (WWW-Authenticate: Bearer)'),
+              '403': errorResponse('Your role does not allow this'),
+            }),
         '404': errorResponse('No such record in this workspace'),
         ...(route.body ? { '415': errorResponse('The body is not application/json') } : {}),
       },

@@ -67,10 +67,22 @@ async function gather(workspaceId: string, siteId: string, request: HandoverRequ
   const log = (await siteLogBook(workspaceId, siteId, 100_000)).filter((e) => !e.recordedInErrorAt)
   const workspace = await dataSource.getRepository(Workspace).findOneOrFail({ where: { id: workspaceId } })
   const luminaires = status.luminaires.map((l) => ({
-    tag: l.tag, areaName: l.areaName, location: l.location, typeLabel: l.typeLabel, purpose: l.purpose, mode: l.mode, ratedDurationH: l.ratedDurationH,
-    chemistry: l.chemistry, cellsInSeries: l.cellsInSeries, capacityAh: l.capacityAh, packFittedOn: l.packFittedOn,
+    tag: l.tag,
+    areaName: l.areaName,
+    location: l.location,
+    typeLabel: l.typeLabel,
+    purpose: l.purpose,
+    mode: l.mode,
+    ratedDurationH: l.ratedDurationH,
+    chemistry: l.chemistry,
+    cellsInSeries: l.cellsInSeries,
+    capacityAh: l.capacityAh,
+    packFittedOn: l.packFittedOn,
   }))
-  const typeRows = await typesOf(workspaceId, [...status.luminaires.map((l) => l.luminaireTypeId).filter((x): x is string => !!x), ...request.routes.map((r) => r.typeId)])
+  const typeRows = await typesOf(workspaceId, [
+    ...status.luminaires.map((l) => l.luminaireTypeId).filter((x): x is string => !!x),
+    ...request.routes.map((r) => r.typeId),
+  ])
   const fileIds = typeRows.map((t) => t.photometricFileId).filter((x): x is string => !!x)
   const fileRows = fileIds.length ? await dataSource.getRepository(PhotometricFile).find({ where: { workspaceId, id: In(fileIds) } }) : []
   const filesById = new Map(fileRows.map((f) => [f.id, f]))
@@ -78,12 +90,27 @@ async function gather(workspaceId: string, siteId: string, request: HandoverRequ
     const f = t.photometricFileId ? filesById.get(t.photometricFileId) : undefined
     const peak = f ? peakIntensity(f.parsed) : null
     return {
-      name: t.name, modes: t.modes, ratedDurationS: t.ratedDurationS, chemistry: t.chemistry, cellsInSeries: t.cellsInSeries, capacityAh: t.capacityAh,
-      emergencyPowerW: t.emergencyPowerW, emergencyOutputFactor: t.emergencyOutputFactor,
+      name: t.name,
+      modes: t.modes,
+      ratedDurationS: t.ratedDurationS,
+      chemistry: t.chemistry,
+      cellsInSeries: t.cellsInSeries,
+      capacityAh: t.capacityAh,
+      emergencyPowerW: t.emergencyPowerW,
+      emergencyOutputFactor: t.emergencyOutputFactor,
       luminaires: status.luminaires.filter((l) => l.luminaireTypeId === t.id).length,
-      photometry: f && peak
-        ? { fileName: f.name, edition: f.parsed.header.edition, lampLumens: lampLumens(f.parsed.header), peakIntensityCd: peak.cd, peakAtCDeg: peak.cDeg, peakAtGammaDeg: peak.gammaDeg, inputWatts: f.parsed.header.inputWatts }
-        : null,
+      photometry:
+        f && peak
+          ? {
+              fileName: f.name,
+              edition: f.parsed.header.edition,
+              lampLumens: lampLumens(f.parsed.header),
+              peakIntensityCd: peak.cd,
+              peakAtCDeg: peak.cDeg,
+              peakAtGammaDeg: peak.gammaDeg,
+              inputWatts: f.parsed.header.inputWatts,
+            }
+          : null,
     }
   })
   const candidates = new Map((await candidatesOf(workspaceId, typeRows)).map((c) => [c.id, c]))
@@ -91,15 +118,33 @@ async function gather(workspaceId: string, siteId: string, request: HandoverRequ
     const need = routeNeed(r.route)
     const a = assessType(need, candidates.get(r.typeId)!)
     return {
-      name: r.name, typeName: a.name, criteria: need.criteria, routeLengthM: need.routeLengthM, routeWidthM: need.routeWidthM, mountingHeightM: need.mountingHeightM,
-      ratedDurationS: need.ratedDurationS, maintenanceFactor: need.maintenanceFactor, meets: a.meets, reasons: a.reasons,
-      count: a.layout?.count ?? null, spacingM: a.layout?.spacingM ?? null, endDistanceM: a.layout?.endDistanceM ?? null,
-      minLx: a.layout?.minLx ?? null, averageLx: a.layout?.averageLx ?? null, maxToMin: a.layout?.maxToMin ?? null,
+      name: r.name,
+      typeName: a.name,
+      criteria: need.criteria,
+      routeLengthM: need.routeLengthM,
+      routeWidthM: need.routeWidthM,
+      mountingHeightM: need.mountingHeightM,
+      ratedDurationS: need.ratedDurationS,
+      maintenanceFactor: need.maintenanceFactor,
+      meets: a.meets,
+      reasons: a.reasons,
+      count: a.layout?.count ?? null,
+      spacingM: a.layout?.spacingM ?? null,
+      endDistanceM: a.layout?.endDistanceM ?? null,
+      minLx: a.layout?.minLx ?? null,
+      averageLx: a.layout?.averageLx ?? null,
+      maxToMin: a.layout?.maxToMin ?? null,
     }
   })
   const opening = [...log].sort((a, b) => a.testedOn.localeCompare(b.testedOn) || recordedTime(a) - recordedTime(b)).slice(0, OPENING_ENTRIES)
   return HandoverContentSchema.parse({
-    site: { name: status.site.name, address: status.site.address, responsibleName: status.site.responsibleName, responsibleEmail: status.site.responsibleEmail, regime: status.site.regime },
+    site: {
+      name: status.site.name,
+      address: status.site.address,
+      responsibleName: status.site.responsibleName,
+      responsibleEmail: status.site.responsibleEmail,
+      regime: status.site.regime,
+    },
     firm: workspace.name,
     certificate: { signedByName: request.signedByName, signedOn: request.signedOn, extent: request.extent, deviations: request.deviations },
     luminaires,
@@ -109,7 +154,15 @@ async function gather(workspaceId: string, siteId: string, request: HandoverRequ
     logBook: {
       repairWindowDays: status.settings.repairWindowDays,
       totalEntries: log.length,
-      firstEntries: opening.map((e) => ({ testedOn: e.testedOn, tag: e.tag, kind: e.kind, passed: e.passed, achievedDurationH: e.achievedDurationH, faults: e.faults, recordedByName: e.recordedByName })),
+      firstEntries: opening.map((e) => ({
+        testedOn: e.testedOn,
+        tag: e.tag,
+        kind: e.kind,
+        passed: e.passed,
+        achievedDurationH: e.achievedDurationH,
+        faults: e.faults,
+        recordedByName: e.recordedByName,
+      })),
     },
   })
 }
@@ -123,7 +176,11 @@ async function madeBy(ids: Array<string | null>): Promise<Map<string, string>> {
 
 function summary(p: HandoverPack, names: Map<string, string>) {
   return {
-    id: p.id, siteId: p.siteId, number: p.number, signedByName: p.signedByName, signedOn: p.signedOn,
+    id: p.id,
+    siteId: p.siteId,
+    number: p.number,
+    signedByName: p.signedByName,
+    signedOn: p.signedOn,
     madeBy: p.createdBy ? { id: p.createdBy, name: names.get(p.createdBy) ?? 'Former member' } : null,
     createdAt: p.createdAt,
   }
@@ -131,14 +188,30 @@ function summary(p: HandoverPack, names: Map<string, string>) {
 
 /** Makes the next pack of a site: the site as it stands today, signed by the named person. */
 export async function makePack(workspaceId: string, userId: string, siteId: string, request: HandoverRequest, today = todayIso()) {
-  if (request.signedOn > today) throw new BadRequestError('The certificate cannot be signed on a day still to come.', [{ path: 'signedOn', message: `must be today or earlier (today is ${today})` }])
+  if (request.signedOn > today)
+    throw new BadRequestError('The certificate cannot be signed on a day still to come.', [
+      { path: 'signedOn', message: `must be today or earlier (today is ${today})` },
+    ])
   const content = await gather(workspaceId, siteId, request, today)
   const pack = await dataSource.transaction(async (m) => {
     // One pack number at a time per site: the site row is the lock.
     await m.query('SELECT id FROM sites WHERE id = $1 AND workspace_id = $2 FOR UPDATE', [siteId, workspaceId])
     const [{ next }] = await m.query('SELECT coalesce(max(number), 0) + 1 AS next FROM handover_packs WHERE site_id = $1', [siteId])
-    const saved = await packs(m).save(packs(m).create({ workspaceId, siteId, number: Number(next), signedByName: request.signedByName, signedOn: request.signedOn, content, createdBy: userId }))
-    await recordAudit({ workspaceId, actorId: userId, action: 'handover.made', entityType: 'site', entityId: siteId, data: { packId: saved.id, number: saved.number } }, m)
+    const saved = await packs(m).save(
+      packs(m).create({
+        workspaceId,
+        siteId,
+        number: Number(next),
+        signedByName: request.signedByName,
+        signedOn: request.signedOn,
+        content,
+        createdBy: userId,
+      }),
+    )
+    await recordAudit(
+      { workspaceId, actorId: userId, action: 'handover.made', entityType: 'site', entityId: siteId, data: { packId: saved.id, number: saved.number } },
+      m,
+    )
     return saved
   })
   return { ...summary(pack, await madeBy([userId])), content }
@@ -146,7 +219,11 @@ export async function makePack(workspaceId: string, userId: string, siteId: stri
 
 export async function listPacks(workspaceId: string, siteId: string) {
   await siteStatusExists(workspaceId, siteId)
-  const rows = await packs().find({ where: { workspaceId, siteId }, order: { number: 'DESC' }, select: { id: true, siteId: true, number: true, signedByName: true, signedOn: true, createdBy: true, createdAt: true } })
+  const rows = await packs().find({
+    where: { workspaceId, siteId },
+    order: { number: 'DESC' },
+    select: { id: true, siteId: true, number: true, signedByName: true, signedOn: true, createdBy: true, createdAt: true },
+  })
   const names = await madeBy(rows.map((r) => r.createdBy))
   return { packs: rows.map((r) => summary(r, names)) }
 }
@@ -175,7 +252,14 @@ export async function createLink(workspaceId: string, userId: string, siteId: st
   checkLastDay(expiresOn, today)
   const { token, hash } = newToken()
   const link = await links().save(links().create({ workspaceId, packId: p.id, tokenHash: hash, expiresOn, revokedAt: null, createdBy: userId }))
-  await recordAudit({ workspaceId, actorId: userId, action: 'handover.shared', entityType: 'site', entityId: siteId, data: { packId: p.id, linkId: link.id, expiresOn } })
+  await recordAudit({
+    workspaceId,
+    actorId: userId,
+    action: 'handover.shared',
+    entityType: 'site',
+    entityId: siteId,
+    data: { packId: p.id, linkId: link.id, expiresOn },
+  })
   return { id: link.id, url: handoverUrl(token), token, expiresOn }
 }
 
@@ -184,5 +268,12 @@ export async function sharedPack(token: string, today = todayIso()) {
   const link = await openLink(links(), token, today, 'That handover pack')
   const p = await packs().findOne({ where: { id: link.packId, workspaceId: link.workspaceId } })
   if (!p) throw new NotFoundError('That handover pack')
-  return { number: p.number, signedByName: p.signedByName, signedOn: p.signedOn, createdAt: p.createdAt, expiresOn: link.expiresOn, content: HandoverContentSchema.parse(p.content) }
+  return {
+    number: p.number,
+    signedByName: p.signedByName,
+    signedOn: p.signedOn,
+    createdAt: p.createdAt,
+    expiresOn: link.expiresOn,
+    content: HandoverContentSchema.parse(p.content),
+  }
 }

@@ -24,5 +24,12 @@ async function health(res: Response): Promise<z.input<typeof HealthAnswer>> {
 }
 
 export const healthRoutes: RouteSpec[] = [
-  defineRoute({ method: 'get', path: '/api/health', access: 'public', summary: 'Version and whether the database answers', response: HealthAnswer, handler: (_input, _req, res) => health(res) }),
+  defineRoute({
+    method: 'get',
+    path: '/api/health',
+    access: 'public',
+    summary: 'Version and whether the database answers',
+    response: HealthAnswer,
+    handler: (_input, _req, res) => health(res),
+  }),
 ]

@@ -16,7 +16,8 @@ export const linkState = (l: Pick<ReadOnlyLink, 'revokedAt' | 'expiresOn'>, toda
 
 /** Refuses a last day already past (400 naming `expiresOn`). */
 export function checkLastDay(expiresOn: string | null, today: string) {
-  if (expiresOn !== null && expiresOn < today) throw new BadRequestError('The link would have expired already.', [{ path: 'expiresOn', message: `must be today or later (today is ${today})` }])
+  if (expiresOn !== null && expiresOn < today)
+    throw new BadRequestError('The link would have expired already.', [{ path: 'expiresOn', message: `must be today or later (today is ${today})` }])
 }
 
 /** The link behind a token, if it opens today; `what` names the record in the 404 ("That log book"). */

@@ -40,7 +40,10 @@ export async function createLink(workspaceId: string, userId: string, siteId: st
   const { token, hash } = newToken()
   const link = await dataSource.transaction(async (m) => {
     const saved = await links(m).save(links(m).create({ workspaceId, siteId, tokenHash: hash, expiresOn, revokedAt: null, revokedBy: null, createdBy: userId }))
-    await recordAudit({ workspaceId, actorId: userId, action: 'logbook.shared', entityType: 'site', entityId: siteId, data: { linkId: saved.id, expiresOn } }, m)
+    await recordAudit(
+      { workspaceId, actorId: userId, action: 'logbook.shared', entityType: 'site', entityId: siteId, data: { linkId: saved.id, expiresOn } },
+      m,
+    )
     return saved
   })
   return { id: link.id, url: logBookUrl(token), token, expiresOn: link.expiresOn, createdAt: link.createdAt, state: linkState(link, today) }
@@ -53,7 +56,11 @@ export async function listLinks(workspaceId: string, siteId: string, today = tod
   const names = await namesOf(rows.map((r) => r.createdBy))
   return {
     links: rows.map((l) => ({
-      id: l.id, expiresOn: l.expiresOn, createdAt: l.createdAt, revokedAt: l.revokedAt, state: linkState(l, today),
+      id: l.id,
+      expiresOn: l.expiresOn,
+      createdAt: l.createdAt,
+      revokedAt: l.revokedAt,
+      state: linkState(l, today),
       createdBy: l.createdBy ? { id: l.createdBy, name: names.get(l.createdBy) ?? 'Former member' } : null,
     })),
   }
@@ -88,8 +95,16 @@ export async function sharedLogBook(token: string, today = todayIso()) {
     expiresOn: link.expiresOn,
     summary: book.summary,
     entries: book.entries.slice(0, SHARED_PAGE_ENTRIES).map((e) => ({
-      testedOn: e.testedOn, tag: e.tag, kind: e.kind, passed: e.passed, achievedDurationH: e.achievedDurationH, faults: e.faults, remedialAction: e.remedialAction,
-      recordedByName: e.recordedByName, recordedInError: e.recordedInErrorAt !== null, recordedInErrorReason: e.recordedInErrorReason,
+      testedOn: e.testedOn,
+      tag: e.tag,
+      kind: e.kind,
+      passed: e.passed,
+      achievedDurationH: e.achievedDurationH,
+      faults: e.faults,
+      remedialAction: e.remedialAction,
+      recordedByName: e.recordedByName,
+      recordedInError: e.recordedInErrorAt !== null,
+      recordedInErrorReason: e.recordedInErrorReason,
     })),
     totalEntries: book.entries.length,
   }

@@ -54,7 +54,8 @@ export function setMailLimit(limit: Limit) {
 export async function sendMail(mail: OutgoingMail, origin: MailOrigin): Promise<void> {
   // One address cannot be flooded through us (invitations, shares, resets, confirmations); daily reminders are bounded by their own schedule.
   if (origin.kind !== 'reminder') {
-    for (const to of Array.isArray(mail.to) ? mail.to : [mail.to]) await spend('mail-to', to.trim().toLowerCase(), mailLimit, `Too many mails to ${to} in a short time.`)
+    for (const to of Array.isArray(mail.to) ? mail.to : [mail.to])
+      await spend('mail-to', to.trim().toLowerCase(), mailLimit, `Too many mails to ${to} in a short time.`)
   }
   const headers = config().mail.smtpUrl ? undefined : { [KIND_HEADER]: origin.kind, [WORKSPACE_HEADER]: origin.workspaceId ?? '' }
   await getTransport().sendMail({ from: config().mail.from, ...mail, headers })

@@ -20,5 +20,12 @@ function outbox(req: Request) {
 }
 
 export const outboxRoutes: RouteSpec[] = [
-  defineRoute({ method: 'get', path: '/api/outbox', response: OutboxAnswer, access: 'owner', summary: 'Mail caught by the local SMTP catcher', handler: (_input, req) => outbox(req) }),
+  defineRoute({
+    method: 'get',
+    path: '/api/outbox',
+    response: OutboxAnswer,
+    access: 'owner',
+    summary: 'Mail caught by the local SMTP catcher',
+    handler: (_input, req) => outbox(req),
+  }),
 ]

@@ -8,7 +8,13 @@ import { In, QueryFailedError } from 'typeorm'
 import { parsePhotometricFile, PHOTOMETRIC_FORMAT_NAMES } from '../../../shared/engine/photometric-file'
 import { assessType, selectTypesForRoute, type RouteNeed, type TypeCandidate } from '../../../shared/engine/route-select'
 import { MODE_LABELS } from '../../../shared/labels'
-import { CRITERIA_LABELS, type LuminaireTypeInput, type LuminaireTypePatch, type PickInput, type RouteNeedInput } from '../../../shared/schemas/photometry.schema'
+import {
+  CRITERIA_LABELS,
+  type LuminaireTypeInput,
+  type LuminaireTypePatch,
+  type PickInput,
+  type RouteNeedInput,
+} from '../../../shared/schemas/photometry.schema'
 import { dataSource } from '../../data-source'
 import { BadRequestError, ConflictError, NotFoundError } from '../../errors/app-error'
 import { recordAudit } from '../audit/audit.service'
@@ -21,7 +27,8 @@ import { PhotometricFile, type ParsedPhotometry } from './photometric-file.entit
 const files = (m: EntityManager = dataSource.manager) => m.getRepository(PhotometricFile)
 const types = (m: EntityManager = dataSource.manager) => m.getRepository(LuminaireType)
 
-const isUniqueViolation = (err: unknown) => err instanceof QueryFailedError && (err as QueryFailedError & { driverError?: { code?: string } }).driverError?.code === '23505'
+const isUniqueViolation = (err: unknown) =>
+  err instanceof QueryFailedError && (err as QueryFailedError & { driverError?: { code?: string } }).driverError?.code === '23505'
 
 /** Parses LM-63 or EULUMDAT text; a malformed file is a 400 naming the format and the line, and nothing is stored. */
 export function parseUpload(text: string, field = 'text'): ParsedPhotometry {
@@ -29,9 +36,11 @@ export function parseUpload(text: string, field = 'text'): ParsedPhotometry {
   const control = /[\u0000-\u0008\u000b\u000c\u000e-\u001f]/.exec(text)
   if (control) {
     const line = text.slice(0, control.index).split(/\r\n|\r|\n/).length
-    throw new BadRequestError(`LM-63 file, line ${line}: a control character (code ${control[0].charCodeAt(0)}) is not allowed in an LM-63 file`, [
-      { path: field, message: `line ${line}: a control character is not allowed in an LM-63 file` },
-    ], { line })
+    throw new BadRequestError(
+      `LM-63 file, line ${line}: a control character (code ${control[0].charCodeAt(0)}) is not allowed in an LM-63 file`,
+      [{ path: field, message: `line ${line}: a control character is not allowed in an LM-63 file` }],
+      { line },
+    )
   }
   const result = parsePhotometricFile(text)
   if (!result.ok) {
@@ -93,7 +102,11 @@ async function findFile(workspaceId: string, id: string, m?: EntityManager): Pro
 }
 
 export async function listFiles(workspaceId: string) {
-  const rows = await files().find({ where: { workspaceId }, order: { createdAt: 'DESC', id: 'ASC' }, select: { id: true, workspaceId: true, name: true, sha256: true, parsed: true, createdBy: true, createdAt: true } })
+  const rows = await files().find({
+    where: { workspaceId },
+    order: { createdAt: 'DESC', id: 'ASC' },
+    select: { id: true, workspaceId: true, name: true, sha256: true, parsed: true, createdBy: true, createdAt: true },
+  })
   const names = await namesOf(rows.map((r) => r.createdBy))
   return rows.map((r) => fileSummary(r, names))
 }
@@ -116,7 +129,10 @@ export async function createFile(workspaceId: string, userId: string, name: stri
     return await dataSource.transaction(async (m) => {
       await admitBytes(m, workspaceId, Buffer.byteLength(text, 'utf8'))
       const f = await files(m).save(files(m).create({ workspaceId, name: finalName, rawText: text, sha256, parsed, createdBy: userId }))
-      await recordAudit({ workspaceId, actorId: userId, action: 'photometry.uploaded', entityType: 'photometric_file', entityId: f.id, data: { name: f.name, sha256 } }, m)
+      await recordAudit(
+        { workspaceId, actorId: userId, action: 'photometry.uploaded', entityType: 'photometric_file', entityId: f.id, data: { name: f.name, sha256 } },
+        m,
+      )
       return getFileIn(m, f)
     })
   } catch (err) {
@@ -134,7 +150,10 @@ export async function deleteFile(workspaceId: string, userId: string, id: string
   await dataSource.transaction(async (m) => {
     const f = await findFile(workspaceId, id, m)
     await files(m).delete({ id: f.id, workspaceId })
-    await recordAudit({ workspaceId, actorId: userId, action: 'photometry.deleted', entityType: 'photometric_file', entityId: f.id, data: { name: f.name, sha256: f.sha256 } }, m)
+    await recordAudit(
+      { workspaceId, actorId: userId, action: 'photometry.deleted', entityType: 'photometric_file', entityId: f.id, data: { name: f.name, sha256: f.sha256 } },
+      m,
+    )
   })
 }
 
@@ -195,7 +214,10 @@ const duplicateName = (name: string) => new ConflictError(`A luminaire type call
 
 export async function listTypes(workspaceId: string) {
   const rows = await types().find({ where: { workspaceId }, order: { name: 'ASC', id: 'ASC' } })
-  const names = await fileNamesOf(workspaceId, rows.map((r) => r.photometricFileId))
+  const names = await fileNamesOf(
+    workspaceId,
+    rows.map((r) => r.photometricFileId),
+  )
   return rows.map((r) => typeView(r, names))
 }
 
@@ -210,7 +232,10 @@ export async function createType(workspaceId: string, userId: string, input: Lum
       const t = types(m).create({ workspaceId, createdBy: userId })
       applyType(t, input)
       await types(m).save(t)
-      await recordAudit({ workspaceId, actorId: userId, action: 'luminaire-type.created', entityType: 'luminaire_type', entityId: t.id, data: { name: t.name } }, m)
+      await recordAudit(
+        { workspaceId, actorId: userId, action: 'luminaire-type.created', entityType: 'luminaire_type', entityId: t.id, data: { name: t.name } },
+        m,
+      )
       return typeView(t, await fileNamesOf(workspaceId, [t.photometricFileId], m))
     })
   } catch (err) {
@@ -225,7 +250,10 @@ export async function updateType(workspaceId: string, userId: string, id: string
       const t = await findType(workspaceId, id, m)
       applyType(t, patch)
       await types(m).save(t)
-      await recordAudit({ workspaceId, actorId: userId, action: 'luminaire-type.changed', entityType: 'luminaire_type', entityId: t.id, data: { fields: Object.keys(patch) } }, m)
+      await recordAudit(
+        { workspaceId, actorId: userId, action: 'luminaire-type.changed', entityType: 'luminaire_type', entityId: t.id, data: { fields: Object.keys(patch) } },
+        m,
+      )
       return typeView(t, await fileNamesOf(workspaceId, [t.photometricFileId], m))
     })
   } catch (err) {
@@ -238,7 +266,10 @@ export async function deleteType(workspaceId: string, userId: string, id: string
   await dataSource.transaction(async (m) => {
     const t = await findType(workspaceId, id, m)
     await types(m).delete({ id: t.id, workspaceId })
-    await recordAudit({ workspaceId, actorId: userId, action: 'luminaire-type.deleted', entityType: 'luminaire_type', entityId: t.id, data: { name: t.name } }, m)
+    await recordAudit(
+      { workspaceId, actorId: userId, action: 'luminaire-type.deleted', entityType: 'luminaire_type', entityId: t.id, data: { name: t.name } },
+      m,
+    )
   })
 }
 
@@ -293,16 +324,23 @@ export async function pickIntoSheet(workspaceId: string, userId: string, input: 
   const need = routeNeed(input.route)
   const a = assessType(need, candidate)
   if (!a.meets) {
-    throw new BadRequestError(`"${t.name}" does not meet this route: ${a.reasons.join('; ')}.`, [{ path: 'typeId', message: `does not meet the route: ${a.reasons.join('; ')}` }])
+    throw new BadRequestError(`"${t.name}" does not meet this route: ${a.reasons.join('; ')}.`, [
+      { path: 'typeId', message: `does not meet the route: ${a.reasons.join('; ')}` },
+    ])
   }
   const fileName = t.photometricFileId ? (await fileNamesOf(workspaceId, [t.photometricFileId])).get(t.photometricFileId) : undefined
   const description = [
     `${t.name} (${t.modes.map((m) => MODE_LABELS[m].toLowerCase()).join(' / ')}, rated ${hoursText(t.ratedDurationS)}; the pack on this sheet is sized for the route's ${hoursText(need.ratedDurationS)}), emergency output factor ${a.emergencyOutputFactor.value} (${a.emergencyOutputFactor.from === 'type' ? 'taken from the type' : `typed by the designer over the type's ${a.emergencyOutputFactor.typeValue}`}).`,
     `Route ${fig(need.routeLengthM, 'm')} long, ${fig(need.routeWidthM, 'm')} wide, mounted at ${fig(need.mountingHeightM, 'm')}; ${CRITERIA_LABELS[need.criteria]}, maintenance factor ${need.maintenanceFactor}.`,
     a.layout
-      ? `${a.layout.count} luminaires evenly spaced ${fig(a.layout.spacingM, 'm')} apart, ${fig(a.layout.endDistanceM, 'm')} from each end; over the route minimum ${fig(a.layout.minLx, 'lx')}, average ${fig(a.layout.averageLx, 'lx')}, max:min ${fig(a.layout.maxToMin, '')}.`.replace(' .', '.')
+      ? `${a.layout.count} luminaires evenly spaced ${fig(a.layout.spacingM, 'm')} apart, ${fig(a.layout.endDistanceM, 'm')} from each end; over the route minimum ${fig(a.layout.minLx, 'lx')}, average ${fig(a.layout.averageLx, 'lx')}, max:min ${fig(a.layout.maxToMin, '')}.`.replace(
+          ' .',
+          '.',
+        )
       : '',
-    a.layout?.endOfDuration ? `At the end of the rated duration (output × ${a.layout.endOfDuration.factor}): minimum ${fig(a.layout.endOfDuration.minLx, 'lx')}, average ${fig(a.layout.endOfDuration.averageLx, 'lx')}.` : '',
+    a.layout?.endOfDuration
+      ? `At the end of the rated duration (output × ${a.layout.endOfDuration.factor}): minimum ${fig(a.layout.endOfDuration.minLx, 'lx')}, average ${fig(a.layout.endOfDuration.averageLx, 'lx')}.`
+      : '',
     `Standby power of the row ${fig(a.totalStandbyPowerW, 'W')}.`,
     fileName ? `Photometry: ${fileName}.` : '',
   ]
@@ -323,11 +361,25 @@ export async function pickIntoSheet(workspaceId: string, userId: string, input: 
   let sheet
   if (input.sheetId) {
     const current = await getSheet(workspaceId, input.sheetId)
-    const content = contentOf({ title: input.title?.trim() || current.title, reference: current.reference, client: current.client, site: current.site, luminaire: description, inputs })
+    const content = contentOf({
+      title: input.title?.trim() || current.title,
+      reference: current.reference,
+      client: current.client,
+      site: current.site,
+      luminaire: description,
+      inputs,
+    })
     sheet = await saveSheet(workspaceId, userId, input.sheetId, { ...content, version: input.version as number })
   } else {
     sheet = await createSheet(workspaceId, userId, contentOf({ title, luminaire: description, inputs }))
   }
-  await recordAudit({ workspaceId, actorId: userId, action: 'luminaire-type.picked', entityType: 'luminaire_type', entityId: t.id, data: { sheetId: sheet.id, luminaires: a.luminairesNeeded } })
+  await recordAudit({
+    workspaceId,
+    actorId: userId,
+    action: 'luminaire-type.picked',
+    entityType: 'luminaire_type',
+    entityId: t.id,
+    data: { sheetId: sheet.id, luminaires: a.luminairesNeeded },
+  })
   return { sheet, selection: a }
 }

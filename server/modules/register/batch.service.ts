@@ -51,11 +51,29 @@ type SizeBatch = z.output<typeof SizeBatchSchema>
 export async function sizeBatch(workspaceId: string, batch: SizeBatch) {
   // Every luminaire id was checked against the workspace before the handler (server/lib/references.ts); one query each for luminaires, sites and types.
   const ids = [...new Set(batch.items.flatMap((i) => (i.luminaireId ? [i.luminaireId] : [])))]
-  const luminaires = ids.length ? await dataSource.getRepository(LuminaireEntity).createQueryBuilder('l').where('l.workspace_id = :workspaceId AND l.id IN (:...ids)', { workspaceId, ids }).getMany() : []
+  const luminaires = ids.length
+    ? await dataSource
+        .getRepository(LuminaireEntity)
+        .createQueryBuilder('l')
+        .where('l.workspace_id = :workspaceId AND l.id IN (:...ids)', { workspaceId, ids })
+        .getMany()
+    : []
   const siteIds = [...new Set(luminaires.map((l) => l.siteId))]
   const typeIds = [...new Set(luminaires.flatMap((l) => (l.luminaireTypeId ? [l.luminaireTypeId] : [])))]
-  const sites = siteIds.length ? await dataSource.getRepository(SiteEntity).createQueryBuilder('s').where('s.workspace_id = :workspaceId AND s.id IN (:...siteIds)', { workspaceId, siteIds }).getMany() : []
-  const types = typeIds.length ? await dataSource.getRepository(LuminaireType).createQueryBuilder('t').where('t.workspace_id = :workspaceId AND t.id IN (:...typeIds)', { workspaceId, typeIds }).getMany() : []
+  const sites = siteIds.length
+    ? await dataSource
+        .getRepository(SiteEntity)
+        .createQueryBuilder('s')
+        .where('s.workspace_id = :workspaceId AND s.id IN (:...siteIds)', { workspaceId, siteIds })
+        .getMany()
+    : []
+  const types = typeIds.length
+    ? await dataSource
+        .getRepository(LuminaireType)
+        .createQueryBuilder('t')
+        .where('t.workspace_id = :workspaceId AND t.id IN (:...typeIds)', { workspaceId, typeIds })
+        .getMany()
+    : []
   const byId = new Map(luminaires.map((l) => [l.id, l]))
   const siteById = new Map(sites.map((s) => [s.id, s]))
   const typeById = new Map(types.map((t) => [t.id, t]))
@@ -66,7 +84,11 @@ export async function sizeBatch(workspaceId: string, batch: SizeBatch) {
     const input = l ? { ...sizeInputOf(l, siteById.get(l.siteId), l.luminaireTypeId ? typeById.get(l.luminaireTypeId) : undefined), ...item.input } : item.input
     const outcome = runTool(sizeTool, input, { explain: batch.working })
     if (!outcome.ok) {
-      const errors: ItemError[] = outcome.fields.map((f) => ({ pointer: pointerOf(['items', index, 'input'], f.path), code: 'invalid_value', detail: f.message }))
+      const errors: ItemError[] = outcome.fields.map((f) => ({
+        pointer: pointerOf(['items', index, 'input'], f.path),
+        code: 'invalid_value',
+        detail: f.message,
+      }))
       return { ...head, status: 400, ok: false, errors }
     }
     return { ...head, status: 200, ok: true, result: outcome.result as unknown as Record<string, unknown> }
@@ -93,7 +115,12 @@ export async function updateLuminaires(workspaceId: string, actorId: string, bat
     const head = { index, id: item.id, ...(item.ref !== undefined ? { ref: item.ref } : {}) }
     const parsed = LuminairePatchSchema.safeParse(item.changes)
     if (!parsed.success) {
-      results.push({ ...head, status: 400, ok: false, errors: parsed.error.issues.map((i) => ({ pointer: jsonPointer(['items', index, 'changes', ...i.path]), code: 'invalid_value', detail: i.message })) })
+      results.push({
+        ...head,
+        status: 400,
+        ok: false,
+        errors: parsed.error.issues.map((i) => ({ pointer: jsonPointer(['items', index, 'changes', ...i.path]), code: 'invalid_value', detail: i.message })),
+      })
       continue
     }
     try {

@@ -9,7 +9,16 @@ import { frame, newDocument, toBuffer, write, type Doc, type WriteOptions } from
 import { resultCell, table, type Column } from '../../lib/pdf/table'
 import { PURPOSE_LABELS, REGISTER_DERIVED_COLUMNS } from '../../../shared/schemas/luminaire.schema'
 import { REGIME_LABELS } from '../../../shared/schemas/site.schema'
-import { chemistryName, DUE_REASON_LABELS, labelOf, PACK_STATE_LABELS, TEST_KIND_LABELS, TEST_STATE_LABELS, MODE_LABELS, testKindWords } from '../../../shared/labels'
+import {
+  chemistryName,
+  DUE_REASON_LABELS,
+  labelOf,
+  PACK_STATE_LABELS,
+  TEST_KIND_LABELS,
+  TEST_STATE_LABELS,
+  MODE_LABELS,
+  testKindWords,
+} from '../../../shared/labels'
 import type { LuminaireStatus } from './register.service'
 import { siteStatus, todayIso } from './register.service'
 import type { LogBookSummary } from '../../../shared/engine/log-book-summary'
@@ -31,18 +40,55 @@ export async function registerRows(workspaceId: string, siteId: string) {
   const status = await siteStatus(workspaceId, siteId, todayIso())
   // The import's columns (the last three at the end, after the computed ones, so older readers keep their positions).
   const header = [
-    'tag', 'area', 'location', 'type', 'purpose', 'mode', 'rated_duration_h', 'chemistry', 'cells', 'capacity_ah', 'pack_fitted_on',
+    'tag',
+    'area',
+    'location',
+    'type',
+    'purpose',
+    'mode',
+    'rated_duration_h',
+    'chemistry',
+    'cells',
+    'capacity_ah',
+    'pack_fitted_on',
     ...REGISTER_DERIVED_COLUMNS,
-    'external_id', 'last_functional_test_on', 'last_duration_test_on',
+    'external_id',
+    'last_functional_test_on',
+    'last_duration_test_on',
   ]
   const rows = status.luminaires.map((l) => {
     const f = l.due.lastFailure
     return [
-      l.tag, l.areaName ?? '', l.location, l.typeLabel, l.purpose, l.mode, l.ratedDurationH, l.chemistry, l.cellsInSeries, l.capacityAh, l.packFittedOn,
-      l.due.functional.lastTestedOn, l.due.functional.nextDueOn, l.due.duration.lastTestedOn, l.due.duration.nextDueOn, l.due.state, l.forecast.replaceBy,
-      l.due.functional.reason, l.due.functional.overdueAfter, l.due.duration.reason, l.due.duration.overdueAfter,
-      f?.kind ?? '', f?.testedOn ?? '', f?.faults ?? '', f?.remedialAction ?? '', f?.retestBy ?? '', f ? String(f.retestOverdue) : '',
-      l.externalId ?? '', l.lastFunctionalTestOn ?? '', l.lastDurationTestOn ?? '',
+      l.tag,
+      l.areaName ?? '',
+      l.location,
+      l.typeLabel,
+      l.purpose,
+      l.mode,
+      l.ratedDurationH,
+      l.chemistry,
+      l.cellsInSeries,
+      l.capacityAh,
+      l.packFittedOn,
+      l.due.functional.lastTestedOn,
+      l.due.functional.nextDueOn,
+      l.due.duration.lastTestedOn,
+      l.due.duration.nextDueOn,
+      l.due.state,
+      l.forecast.replaceBy,
+      l.due.functional.reason,
+      l.due.functional.overdueAfter,
+      l.due.duration.reason,
+      l.due.duration.overdueAfter,
+      f?.kind ?? '',
+      f?.testedOn ?? '',
+      f?.faults ?? '',
+      f?.remedialAction ?? '',
+      f?.retestBy ?? '',
+      f ? String(f.retestOverdue) : '',
+      l.externalId ?? '',
+      l.lastFunctionalTestOn ?? '',
+      l.lastDurationTestOn ?? '',
     ]
   })
   return { status, header, rows }
@@ -55,11 +101,21 @@ export interface LogBookPeriod {
 }
 
 export async function logBookRows(workspaceId: string, siteId: string, period: LogBookPeriod = {}) {
-  const entries = (await siteLogBook(workspaceId, siteId, 100_000)).filter((e) => (!period.from || e.testedOn >= period.from) && (!period.to || e.testedOn <= period.to))
+  const entries = (await siteLogBook(workspaceId, siteId, 100_000)).filter(
+    (e) => (!period.from || e.testedOn >= period.from) && (!period.to || e.testedOn <= period.to),
+  )
   // A test recorded in error stays in the log book with its reason, so the record is complete.
   const header = ['tested_on', 'tag', 'test', 'result', 'achieved_duration_h', 'faults', 'remedial_action', 'recorded_by', 'recorded_at', 'recorded_in_error']
   const rows = entries.map((e) => [
-    e.testedOn, e.tag, e.kind, e.passed ? 'pass' : 'fail', e.achievedDurationH === null ? null : round(e.achievedDurationH), e.faults, e.remedialAction, e.recordedByName ?? '', new Date(e.recordedAt).toISOString(),
+    e.testedOn,
+    e.tag,
+    e.kind,
+    e.passed ? 'pass' : 'fail',
+    e.achievedDurationH === null ? null : round(e.achievedDurationH),
+    e.faults,
+    e.remedialAction,
+    e.recordedByName ?? '',
+    new Date(e.recordedAt).toISOString(),
     e.recordedInErrorAt ? e.recordedInErrorReason || 'yes' : '',
   ])
   return { header, rows }
@@ -74,10 +130,21 @@ export interface ExportResult {
   body: Buffer
 }
 
-const slug = (s: string) => s.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '').slice(0, 60) || 'site'
+const slug = (s: string) =>
+  s
+    .toLowerCase()
+    .replace(/[^a-z0-9]+/g, '-')
+    .replace(/^-|-$/g, '')
+    .slice(0, 60) || 'site'
 
 /** `period` limits the log book files to the tests between two days (the register files ignore it). */
-export async function exportFile(workspaceId: string, siteId: string, file: ExportFile, prefs: FormatPrefs = DEFAULT_PREFS, period: LogBookPeriod = {}): Promise<ExportResult> {
+export async function exportFile(
+  workspaceId: string,
+  siteId: string,
+  file: ExportFile,
+  prefs: FormatPrefs = DEFAULT_PREFS,
+  period: LogBookPeriod = {},
+): Promise<ExportResult> {
   const reg = await registerRows(workspaceId, siteId)
   const span = file.startsWith('logbook') && (period.from || period.to) ? `${period.from ?? 'start'}-to-${period.to ?? reg.status.today}` : reg.status.today
   const base = `${slug(reg.status.site.name)}-${file.startsWith('register') ? 'register' : 'log-book'}-${span}`
@@ -86,7 +153,10 @@ export async function exportFile(workspaceId: string, siteId: string, file: Expo
   if (file === 'logbook.csv') return { filename: `${base}.csv`, mediaType: 'text/csv; charset=utf-8', body: Buffer.from(toCsv(log.header, log.rows), 'utf8') }
   // The summary describes the site today: it opens the whole log book, not an extract of some days (an archive of a month holds that month only).
   const extract = !!(period.from || period.to)
-  const body = file === 'register.pdf' ? await registerPdf(reg, prefs) : await logBookPdf(reg.status, extract ? null : (await siteLogBookSummary(workspaceId, siteId, reg.status.today)).summary, log.rows, prefs, period)
+  const body =
+    file === 'register.pdf'
+      ? await registerPdf(reg, prefs)
+      : await logBookPdf(reg.status, extract ? null : (await siteLogBookSummary(workspaceId, siteId, reg.status.today)).summary, log.rows, prefs, period)
   return { filename: `${base}.pdf`, mediaType: 'application/pdf', body }
 }
 
@@ -122,19 +192,38 @@ async function registerPdf(reg: Awaited<ReturnType<typeof registerRows>>, prefs:
   const date = (d: string | null) => formatDate(d, prefs)
   const doc = newDoc(`Emergency lighting register — ${s.site.name}`, prefs)
   heading(doc, 'Emergency lighting register', s, prefs)
-  write(doc, `${s.counts.luminaires} luminaires: ${s.counts.failed} with a failure not yet put right (${s.counts.retestOverdue} of them past the ${s.settings.repairWindowDays}-day repair window), ${s.counts.overdue} overdue, ${s.counts.dueNow} with a test due now, ${s.counts.dueSoon} due within 14 days.`)
+  write(
+    doc,
+    `${s.counts.luminaires} luminaires: ${s.counts.failed} with a failure not yet put right (${s.counts.retestOverdue} of them past the ${s.settings.repairWindowDays}-day repair window), ${s.counts.overdue} overdue, ${s.counts.dueNow} with a test due now, ${s.counts.dueSoon} due within 14 days.`,
+  )
   doc.moveDown(0.6)
   const columns: Column[] = [
-    { title: 'Tag', width: 52 }, { title: 'Area / location', width: 130 }, { title: 'Purpose', width: 70 }, { title: 'Mode', width: 62 },
-    { title: 'Rated', width: 36 }, { title: 'Pack', width: 92 }, { title: 'Fitted', width: 56 }, { title: 'Next functional', width: 62 },
-    { title: 'Next full duration', width: 62 }, { title: 'State', width: 52 }, { title: 'Replace pack by', width: 62 },
+    { title: 'Tag', width: 52 },
+    { title: 'Area / location', width: 130 },
+    { title: 'Purpose', width: 70 },
+    { title: 'Mode', width: 62 },
+    { title: 'Rated', width: 36 },
+    { title: 'Pack', width: 92 },
+    { title: 'Fitted', width: 56 },
+    { title: 'Next functional', width: 62 },
+    { title: 'Next full duration', width: 62 },
+    { title: 'State', width: 52 },
+    { title: 'Replace pack by', width: 62 },
   ]
   table(
     doc,
     columns,
     s.luminaires.map((l) => [
-      l.tag, [l.areaName, l.location].filter(Boolean).join(' — '), PURPOSE_LABELS[l.purpose], MODE_LABELS[l.mode], formatHours(l.ratedDurationH, prefs),
-      `${chemistryName(l.chemistry)}, ${l.cellsInSeries} cells, ${formatNumber(l.capacityAh, { unit: 'Ah' }, prefs)}`, date(l.packFittedOn), dueWords(l.due.functional, prefs), dueWords(l.due.duration, prefs), TEST_STATE_LABELS[l.due.state],
+      l.tag,
+      [l.areaName, l.location].filter(Boolean).join(' — '),
+      PURPOSE_LABELS[l.purpose],
+      MODE_LABELS[l.mode],
+      formatHours(l.ratedDurationH, prefs),
+      `${chemistryName(l.chemistry)}, ${l.cellsInSeries} cells, ${formatNumber(l.capacityAh, { unit: 'Ah' }, prefs)}`,
+      date(l.packFittedOn),
+      dueWords(l.due.functional, prefs),
+      dueWords(l.due.duration, prefs),
+      TEST_STATE_LABELS[l.due.state],
       `${date(l.forecast.replaceBy)} (${PACK_STATE_LABELS[l.forecast.state].toLowerCase()})`,
     ]),
   )
@@ -144,14 +233,30 @@ async function registerPdf(reg: Awaited<ReturnType<typeof registerRows>>, prefs:
     write(doc, 'Failures not yet put right', { weight: 'semibold', size: 12, x: doc.page.margins.left } as WriteOptions)
     table(
       doc,
-      [{ title: 'Tag', width: 52 }, { title: 'Failed', width: 150 }, { title: 'Fault', width: 190 }, { title: 'Remedial action', width: 190 }, { title: 'Retest', width: 150 }],
-      failures.flatMap((l) => l.due.openFailures.map((f) => [
-        l.tag, `${testKindWords(f.kind)} on ${date(f.testedOn)}`, f.faults, f.remedialAction || '—', f.retestOverdue ? `overdue: was due by ${date(f.retestBy)}` : `due now, by ${date(f.retestBy)}`,
-      ])),
+      [
+        { title: 'Tag', width: 52 },
+        { title: 'Failed', width: 150 },
+        { title: 'Fault', width: 190 },
+        { title: 'Remedial action', width: 190 },
+        { title: 'Retest', width: 150 },
+      ],
+      failures.flatMap((l) =>
+        l.due.openFailures.map((f) => [
+          l.tag,
+          `${testKindWords(f.kind)} on ${date(f.testedOn)}`,
+          f.faults,
+          f.remedialAction || '—',
+          f.retestOverdue ? `overdue: was due by ${date(f.retestBy)}` : `due now, by ${date(f.retestBy)}`,
+        ]),
+      ),
     )
   }
   doc.moveDown(1)
-  write(doc, 'Isolate the mains before opening a luminaire. Spent nickel-cadmium and lithium packs go to a battery collection point, never into general waste. Local codes and a competent, licensed person decide what the installation needs.', { size: 8, x: doc.page.margins.left } as WriteOptions)
+  write(
+    doc,
+    'Isolate the mains before opening a luminaire. Spent nickel-cadmium and lithium packs go to a battery collection point, never into general waste. Local codes and a competent, licensed person decide what the installation needs.',
+    { size: 8, x: doc.page.margins.left } as WriteOptions,
+  )
   frameSiteDocument(doc, 'Emergency lighting register', s, prefs)
   return toBuffer(doc)
 }
@@ -160,26 +265,50 @@ async function registerPdf(reg: Awaited<ReturnType<typeof registerRows>>, prefs:
  * The log book: the whole book opens with its summary page (the site as it stands today), then every
  * entry; an extract of some days has the site's heading and that period's entries only.
  */
-async function logBookPdf(status: SiteStatus, summary: LogBookSummary | null, rows: Array<Array<string | number | boolean | null>>, prefs: FormatPrefs, period: LogBookPeriod = {}): Promise<Buffer> {
+async function logBookPdf(
+  status: SiteStatus,
+  summary: LogBookSummary | null,
+  rows: Array<Array<string | number | boolean | null>>,
+  prefs: FormatPrefs,
+  period: LogBookPeriod = {},
+): Promise<Buffer> {
   const doc = newDoc(`Emergency lighting log book — ${status.site.name}`, prefs)
   if (summary) {
     summaryPage(doc, { site: status.site, repairWindowDays: status.settings.repairWindowDays, summary, prefs })
     doc.addPage()
   } else heading(doc, 'Emergency lighting log book', status, prefs)
   write(doc, 'Log book entries', { weight: 'semibold', size: 14 })
-  write(doc, period.from || period.to ? `Tests ${period.from ? `from ${formatDate(period.from, prefs)} ` : ''}${period.to ? `to ${formatDate(period.to, prefs)}` : 'to today'}, newest first.` : 'Every test recorded, newest first.', { size: 9.5, color: '#3c4a52' })
+  write(
+    doc,
+    period.from || period.to
+      ? `Tests ${period.from ? `from ${formatDate(period.from, prefs)} ` : ''}${period.to ? `to ${formatDate(period.to, prefs)}` : 'to today'}, newest first.`
+      : 'Every test recorded, newest first.',
+    { size: 9.5, color: '#3c4a52' },
+  )
   doc.moveDown(0.4)
   const columns: Column[] = [
-    { title: 'Date', width: 58 }, { title: 'Tag', width: 52 }, { title: 'Test', width: 70 }, { title: 'Result', width: 44 }, { title: 'Lit for', width: 40 },
-    { title: 'Faults found', width: 160 }, { title: 'Remedial action', width: 160 }, { title: 'By', width: 90 },
+    { title: 'Date', width: 58 },
+    { title: 'Tag', width: 52 },
+    { title: 'Test', width: 70 },
+    { title: 'Result', width: 44 },
+    { title: 'Lit for', width: 40 },
+    { title: 'Faults found', width: 160 },
+    { title: 'Remedial action', width: 160 },
+    { title: 'By', width: 90 },
   ]
   table(
     doc,
     columns,
     rows.map((r) => [
       // The CSV's machine values turned into words, the result with a mark that needs no colour; a test recorded in error reads "Void" with its reason.
-      formatDate(String(r[0]), prefs), String(r[1]), labelOf(TEST_KIND_LABELS, String(r[2])), r[9] ? 'Void' : resultCell(r[3] === 'pass'),
-      typeof r[4] === 'number' ? formatHours(r[4], prefs) : '', r[9] ? `Recorded in error (${String(r[9])}). ${String(r[5] ?? '')}` : String(r[5] ?? ''), String(r[6] ?? ''), String(r[7] ?? ''),
+      formatDate(String(r[0]), prefs),
+      String(r[1]),
+      labelOf(TEST_KIND_LABELS, String(r[2])),
+      r[9] ? 'Void' : resultCell(r[3] === 'pass'),
+      typeof r[4] === 'number' ? formatHours(r[4], prefs) : '',
+      r[9] ? `Recorded in error (${String(r[9])}). ${String(r[5] ?? '')}` : String(r[5] ?? ''),
+      String(r[6] ?? ''),
+      String(r[7] ?? ''),
     ]),
   )
   if (!rows.length) write(doc, period.from || period.to ? 'No tests recorded in this period.' : 'No tests recorded yet.')

@@ -131,9 +131,12 @@ async function checkSchedule(workspaceId: string, siteId: string, csv: string) {
   await findSite(workspaceId, siteId)
   const areas = await dataSource.getRepository(AreaEntity).find({ where: { workspaceId, siteId } })
   const areaName = new Map(areas.map((a) => [a.id, a.name]))
-  const existing = (await dataSource.getRepository(LuminaireEntity).find({ where: { workspaceId, siteId } })).map(
-    (l): Existing => ({ id: l.id, tag: l.tag, areaName: l.areaId ? (areaName.get(l.areaId) ?? null) : null, values: l }),
-  )
+  const existing = (await dataSource.getRepository(LuminaireEntity).find({ where: { workspaceId, siteId } })).map((l): Existing => ({
+    id: l.id,
+    tag: l.tag,
+    areaName: l.areaId ? (areaName.get(l.areaId) ?? null) : null,
+    values: l,
+  }))
   const existingAreas = new Set(areas.map((a) => a.name.toLowerCase()))
   return parseSlot(() => checkRows(csv, existing, existingAreas, todayIso()))
 }
@@ -168,7 +171,12 @@ export function rowChanges(v: ImportRow, e: Existing): Record<string, { from: un
   return out
 }
 
-async function checkRows(csv: string, existing: Existing[], existingAreas: Set<string>, today: string): Promise<ImportPreview & { values?: ImportRow[]; plan?: Array<{ action: RowAction; target: Existing | null }> }> {
+async function checkRows(
+  csv: string,
+  existing: Existing[],
+  existingAreas: Set<string>,
+  today: string,
+): Promise<ImportPreview & { values?: ImportRow[]; plan?: Array<{ action: RowAction; target: Existing | null }> }> {
   const byTag = new Map(existing.map((e) => [e.tag.toLowerCase(), e]))
   const byExternalId = new Map(existing.flatMap((e) => (e.values.externalId ? [[e.values.externalId, e] as const] : [])))
   const errors: ImportIssue[] = []
@@ -179,7 +187,19 @@ async function checkRows(csv: string, existing: Existing[], existingAreas: Set<s
     badRows.add(issue.row)
     if (errors.length < LISTED_IMPORT_ERRORS) errors.push(issue)
   }
-  const answer = (extra: Partial<ImportPreview> = {}): ImportPreview => ({ columns: [], rows: [], errors, errorCount, validRows: 0, totalRows: 0, newAreas: [], creates: 0, updates: 0, unchanged: 0, ...extra })
+  const answer = (extra: Partial<ImportPreview> = {}): ImportPreview => ({
+    columns: [],
+    rows: [],
+    errors,
+    errorCount,
+    validRows: 0,
+    totalRows: 0,
+    newAreas: [],
+    creates: 0,
+    updates: 0,
+    unchanged: 0,
+    ...extra,
+  })
   const plan: Array<{ action: RowAction; target: Existing | null }> = []
   const externalIdRow = new Map<string, number>()
   const claimed = new Map<string, number>()
@@ -200,7 +220,8 @@ async function checkRows(csv: string, existing: Existing[], existingAreas: Set<s
       header = cells.map(normaliseHeader)
       const known = new Set<string>([...IMPORT_COLUMNS, ...REGISTER_DERIVED_COLUMNS])
       header.forEach((h, i) => {
-        if (!known.has(h)) problem({ row: 1, column: rawHeader[i] || `(column ${i + 1})`, reason: `is not a column this import knows; use: ${IMPORT_COLUMNS.join(', ')}` })
+        if (!known.has(h))
+          problem({ row: 1, column: rawHeader[i] || `(column ${i + 1})`, reason: `is not a column this import knows; use: ${IMPORT_COLUMNS.join(', ')}` })
       })
       const seenHeader = new Set<string>()
       for (const h of header) {
@@ -234,7 +255,8 @@ async function checkRows(csv: string, existing: Existing[], existingAreas: Set<s
     if (tagRow.has(key)) problem({ row, column: 'tag', reason: `"${v.tag}" repeats the tag of row ${tagRow.get(key)}` })
     tagRow.set(key, tagRow.get(key) ?? row)
     if (v.external_id) {
-      if (externalIdRow.has(v.external_id)) problem({ row, column: 'external_id', reason: `"${v.external_id}" repeats the external id of row ${externalIdRow.get(v.external_id)}` })
+      if (externalIdRow.has(v.external_id))
+        problem({ row, column: 'external_id', reason: `"${v.external_id}" repeats the external id of row ${externalIdRow.get(v.external_id)}` })
       externalIdRow.set(v.external_id, externalIdRow.get(v.external_id) ?? row)
     }
     for (const column of ['last_functional_test_on', 'last_duration_test_on'] as const) {
@@ -280,7 +302,16 @@ async function checkRows(csv: string, existing: Existing[], existingAreas: Set<s
   // Every problem of a row is found before its values are kept, so `values` holds the valid rows only.
   const count = (a: RowAction) => plan.filter((p) => p.action === a).length
   return {
-    ...answer({ columns: header, rows, validRows: values.length, totalRows, newAreas: [...newAreas.values()], creates: count('create'), updates: count('update'), unchanged: count('unchanged') }),
+    ...answer({
+      columns: header,
+      rows,
+      validRows: values.length,
+      totalRows,
+      newAreas: [...newAreas.values()],
+      creates: count('create'),
+      updates: count('update'),
+      unchanged: count('unchanged'),
+    }),
     values,
     plan,
   }
@@ -298,53 +329,79 @@ export async function commitImport(workspaceId: string, actorId: string, siteId:
       { errors: preview.errors, errorCount: preview.errorCount },
     )
   }
-  return dataSource.transaction(async (m) => {
-    await findSite(workspaceId, siteId, m)
-    const areaIds = new Map<string, string>()
-    for (const a of await m.getRepository(AreaEntity).find({ where: { workspaceId, siteId } })) areaIds.set(a.name.toLowerCase(), a.id)
-    for (const name of preview.newAreas) {
-      const area = await m.getRepository(AreaEntity).save(m.getRepository(AreaEntity).create({ workspaceId, siteId, name, notes: '' }))
-      areaIds.set(name.toLowerCase(), area.id)
-      await recordAudit({ workspaceId, actorId, action: 'area.created', entityType: 'area', entityId: area.id, data: { siteId, name, source: 'import' } }, m)
-    }
-    const created: string[] = []
-    const updated: string[] = []
-    const values = preview.values ?? []
-    for (const [i, v] of values.entries()) {
-      const { action, target } = preview.plan![i]!
-      const areaId = v.area ? (areaIds.get(v.area.toLowerCase()) ?? null) : null
-      if (action === 'unchanged') continue
-      if (action === 'update' && target) {
-        const changes = rowChanges(v, target)
-        const l = await m.getRepository(LuminaireEntity).findOneOrFail({ where: { id: target.id, workspaceId } })
-        Object.assign(l, fieldsOf(v), { areaId })
-        await m.getRepository(LuminaireEntity).save(l)
-        updated.push(l.id)
-        await recordAudit({ workspaceId, actorId, action: 'luminaire.updated', entityType: 'luminaire', entityId: l.id, data: { tag: l.tag, changes, source: 'import' } }, m)
-        continue
+  return dataSource
+    .transaction(async (m) => {
+      await findSite(workspaceId, siteId, m)
+      const areaIds = new Map<string, string>()
+      for (const a of await m.getRepository(AreaEntity).find({ where: { workspaceId, siteId } })) areaIds.set(a.name.toLowerCase(), a.id)
+      for (const name of preview.newAreas) {
+        const area = await m.getRepository(AreaEntity).save(m.getRepository(AreaEntity).create({ workspaceId, siteId, name, notes: '' }))
+        areaIds.set(name.toLowerCase(), area.id)
+        await recordAudit({ workspaceId, actorId, action: 'area.created', entityType: 'area', entityId: area.id, data: { siteId, name, source: 'import' } }, m)
       }
-      const l = await m.getRepository(LuminaireEntity).save(
-        m.getRepository(LuminaireEntity).create({
-          externalId: null,
-          lastFunctionalTestOn: null,
-          lastDurationTestOn: null,
-          ...fieldsOf(v),
+      const created: string[] = []
+      const updated: string[] = []
+      const values = preview.values ?? []
+      for (const [i, v] of values.entries()) {
+        const { action, target } = preview.plan![i]!
+        const areaId = v.area ? (areaIds.get(v.area.toLowerCase()) ?? null) : null
+        if (action === 'unchanged') continue
+        if (action === 'update' && target) {
+          const changes = rowChanges(v, target)
+          const l = await m.getRepository(LuminaireEntity).findOneOrFail({ where: { id: target.id, workspaceId } })
+          Object.assign(l, fieldsOf(v), { areaId })
+          await m.getRepository(LuminaireEntity).save(l)
+          updated.push(l.id)
+          await recordAudit(
+            { workspaceId, actorId, action: 'luminaire.updated', entityType: 'luminaire', entityId: l.id, data: { tag: l.tag, changes, source: 'import' } },
+            m,
+          )
+          continue
+        }
+        const l = await m.getRepository(LuminaireEntity).save(
+          m.getRepository(LuminaireEntity).create({
+            externalId: null,
+            lastFunctionalTestOn: null,
+            lastDurationTestOn: null,
+            ...fieldsOf(v),
+            workspaceId,
+            siteId,
+            areaId,
+            specSheetId: null,
+            luminaireTypeId: null,
+          }),
+        )
+        created.push(l.id)
+        await recordAudit(
+          { workspaceId, actorId, action: 'luminaire.created', entityType: 'luminaire', entityId: l.id, data: { siteId, tag: l.tag, source: 'import' } },
+          m,
+        )
+      }
+      await recordAudit(
+        {
           workspaceId,
-          siteId,
-          areaId,
-          specSheetId: null,
-          luminaireTypeId: null,
-        }),
+          actorId,
+          action: 'register.imported',
+          entityType: 'site',
+          entityId: siteId,
+          data: { luminaires: created.length, updated: updated.length, unchanged: preview.unchanged, areas: preview.newAreas },
+        },
+        m,
       )
-      created.push(l.id)
-      await recordAudit({ workspaceId, actorId, action: 'luminaire.created', entityType: 'luminaire', entityId: l.id, data: { siteId, tag: l.tag, source: 'import' } }, m)
-    }
-    await recordAudit({ workspaceId, actorId, action: 'register.imported', entityType: 'site', entityId: siteId, data: { luminaires: created.length, updated: updated.length, unchanged: preview.unchanged, areas: preview.newAreas } }, m)
-    // `imported` counts the luminaires added (as before re-running was possible); updated and unchanged say the rest.
-    return { imported: created.length, updated: updated.length, unchanged: preview.unchanged, areasCreated: preview.newAreas.length, ids: created, updatedIds: updated }
-  }).catch((err) => {
-    // Someone added the same tag or area while this import ran: the transaction is already rolled back.
-    if ((err as { driverError?: { code?: string } })?.driverError?.code === '23505') throw new AppError(409, 'conflict', 'Nothing was imported: a tag or area in the file was added to the site meanwhile. Preview again.')
-    throw err
-  })
+      // `imported` counts the luminaires added (as before re-running was possible); updated and unchanged say the rest.
+      return {
+        imported: created.length,
+        updated: updated.length,
+        unchanged: preview.unchanged,
+        areasCreated: preview.newAreas.length,
+        ids: created,
+        updatedIds: updated,
+      }
+    })
+    .catch((err) => {
+      // Someone added the same tag or area while this import ran: the transaction is already rolled back.
+      if ((err as { driverError?: { code?: string } })?.driverError?.code === '23505')
+        throw new AppError(409, 'conflict', 'Nothing was imported: a tag or area in the file was added to the site meanwhile. Preview again.')
+      throw err
+    })
 }

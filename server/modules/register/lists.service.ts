@@ -59,7 +59,15 @@ export async function luminairesWithDue(workspaceId: string, filter: LuminaireFi
     dataSource.getRepository(AreaEntity).find({ where: { workspaceId } }),
     registerSettings(workspaceId),
   ])
-  const tests: Array<{ luminaire_id: string; kind: 'functional' | 'duration'; tested_on: string; passed: boolean; achieved_duration_h: number | null; faults: string; remedial_action: string }> = await dataSource.query(
+  const tests: Array<{
+    luminaire_id: string
+    kind: 'functional' | 'duration'
+    tested_on: string
+    passed: boolean
+    achieved_duration_h: number | null
+    faults: string
+    remedial_action: string
+  }> = await dataSource.query(
     `SELECT luminaire_id, kind, tested_on::text AS tested_on, passed, achieved_duration_h, faults, remedial_action
        FROM test_records WHERE workspace_id = $1 AND luminaire_id = ANY($2::uuid[]) AND recorded_in_error_at IS NULL ORDER BY tested_on, recorded_at`,
     [workspaceId, rows.map((l) => l.id)],
@@ -80,9 +88,18 @@ export async function luminairesWithDue(workspaceId: string, filter: LuminaireFi
 }
 
 /** One page of GET /api/luminaires. */
-export async function listLuminaires(workspaceId: string, query: { limit: number; cursor?: string; siteId?: string; state?: AttentionState[]; updatedSince?: string }) {
+export async function listLuminaires(
+  workspaceId: string,
+  query: { limit: number; cursor?: string; siteId?: string; state?: AttentionState[]; updatedSince?: string },
+) {
   const after = decodeCursor(query.cursor, 1)
-  const rows = await luminairesWithDue(workspaceId, { siteId: query.siteId, states: query.state, updatedSince: query.updatedSince, afterId: after ? String(after[0]) : undefined, take: query.limit + 1 })
+  const rows = await luminairesWithDue(workspaceId, {
+    siteId: query.siteId,
+    states: query.state,
+    updatedSince: query.updatedSince,
+    afterId: after ? String(after[0]) : undefined,
+    take: query.limit + 1,
+  })
   return pageOf(rows, query.limit, (l) => [l.id])
 }
 

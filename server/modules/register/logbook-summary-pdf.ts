@@ -49,20 +49,37 @@ export function summaryPage(doc: Doc, d: SummaryPageData) {
   const date = (v: string) => formatDate(v, d.prefs)
   write(doc, 'Emergency lighting log book', { weight: 'semibold', size: 16 })
   write(doc, `${d.site.name}${d.site.address ? ` — ${d.site.address.replace(/\s*\n\s*/g, ', ')}` : ''}`, { weight: 'semibold', size: 11 })
-  write(doc, `Responsible person: ${d.site.responsibleName || 'not named'}${d.site.responsibleEmail ? ` <${d.site.responsibleEmail}>` : ''}. Summary on ${date(s.today)}.`)
+  write(
+    doc,
+    `Responsible person: ${d.site.responsibleName || 'not named'}${d.site.responsibleEmail ? ` <${d.site.responsibleEmail}>` : ''}. Summary on ${date(s.today)}.`,
+  )
   write(doc, `Testing regime: ${labelOf(REGIME_LABELS, d.site.regime)}. Failures are put right and retested within ${d.repairWindowDays} days.`)
   subheading(doc, 'The luminaires today')
   const figures = summaryFigures(s)
-  table(doc, figures.map(([title]) => ({ title, width: 118 })), [figures.map(([, n]) => ({ text: String(n), weight: 'semibold' as const }))], { size: 10 })
+  table(
+    doc,
+    figures.map(([title]) => ({ title, width: 118 })),
+    [figures.map(([, n]) => ({ text: String(n), weight: 'semibold' as const }))],
+    { size: 10 },
+  )
 
   subheading(doc, 'Failures and what became of them', 70)
   if (!s.failures.length) write(doc, 'No failed test in the log book.', left(doc))
   else {
     table(
       doc,
-      [{ title: 'Tag', width: 56 }, { title: 'Failed', width: 150 }, { title: 'Fault found', width: 170 }, { title: 'Remedial action', width: 150 }, { title: 'Now', width: 240 }],
+      [
+        { title: 'Tag', width: 56 },
+        { title: 'Failed', width: 150 },
+        { title: 'Fault found', width: 170 },
+        { title: 'Remedial action', width: 150 },
+        { title: 'Now', width: 240 },
+      ],
       s.failures.map((f) => [
-        f.tag, `${TEST_KIND_LABELS[f.kind]} on ${date(f.testedOn)}`, f.faults || '—', f.remedialAction || '—',
+        f.tag,
+        `${TEST_KIND_LABELS[f.kind]} on ${date(f.testedOn)}`,
+        f.faults || '—',
+        f.remedialAction || '—',
         { text: failureStateWords(f, date), weight: f.state === 'open' || f.state === 'retest-overdue' ? 'semibold' : 'regular' },
       ]),
     )
@@ -74,8 +91,16 @@ export function summaryPage(doc: Doc, d: SummaryPageData) {
   else {
     table(
       doc,
-      [{ title: 'Test', width: 230 }, { title: 'When', width: 190 }, { title: 'Luminaires', width: 346 }],
-      s.nextDue.map((n) => [nextDueTestWords(n), nextDueWhenWords(n, date), n.tags.length === 1 ? n.tags[0] : `${n.tags.length} luminaires: ${tagListWords(n.tags, 10)}`]),
+      [
+        { title: 'Test', width: 230 },
+        { title: 'When', width: 190 },
+        { title: 'Luminaires', width: 346 },
+      ],
+      s.nextDue.map((n) => [
+        nextDueTestWords(n),
+        nextDueWhenWords(n, date),
+        n.tags.length === 1 ? n.tags[0] : `${n.tags.length} luminaires: ${tagListWords(n.tags, 10)}`,
+      ]),
     )
   }
 

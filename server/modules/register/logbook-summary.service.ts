@@ -24,7 +24,12 @@ export async function siteLogBookSummary(workspaceId: string, siteId: string, to
     byLuminaire.set(e.luminaireId, list)
   }
   const summary = logBookSummary(
-    status.luminaires.map((l) => ({ tag: l.tag, packFittedOn: l.packFittedOn, due: l.due, tests: [...testsBeforeRegister(l), ...(byLuminaire.get(l.id) ?? [])] })),
+    status.luminaires.map((l) => ({
+      tag: l.tag,
+      packFittedOn: l.packFittedOn,
+      due: l.due,
+      tests: [...testsBeforeRegister(l), ...(byLuminaire.get(l.id) ?? [])],
+    })),
     today,
   )
   return { status, entries, summary }

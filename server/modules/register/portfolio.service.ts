@@ -53,10 +53,23 @@ export async function luminairesInState(workspaceId: string, filter: { states: r
         typeLabel: l.typeLabel,
         state,
         tests,
-        failures: l.due.openFailures.map((f) => ({ kind: f.kind, testedOn: f.testedOn, faults: f.faults, remedialAction: f.remedialAction, retestBy: f.retestBy, retestOverdue: f.retestOverdue })),
+        failures: l.due.openFailures.map((f) => ({
+          kind: f.kind,
+          testedOn: f.testedOn,
+          faults: f.faults,
+          remedialAction: f.remedialAction,
+          retestBy: f.retestBy,
+          retestOverdue: f.retestOverdue,
+        })),
       }
     })
-    .sort((a, b) => RANK[a.state] - RANK[b.state] || Math.max(0, ...b.tests.map((t) => t.daysOverdue)) - Math.max(0, ...a.tests.map((t) => t.daysOverdue)) || a.siteName.localeCompare(b.siteName) || a.tag.localeCompare(b.tag, undefined, { numeric: true }))
+    .sort(
+      (a, b) =>
+        RANK[a.state] - RANK[b.state] ||
+        Math.max(0, ...b.tests.map((t) => t.daysOverdue)) - Math.max(0, ...a.tests.map((t) => t.daysOverdue)) ||
+        a.siteName.localeCompare(b.siteName) ||
+        a.tag.localeCompare(b.tag, undefined, { numeric: true }),
+    )
   return { today, states: [...filter.states], sites: sites.map((s) => ({ id: s.id, name: s.name })), counts, items: listed }
 }
 
@@ -71,7 +84,17 @@ export async function setPackPrices(workspaceId: string, actorId: string, prices
     const before = await m.getRepository(PackPriceEntity).find({ where: { workspaceId } })
     await m.getRepository(PackPriceEntity).delete({ workspaceId })
     if (prices.length) await m.getRepository(PackPriceEntity).insert(prices.map((p) => ({ workspaceId, ...p })))
-    await recordAudit({ workspaceId, actorId, action: 'pack-prices.updated', entityType: 'workspace', entityId: workspaceId, data: { before: before.map((b) => ({ typeLabel: b.typeLabel, price: b.price, currency: b.currency })), after: prices } }, m)
+    await recordAudit(
+      {
+        workspaceId,
+        actorId,
+        action: 'pack-prices.updated',
+        entityType: 'workspace',
+        entityId: workspaceId,
+        data: { before: before.map((b) => ({ typeLabel: b.typeLabel, price: b.price, currency: b.currency })), after: prices },
+      },
+      m,
+    )
   })
   return { prices: await packPrices(workspaceId) }
 }

@@ -18,7 +18,15 @@ export interface RegimeChange {
   changedAt: string
 }
 
-export async function recordRegimeChange(m: EntityManager, workspaceId: string, siteId: string, actorId: string | null, from: RegimeId | null, to: RegimeId, reason = ''): Promise<void> {
+export async function recordRegimeChange(
+  m: EntityManager,
+  workspaceId: string,
+  siteId: string,
+  actorId: string | null,
+  from: RegimeId | null,
+  to: RegimeId,
+  reason = '',
+): Promise<void> {
   await m.query(
     `INSERT INTO site_regime_changes (workspace_id, site_id, from_regime, to_regime, profile_version, reason, changed_by) VALUES ($1, $2, $3, $4, $5, $6, $7)`,
     [workspaceId, siteId, from, to, regimeProfile(to).version, reason, actorId],

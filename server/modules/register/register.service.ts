@@ -1,12 +1,24 @@
 /**
- * Sites, areas and luminaires of the register, and what is due on them. Every query is scoped by
+ * Sites and luminaires of the register, and what is due on them (areas: areas.service.ts; the
+ * workspace's log-book settings: register-settings.service.ts). Every query is scoped by
  * workspace; another workspace's id answers "not found". The due rules and the battery forecast
  * come from the engine (shared/engine/due.ts); nothing is computed here.
  */
 import type { EntityManager } from 'typeorm'
 import { z } from 'zod'
-import { countDue, DEFAULT_REPAIR_WINDOW_DAYS, dueWithin, forecastPack, luminaireDue, needingAttention, REGIMES, type DueItem, type LuminaireDue, type PackForecast, type TestEvent } from '../../../shared/engine/due'
-import type { AreaPatchSchema, AreaSchema, SitePatchSchema, SiteSchema } from '../../../shared/schemas/site.schema'
+import {
+  countDue,
+  dueWithin,
+  forecastPack,
+  luminaireDue,
+  needingAttention,
+  REGIMES,
+  type DueItem,
+  type LuminaireDue,
+  type PackForecast,
+  type TestEvent,
+} from '../../../shared/engine/due'
+import type { SitePatchSchema, SiteSchema } from '../../../shared/schemas/site.schema'
 import type { LuminairePatchSchema, LuminaireSchema, PackReplacementSchema } from '../../../shared/schemas/luminaire.schema'
 import { regimeProfile } from '../../../shared/engine/regimes'
 import { dataSource } from '../../data-source'
@@ -14,14 +26,17 @@ import { AppError, BadRequestError, NotFoundError } from '../../errors/app-error
 import { recordAudit } from '../audit/audit.service'
 import { AreaEntity } from './area.entity'
 import { LuminaireEntity } from './luminaire.entity'
-import { RegisterSettingsEntity } from './register-settings.entity'
 import { SiteEntity } from './site.entity'
 import { recordRegimeChange, regimeHistory } from './regime-history.service'
+import { registerSettings, type RegisterSettings } from './register-settings.service'
+
+export { DEFAULT_REMINDERS, registerSettings, updateRegisterSettings, type RegisterSettings, type ReminderRole } from './register-settings.service'
 
 /** Today's calendar day in UTC, the day the due rules are evaluated on. */
 export const todayIso = (): string => new Date().toISOString().slice(0, 10)
 
-const isUniqueViolation = (err: unknown) => (err as { driverError?: { code?: string }; code?: string })?.driverError?.code === '23505' || (err as { code?: string })?.code === '23505'
+export const isUniqueViolation = (err: unknown) =>
+  (err as { driverError?: { code?: string }; code?: string })?.driverError?.code === '23505' || (err as { code?: string })?.code === '23505'
 
 // ---------------------------------------------------------------- sites
 
@@ -50,7 +65,10 @@ export async function createSite(workspaceId: string, actorId: string, input: z.
   return dataSource.transaction(async (m) => {
     const site = await m.getRepository(SiteEntity).save(m.getRepository(SiteEntity).create({ ...input, workspaceId }))
     await recordRegimeChange(m, workspaceId, site.id, actorId, null, site.regime)
-    await recordAudit({ workspaceId, actorId, action: 'site.created', entityType: 'site', entityId: site.id, data: { name: site.name, regime: site.regime } }, m)
+    await recordAudit(
+      { workspaceId, actorId, action: 'site.created', entityType: 'site', entityId: site.id, data: { name: site.name, regime: site.regime } },
+      m,
+    )
     return siteDto(site)
   })
 }
@@ -79,102 +97,10 @@ export async function deleteSite(workspaceId: string, actorId: string, id: strin
 }
 
 /** { field: { from, to } } for the fields a patch really changes. */
-function changedFields(before: Record<string, unknown>, patch: Record<string, unknown>) {
+export function changedFields(before: Record<string, unknown>, patch: Record<string, unknown>) {
   const out: Record<string, { from: unknown; to: unknown }> = {}
   for (const [k, v] of Object.entries(patch)) if (v !== undefined && before[k] !== v) out[k] = { from: before[k] ?? null, to: v }
   return out
-}
-
-// ---------------------------------------------------------------- workspace log-book settings
-
-export type ReminderRole = 'owner' | 'designer' | 'technician' | 'viewer'
-
-export interface RegisterSettings {
-  repairWindowDays: number
-  /** The daily reminder lists tests falling due within this many days. */
-  reminderDaysAhead: number
-  /** Whether each site's responsible person gets the reminder. */
-  remindSiteContact: boolean
-  /** Members with these roles get it. */
-  remindRoles: ReminderRole[]
-}
-
-/** Reminders by default: 14 days ahead, to the site contact, the technicians and the owners (the person answerable). */
-export const DEFAULT_REMINDERS = { reminderDaysAhead: 14, remindSiteContact: true, remindRoles: ['owner', 'technician'] as ReminderRole[] }
-
-export async function registerSettings(workspaceId: string, m: EntityManager = dataSource.manager): Promise<RegisterSettings> {
-  const row = await m.getRepository(RegisterSettingsEntity).findOne({ where: { workspaceId } })
-  return {
-    repairWindowDays: row?.repairWindowDays ?? DEFAULT_REPAIR_WINDOW_DAYS,
-    reminderDaysAhead: row?.reminderDaysAhead ?? DEFAULT_REMINDERS.reminderDaysAhead,
-    remindSiteContact: row?.remindSiteContact ?? DEFAULT_REMINDERS.remindSiteContact,
-    remindRoles: (row?.remindRoles as ReminderRole[] | undefined) ?? DEFAULT_REMINDERS.remindRoles,
-  }
-}
-
-export async function updateRegisterSettings(workspaceId: string, actorId: string, patch: Partial<RegisterSettings>) {
-  return dataSource.transaction(async (m) => {
-    const before = await registerSettings(workspaceId, m)
-    const after = { ...before, ...Object.fromEntries(Object.entries(patch).filter(([, v]) => v !== undefined)) }
-    await m.getRepository(RegisterSettingsEntity).upsert({ workspaceId, ...after }, ['workspaceId'])
-    await recordAudit({ workspaceId, actorId, action: 'register-settings.updated', entityType: 'workspace', entityId: workspaceId, data: { before, after } }, m)
-    return after
-  })
-}
-
-// ---------------------------------------------------------------- areas
-
-export function areaDto(a: AreaEntity) {
-  return { id: a.id, siteId: a.siteId, name: a.name, notes: a.notes }
-}
-
-async function findArea(workspaceId: string, id: string, m: EntityManager = dataSource.manager) {
-  const area = await m.getRepository(AreaEntity).findOne({ where: { id, workspaceId } })
-  if (!area) throw new NotFoundError('That area')
-  return area
-}
-
-const areaNameTaken = (name: string) => new AppError(409, 'conflict', `An area called "${name}" already exists on this site.`, [{ path: 'name', message: 'is already used on this site' }])
-
-export async function createArea(workspaceId: string, actorId: string, siteId: string, input: z.output<typeof AreaSchema>) {
-  return dataSource
-    .transaction(async (m) => {
-      await findSite(workspaceId, siteId, m)
-      const area = await m.getRepository(AreaEntity).save(m.getRepository(AreaEntity).create({ ...input, siteId, workspaceId }))
-      await recordAudit({ workspaceId, actorId, action: 'area.created', entityType: 'area', entityId: area.id, data: { siteId, name: area.name } }, m)
-      return areaDto(area)
-    })
-    .catch((err) => {
-      throw isUniqueViolation(err) ? areaNameTaken(input.name) : err
-    })
-}
-
-export async function updateArea(workspaceId: string, actorId: string, id: string, patch: z.output<typeof AreaPatchSchema>) {
-  return dataSource
-    .transaction(async (m) => {
-      const area = await findArea(workspaceId, id, m)
-      const changes = changedFields(area as unknown as Record<string, unknown>, patch)
-      Object.assign(area, patch)
-      await m.getRepository(AreaEntity).save(area)
-      await recordAudit({ workspaceId, actorId, action: 'area.updated', entityType: 'area', entityId: id, data: { changes } }, m)
-      return areaDto(area)
-    })
-    .catch((err) => {
-      throw isUniqueViolation(err) ? areaNameTaken(patch.name ?? '') : err
-    })
-}
-
-export async function deleteArea(workspaceId: string, actorId: string, id: string) {
-  await dataSource.transaction(async (m) => {
-    const area = await findArea(workspaceId, id, m)
-    await m.getRepository(AreaEntity).delete({ id, workspaceId })
-    await recordAudit({ workspaceId, actorId, action: 'area.deleted', entityType: 'area', entityId: id, data: { siteId: area.siteId, name: area.name } }, m)
-  })
-}
-
-export async function listAreas(workspaceId: string, siteId: string) {
-  const rows = await dataSource.getRepository(AreaEntity).find({ where: { workspaceId, siteId }, order: { name: 'ASC' } })
-  return rows.map(areaDto)
 }
 
 // ---------------------------------------------------------------- luminaires
@@ -216,8 +142,12 @@ export async function findLuminaire(workspaceId: string, id: string, m: EntityMa
 }
 
 const externalIdClash = (err: unknown) => (err as { driverError?: { constraint?: string } })?.driverError?.constraint === 'luminaires_site_external_id'
-const externalIdTaken = (id: string | null | undefined) => new AppError(409, 'conflict', `A luminaire with the external id "${id ?? ''}" is already in this site's register.`, [{ path: 'externalId', message: 'is already used on this site' }])
-const tagTaken = (tag: string) => new AppError(409, 'conflict', `A luminaire tagged "${tag}" is already in this site's register.`, [{ path: 'tag', message: 'is already used on this site' }])
+const externalIdTaken = (id: string | null | undefined) =>
+  new AppError(409, 'conflict', `A luminaire with the external id "${id ?? ''}" is already in this site's register.`, [
+    { path: 'externalId', message: 'is already used on this site' },
+  ])
+const tagTaken = (tag: string) =>
+  new AppError(409, 'conflict', `A luminaire tagged "${tag}" is already in this site's register.`, [{ path: 'tag', message: 'is already used on this site' }])
 
 /** The area must lie in the luminaire's site (that every id is of this workspace is checked before the handler, server/lib/references.ts). */
 async function checkArea(m: EntityManager, workspaceId: string, siteId: string, v: { areaId?: string | null }) {
@@ -258,7 +188,17 @@ export async function updateLuminaire(workspaceId: string, actorId: string, id: 
       await m.getRepository(LuminaireEntity).save(l)
       await recordAudit({ workspaceId, actorId, action: 'luminaire.updated', entityType: 'luminaire', entityId: id, data: { tag: l.tag, changes } }, m)
       if (PACK_FIELDS.some((f) => f in changes)) {
-        await recordAudit({ workspaceId, actorId, action: 'pack.changed', entityType: 'luminaire', entityId: id, data: { tag: l.tag, changes: Object.fromEntries(PACK_FIELDS.filter((f) => f in changes).map((f) => [f, changes[f]])) } }, m)
+        await recordAudit(
+          {
+            workspaceId,
+            actorId,
+            action: 'pack.changed',
+            entityType: 'luminaire',
+            entityId: id,
+            data: { tag: l.tag, changes: Object.fromEntries(PACK_FIELDS.filter((f) => f in changes).map((f) => [f, changes[f]])) },
+          },
+          m,
+        )
       }
       return luminaireDto(l, await areaNameOf(m, l.areaId))
     })
@@ -278,7 +218,10 @@ export async function replacePack(workspaceId: string, actorId: string, id: stri
     l.packFittedOn = input.packFittedOn
     await m.getRepository(LuminaireEntity).save(l)
     const after = { chemistry: l.chemistry, cellsInSeries: l.cellsInSeries, capacityAh: l.capacityAh, packFittedOn: l.packFittedOn }
-    await recordAudit({ workspaceId, actorId, action: 'pack.replaced', entityType: 'luminaire', entityId: id, data: { tag: l.tag, before, after, note: input.note } }, m)
+    await recordAudit(
+      { workspaceId, actorId, action: 'pack.replaced', entityType: 'luminaire', entityId: id, data: { tag: l.tag, before, after, note: input.note } },
+      m,
+    )
     return luminaireDto(l, await areaNameOf(m, l.areaId))
   })
 }
@@ -338,18 +281,32 @@ export interface LuminaireStatus extends LuminaireDto {
 }
 
 /** Due dates and pack forecast of each luminaire, from the engine. */
-export function statusOf(site: Pick<SiteEntity, 'regime' | 'ceilingTemperatureC'>, l: LuminaireEntity, areaName: string | null, tests: TestRow[], today: string, settings: RegisterSettings): LuminaireStatus {
-  const events: TestEvent[] = [...testsBeforeRegister(l), ...tests.map((t) => ({ kind: t.kind, testedOn: t.tested_on, passed: t.passed, faults: t.faults, remedialAction: t.remedial_action }))]
+export function statusOf(
+  site: Pick<SiteEntity, 'regime' | 'ceilingTemperatureC'>,
+  l: LuminaireEntity,
+  areaName: string | null,
+  tests: TestRow[],
+  today: string,
+  settings: RegisterSettings,
+): LuminaireStatus {
+  const events: TestEvent[] = [
+    ...testsBeforeRegister(l),
+    ...tests.map((t) => ({ kind: t.kind, testedOn: t.tested_on, passed: t.passed, faults: t.faults, remedialAction: t.remedial_action })),
+  ]
   const registeredOn = l.createdAt.toISOString().slice(0, 10)
   const since = l.packFittedOn < registeredOn ? l.packFittedOn : registeredOn
-  const due = luminaireDue({ regime: site.regime, since, packFittedOn: l.packFittedOn, registeredOn, tests: events }, today, { repairWindowDays: settings.repairWindowDays })
+  const due = luminaireDue({ regime: site.regime, since, packFittedOn: l.packFittedOn, registeredOn, tests: events }, today, {
+    repairWindowDays: settings.repairWindowDays,
+  })
   const forecast = forecastPack(
     {
       chemistry: l.chemistry,
       fittedOn: l.packFittedOn,
       ambientC: site.ceilingTemperatureC,
       ratedDurationH: l.ratedDurationH,
-      durations: tests.filter((t) => t.kind === 'duration' && t.achieved_duration_h !== null).map((t) => ({ testedOn: t.tested_on, achievedH: t.achieved_duration_h! })),
+      durations: tests
+        .filter((t) => t.kind === 'duration' && t.achieved_duration_h !== null)
+        .map((t) => ({ testedOn: t.tested_on, achievedH: t.achieved_duration_h! })),
     },
     today,
   )
@@ -367,7 +324,11 @@ async function luminairesOf(workspaceId: string, where: { siteId?: string }, m: 
 export async function siteStatus(workspaceId: string, siteId: string, today = todayIso(), m: EntityManager = dataSource.manager) {
   const site = await findSite(workspaceId, siteId, m)
   const { rows, areaNames } = await luminairesOf(workspaceId, { siteId }, m)
-  const tests = await testsOf(workspaceId, rows.map((l) => l.id), m)
+  const tests = await testsOf(
+    workspaceId,
+    rows.map((l) => l.id),
+    m,
+  )
   const settings = await registerSettings(workspaceId, m)
   const luminaires = rows
     .map((l) => statusOf(site, l, l.areaId ? (areaNames.get(l.areaId) ?? null) : null, tests.get(l.id) ?? [], today, settings))
@@ -411,7 +372,10 @@ export interface AttentionItem extends UpcomingTest {
 export async function overview(workspaceId: string, days = 60, today = todayIso()) {
   const sites = await dataSource.getRepository(SiteEntity).find({ where: { workspaceId }, order: { name: 'ASC' } })
   const { rows } = await luminairesOf(workspaceId, {})
-  const tests = await testsOf(workspaceId, rows.map((l) => l.id))
+  const tests = await testsOf(
+    workspaceId,
+    rows.map((l) => l.id),
+  )
   const settings = await registerSettings(workspaceId)
   const siteById = new Map(sites.map((s) => [s.id, s]))
   const statuses = rows.map((l) => ({ siteId: l.siteId, status: statusOf(siteById.get(l.siteId)!, l, null, tests.get(l.id) ?? [], today, settings) }))
@@ -423,7 +387,11 @@ export async function overview(workspaceId: string, days = 60, today = todayIso(
       packsToReplace: mine.filter((x) => x.forecast.state !== 'ok').length,
     }
   })
-  const upcoming: UpcomingTest[] = dueWithin(statuses.map((x) => ({ ...x, due: x.status.due })), today, days).map(({ item, test }) => ({
+  const upcoming: UpcomingTest[] = dueWithin(
+    statuses.map((x) => ({ ...x, due: x.status.due })),
+    today,
+    days,
+  ).map(({ item, test }) => ({
     siteId: item.siteId,
     siteName: siteById.get(item.siteId)!.name,
     luminaireId: item.status.id,
@@ -460,10 +428,15 @@ export async function overview(workspaceId: string, days = 60, today = todayIso(
 export async function workspaceStatuses(workspaceId: string, today = todayIso()) {
   const sites = await dataSource.getRepository(SiteEntity).find({ where: { workspaceId }, order: { name: 'ASC' } })
   const { rows, areaNames } = await luminairesOf(workspaceId, {})
-  const tests = await testsOf(workspaceId, rows.map((l) => l.id))
+  const tests = await testsOf(
+    workspaceId,
+    rows.map((l) => l.id),
+  )
   const settings = await registerSettings(workspaceId)
   const siteById = new Map(sites.map((s) => [s.id, s]))
-  const statuses = rows.map((l) => statusOf(siteById.get(l.siteId)!, l, l.areaId ? (areaNames.get(l.areaId) ?? null) : null, tests.get(l.id) ?? [], today, settings))
+  const statuses = rows.map((l) =>
+    statusOf(siteById.get(l.siteId)!, l, l.areaId ? (areaNames.get(l.areaId) ?? null) : null, tests.get(l.id) ?? [], today, settings),
+  )
   return { today, sites, statuses }
 }
 

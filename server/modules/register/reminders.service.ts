@@ -40,7 +40,9 @@ export function reminderItems(luminaires: LuminaireStatus[], daysAhead = REMINDE
     const label = `${l.tag}${where(l) ? ` (${where(l)})` : ''}`
     for (const f of l.due.openFailures) {
       const retest = f.retestOverdue ? `retest overdue (was due by ${f.retestBy})` : `retest due now, by ${f.retestBy}`
-      failed.push(`${label}: failed its ${testName(f.kind)} on ${f.testedOn}${f.faults ? ` (${f.faults})` : ''}; ${retest}${f.remedialAction ? `. Action: ${f.remedialAction}` : ''}`)
+      failed.push(
+        `${label}: failed its ${testName(f.kind)} on ${f.testedOn}${f.faults ? ` (${f.faults})` : ''}; ${retest}${f.remedialAction ? `. Action: ${f.remedialAction}` : ''}`,
+      )
       tags.add(l.tag)
     }
     for (const t of [l.due.functional, l.due.duration]) {
@@ -48,7 +50,8 @@ export function reminderItems(luminaires: LuminaireStatus[], daysAhead = REMINDE
       const what = t.reason === 'commissioning' ? 'first full-duration test of the pack now fitted' : testName(t.kind)
       if (t.state === 'overdue') overdue.push(`${label}: ${what} overdue (was due by ${t.overdueAfter}, ${-t.daysUntilDue} days ago)`)
       else if (t.state === 'due-now') soon.push(`${label}: ${what} due now, by ${t.overdueAfter}`)
-      else if ((t.state === 'due-soon' || t.state === 'scheduled') && t.daysUntilDue <= daysAhead) soon.push(`${label}: ${what} due ${t.nextDueOn}${t.daysUntilDue === 0 ? ' (today)' : ` (in ${t.daysUntilDue} days)`}`)
+      else if ((t.state === 'due-soon' || t.state === 'scheduled') && t.daysUntilDue <= daysAhead)
+        soon.push(`${label}: ${what} due ${t.nextDueOn}${t.daysUntilDue === 0 ? ' (today)' : ` (in ${t.daysUntilDue} days)`}`)
       else continue
       tags.add(l.tag)
     }
@@ -75,13 +78,17 @@ export interface ReminderOptions {
 /** Runs the reminder for one calendar day. Safe to call any number of times, from any number of processes. */
 export async function runReminders(day: string, opts: ReminderOptions = {}): Promise<ReminderOutcome> {
   const outcome: ReminderOutcome = { day, sent: [], alreadySent: [], failed: [] }
-  const sites = await dataSource.getRepository(SiteEntity).find({ where: opts.workspaceId ? { workspaceId: opts.workspaceId } : {}, order: { createdAt: 'ASC' } })
+  const sites = await dataSource
+    .getRepository(SiteEntity)
+    .find({ where: opts.workspaceId ? { workspaceId: opts.workspaceId } : {}, order: { createdAt: 'ASC' } })
   for (const site of sites) {
     const status = await siteStatus(site.workspaceId, site.id, day)
     const settings = await registerSettings(site.workspaceId)
     const items = reminderItems(status.luminaires, settings.reminderDaysAhead)
     if (!items.tags.size) continue
-    const to = [...new Set([settings.remindSiteContact ? site.responsibleEmail : '', ...(await memberEmails(site.workspaceId, settings.remindRoles))].filter(Boolean))]
+    const to = [
+      ...new Set([settings.remindSiteContact ? site.responsibleEmail : '', ...(await memberEmails(site.workspaceId, settings.remindRoles))].filter(Boolean)),
+    ]
     if (!to.length) continue
     try {
       const claimed = await dataSource.transaction(async (m) => {
@@ -99,7 +106,10 @@ export async function runReminders(day: string, opts: ReminderOptions = {}): Pro
           'Before working on a luminaire, isolate the mains; a charged pack can still deliver a high current. Local codes and a competent, licensed person decide what the installation needs.',
         ]
         const subject = `Emergency lighting tests at ${site.name}: ${items.failed.length} failed, ${items.overdue.length} overdue, ${items.soon.length} due soon`
-        await sendMail({ to, subject, ...composeMail(paragraphs, { label: 'Open the site', url: `${config().origin}/sites/${site.id}` }) }, { kind: 'reminder', workspaceId: site.workspaceId })
+        await sendMail(
+          { to, subject, ...composeMail(paragraphs, { label: 'Open the site', url: `${config().origin}/sites/${site.id}` }) },
+          { kind: 'reminder', workspaceId: site.workspaceId },
+        )
         return true
       })
       if (claimed) outcome.sent.push({ siteId: site.id, to, luminaires: items.tags.size })

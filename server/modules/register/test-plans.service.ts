@@ -21,7 +21,11 @@ export interface StoredPlan {
 }
 
 const toStored = (e: TestPlanEntity): StoredPlan => ({
-  id: e.id, siteId: e.siteId, input: e.input as unknown as TestPlanRequest, plan: e.plan as unknown as TestPlan, createdAt: e.createdAt.toISOString(),
+  id: e.id,
+  siteId: e.siteId,
+  input: e.input as unknown as TestPlanRequest,
+  plan: e.plan as unknown as TestPlan,
+  createdAt: e.createdAt.toISOString(),
 })
 
 export async function makePlan(workspaceId: string, actorId: string, siteId: string, input: TestPlanRequest): Promise<StoredPlan> {
@@ -32,12 +36,26 @@ export async function makePlan(workspaceId: string, actorId: string, siteId: str
     ...input,
     regime: site.regime,
     luminaires: luminaires.map((l) => ({
-      id: l.id, tag: l.tag, areaId: l.areaId, areaName: l.areaId ? (areas.get(l.areaId) ?? null) : null, circuit: l.circuit, walkOrder: l.walkOrder, ratedDurationH: l.ratedDurationH, rechargeH: l.rechargeH,
+      id: l.id,
+      tag: l.tag,
+      areaId: l.areaId,
+      areaName: l.areaId ? (areas.get(l.areaId) ?? null) : null,
+      circuit: l.circuit,
+      walkOrder: l.walkOrder,
+      ratedDurationH: l.ratedDurationH,
+      rechargeH: l.rechargeH,
     })),
   })
   const repo = dataSource.getRepository(TestPlanEntity)
   const saved = await repo.save(repo.create({ workspaceId, siteId, input: { ...input }, plan: plan as unknown as Record<string, unknown>, createdBy: actorId }))
-  await recordAudit({ workspaceId, actorId, action: 'test-plan.made', entityType: 'site', entityId: siteId, data: { planId: saved.id, ...input, groups: plan.groups.length } })
+  await recordAudit({
+    workspaceId,
+    actorId,
+    action: 'test-plan.made',
+    entityType: 'site',
+    entityId: siteId,
+    data: { planId: saved.id, ...input, groups: plan.groups.length },
+  })
   return toStored(saved)
 }
 

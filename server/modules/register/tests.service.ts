@@ -40,9 +40,27 @@ export interface LogBookEntry {
   recordedInErrorByName: string | null
 }
 
-async function upsertOne(m: EntityManager, workspaceId: string, actorId: string, r: TestRecordData, index: number): Promise<{ id: string; outcome: SaveOutcome }> {
-  const values = [r.luminaireId, r.kind, r.testedOn, r.passed, r.achievedDurationH, r.faults, r.remedialAction, r.dischargeLogId,
-    JSON.stringify(r.checklist), r.verdictOverrideReason, r.runtimeNote, r.roundClientId]
+async function upsertOne(
+  m: EntityManager,
+  workspaceId: string,
+  actorId: string,
+  r: TestRecordData,
+  index: number,
+): Promise<{ id: string; outcome: SaveOutcome }> {
+  const values = [
+    r.luminaireId,
+    r.kind,
+    r.testedOn,
+    r.passed,
+    r.achievedDurationH,
+    r.faults,
+    r.remedialAction,
+    r.dischargeLogId,
+    JSON.stringify(r.checklist),
+    r.verdictOverrideReason,
+    r.runtimeNote,
+    r.roundClientId,
+  ]
   // Insert, or find the record this clientId already names: a clientId stands for one record, so a
   // retry with the same content changes nothing and different content is a conflict, never a rewrite.
   const rows: Array<{ id: string }> = await m.query(
@@ -54,7 +72,15 @@ async function upsertOne(m: EntityManager, workspaceId: string, actorId: string,
     [workspaceId, r.clientId, actorId, ...values],
   )
   if (rows.length) {
-    const data = { luminaireId: r.luminaireId, kind: r.kind, testedOn: r.testedOn, passed: r.passed, achievedDurationH: r.achievedDurationH, faults: r.faults, remedialAction: r.remedialAction }
+    const data = {
+      luminaireId: r.luminaireId,
+      kind: r.kind,
+      testedOn: r.testedOn,
+      passed: r.passed,
+      achievedDurationH: r.achievedDurationH,
+      faults: r.faults,
+      remedialAction: r.remedialAction,
+    }
     await recordAudit({ workspaceId, actorId, action: 'test.recorded', entityType: 'test', entityId: rows[0].id, data }, m)
     return { id: rows[0].id, outcome: 'created' }
   }
@@ -84,7 +110,15 @@ export function latestTodayAnywhere(now: Date = new Date()): string {
 function refuseFutureDates(records: TestRecordData[]) {
   const today = latestTodayAnywhere()
   const fields = records.flatMap((r, i) =>
-    r.testedOn > today ? [{ path: `records.${i}.testedOn`, code: 'future_date', message: `is later than today (${r.testedOn}); a test can only be recorded once it has been done` }] : [],
+    r.testedOn > today
+      ? [
+          {
+            path: `records.${i}.testedOn`,
+            code: 'future_date',
+            message: `is later than today (${r.testedOn}); a test can only be recorded once it has been done`,
+          },
+        ]
+      : [],
   )
   if (fields.length) throw new UnprocessableError('A test is dated in the future; see the fields.', fields)
 }
@@ -98,7 +132,10 @@ async function checkAgainstRules(m: EntityManager, workspaceId: string, records:
   const logIds = [...new Set(records.map((r) => r.dischargeLogId).filter((x): x is string => !!x))]
   const runtimes = new Map<string, number>()
   if (logIds.length) {
-    const rows: Array<{ id: string; runtime: number | null }> = await m.query(`SELECT id, (summary->>'runtimeH')::float8 AS runtime FROM discharge_logs WHERE workspace_id = $1 AND id = ANY($2::uuid[])`, [workspaceId, logIds])
+    const rows: Array<{ id: string; runtime: number | null }> = await m.query(
+      `SELECT id, (summary->>'runtimeH')::float8 AS runtime FROM discharge_logs WHERE workspace_id = $1 AND id = ANY($2::uuid[])`,
+      [workspaceId, logIds],
+    )
     for (const row of rows) if (row.runtime !== null) runtimes.set(row.id, row.runtime)
   }
   const fields: Array<{ path: string; message: string }> = []
@@ -115,7 +152,10 @@ async function checkAgainstRules(m: EntityManager, workspaceId: string, records:
       const required = requiredById.get(r.luminaireId)!
       const verdict = durationVerdict(r.achievedDurationH, required)
       if (verdict !== null && verdict !== r.passed && !r.verdictOverrideReason) {
-        fields.push({ path: `records.${i}.verdictOverrideReason`, message: `${r.achievedDurationH} h against the required ${required} h is a ${verdict ? 'pass' : 'fail'}: give a reason to record a ${r.passed ? 'pass' : 'fail'}` })
+        fields.push({
+          path: `records.${i}.verdictOverrideReason`,
+          message: `${r.achievedDurationH} h against the required ${required} h is a ${verdict ? 'pass' : 'fail'}: give a reason to record a ${r.passed ? 'pass' : 'fail'}`,
+        })
       }
     }
   })
@@ -150,7 +190,11 @@ export const LOG_SELECT = `SELECT t.id, t.client_id AS "clientId", t.luminaire_i
 /** A site's log book, newest first. */
 export async function siteLogBook(workspaceId: string, siteId: string, limit = 2000): Promise<LogBookEntry[]> {
   await findSite(workspaceId, siteId)
-  return dataSource.query(`${LOG_SELECT} WHERE t.workspace_id = $1 AND l.site_id = $2 ORDER BY t.tested_on DESC, t.recorded_at DESC LIMIT $3`, [workspaceId, siteId, limit])
+  return dataSource.query(`${LOG_SELECT} WHERE t.workspace_id = $1 AND l.site_id = $2 ORDER BY t.tested_on DESC, t.recorded_at DESC LIMIT $3`, [
+    workspaceId,
+    siteId,
+    limit,
+  ])
 }
 
 /** A battery pack fitted or changed on a luminaire of the site, as the audit trail recorded it, with its note. */
@@ -169,30 +213,54 @@ export interface PackChangeEntry {
 
 /** Pack changes of a site's luminaires (fitted in the field, or the pack's details corrected), newest first. */
 export async function sitePackChanges(workspaceId: string, siteId: string, limit = 2000): Promise<PackChangeEntry[]> {
-  const rows: Array<{ id: string; luminaireId: string; tag: string; action: string; data: Record<string, unknown>; recordedByName: string | null; at: Date }> = await dataSource.query(
-    `SELECT a.id, l.id AS "luminaireId", l.tag, a.action, a.data, u.name AS "recordedByName", a.at
+  const rows: Array<{ id: string; luminaireId: string; tag: string; action: string; data: Record<string, unknown>; recordedByName: string | null; at: Date }> =
+    await dataSource.query(
+      `SELECT a.id, l.id AS "luminaireId", l.tag, a.action, a.data, u.name AS "recordedByName", a.at
        FROM audit_events a JOIN luminaires l ON l.id::text = a.entity_id AND l.workspace_id = a.workspace_id LEFT JOIN users u ON u.id = a.actor_id
       WHERE a.workspace_id = $1 AND l.site_id = $2 AND a.action IN ('pack.replaced', 'pack.changed') ORDER BY a.at DESC LIMIT $3`,
-    [workspaceId, siteId, limit],
-  )
+      [workspaceId, siteId, limit],
+    )
   return rows.map((r) => {
     const at = new Date(r.at).toISOString()
     if (r.action === 'pack.replaced') {
       const after = (r.data.after ?? null) as Record<string, unknown> | null
-      return { id: r.id, luminaireId: r.luminaireId, tag: r.tag, changedOn: String(after?.packFittedOn ?? at.slice(0, 10)), before: (r.data.before ?? null) as Record<string, unknown> | null, after, note: String(r.data.note ?? ''), recordedByName: r.recordedByName, recordedAt: at }
+      return {
+        id: r.id,
+        luminaireId: r.luminaireId,
+        tag: r.tag,
+        changedOn: String(after?.packFittedOn ?? at.slice(0, 10)),
+        before: (r.data.before ?? null) as Record<string, unknown> | null,
+        after,
+        note: String(r.data.note ?? ''),
+        recordedByName: r.recordedByName,
+        recordedAt: at,
+      }
     }
     // A correction of the pack's details: { field: { from, to } }.
     const changes = (r.data.changes ?? {}) as Record<string, { from: unknown; to: unknown }>
     const before = Object.fromEntries(Object.entries(changes).map(([k, v]) => [k, v.from]))
     const after = Object.fromEntries(Object.entries(changes).map(([k, v]) => [k, v.to]))
-    return { id: r.id, luminaireId: r.luminaireId, tag: r.tag, changedOn: at.slice(0, 10), before, after, note: 'Pack details corrected in the register', recordedByName: r.recordedByName, recordedAt: at }
+    return {
+      id: r.id,
+      luminaireId: r.luminaireId,
+      tag: r.tag,
+      changedOn: at.slice(0, 10),
+      before,
+      after,
+      note: 'Pack details corrected in the register',
+      recordedByName: r.recordedByName,
+      recordedAt: at,
+    }
   })
 }
 
 /** One luminaire's tests, newest first. */
 export async function luminaireLogBook(workspaceId: string, luminaireId: string): Promise<LogBookEntry[]> {
   await findLuminaire(workspaceId, luminaireId)
-  return dataSource.query(`${LOG_SELECT} WHERE t.workspace_id = $1 AND t.luminaire_id = $2 ORDER BY t.tested_on DESC, t.recorded_at DESC`, [workspaceId, luminaireId])
+  return dataSource.query(`${LOG_SELECT} WHERE t.workspace_id = $1 AND t.luminaire_id = $2 ORDER BY t.tested_on DESC, t.recorded_at DESC`, [
+    workspaceId,
+    luminaireId,
+  ])
 }
 
 /** Removes a record entered in error; the audit trail keeps what it said. */
@@ -215,7 +283,10 @@ export async function markRecordedInError(workspaceId: string, actorId: string, 
     const rows: LogBookEntry[] = await m.query(`${LOG_SELECT} WHERE t.workspace_id = $1 AND t.id = $2 FOR UPDATE OF t`, [workspaceId, id])
     if (!rows.length) throw new NotFoundError('That test record')
     if (rows[0].recordedInErrorAt) throw new ConflictError(`This test was already marked as recorded in error (${rows[0].recordedInErrorReason}).`)
-    await m.query('UPDATE test_records SET recorded_in_error_at = now(), recorded_in_error_by = $3, recorded_in_error_reason = $4, updated_at = now() WHERE workspace_id = $1 AND id = $2', [workspaceId, id, actorId, reason])
+    await m.query(
+      'UPDATE test_records SET recorded_in_error_at = now(), recorded_in_error_by = $3, recorded_in_error_reason = $4, updated_at = now() WHERE workspace_id = $1 AND id = $2',
+      [workspaceId, id, actorId, reason],
+    )
     await recordAudit({ workspaceId, actorId, action: 'test.recorded-in-error', entityType: 'test', entityId: id, data: { reason, record: { ...rows[0] } } }, m)
     const after: LogBookEntry[] = await m.query(`${LOG_SELECT} WHERE t.workspace_id = $1 AND t.id = $2`, [workspaceId, id])
     return after[0]
@@ -225,7 +296,9 @@ export async function markRecordedInError(workspaceId: string, actorId: string, 
 /** Signs off a round (retries with the same clientId answer the same row); lists its records' failures. */
 export async function signOffRound(workspaceId: string, actorId: string, siteId: string, input: RoundSignOff) {
   if (input.signedOffOn > latestTodayAnywhere()) {
-    throw new UnprocessableError('A round cannot be signed off with a date in the future.', [{ path: 'signedOffOn', code: 'future_date', message: `is later than today (${input.signedOffOn})` }])
+    throw new UnprocessableError('A round cannot be signed off with a date in the future.', [
+      { path: 'signedOffOn', code: 'future_date', message: `is later than today (${input.signedOffOn})` },
+    ])
   }
   await findSite(workspaceId, siteId)
   return dataSource.transaction(async (m) => {
@@ -238,14 +311,29 @@ export async function signOffRound(workspaceId: string, actorId: string, siteId:
       [workspaceId, siteId, input.clientId, input.signedOffByName, input.signedOffOn, input.notes, actorId],
     )
     if (!rows.length) throw new ConflictError(`The round ${input.clientId} was signed off for another site.`)
-    const records: LogBookEntry[] = await m.query(`${LOG_SELECT} WHERE t.workspace_id = $1 AND t.round_client_id = $2 ORDER BY l.tag`, [workspaceId, input.clientId])
-    await recordAudit({ workspaceId, actorId, action: 'round.signed-off', entityType: 'site', entityId: siteId, data: { roundId: rows[0].id, ...input, records: records.length } }, m)
+    const records: LogBookEntry[] = await m.query(`${LOG_SELECT} WHERE t.workspace_id = $1 AND t.round_client_id = $2 ORDER BY l.tag`, [
+      workspaceId,
+      input.clientId,
+    ])
+    await recordAudit(
+      {
+        workspaceId,
+        actorId,
+        action: 'round.signed-off',
+        entityType: 'site',
+        entityId: siteId,
+        data: { roundId: rows[0].id, ...input, records: records.length },
+      },
+      m,
+    )
     return {
       id: rows[0].id,
       created: rows[0].inserted,
       ...input,
       records: records.length,
-      failures: records.filter((r) => !r.passed && !r.recordedInErrorAt).map((r) => ({ tag: r.tag, kind: r.kind, faults: r.faults, remedialAction: r.remedialAction })),
+      failures: records
+        .filter((r) => !r.passed && !r.recordedInErrorAt)
+        .map((r) => ({ tag: r.tag, kind: r.kind, faults: r.faults, remedialAction: r.remedialAction })),
     }
   })
 }

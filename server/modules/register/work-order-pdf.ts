@@ -10,7 +10,12 @@ import { findSite } from './register.service'
 import { table } from '../../lib/pdf/table'
 import { findPlan } from './test-plans.service'
 
-export async function workOrderPdf(workspaceId: string, siteId: string, planId: string, prefs: FormatPrefs = DEFAULT_PREFS): Promise<{ filename: string; body: Buffer }> {
+export async function workOrderPdf(
+  workspaceId: string,
+  siteId: string,
+  planId: string,
+  prefs: FormatPrefs = DEFAULT_PREFS,
+): Promise<{ filename: string; body: Buffer }> {
   const site = await findSite(workspaceId, siteId)
   const { input, plan, createdAt } = await findPlan(workspaceId, siteId, planId)
   const when = (stamp: string) => formatWallClock(stamp, prefs)
@@ -32,23 +37,56 @@ export async function workOrderPdf(workspaceId: string, siteId: string, planId: 
     for (const w of plan.warnings) write(doc, `• ${w.message}`, { size: 9, x: left } as WriteOptions)
   }
   heading(doc, 'Timetable')
-  table(doc, [
-    { title: 'Group', width: 110 }, { title: 'Luminaires', width: 70 }, { title: 'Areas', width: 170 }, { title: 'Test starts', width: 100 },
-    { title: 'Test ends', width: 100 }, { title: 'Back to full cover', width: 110 }, { title: 'Test / recharge', width: 100 },
-  ], plan.groups.map((g) => [
-    g.name, String(g.tags.length), g.areas.join(', '), when(g.startsAt), when(g.endsAt), when(g.fullCoverAt), `${formatHours(g.testH, prefs)} / ${formatHours(g.rechargeH, prefs)}`,
-  ]))
+  table(
+    doc,
+    [
+      { title: 'Group', width: 110 },
+      { title: 'Luminaires', width: 70 },
+      { title: 'Areas', width: 170 },
+      { title: 'Test starts', width: 100 },
+      { title: 'Test ends', width: 100 },
+      { title: 'Back to full cover', width: 110 },
+      { title: 'Test / recharge', width: 100 },
+    ],
+    plan.groups.map((g) => [
+      g.name,
+      String(g.tags.length),
+      g.areas.join(', '),
+      when(g.startsAt),
+      when(g.endsAt),
+      when(g.fullCoverAt),
+      `${formatHours(g.testH, prefs)} / ${formatHours(g.rechargeH, prefs)}`,
+    ]),
+  )
   for (const g of plan.groups) {
     heading(doc, `${g.name}: ${when(g.startsAt)}`)
-    write(doc, `Cut the supply at ${when(g.startsAt)}; every lamp must stay lit until ${when(g.endsAt)}. Restore the supply straight after; the group is back to full cover at ${when(g.fullCoverAt)}.`, { size: 9, x: left } as WriteOptions)
+    write(
+      doc,
+      `Cut the supply at ${when(g.startsAt)}; every lamp must stay lit until ${when(g.endsAt)}. Restore the supply straight after; the group is back to full cover at ${when(g.fullCoverAt)}.`,
+      { size: 9, x: left } as WriteOptions,
+    )
     doc.moveDown(0.3)
-    table(doc, [
-      { title: 'Tag', width: 80 }, { title: 'Lit at the start', width: 90 }, { title: 'Went out at (or lit to the end)', width: 170 }, { title: 'Pass or fail', width: 90 }, { title: 'Faults and remedial action', width: 330 },
-    ], g.tags.map((t) => [t, '', '', '', '']), { size: 9, writeIn: 20 })
+    table(
+      doc,
+      [
+        { title: 'Tag', width: 80 },
+        { title: 'Lit at the start', width: 90 },
+        { title: 'Went out at (or lit to the end)', width: 170 },
+        { title: 'Pass or fail', width: 90 },
+        { title: 'Faults and remedial action', width: 330 },
+      ],
+      g.tags.map((t) => [t, '', '', '', '']),
+      { size: 9, writeIn: 20 },
+    )
   }
   doc.moveDown(0.8)
   signOffBoxes(doc, [{ role: 'Tests carried out by' }, { role: 'Supply restored and checked by' }])
   frame(doc, { header: `Work order: full-duration tests — ${site.name}`, footer: `Plan made ${formatDate(createdAt, prefs)} · Lampwright` })
-  const slug = site.name.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '').slice(0, 60) || 'site'
+  const slug =
+    site.name
+      .toLowerCase()
+      .replace(/[^a-z0-9]+/g, '-')
+      .replace(/^-|-$/g, '')
+      .slice(0, 60) || 'site'
   return { filename: `${slug}-work-order-${input.firstDay}.pdf`, body: await toBuffer(doc) }
 }

@@ -4,7 +4,16 @@
  * the luminaire's charger, the charger checked against that pack.
  */
 import type { EngineWarning } from '../../../shared/engine/types'
-import { CHARGER_FIT_LABELS, CHARGER_TYPE_LABELS, CHEMISTRY_LABELS, DRIVER_LABELS, labelOf, MODE_LABELS, SEVERITY_LABELS, VOLTAGE_BASIS_LABELS } from '../../../shared/labels'
+import {
+  CHARGER_FIT_LABELS,
+  CHARGER_TYPE_LABELS,
+  CHEMISTRY_LABELS,
+  DRIVER_LABELS,
+  labelOf,
+  MODE_LABELS,
+  SEVERITY_LABELS,
+  VOLTAGE_BASIS_LABELS,
+} from '../../../shared/labels'
 import { formatFigure } from '../../../shared/schemas/sheet-text'
 import { ensureSpace, heading, pair, write } from '../../lib/pdf/pdf-kit'
 import type { PdfSection } from './sheet-pdf-data'
@@ -12,7 +21,11 @@ import type { PdfSection } from './sheet-pdf-data'
 /** Words for an input whose value is a code (mode, charger type…); other inputs are shown as typed. */
 export function inputValueText(path: string, value: string): string {
   const maps: Record<string, Record<string, string>> = {
-    chemistry: CHEMISTRY_LABELS, driver: DRIVER_LABELS, mode: MODE_LABELS, 'charger.type': CHARGER_TYPE_LABELS, 'charger.voltageBasis': VOLTAGE_BASIS_LABELS,
+    chemistry: CHEMISTRY_LABELS,
+    driver: DRIVER_LABELS,
+    mode: MODE_LABELS,
+    'charger.type': CHARGER_TYPE_LABELS,
+    'charger.voltageBasis': VOLTAGE_BASIS_LABELS,
   }
   return maps[path] ? labelOf(maps[path], value) : value
 }

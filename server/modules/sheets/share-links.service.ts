@@ -14,7 +14,8 @@ import { person, revisionView } from './sheets.mapping'
 import { findSheet, namesOf, revisions, shares, sheets } from './sheets.repository'
 
 type ShareState = 'active' | 'expired' | 'revoked'
-const shareState = (l: ShareLink, now = Date.now()): ShareState => (l.revokedAt ? 'revoked' : l.expiresAt && l.expiresAt.getTime() <= now ? 'expired' : 'active')
+const shareState = (l: ShareLink, now = Date.now()): ShareState =>
+  l.revokedAt ? 'revoked' : l.expiresAt && l.expiresAt.getTime() <= now ? 'expired' : 'active'
 export const shareUrl = (token: string) => `${config().origin}/s/${encodeURIComponent(token)}`
 
 function assertNotArchived(s: { archivedAt: Date | null }) {
@@ -25,9 +26,12 @@ export async function createShare(workspaceId: string, userId: string, id: strin
   const s = await findSheet(workspaceId, id)
   assertNotArchived(s)
   if (s.issuedRevision === null) throw new ConflictError('Issue the sheet before sharing it: a shared link shows the issued revision.')
-  if (expiresAt && expiresAt.getTime() <= Date.now()) throw new BadRequestError('The expiry must be in the future.', [{ path: 'expiresAt', message: 'must be in the future' }])
+  if (expiresAt && expiresAt.getTime() <= Date.now())
+    throw new BadRequestError('The expiry must be in the future.', [{ path: 'expiresAt', message: 'must be in the future' }])
   const { token, hash } = newToken()
-  const link = await shares().save(shares().create({ workspaceId, sheetId: s.id, tokenHash: hash, createdBy: userId, expiresAt, revokedAt: null, revokedBy: null }))
+  const link = await shares().save(
+    shares().create({ workspaceId, sheetId: s.id, tokenHash: hash, createdBy: userId, expiresAt, revokedAt: null, revokedBy: null }),
+  )
   await recordAudit({ workspaceId, actorId: userId, action: 'sheet.shared', entityType: 'spec_sheet', entityId: s.id, data: { shareId: link.id, expiresAt } })
   return { id: link.id, token, url: shareUrl(token), expiresAt: link.expiresAt, createdAt: link.createdAt, state: shareState(link) }
 }
@@ -36,7 +40,14 @@ export async function listShares(workspaceId: string, id: string) {
   const s = await findSheet(workspaceId, id)
   const rows = await shares().find({ where: { sheetId: s.id, workspaceId }, order: { createdAt: 'DESC' } })
   const names = await namesOf(rows.map((r) => r.createdBy))
-  return rows.map((l) => ({ id: l.id, createdAt: l.createdAt, createdBy: person(names, l.createdBy), expiresAt: l.expiresAt, revokedAt: l.revokedAt, state: shareState(l) }))
+  return rows.map((l) => ({
+    id: l.id,
+    createdAt: l.createdAt,
+    createdBy: person(names, l.createdBy),
+    expiresAt: l.expiresAt,
+    revokedAt: l.revokedAt,
+    state: shareState(l),
+  }))
 }
 
 async function findShare(workspaceId: string, sheetId: string, shareId: string) {
@@ -55,9 +66,17 @@ export async function revokeShare(workspaceId: string, userId: string, sheetId: 
   await recordAudit({ workspaceId, actorId: userId, action: 'sheet.share-revoked', entityType: 'spec_sheet', entityId: sheetId, data: { shareId } })
 }
 
-export async function emailShare(workspaceId: string, userId: string, sheetId: string, shareId: string, mail: { to: string; message: string; token: string }, prefs: FormatPrefs = DEFAULT_PREFS) {
+export async function emailShare(
+  workspaceId: string,
+  userId: string,
+  sheetId: string,
+  shareId: string,
+  mail: { to: string; message: string; token: string },
+  prefs: FormatPrefs = DEFAULT_PREFS,
+) {
   const { sheet, link } = await findShare(workspaceId, sheetId, shareId)
-  if (!safeEqual(hashToken(mail.token), link.tokenHash)) throw new BadRequestError('That token does not belong to this share link.', [{ path: 'token', message: 'does not match this link' }])
+  if (!safeEqual(hashToken(mail.token), link.tokenHash))
+    throw new BadRequestError('That token does not belong to this share link.', [{ path: 'token', message: 'does not match this link' }])
   const state = shareState(link)
   if (state !== 'active') throw new ConflictError(`This link is ${state}; make a new one to send.`)
   const sender = (await namesOf([userId])).get(userId) ?? 'A colleague'
@@ -66,8 +85,18 @@ export async function emailShare(workspaceId: string, userId: string, sheetId: s
     ...(mail.message ? [`Their message: ${mail.message}`] : []),
     `The link opens a read-only copy of the issued revision; no account is needed.${link.expiresAt ? ` It works until ${formatDateTime(link.expiresAt, prefs)}${prefs.timeZone === 'UTC' ? ' UTC' : ''}.` : ''}`,
   ]
-  await sendMail({ to: mail.to, subject: `Specification sheet: ${sheet.title}`, ...composeMail(paragraphs, { label: 'Open the sheet', url: shareUrl(mail.token) }) }, { kind: 'share', workspaceId })
-  await recordAudit({ workspaceId, actorId: userId, action: 'sheet.share-emailed', entityType: 'spec_sheet', entityId: sheetId, data: { shareId, to: mail.to } })
+  await sendMail(
+    { to: mail.to, subject: `Specification sheet: ${sheet.title}`, ...composeMail(paragraphs, { label: 'Open the sheet', url: shareUrl(mail.token) }) },
+    { kind: 'share', workspaceId },
+  )
+  await recordAudit({
+    workspaceId,
+    actorId: userId,
+    action: 'sheet.share-emailed',
+    entityType: 'spec_sheet',
+    entityId: sheetId,
+    data: { shareId, to: mail.to },
+  })
 }
 
 /** The public view behind a share token: the issued revision, nothing editable. */

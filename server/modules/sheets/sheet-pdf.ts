@@ -19,7 +19,8 @@ export const titleSection: PdfSection = (doc, d) => {
   const date = (x: Date | string | null) => formatDate(x, prefsOf(d))
   write(doc, `Emergency battery specification${d.issuer ? ` · ${d.issuer}` : ''}`, { size: 9, color: '#5b6b75' })
   write(doc, d.title, { weight: 'semibold', size: 20, color: '#1f3b4d' })
-  const state = d.status === 'issued' ? `issued ${date(d.issuedAt)}` : d.status === 'superseded' ? `superseded (issued ${date(d.issuedAt)})` : 'draft, not issued'
+  const state =
+    d.status === 'issued' ? `issued ${date(d.issuedAt)}` : d.status === 'superseded' ? `superseded (issued ${date(d.issuedAt)})` : 'draft, not issued'
   write(doc, `Revision ${d.number} · ${state} · engine ${d.engineVersion}`, { size: 10, color: d.status === 'issued' ? '#1b2a33' : '#a4460f' })
   if (d.status !== 'issued') write(doc, 'This revision is not issued: do not build or buy from it.', { weight: 'semibold', size: 10, color: '#a4460f' })
 }
@@ -58,14 +59,17 @@ export const resultsSection: PdfSection = (doc, d) => {
   }
 }
 
-
 export const warningsSection: PdfSection = (doc, d) => {
   const warnings = (d.results.warnings ?? []) as EngineWarning[]
   heading(doc, 'Warnings and notes')
   if (!warnings.length) write(doc, 'None.')
   for (const w of warnings) {
     ensureSpace(doc, 28)
-    write(doc, `${SEVERITY_LABELS[w.severity]}: `, { weight: 'semibold', continued: true, color: w.severity === 'critical' ? '#a3161a' : w.severity === 'warning' ? '#a4460f' : '#1b2a33' })
+    write(doc, `${SEVERITY_LABELS[w.severity]}: `, {
+      weight: 'semibold',
+      continued: true,
+      color: w.severity === 'critical' ? '#a3161a' : w.severity === 'warning' ? '#a4460f' : '#1b2a33',
+    })
     write(doc, textForReader(w.message, prefsOf(d)))
     doc.moveDown(0.2)
   }
@@ -77,7 +81,8 @@ export const workingSection: PdfSection = (doc, d) => {
   const steps = (d.results.working ?? []) as WorkingStep[]
   heading(doc, 'Working')
   // The formulas are written in SI, so their values are too (a temperature interval of 10 °C is not 50 °F).
-  if (steps.length && prefsOf(d).units === 'us') write(doc, 'The working is in the SI units its formulas use; the results above are in yours.', { size: 9, color: '#3c4a52' })
+  if (steps.length && prefsOf(d).units === 'us')
+    write(doc, 'The working is in the SI units its formulas use; the results above are in yours.', { size: 9, color: '#3c4a52' })
   for (const s of steps) {
     ensureSpace(doc, 70)
     write(doc, s.label, { weight: 'semibold', size: 10.5 })
@@ -119,7 +124,18 @@ export const referencesSection: PdfSection = (doc, d) => {
 }
 
 /** The sheet as issued today; later features push their sections onto a copy of this list. */
-export const SHEET_SECTIONS: PdfSection[] = [titleSection, projectSection, packToOrderSection, inputsSection, resultsSection, chargerCheckSection, warningsSection, workingSection, cautionsSection, referencesSection]
+export const SHEET_SECTIONS: PdfSection[] = [
+  titleSection,
+  projectSection,
+  packToOrderSection,
+  inputsSection,
+  resultsSection,
+  chargerCheckSection,
+  warningsSection,
+  workingSection,
+  cautionsSection,
+  referencesSection,
+]
 
 export async function buildSheetPdf(data: SheetPdfData, sections: PdfSection[] = SHEET_SECTIONS): Promise<Buffer> {
   const doc = newDocument({ title: data.title, subject: `Revision ${data.number}` }, { paper: prefsOf(data).paper })

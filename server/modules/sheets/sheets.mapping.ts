@@ -56,7 +56,16 @@ export type RevisionView = ReturnType<typeof revisionView>
 /** The short form of a revision in the revision list. */
 export function revisionListItem(r: SpecRevision, names: Map<string, string>) {
   const v = revisionView(r, names)
-  return { number: v.number, status: v.status, title: v.title, engineVersion: v.engineVersion, author: v.author, createdAt: v.createdAt, issuedAt: v.issuedAt, issuedBy: v.issuedBy }
+  return {
+    number: v.number,
+    status: v.status,
+    title: v.title,
+    engineVersion: v.engineVersion,
+    author: v.author,
+    createdAt: v.createdAt,
+    issuedAt: v.issuedAt,
+    issuedBy: v.issuedBy,
+  }
 }
 
 /** What the stale-save diff compares. */

@@ -60,7 +60,11 @@ export function insertRevision(m: EntityManager, s: SpecSheet, authorId: string)
 
 /** The revision a stale editor started from: the newest one saved at or before their version. */
 export function revisionAtVersion(m: EntityManager, sheetId: string, version: number) {
-  return revisions(m).createQueryBuilder('r').where('r.sheet_id = :id AND r.sheet_version <= :v', { id: sheetId, v: version }).orderBy('r.number', 'DESC').getOne()
+  return revisions(m)
+    .createQueryBuilder('r')
+    .where('r.sheet_id = :id AND r.sheet_version <= :v', { id: sheetId, v: version })
+    .orderBy('r.number', 'DESC')
+    .getOne()
 }
 
 export type SheetRow = Omit<SpecSheet, 'workspaceId' | 'selectedCapacityAh' | 'requiredCapacityAh' | 'inputs' | 'results'> & {
@@ -100,9 +104,23 @@ const LIST_SORT_KEYS: Record<SheetListQuery['sort'], (alias: string) => string> 
 }
 
 export interface SheetListRow {
-  id: string | null; title: string; reference: string; client: string; site: string; chemistry: string; status: SpecSheet['status']
-  currentRevision: number; issuedRevision: number | null; selectedCapacityAh: number | null; requiredCapacityAh: number | null
-  createdBy: string | null; authorName: string | null; archivedAt: Date | null; createdAt: Date; updatedAt: Date; total: string
+  id: string | null
+  title: string
+  reference: string
+  client: string
+  site: string
+  chemistry: string
+  status: SpecSheet['status']
+  currentRevision: number
+  issuedRevision: number | null
+  selectedCapacityAh: number | null
+  requiredCapacityAh: number | null
+  createdBy: string | null
+  authorName: string | null
+  archivedAt: Date | null
+  createdAt: Date
+  updatedAt: Date
+  total: string
 }
 
 /**
@@ -123,7 +141,11 @@ export function sheetListRows(workspaceId: string, q: SheetListQuery): Promise<S
     where.push(`(title ILIKE ${n} OR reference ILIKE ${n} OR client ILIKE ${n} OR site ILIKE ${n} OR luminaire ILIKE ${n})`)
     variant.push('q')
   }
-  for (const [key, column] of [['chemistry', 'chemistry'], ['status', 'status'], ['author', 'created_by']] as const) {
+  for (const [key, column] of [
+    ['chemistry', 'chemistry'],
+    ['status', 'status'],
+    ['author', 'created_by'],
+  ] as const) {
     if (!q[key]) continue
     values.push(q[key])
     where.push(`${column} = $${values.length}`)
@@ -149,5 +171,7 @@ ORDER BY ${order('page')}`
 
 /** People who authored sheets in the workspace (for the author filter). */
 export async function sheetAuthors(workspaceId: string): Promise<Array<{ id: string; name: string }>> {
-  return dataSource.query(`SELECT DISTINCT u.id, u.name FROM spec_sheets s JOIN users u ON u.id = s.created_by WHERE s.workspace_id = $1 ORDER BY u.name`, [workspaceId])
+  return dataSource.query(`SELECT DISTINCT u.id, u.name FROM spec_sheets s JOIN users u ON u.id = s.created_by WHERE s.workspace_id = $1 ORDER BY u.name`, [
+    workspaceId,
+  ])
 }

@@ -21,7 +21,17 @@ import { withDischargeLogs } from '../discharge/discharge-pdf-section'
 import { buildSheetPdf, cautionsSection, SHEET_SECTIONS } from './sheet-pdf'
 import * as shareLinks from './share-links.service'
 import * as service from './sheets.service'
-import { NewShareAnswer, RevisionAnswer, RevisionListAnswer, SentAnswer, SharedSheetAnswer, ShareListAnswer, SheetAnswer, SheetAuthorsAnswer, SheetPageAnswer } from '../../../shared/schemas/answers/sheets'
+import {
+  NewShareAnswer,
+  RevisionAnswer,
+  RevisionListAnswer,
+  SentAnswer,
+  SharedSheetAnswer,
+  ShareListAnswer,
+  SheetAnswer,
+  SheetAuthorsAnswer,
+  SheetPageAnswer,
+} from '../../../shared/schemas/answers/sheets'
 
 const RevisionNumber = z.coerce.number().int().min(1).max(1_000_000)
 const SheetParams = uuidParams('id')
@@ -30,7 +40,13 @@ const ShareParams = uuidParams('id', 'shareId')
 const TokenParams = z.object({ token: z.string().min(20).max(200) })
 const PdfQuery = z.object({ revision: RevisionNumber.optional() })
 
-const fileName = (title: string, revision: number) => `${title.replace(/[^\w.-]+/g, '-').replace(/^-+|-+$/g, '').slice(0, 60) || 'sheet'}-rev${revision}.pdf`
+const fileName = (title: string, revision: number) =>
+  `${
+    title
+      .replace(/[^\w.-]+/g, '-')
+      .replace(/^-+|-+$/g, '')
+      .slice(0, 60) || 'sheet'
+  }-rev${revision}.pdf`
 
 function sendPdf(res: Response, pdf: Buffer, name: string) {
   res.setHeader('Content-Type', 'application/pdf')
@@ -41,24 +57,41 @@ function sendPdf(res: Response, pdf: Buffer, name: string) {
 
 export const sheetRoutes: RouteSpec[] = [
   defineRoute({
-    method: 'get', path: '/api/sheets', response: SheetPageAnswer, access: 'viewer', summary: 'Specification sheets (paginated, sortable, searchable, filtered)',
+    method: 'get',
+    path: '/api/sheets',
+    response: SheetPageAnswer,
+    access: 'viewer',
+    summary: 'Specification sheets (paginated, sortable, searchable, filtered)',
     query: SheetListQuerySchema,
     handler: ({ query }, req) => service.listSheets(scope(req).workspaceId, query),
   }),
   defineRoute({
-    method: 'get', path: '/api/sheets/authors', response: SheetAuthorsAnswer, access: 'viewer', summary: 'People who wrote sheets (for the author filter)',
+    method: 'get',
+    path: '/api/sheets/authors',
+    response: SheetAuthorsAnswer,
+    access: 'viewer',
+    summary: 'People who wrote sheets (for the author filter)',
     handler: async (_input, req) => ({ authors: await service.sheetAuthors(scope(req).workspaceId) }),
   }),
   defineRoute({
-    method: 'post', path: '/api/sheets', response: SheetAnswer, access: 'designer', summary: 'Create a sheet (revision 1, draft)',
-    body: SheetContentSchema, status: 201,
+    method: 'post',
+    path: '/api/sheets',
+    response: SheetAnswer,
+    access: 'designer',
+    summary: 'Create a sheet (revision 1, draft)',
+    body: SheetContentSchema,
+    status: 201,
     handler: ({ body }, req) => {
       const s = scope(req)
       return service.createSheet(s.workspaceId, s.userId, body)
     },
   }),
   defineRoute({
-    method: 'get', path: '/api/sheets/:id', response: SheetAnswer, access: 'viewer', summary: 'A sheet with its current content and results',
+    method: 'get',
+    path: '/api/sheets/:id',
+    response: SheetAnswer,
+    access: 'viewer',
+    summary: 'A sheet with its current content and results',
     params: SheetParams,
     // Stored JSON goes out as stored text, unparsed.
     handler: async ({ params }, req, res) => {
@@ -66,58 +99,97 @@ export const sheetRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'put', path: '/api/sheets/:id', response: SheetAnswer, access: 'designer', summary: 'Save a sheet: a new revision; 409 when the version is stale',
-    params: SheetParams, body: SheetSaveSchema,
+    method: 'put',
+    path: '/api/sheets/:id',
+    response: SheetAnswer,
+    access: 'designer',
+    summary: 'Save a sheet: a new revision; 409 when the version is stale',
+    params: SheetParams,
+    body: SheetSaveSchema,
     handler: ({ params, body }, req) => {
       const s = scope(req)
       return service.saveSheet(s.workspaceId, s.userId, params.id, body)
     },
   }),
   defineRoute({
-    method: 'get', path: '/api/sheets/:id/revisions', response: RevisionListAnswer, access: 'viewer', summary: "A sheet's revisions, newest first",
+    method: 'get',
+    path: '/api/sheets/:id/revisions',
+    response: RevisionListAnswer,
+    access: 'viewer',
+    summary: "A sheet's revisions, newest first",
     params: SheetParams,
     handler: async ({ params }, req) => ({ revisions: await service.listRevisions(scope(req).workspaceId, params.id) }),
   }),
   defineRoute({
-    method: 'get', path: '/api/sheets/:id/revisions/:n', response: RevisionAnswer, access: 'viewer', summary: 'One revision, as saved',
+    method: 'get',
+    path: '/api/sheets/:id/revisions/:n',
+    response: RevisionAnswer,
+    access: 'viewer',
+    summary: 'One revision, as saved',
     params: RevisionParams,
     handler: ({ params }, req) => service.getRevision(scope(req).workspaceId, params.id, params.n),
   }),
   defineRoute({
-    method: 'post', path: '/api/sheets/:id/issue', response: SheetAnswer, access: 'designer', summary: 'Issue the latest revision (supersedes the previous issue)',
-    params: SheetParams, body: IssueSchema,
+    method: 'post',
+    path: '/api/sheets/:id/issue',
+    response: SheetAnswer,
+    access: 'designer',
+    summary: 'Issue the latest revision (supersedes the previous issue)',
+    params: SheetParams,
+    body: IssueSchema,
     handler: ({ params, body }, req) => {
       const s = scope(req)
       return service.issueSheet(s.workspaceId, s.userId, params.id, body.version)
     },
   }),
   defineRoute({
-    method: 'post', path: '/api/sheets/:id/clone', response: SheetAnswer, access: 'designer', summary: 'Copy a sheet into a new draft',
-    params: SheetParams, body: false, status: 201,
+    method: 'post',
+    path: '/api/sheets/:id/clone',
+    response: SheetAnswer,
+    access: 'designer',
+    summary: 'Copy a sheet into a new draft',
+    params: SheetParams,
+    body: false,
+    status: 201,
     handler: ({ params }, req) => {
       const s = scope(req)
       return service.cloneSheet(s.workspaceId, s.userId, params.id)
     },
   }),
   defineRoute({
-    method: 'post', path: '/api/sheets/:id/archive', response: SheetAnswer, access: 'designer', summary: 'Archive a sheet (restorable)',
-    params: SheetParams, body: false,
+    method: 'post',
+    path: '/api/sheets/:id/archive',
+    response: SheetAnswer,
+    access: 'designer',
+    summary: 'Archive a sheet (restorable)',
+    params: SheetParams,
+    body: false,
     handler: ({ params }, req) => {
       const s = scope(req)
       return service.setArchived(s.workspaceId, s.userId, params.id, true)
     },
   }),
   defineRoute({
-    method: 'post', path: '/api/sheets/:id/restore', response: SheetAnswer, access: 'designer', summary: 'Restore an archived sheet',
-    params: SheetParams, body: false,
+    method: 'post',
+    path: '/api/sheets/:id/restore',
+    response: SheetAnswer,
+    access: 'designer',
+    summary: 'Restore an archived sheet',
+    params: SheetParams,
+    body: false,
     handler: ({ params }, req) => {
       const s = scope(req)
       return service.setArchived(s.workspaceId, s.userId, params.id, false)
     },
   }),
   defineRoute({
-    method: 'get', path: '/api/sheets/:id/pdf', access: 'viewer', summary: 'The sheet as a PDF (current revision, or ?revision=n)',
-    params: SheetParams, query: PdfQuery, produces: 'application/pdf',
+    method: 'get',
+    path: '/api/sheets/:id/pdf',
+    access: 'viewer',
+    summary: 'The sheet as a PDF (current revision, or ?revision=n)',
+    params: SheetParams,
+    query: PdfQuery,
+    produces: 'application/pdf',
     handler: async ({ params, query }, req, res) => {
       const s = scope(req)
       const data = await service.pdfData(s.workspaceId, params.id, query.revision)
@@ -129,21 +201,36 @@ export const sheetRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'post', path: '/api/sheets/:id/shares', response: NewShareAnswer, secretAnswer: true, access: 'designer', summary: 'Make a read-only share link (token shown once)',
-    params: SheetParams, body: ShareCreateSchema, status: 201,
+    method: 'post',
+    path: '/api/sheets/:id/shares',
+    response: NewShareAnswer,
+    secretAnswer: true,
+    access: 'designer',
+    summary: 'Make a read-only share link (token shown once)',
+    params: SheetParams,
+    body: ShareCreateSchema,
+    status: 201,
     handler: ({ params, body }, req) => {
       const s = scope(req)
       return shareLinks.createShare(s.workspaceId, s.userId, params.id, body.expiresAt ? new Date(body.expiresAt) : null)
     },
   }),
   defineRoute({
-    method: 'get', path: '/api/sheets/:id/shares', response: ShareListAnswer, access: 'viewer', summary: "A sheet's share links",
+    method: 'get',
+    path: '/api/sheets/:id/shares',
+    response: ShareListAnswer,
+    access: 'viewer',
+    summary: "A sheet's share links",
     params: SheetParams,
     handler: async ({ params }, req) => ({ shares: await shareLinks.listShares(scope(req).workspaceId, params.id) }),
   }),
   defineRoute({
-    method: 'delete', path: '/api/sheets/:id/shares/:shareId', access: 'designer', summary: 'Revoke a share link',
-    params: ShareParams, produces: 'none',
+    method: 'delete',
+    path: '/api/sheets/:id/shares/:shareId',
+    access: 'designer',
+    summary: 'Revoke a share link',
+    params: ShareParams,
+    produces: 'none',
     handler: async ({ params }, req, res) => {
       const s = scope(req)
       await shareLinks.revokeShare(s.workspaceId, s.userId, params.id, params.shareId)
@@ -151,8 +238,14 @@ export const sheetRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'post', path: '/api/sheets/:id/shares/:shareId/email', response: SentAnswer, access: 'designer', summary: 'E-mail a share link with a message',
-    params: ShareParams, body: ShareEmailSchema, status: 202,
+    method: 'post',
+    path: '/api/sheets/:id/shares/:shareId/email',
+    response: SentAnswer,
+    access: 'designer',
+    summary: 'E-mail a share link with a message',
+    params: ShareParams,
+    body: ShareEmailSchema,
+    status: 202,
     handler: async ({ params, body }, req) => {
       const s = scope(req)
       await shareLinks.emailShare(s.workspaceId, s.userId, params.id, params.shareId, body, formatPrefsOf(req))
@@ -160,7 +253,11 @@ export const sheetRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'get', path: '/api/shared/:token', response: SharedSheetAnswer, access: 'public', summary: 'A shared sheet (issued revision, read-only)',
+    method: 'get',
+    path: '/api/shared/:token',
+    response: SharedSheetAnswer,
+    access: 'public',
+    summary: 'A shared sheet (issued revision, read-only)',
     params: TokenParams,
     handler: async ({ params }, _req, res) => {
       res.setHeader('Cache-Control', 'no-store')
@@ -168,8 +265,12 @@ export const sheetRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'get', path: '/api/shared/:token/pdf', access: 'public', summary: 'A shared sheet as a PDF',
-    params: TokenParams, produces: 'application/pdf',
+    method: 'get',
+    path: '/api/shared/:token/pdf',
+    access: 'public',
+    summary: 'A shared sheet as a PDF',
+    params: TokenParams,
+    produces: 'application/pdf',
     handler: async ({ params }, req, res) => {
       const view = await shareLinks.sharedSheet(params.token)
       sendPdf(res, await buildSheetPdf({ ...view, prefs: formatPrefsOf(req) }), fileName(view.title, view.number))

@@ -15,7 +15,17 @@ import { BadRequestError, ConflictError, NotFoundError } from '../../errors/app-
 import { jsonWithRawFields } from '../../lib/raw-json'
 import { recordAudit } from '../audit/audit.service'
 import { person, personNamed, revisionListItem, revisionView, sheetView as mapSheet, snapshot, type SheetFields } from './sheets.mapping'
-import { findSheet, insertRevision, namesOf, revisionAtVersion, revisions, sheetListRows, sheetRowWithNames, sheets, type SheetListRow } from './sheets.repository'
+import {
+  findSheet,
+  insertRevision,
+  namesOf,
+  revisionAtVersion,
+  revisions,
+  sheetListRows,
+  sheetRowWithNames,
+  sheets,
+  type SheetListRow,
+} from './sheets.repository'
 import type { SpecSheet } from './spec-sheet.entity'
 
 export { sheetAuthors } from './sheets.repository'
@@ -26,7 +36,13 @@ export function computeResults(inputs: Record<string, unknown>): Record<string, 
   const outcome = runTool(sizeTool, inputs)
   if (!outcome.ok) {
     const fields = outcome.fields.map((f) => ({ path: `inputs.${f.path}`, message: f.message }))
-    throw new BadRequestError(`Invalid pack inputs: ${fields.slice(0, 3).map((f) => `${f.path} ${f.message}`).join('; ')}`, fields)
+    throw new BadRequestError(
+      `Invalid pack inputs: ${fields
+        .slice(0, 3)
+        .map((f) => `${f.path} ${f.message}`)
+        .join('; ')}`,
+      fields,
+    )
   }
   return outcome.result as unknown as Record<string, unknown>
 }
@@ -57,7 +73,16 @@ function applyContent(s: SpecSheet, content: SheetContent) {
 
 export async function createSheet(workspaceId: string, userId: string, content: SheetContent) {
   const saved = await dataSource.transaction(async (m) => {
-    const s = sheets(m).create({ workspaceId, status: 'draft', currentRevision: 1, issuedRevision: null, version: 1, createdBy: userId, updatedBy: userId, archivedAt: null })
+    const s = sheets(m).create({
+      workspaceId,
+      status: 'draft',
+      currentRevision: 1,
+      issuedRevision: null,
+      version: 1,
+      createdBy: userId,
+      updatedBy: userId,
+      archivedAt: null,
+    })
     applyContent(s, content)
     await sheets(m).save(s)
     await insertRevision(m, s, userId)
@@ -117,7 +142,10 @@ export async function saveSheet(workspaceId: string, userId: string, id: string,
     s.updatedBy = userId
     await sheets(m).save(s)
     await insertRevision(m, s, userId)
-    await recordAudit({ workspaceId, actorId: userId, action: 'sheet.saved', entityType: 'spec_sheet', entityId: s.id, data: { revision: s.currentRevision } }, m)
+    await recordAudit(
+      { workspaceId, actorId: userId, action: 'sheet.saved', entityType: 'spec_sheet', entityId: s.id, data: { revision: s.currentRevision } },
+      m,
+    )
     return s
   })
   return sheetView(saved)
@@ -171,7 +199,10 @@ export async function issueSheet(workspaceId: string, userId: string, id: string
     const s = await findSheet(workspaceId, id, m, true)
     assertNotArchived(s)
     if (s.version !== version) {
-      throw new ConflictError(`The sheet changed after you opened it (now version ${s.version}). Reload it and check the latest revision before issuing.`, { currentVersion: s.version, yourVersion: version })
+      throw new ConflictError(`The sheet changed after you opened it (now version ${s.version}). Reload it and check the latest revision before issuing.`, {
+        currentVersion: s.version,
+        yourVersion: version,
+      })
     }
     if (s.status === 'issued') throw new ConflictError(`Revision ${s.currentRevision} is already issued. Save a change to make a new draft revision.`)
     const now = new Date()
@@ -184,7 +215,14 @@ export async function issueSheet(workspaceId: string, userId: string, id: string
     s.updatedBy = userId
     await sheets(m).save(s)
     await recordAudit(
-      { workspaceId, actorId: userId, action: 'sheet.issued', entityType: 'spec_sheet', entityId: s.id, data: { revision: s.currentRevision, supersedes: previous } },
+      {
+        workspaceId,
+        actorId: userId,
+        action: 'sheet.issued',
+        entityType: 'spec_sheet',
+        entityId: s.id,
+        data: { revision: s.currentRevision, supersedes: previous },
+      },
       m,
     )
     return s

@@ -5,7 +5,10 @@ import { storageUse } from './storage.service'
 
 export const storageRoutes: RouteSpec[] = [
   defineRoute({
-    method: 'get', path: '/api/workspace/storage', access: 'viewer', summary: "The workspace's stored files and unsaved uploads against its storage quota, in bytes",
+    method: 'get',
+    path: '/api/workspace/storage',
+    access: 'viewer',
+    summary: "The workspace's stored files and unsaved uploads against its storage quota, in bytes",
     response: StorageUseAnswer,
     handler: (_input, req) => storageUse(scope(req).workspaceId),
   }),

@@ -79,7 +79,12 @@ export async function admitBytes(m: EntityManager, workspaceId: string, bytes: n
   if (opts.staged) {
     const all: Array<{ staged: string }> = await m.query('SELECT coalesce(sum(size), 0) AS staged FROM staged_uploads WHERE expires_at > now()', [])
     if (Number(all[0].staged) + bytes > config().storage.stagedTotalBytes) {
-      throw new AppError(507, 'storage_full', 'The server has no room for more uploads waiting to be saved just now; try again in an hour, or save or discard the uploads you have open.', [{ path: 'file', message: 'no room on the server just now' }])
+      throw new AppError(
+        507,
+        'storage_full',
+        'The server has no room for more uploads waiting to be saved just now; try again in an hour, or save or discard the uploads you have open.',
+        [{ path: 'file', message: 'no room on the server just now' }],
+      )
     }
   }
 }

@@ -15,15 +15,25 @@ function sessionOnly(req: Request) {
 
 export const tokenRoutes: RouteSpec[] = [
   defineRoute({
-    method: 'get', path: '/api/tokens', response: ApiTokenListAnswer, access: 'viewer', summary: 'My API tokens in this workspace',
+    method: 'get',
+    path: '/api/tokens',
+    response: ApiTokenListAnswer,
+    access: 'viewer',
+    summary: 'My API tokens in this workspace',
     handler: async (_input, req) => {
       const s = scope(req)
       return { tokens: await listTokens(s.userId, s.workspaceId) }
     },
   }),
   defineRoute({
-    method: 'post', path: '/api/tokens', response: NewApiTokenAnswer, access: 'viewer', summary: 'Make an API token (role at most mine); the secret is shown once',
-    body: CreateApiTokenSchema, status: 201, secretAnswer: true,
+    method: 'post',
+    path: '/api/tokens',
+    response: NewApiTokenAnswer,
+    access: 'viewer',
+    summary: 'Make an API token (role at most mine); the secret is shown once',
+    body: CreateApiTokenSchema,
+    status: 201,
+    secretAnswer: true,
     handler: ({ body }, req) => {
       sessionOnly(req)
       const s = scope(req)
@@ -31,10 +41,15 @@ export const tokenRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'delete', path: '/api/tokens/:id', access: 'viewer', summary: 'Revoke an API token',
+    method: 'delete',
+    path: '/api/tokens/:id',
+    access: 'viewer',
+    summary: 'Revoke an API token',
     // An API token is refused before anything about the id is said.
     before: [(req, _res, next) => next(req.ctx?.viaToken ? new ForbiddenError(SESSION_ONLY) : undefined)],
-    params: IdParams, notFound: 'That token', produces: 'none',
+    params: IdParams,
+    notFound: 'That token',
+    produces: 'none',
     handler: async ({ params }, req, res) => {
       const s = scope(req)
       await revokeToken(s.userId, s.workspaceId, params.id)
@@ -42,13 +57,22 @@ export const tokenRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'get', path: '/api/workspace/tokens', response: MemberTokenListAnswer, access: 'owner', summary: "Every member's API tokens in this workspace (owners)",
+    method: 'get',
+    path: '/api/workspace/tokens',
+    response: MemberTokenListAnswer,
+    access: 'owner',
+    summary: "Every member's API tokens in this workspace (owners)",
     handler: async (_input, req) => ({ tokens: await workspaceTokens(scope(req).workspaceId) }),
   }),
   defineRoute({
-    method: 'delete', path: '/api/workspace/tokens/:id', access: 'owner', summary: "Revoke a member's API token (owners)",
+    method: 'delete',
+    path: '/api/workspace/tokens/:id',
+    access: 'owner',
+    summary: "Revoke a member's API token (owners)",
     before: [(req, _res, next) => next(req.ctx?.viaToken ? new ForbiddenError(SESSION_ONLY) : undefined)],
-    params: IdParams, notFound: 'That token', produces: 'none',
+    params: IdParams,
+    notFound: 'That token',
+    produces: 'none',
     handler: async ({ params }, req, res) => {
       const s = scope(req)
       await revokeMemberToken(s.workspaceId, s.userId, params.id)

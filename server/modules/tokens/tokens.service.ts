@@ -17,16 +17,47 @@ export async function createToken(userId: string, workspaceId: string, myRole: R
   const { name, role, scopes } = input
   if (!roleAtLeast(myRole, role)) throw new ForbiddenError(`A token cannot have a higher role than yours (${myRole}).`)
   const expiresAt = input.expiresAt === null ? null : new Date(input.expiresAt)
-  if (expiresAt && expiresAt <= now) throw new UnprocessableError('A token cannot expire in the past.', [{ path: 'expiresAt', code: 'out_of_range', message: 'must be later than now' }])
+  if (expiresAt && expiresAt <= now)
+    throw new UnprocessableError('A token cannot expire in the past.', [{ path: 'expiresAt', code: 'out_of_range', message: 'must be later than now' }])
   const secret = `lw_${crypto.randomBytes(32).toString('base64url')}`
-  const row = await tokens().save(tokens().create({ userId, workspaceId, role, name, scopes, expiresAt, tokenHash: hashToken(secret), prefix: secret.slice(0, 10), lastUsedAt: null, revokedAt: null }))
-  await recordAudit({ workspaceId, actorId: userId, action: 'token.created', entityType: 'api_token', entityId: row.id, data: { name, role, scopes, expiresAt } })
+  const row = await tokens().save(
+    tokens().create({
+      userId,
+      workspaceId,
+      role,
+      name,
+      scopes,
+      expiresAt,
+      tokenHash: hashToken(secret),
+      prefix: secret.slice(0, 10),
+      lastUsedAt: null,
+      revokedAt: null,
+    }),
+  )
+  await recordAudit({
+    workspaceId,
+    actorId: userId,
+    action: 'token.created',
+    entityType: 'api_token',
+    entityId: row.id,
+    data: { name, role, scopes, expiresAt },
+  })
   return { id: row.id, name, role, scopes, expiresAt, prefix: row.prefix, createdAt: row.createdAt, token: secret }
 }
 
 export async function listTokens(userId: string, workspaceId: string) {
   const rows = await tokens().find({ where: { userId, workspaceId }, order: { createdAt: 'DESC' } })
-  return rows.map((t) => ({ id: t.id, name: t.name, role: t.role, prefix: t.prefix, scopes: t.scopes, expiresAt: t.expiresAt, createdAt: t.createdAt, lastUsedAt: t.lastUsedAt, revokedAt: t.revokedAt }))
+  return rows.map((t) => ({
+    id: t.id,
+    name: t.name,
+    role: t.role,
+    prefix: t.prefix,
+    scopes: t.scopes,
+    expiresAt: t.expiresAt,
+    createdAt: t.createdAt,
+    lastUsedAt: t.lastUsedAt,
+    revokedAt: t.revokedAt,
+  }))
 }
 
 export async function revokeToken(userId: string, workspaceId: string, id: string) {
@@ -47,19 +78,47 @@ export async function authenticateToken(secret: string, now: Date = new Date()) 
   if (!membership || !user) return null
   const role = roleRank(membership.role) < roleRank(row.role) ? membership.role : row.role
   // Last use is informative only; do not fail the request over it.
-  void tokens().update({ id: row.id }, { lastUsedAt: new Date() }).catch(() => undefined)
+  void tokens()
+    .update({ id: row.id }, { lastUsedAt: new Date() })
+    .catch(() => undefined)
   return { user, token: { id: row.id, name: row.name }, ctx: { userId: user.id, workspaceId: row.workspaceId, role, viaToken: true, tokenScopes: row.scopes } }
 }
 
 /** Every member's tokens in a workspace, for its owners (never the secrets). */
 export async function workspaceTokens(workspaceId: string) {
-  const rows: Array<{ id: string; user_id: string; user_name: string; user_email: string; name: string; role: Role; prefix: string; scopes: TokenScope[]; expires_at: Date | null; created_at: Date; last_used_at: Date | null; revoked_at: Date | null }> = await dataSource.query(
+  const rows: Array<{
+    id: string
+    user_id: string
+    user_name: string
+    user_email: string
+    name: string
+    role: Role
+    prefix: string
+    scopes: TokenScope[]
+    expires_at: Date | null
+    created_at: Date
+    last_used_at: Date | null
+    revoked_at: Date | null
+  }> = await dataSource.query(
     `SELECT t.id, t.user_id, u.name AS user_name, u.email AS user_email, t.name, t.role, t.prefix, t.scopes, t.expires_at, t.created_at, t.last_used_at, t.revoked_at
        FROM api_tokens t JOIN users u ON u.id = t.user_id
       WHERE t.workspace_id = $1 ORDER BY t.revoked_at IS NOT NULL, t.created_at DESC`,
     [workspaceId],
   )
-  return rows.map((t) => ({ id: t.id, userId: t.user_id, userName: t.user_name, userEmail: t.user_email, name: t.name, role: t.role, prefix: t.prefix, scopes: t.scopes, expiresAt: t.expires_at, createdAt: t.created_at, lastUsedAt: t.last_used_at, revokedAt: t.revoked_at }))
+  return rows.map((t) => ({
+    id: t.id,
+    userId: t.user_id,
+    userName: t.user_name,
+    userEmail: t.user_email,
+    name: t.name,
+    role: t.role,
+    prefix: t.prefix,
+    scopes: t.scopes,
+    expiresAt: t.expires_at,
+    createdAt: t.created_at,
+    lastUsedAt: t.last_used_at,
+    revokedAt: t.revoked_at,
+  }))
 }
 
 /** An owner revokes any member's token in their workspace; another workspace's token is not found. */

@@ -22,7 +22,17 @@ export async function updateWorkspaceSettings(workspaceId: string, actorId: stri
   const before = await workspaceSettings(workspaceId)
   await dataSource.transaction(async (m) => {
     await m.getRepository(Workspace).update({ id: workspaceId }, { currency: patch.currency })
-    await recordAudit({ workspaceId, actorId, action: 'workspace.settings-updated', entityType: 'workspace', entityId: workspaceId, data: { currency: { from: before.currencyChosen ? before.currency : null, to: patch.currency } } }, m)
+    await recordAudit(
+      {
+        workspaceId,
+        actorId,
+        action: 'workspace.settings-updated',
+        entityType: 'workspace',
+        entityId: workspaceId,
+        data: { currency: { from: before.currencyChosen ? before.currency : null, to: patch.currency } },
+      },
+      m,
+    )
   })
   return workspaceSettings(workspaceId)
 }

@@ -9,19 +9,39 @@ import { meResponse } from '../auth/me.service'
 import * as settings from './workspace-settings.service'
 import * as service from './workspaces.service'
 import { findMembership } from './workspaces.repository'
-import { InvitationAnswer, InvitationListAnswer, InvitationPreviewAnswer, MeAnswer, MemberListAnswer, MemberRoleAnswer, WorkspaceAnswer, WorkspaceListAnswer, WorkspaceNameAnswer, WorkspaceSettingsAnswer } from '../../../shared/schemas/answers/accounts'
+import {
+  InvitationAnswer,
+  InvitationListAnswer,
+  InvitationPreviewAnswer,
+  MeAnswer,
+  MemberListAnswer,
+  MemberRoleAnswer,
+  WorkspaceAnswer,
+  WorkspaceListAnswer,
+  WorkspaceNameAnswer,
+  WorkspaceSettingsAnswer,
+} from '../../../shared/schemas/answers/accounts'
 import { WorkspaceSettingsPatchSchema } from '../../../shared/schemas/workspace-settings.schema'
 
 const TokenParams = z.object({ token: z.string().min(10, 'is not a valid token').max(200) })
 
 export const workspaceRoutes: RouteSpec[] = [
   defineRoute({
-    method: 'get', path: '/api/workspaces', response: WorkspaceListAnswer, access: 'signed-in', summary: 'My workspaces and my role in each',
+    method: 'get',
+    path: '/api/workspaces',
+    response: WorkspaceListAnswer,
+    access: 'signed-in',
+    summary: 'My workspaces and my role in each',
     handler: async (_input, req) => ({ workspaces: await service.myWorkspaces(req.ctx!.userId) }),
   }),
   defineRoute({
-    method: 'post', path: '/api/workspaces', response: WorkspaceAnswer, access: 'signed-in', summary: 'Create a team workspace (you become its owner)',
-    body: CreateWorkspaceSchema, status: 201,
+    method: 'post',
+    path: '/api/workspaces',
+    response: WorkspaceAnswer,
+    access: 'signed-in',
+    summary: 'Create a team workspace (you become its owner)',
+    body: CreateWorkspaceSchema,
+    status: 201,
     handler: async ({ body }, req) => {
       const ws = await service.createWorkspace(req.ctx!.userId, body.name)
       req.session.workspaceId = ws.id
@@ -29,7 +49,11 @@ export const workspaceRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'post', path: '/api/workspaces/switch', response: MeAnswer, access: 'signed-in', summary: 'Switch the current workspace',
+    method: 'post',
+    path: '/api/workspaces/switch',
+    response: MeAnswer,
+    access: 'signed-in',
+    summary: 'Switch the current workspace',
     body: SwitchWorkspaceSchema,
     handler: async ({ body }, req) => {
       const m = await findMembership(body.workspaceId, req.ctx!.userId)
@@ -39,7 +63,11 @@ export const workspaceRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'patch', path: '/api/workspace', response: WorkspaceNameAnswer, access: 'owner', summary: 'Rename the current workspace',
+    method: 'patch',
+    path: '/api/workspace',
+    response: WorkspaceNameAnswer,
+    access: 'owner',
+    summary: 'Rename the current workspace',
     body: CreateWorkspaceSchema,
     handler: async ({ body }, req) => {
       const s = scope(req)
@@ -48,11 +76,19 @@ export const workspaceRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'get', path: '/api/workspace/settings', response: WorkspaceSettingsAnswer, access: 'viewer', summary: "The workspace's settings: the currency of its prices and costs",
+    method: 'get',
+    path: '/api/workspace/settings',
+    response: WorkspaceSettingsAnswer,
+    access: 'viewer',
+    summary: "The workspace's settings: the currency of its prices and costs",
     handler: (_input, req) => settings.workspaceSettings(scope(req).workspaceId),
   }),
   defineRoute({
-    method: 'patch', path: '/api/workspace/settings', response: WorkspaceSettingsAnswer, access: 'owner', summary: "Choose the workspace's currency (null: the owner's region's)",
+    method: 'patch',
+    path: '/api/workspace/settings',
+    response: WorkspaceSettingsAnswer,
+    access: 'owner',
+    summary: "Choose the workspace's currency (null: the owner's region's)",
     body: WorkspaceSettingsPatchSchema,
     handler: ({ body }, req) => {
       const s = scope(req)
@@ -60,12 +96,21 @@ export const workspaceRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'get', path: '/api/workspace/members', response: MemberListAnswer, access: 'viewer', summary: 'Members of the current workspace',
+    method: 'get',
+    path: '/api/workspace/members',
+    response: MemberListAnswer,
+    access: 'viewer',
+    summary: 'Members of the current workspace',
     handler: async (_input, req) => ({ members: await service.members(scope(req).workspaceId) }),
   }),
   defineRoute({
-    method: 'patch', path: '/api/workspace/members/:id', response: MemberRoleAnswer, access: 'owner', summary: "Change a member's role",
-    params: IdParams, body: ChangeRoleSchema,
+    method: 'patch',
+    path: '/api/workspace/members/:id',
+    response: MemberRoleAnswer,
+    access: 'owner',
+    summary: "Change a member's role",
+    params: IdParams,
+    body: ChangeRoleSchema,
     handler: async ({ params, body }, req) => {
       const s = scope(req)
       const m = await service.changeRole(s.workspaceId, s.userId, params.id, body.role)
@@ -73,8 +118,12 @@ export const workspaceRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'delete', path: '/api/workspace/members/:id', access: 'owner', summary: 'Remove a member',
-    params: IdParams, produces: 'none',
+    method: 'delete',
+    path: '/api/workspace/members/:id',
+    access: 'owner',
+    summary: 'Remove a member',
+    params: IdParams,
+    produces: 'none',
     handler: async ({ params }, req, res) => {
       const s = scope(req)
       await service.removeMember(s.workspaceId, s.userId, params.id)
@@ -82,8 +131,12 @@ export const workspaceRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'post', path: '/api/workspace/leave', access: 'viewer', summary: 'Leave the current workspace',
-    body: false, produces: 'none',
+    method: 'post',
+    path: '/api/workspace/leave',
+    access: 'viewer',
+    summary: 'Leave the current workspace',
+    body: false,
+    produces: 'none',
     handler: async (_input, req, res) => {
       const s = scope(req)
       await service.leaveWorkspace(s.workspaceId, s.userId)
@@ -92,20 +145,33 @@ export const workspaceRoutes: RouteSpec[] = [
     },
   }),
   defineRoute({
-    method: 'get', path: '/api/workspace/invitations', response: InvitationListAnswer, access: 'owner', summary: 'Pending invitations',
+    method: 'get',
+    path: '/api/workspace/invitations',
+    response: InvitationListAnswer,
+    access: 'owner',
+    summary: 'Pending invitations',
     handler: async (_input, req) => ({ invitations: await service.pendingInvitations(scope(req).workspaceId) }),
   }),
   defineRoute({
-    method: 'post', path: '/api/workspace/invitations', response: InvitationAnswer, access: 'owner', summary: 'Invite someone by e-mail',
-    body: InviteSchema, status: 201,
+    method: 'post',
+    path: '/api/workspace/invitations',
+    response: InvitationAnswer,
+    access: 'owner',
+    summary: 'Invite someone by e-mail',
+    body: InviteSchema,
+    status: 201,
     handler: ({ body }, req) => {
       const s = scope(req)
       return service.invite(s.workspaceId, s.userId, body.email, body.role)
     },
   }),
   defineRoute({
-    method: 'delete', path: '/api/workspace/invitations/:id', access: 'owner', summary: 'Withdraw an invitation',
-    params: IdParams, produces: 'none',
+    method: 'delete',
+    path: '/api/workspace/invitations/:id',
+    access: 'owner',
+    summary: 'Withdraw an invitation',
+    params: IdParams,
+    produces: 'none',
     handler: async ({ params }, req, res) => {
       const s = scope(req)
       await service.revokeInvitation(s.workspaceId, s.userId, params.id)
@@ -114,13 +180,24 @@ export const workspaceRoutes: RouteSpec[] = [
   }),
   // A malformed invitation token is a mistake in a link someone was sent: say so (400), not 404.
   defineRoute({
-    method: 'get', path: '/api/invitations/:token', response: InvitationPreviewAnswer, access: 'public', summary: 'What an invitation link is for',
-    params: TokenParams, invalid: { params: 400 },
+    method: 'get',
+    path: '/api/invitations/:token',
+    response: InvitationPreviewAnswer,
+    access: 'public',
+    summary: 'What an invitation link is for',
+    params: TokenParams,
+    invalid: { params: 400 },
     handler: ({ params }) => service.previewInvitation(params.token),
   }),
   defineRoute({
-    method: 'post', path: '/api/invitations/:token/accept', response: MeAnswer, access: 'signed-in', summary: 'Accept an invitation',
-    params: TokenParams, invalid: { params: 400 }, body: false,
+    method: 'post',
+    path: '/api/invitations/:token/accept',
+    response: MeAnswer,
+    access: 'signed-in',
+    summary: 'Accept an invitation',
+    params: TokenParams,
+    invalid: { params: 400 },
+    body: false,
     handler: async ({ params }, req) => {
       const result = await service.acceptInvitation(params.token, req.user as User)
       req.session.workspaceId = result.workspaceId

@@ -115,23 +115,30 @@ export async function leaveWorkspace(workspaceId: string, userId: string) {
 
 export async function invite(workspaceId: string, actorId: string, email: string, role: Role) {
   const ws = await dataSource.getRepository(Workspace).findOneByOrFail({ id: workspaceId })
-  const already = await dataSource.query(
-    `SELECT 1 FROM memberships m JOIN users u ON u.id = m.user_id WHERE m.workspace_id = $1 AND u.email = $2`,
-    [workspaceId, email],
-  )
+  const already = await dataSource.query(`SELECT 1 FROM memberships m JOIN users u ON u.id = m.user_id WHERE m.workspace_id = $1 AND u.email = $2`, [
+    workspaceId,
+    email,
+  ])
   if (already.length) throw new ConflictError(`${email} is already a member of this workspace.`)
   const { token, hash } = newToken()
   const inviter = await findUserById(actorId)
   const url = `${config().origin}/invitation?token=${encodeURIComponent(token)}`
   const body = composeMail(
-    [`${inviter?.name ?? 'A colleague'} invites you to the Lampwright workspace "${ws.name}" as ${role}.`, 'The link works once and expires in seven days. Sign up or sign in to accept.'],
+    [
+      `${inviter?.name ?? 'A colleague'} invites you to the Lampwright workspace "${ws.name}" as ${role}.`,
+      'The link works once and expires in seven days. Sign up or sign in to accept.',
+    ],
     { label: 'Accept the invitation', url },
   )
   // Saved only when the mail goes out (a refused send, e.g. too many mails to that address, leaves no invitation).
   const inv = await dataSource.transaction(async (m) => {
-    const saved = await m.getRepository(Invitation).save(
-      m.getRepository(Invitation).create({ workspaceId, email, role, tokenHash: hash, invitedBy: actorId, expiresAt: new Date(Date.now() + INVITE_TTL_MS), acceptedAt: null }),
-    )
+    const saved = await m
+      .getRepository(Invitation)
+      .save(
+        m
+          .getRepository(Invitation)
+          .create({ workspaceId, email, role, tokenHash: hash, invitedBy: actorId, expiresAt: new Date(Date.now() + INVITE_TTL_MS), acceptedAt: null }),
+      )
     await sendMail({ to: email, subject: `Join "${ws.name}" on Lampwright`, ...body }, { kind: 'invitation', workspaceId })
     return saved
   })
@@ -156,7 +163,8 @@ export async function usableInvitation(token: string) {
   const inv = await dataSource.getRepository(Invitation).findOne({ where: { tokenHash: hashToken(token) } })
   if (!inv) throw new BadRequestError('This invitation link is not valid.', [{ path: 'token', message: 'is not valid' }])
   if (inv.acceptedAt) throw new BadRequestError('This invitation has already been used.', [{ path: 'token', message: 'has already been used' }])
-  if (inv.expiresAt.getTime() < Date.now()) throw new BadRequestError('This invitation has expired. Ask for a new one.', [{ path: 'token', message: 'has expired' }])
+  if (inv.expiresAt.getTime() < Date.now())
+    throw new BadRequestError('This invitation has expired. Ask for a new one.', [{ path: 'token', message: 'has expired' }])
   return inv
 }
 
@@ -175,12 +183,16 @@ export async function acceptInvitation(token: string, user: User) {
     const spent = await tx.query(`UPDATE invitations SET accepted_at = now() WHERE id = $1 AND accepted_at IS NULL RETURNING id`, [inv.id])
     const spentRows = Array.isArray(spent[0]) ? spent[0] : spent
     if (!spentRows.length) throw new BadRequestError('This invitation has already been used.')
-    await tx.query(
-      `INSERT INTO memberships (workspace_id, user_id, role) VALUES ($1, $2, $3) ON CONFLICT (workspace_id, user_id) DO NOTHING`,
-      [inv.workspaceId, user.id, inv.role],
-    )
+    await tx.query(`INSERT INTO memberships (workspace_id, user_id, role) VALUES ($1, $2, $3) ON CONFLICT (workspace_id, user_id) DO NOTHING`, [
+      inv.workspaceId,
+      user.id,
+      inv.role,
+    ])
     forgetMemberships()
-    await recordAudit({ workspaceId: inv.workspaceId, actorId: user.id, action: 'member.joined', entityType: 'invitation', entityId: inv.id, data: { role: inv.role } }, tx)
+    await recordAudit(
+      { workspaceId: inv.workspaceId, actorId: user.id, action: 'member.joined', entityType: 'invitation', entityId: inv.id, data: { role: inv.role } },
+      tx,
+    )
     return { workspaceId: inv.workspaceId, role: inv.role }
   })
 }

@@ -42,7 +42,8 @@ export function requirementFor(criteria: CriteriaId, normalIlluminanceLx?: numbe
         averageLx: 10.8,
         maxToMin: 40,
         endOfDuration: { minLx: 0.65, averageLx: 6.5 },
-        source: 'NFPA 101 (2021) 7.9.2.1 (initial: average 10.8 lx (1 fc), any point ≥ 1.1 lx (0.1 fc); at the end of 1½ h: average 6.5 lx, any point ≥ 0.65 lx; max:min ≤ 40:1)',
+        source:
+          'NFPA 101 (2021) 7.9.2.1 (initial: average 10.8 lx (1 fc), any point ≥ 1.1 lx (0.1 fc); at the end of 1½ h: average 6.5 lx, any point ≥ 0.65 lx; max:min ≤ 40:1)',
       }
   }
 }
@@ -91,7 +92,12 @@ export function rowCriteria(criteria: CriteriaId, requirement: Requirement, widt
   const initial: Scenario = { label: 'initial', scale: 1, minLx: requirement.minLx, averageLx: requirement.averageLx }
   switch (criteria) {
     case 'en1838-route':
-      return { lines: simpson3(widthM / 4, (requirement.bandMinLx ?? 0.5) / requirement.minLx, false, 'central band edge'), scenarios: [initial], maxToMin: requirement.maxToMin, endBorder: 0 }
+      return {
+        lines: simpson3(widthM / 4, (requirement.bandMinLx ?? 0.5) / requirement.minLx, false, 'central band edge'),
+        scenarios: [initial],
+        maxToMin: requirement.maxToMin,
+        endBorder: 0,
+      }
     case 'en1838-open-area': {
       const core = widthM / 2 - 0.5
       const lines = core > 0 ? simpson3(core, 1, true, 'core area edge') : [{ y: 0, label: 'centre line', minFraction: 1, ratio: true, weight: 1 }]

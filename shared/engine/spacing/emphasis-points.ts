@@ -70,7 +70,15 @@ export function servePoints(positions: number[], points: EmphasisPoint[], placed
     for (let k = 0; k < positions.length; k++) if (best < 0 || Math.abs(positions[k] - p.atM) < Math.abs(positions[best] - p.atM)) best = k
     const distance = best < 0 ? Infinity : Math.abs(positions[best] - p.atM)
     if (!(distance <= EMPHASIS_REACH_M + 1e-9)) return null
-    served.push({ point: i, kind: p.kind, atM: p.atM, ...(p.name ? { name: p.name } : {}), luminaire: best, distanceM: distance, placedForIt: placedFor.get(best)?.includes(i) ?? false })
+    served.push({
+      point: i,
+      kind: p.kind,
+      atM: p.atM,
+      ...(p.name ? { name: p.name } : {}),
+      luminaire: best,
+      distanceM: distance,
+      placedForIt: placedFor.get(best)?.includes(i) ?? false,
+    })
   }
   return served
 }

@@ -42,7 +42,13 @@ function share(anchors: number[], L: number, extra: number[], s: number): number
 const MAX_ADDED = 400
 
 /** Luminaires at each group of points, the stretches filled; null when no such row passes. */
-function anchoredRow(solver: RowSolver, L: number, longRowSpacing: number, points: EmphasisPoint[], preferred: number[]): { positions: number[]; served: PointServed[] } | null {
+function anchoredRow(
+  solver: RowSolver,
+  L: number,
+  longRowSpacing: number,
+  points: EmphasisPoint[],
+  preferred: number[],
+): { positions: number[]; served: PointServed[] } | null {
   const groups = anchorsFor(points, L, preferred)
   const anchors = groups.map((g) => g.atM)
   const m = anchors.length
@@ -112,6 +118,7 @@ export function layRouteWithPoints(
     even: false,
     pointsServed: served,
   }
-  if (endOfDurationFactor !== undefined) layout.endOfDuration = { factor: endOfDurationFactor, averageLx: stats.average * endOfDurationFactor, minLx: stats.ratioMin * endOfDurationFactor }
+  if (endOfDurationFactor !== undefined)
+    layout.endOfDuration = { factor: endOfDurationFactor, averageLx: stats.average * endOfDurationFactor, minLx: stats.ratioMin * endOfDurationFactor }
   return layout
 }

@@ -57,7 +57,10 @@ export const spacingInput = z
     normalIlluminance: quantity('illuminance', { positive: true, max: 100000 }).optional(),
     routeLength: quantity('length', { positive: true, min: 0.1, max: 2000 }).optional(),
     cPlane: finiteNumber({ min: 0, max: 360 }).default(0),
-    heights: z.array(quantity('length', { positive: true, min: 0.1, max: 30 })).max(20, 'at most 20 heights').optional(),
+    heights: z
+      .array(quantity('length', { positive: true, min: 0.1, max: 30 }))
+      .max(20, 'at most 20 heights')
+      .optional(),
     /** NFPA 101 only: share of the initial emergency output left at the end of the rated duration. */
     endOfDurationFactor: fraction().default(1),
     /** Points along the route that need a luminaire within 2 m (exit doors, stairs, call points, …). */
@@ -65,11 +68,19 @@ export const spacingInput = z
   })
   .superRefine((input, ctx) => {
     if (input.points?.length && input.routeLength === undefined) {
-      ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['routeLength'], message: 'is required when points along the route are marked (they are placed by their distance from its start)' })
+      ctx.addIssue({
+        code: z.ZodIssueCode.custom,
+        path: ['routeLength'],
+        message: 'is required when points along the route are marked (they are placed by their distance from its start)',
+      })
     }
     input.points?.forEach((p, i) => {
       if (input.routeLength !== undefined && p.at > input.routeLength + 1e-9) {
-        ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['points', i, 'at'], message: `is beyond the end of the route (${Number(input.routeLength.toPrecision(6))} m long)` })
+        ctx.addIssue({
+          code: z.ZodIssueCode.custom,
+          path: ['points', i, 'at'],
+          message: `is beyond the end of the route (${Number(input.routeLength.toPrecision(6))} m long)`,
+        })
       }
     })
     if (input.criteria === 'en1838-high-risk' && input.normalIlluminance === undefined) {

@@ -146,7 +146,13 @@ function sampleLine(solver: RowSolver, j: number, from: number, to: number, posi
  * the excluded border for open areas). With `refine`, the lowest and highest local extremes of
  * the samples are narrowed by golden-section search.
  */
-export function finiteRowStatistics(solver: RowSolver, routeLength: number, positions: number[], fn: PointFn = solver.exact, refine = true): FiniteRowStatistics {
+export function finiteRowStatistics(
+  solver: RowSolver,
+  routeLength: number,
+  positions: number[],
+  fn: PointFn = solver.exact,
+  refine = true,
+): FiniteRowStatistics {
   const { lines } = solver
   const border = Math.min(solver.rowCriteria.endBorder, routeLength / 2)
   const from = border
@@ -341,6 +347,7 @@ export function layRoute(solver: RowSolver, routeLength: number, longRowSpacing:
     minLx: stats.ratioMin,
     maxToMin: stats.ratioMin > 0 ? stats.max / stats.ratioMin : null,
   }
-  if (endOfDurationFactor !== undefined) layout.endOfDuration = { factor: endOfDurationFactor, averageLx: stats.average * endOfDurationFactor, minLx: stats.ratioMin * endOfDurationFactor }
+  if (endOfDurationFactor !== undefined)
+    layout.endOfDuration = { factor: endOfDurationFactor, averageLx: stats.average * endOfDurationFactor, minLx: stats.ratioMin * endOfDurationFactor }
   return layout
 }

@@ -487,7 +487,10 @@ export class RowSolver {
 
   /** Centre-line illuminance over one spacing, at scale 1. */
   profile(spacing: number, points = 41): Array<{ x: number; lux: number }> {
-    const centre = Math.max(0, this.lines.findIndex((l) => l.y === 0))
+    const centre = Math.max(
+      0,
+      this.lines.findIndex((l) => l.y === 0),
+    )
     return Array.from({ length: points }, (_, k) => {
       const x = (k * spacing) / (points - 1)
       return { x, lux: this.rowAt(centre, x, spacing, this.exact) }

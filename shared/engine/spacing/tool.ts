@@ -71,7 +71,8 @@ function roundLayout(l: RouteLayout): RouteLayout {
   }
   if (l.even === false) out.even = false
   if (l.pointsServed) out.pointsServed = l.pointsServed.map((p) => ({ ...p, atM: round(p.atM), distanceM: round(p.distanceM) }))
-  if (l.endOfDuration) out.endOfDuration = { factor: l.endOfDuration.factor, averageLx: round(l.endOfDuration.averageLx, 6), minLx: round(l.endOfDuration.minLx, 6) }
+  if (l.endOfDuration)
+    out.endOfDuration = { factor: l.endOfDuration.factor, averageLx: round(l.endOfDuration.averageLx, 6), minLx: round(l.endOfDuration.minLx, 6) }
   return out
 }
 
@@ -111,14 +112,16 @@ export function computeSpacing(input: SpacingInput): SpacingResult {
     warnings.push({
       code: 'requirement-not-met',
       severity: 'critical',
-      message: 'No spacing meets the requirement at this mounting height: the luminaire gives too little light where it is needed, or too uneven a pattern. Try a lower mounting height or a different luminaire.',
+      message:
+        'No spacing meets the requirement at this mounting height: the luminaire gives too little light where it is needed, or too uneven a pattern. Try a lower mounting height or a different luminaire.',
     })
   }
   if (main.end === 0) {
     warnings.push({
       code: 'row-end-too-dark',
       severity: 'warning',
-      message: 'At the largest spacing the floor below the last luminaire of a row already falls short, because the light from beyond the end is missing: close up the last spacings or add a luminaire near each end.',
+      message:
+        'At the largest spacing the floor below the last luminaire of a row already falls short, because the light from beyond the end is missing: close up the last spacings or add a luminaire near each end.',
     })
   }
   if (absolute === false) {
@@ -126,7 +129,8 @@ export function computeSpacing(input: SpacingInput): SpacingResult {
       code: 'relative-photometry',
       severity: 'info',
       field: 'photometry',
-      message: 'The file uses relative photometry: its candela values are for the rated lamp lumens, so the emergency output factor must be relative to that output.',
+      message:
+        'The file uses relative photometry: its candela values are for the rated lamp lumens, so the emergency output factor must be relative to that output.',
     })
   }
   if (input.criteria !== 'nfpa101' && input.endOfDurationFactor !== 1) {
@@ -134,11 +138,17 @@ export function computeSpacing(input: SpacingInput): SpacingResult {
       code: 'end-factor-unused',
       severity: 'info',
       field: 'endOfDurationFactor',
-      message: 'The end-of-duration factor is only used for NFPA 101; EN 1838 levels apply for the whole rated duration, so give the lowest emergency output as the emergency output factor.',
+      message:
+        'The end-of-duration factor is only used for NFPA 101; EN 1838 levels apply for the whole rated duration, so give the lowest emergency output as the emergency output factor.',
     })
   }
   if (input.criteria !== 'en1838-high-risk' && input.normalIlluminance !== undefined) {
-    warnings.push({ code: 'normal-illuminance-unused', severity: 'info', field: 'normalIlluminance', message: 'Normal illuminance is only used for high-risk task areas.' })
+    warnings.push({
+      code: 'normal-illuminance-unused',
+      severity: 'info',
+      field: 'normalIlluminance',
+      message: 'Normal illuminance is only used for high-risk task areas.',
+    })
   }
   if (input.criteria.startsWith('en1838')) {
     const limit = glareLimitCd(h, input.criteria === 'en1838-high-risk')
@@ -170,7 +180,8 @@ export function computeSpacing(input: SpacingInput): SpacingResult {
   warnings.push({
     code: 'direct-light-only',
     severity: 'info',
-    message: 'Direct light only, on the floor, with no obstructions: reflections are ignored, as emergency-lighting practice requires. Confirm on site with a lux meter after installation.',
+    message:
+      'Direct light only, on the floor, with no obstructions: reflections are ignored, as emergency-lighting practice requires. Confirm on site with a lux meter after installation.',
   })
   warnings.push({
     code: 'competent-person',
@@ -211,12 +222,19 @@ export function computeSpacing(input: SpacingInput): SpacingResult {
     {
       id: 'requirement',
       label: 'Level to meet',
-      formula: input.criteria === 'nfpa101' ? 'E_min ≥ 1.1 lx, E_avg ≥ 10.8 lx; at end: f_end·E_min ≥ 0.65 lx, f_end·E_avg ≥ 6.5 lx; E_max/E_min ≤ 40' : `E_min ≥ ${round(requirement.minLx, 3)} lx, E_max/E_min ≤ ${requirement.maxToMin}`,
+      formula:
+        input.criteria === 'nfpa101'
+          ? 'E_min ≥ 1.1 lx, E_avg ≥ 10.8 lx; at end: f_end·E_min ≥ 0.65 lx, f_end·E_avg ≥ 6.5 lx; E_max/E_min ≤ 40'
+          : `E_min ≥ ${round(requirement.minLx, 3)} lx, E_max/E_min ≤ ${requirement.maxToMin}`,
       explanation: requirement.source,
       inputs: [
         { symbol: 'W', label: 'route or area width', value: input.routeWidth, unit: 'm' },
-        ...(input.criteria === 'nfpa101' ? [{ symbol: 'f_end', label: 'output left at the end of the duration', value: input.endOfDurationFactor, unit: '' }] : []),
-        ...(input.normalIlluminance !== undefined && input.criteria === 'en1838-high-risk' ? [{ symbol: 'E_n', label: 'normal illuminance', value: input.normalIlluminance, unit: 'lx' }] : []),
+        ...(input.criteria === 'nfpa101'
+          ? [{ symbol: 'f_end', label: 'output left at the end of the duration', value: input.endOfDurationFactor, unit: '' }]
+          : []),
+        ...(input.normalIlluminance !== undefined && input.criteria === 'en1838-high-risk'
+          ? [{ symbol: 'E_n', label: 'normal illuminance', value: input.normalIlluminance, unit: 'lx' }]
+          : []),
       ],
       result: { symbol: 'E_req', label: 'minimum illuminance', value: requirement.minLx, unit: 'lx' },
       references: [{ source: requirement.source.split(' (')[0], basis: 'published' }],
@@ -240,7 +258,8 @@ export function computeSpacing(input: SpacingInput): SpacingResult {
         id: 'maxEndSpacing',
         label: 'Last luminaire to the end of the route',
         formula: 'd = max { d : E(x) ≥ E_req for 0 ≤ x ≤ d }' + (criteria.endBorder > 0 ? ' + 0.5 m border' : ''),
-        explanation: 'The end luminaire and the row behind it must light every point up to the end wall; the shorter of the two directions along the row is given.',
+        explanation:
+          'The end luminaire and the row behind it must light every point up to the end wall; the shorter of the two directions along the row is given.',
         inputs: [{ symbol: 'S', label: 'spacing in the row', value: round(main.spacing), unit: 'm' }],
         result: { symbol: 'd', label: 'end distance', value: round(main.end ?? 0), unit: 'm' },
         references: [POINT_METHOD],
@@ -257,9 +276,20 @@ export function computeSpacing(input: SpacingInput): SpacingResult {
           l.even === false
             ? `The even row left a marked point more than ${EMPHASIS_REACH_M} m from a luminaire, so a luminaire stands within reach of each group of points, as near an even row's place as it can (one luminaire serves points up to ${2 * EMPHASIS_REACH_M} m apart) and each stretch between is filled with the fewest evenly spaced luminaires for which the whole route still passes.`
             : `The even row already has a luminaire within ${EMPHASIS_REACH_M} m of every marked point.`,
-        inputs: served.map((p) => ({ symbol: `d${p.point + 1}`, label: `point ${p.point + 1} at ${round(p.atM, 3)} m to luminaire ${p.luminaire + 1}`, value: round(p.distanceM), unit: 'm' })),
+        inputs: served.map((p) => ({
+          symbol: `d${p.point + 1}`,
+          label: `point ${p.point + 1} at ${round(p.atM, 3)} m to luminaire ${p.luminaire + 1}`,
+          value: round(p.distanceM),
+          unit: 'm',
+        })),
         result: { symbol: 'n', label: 'luminaires', value: l.count, unit: '' },
-        references: [{ source: 'EN 1838 4.1 and BS 5266-1 siting of luminaires near points of emphasis (2 m from secondary summaries; clause from memory: check the standard)', basis: 'from memory' }],
+        references: [
+          {
+            source:
+              'EN 1838 4.1 and BS 5266-1 siting of luminaires near points of emphasis (2 m from secondary summaries; clause from memory: check the standard)',
+            basis: 'from memory',
+          },
+        ],
       })
     }
     if (input.routeLength !== undefined && main.layout) {
@@ -286,7 +316,9 @@ export function computeSpacing(input: SpacingInput): SpacingResult {
           { symbol: 's', label: 'spacing', value: round(l.spacingM ?? 0), unit: 'm' },
           { symbol: 'd', label: 'end distance', value: round(l.endDistanceM), unit: 'm' },
           { symbol: 'E_min', label: 'minimum over the route', value: round(l.minLx, 6), unit: 'lx' },
-          ...(l.endOfDuration ? [{ symbol: 'E_avg,end', label: 'average at the end of the rated duration', value: round(l.endOfDuration.averageLx, 6), unit: 'lx' }] : []),
+          ...(l.endOfDuration
+            ? [{ symbol: 'E_avg,end', label: 'average at the end of the rated duration', value: round(l.endOfDuration.averageLx, 6), unit: 'lx' }]
+            : []),
         ],
         result: { symbol: 'E_avg', label: 'average over the route', value: round(l.averageLx, 6), unit: 'lx' },
         references: [POINT_METHOD],

@@ -51,7 +51,9 @@ export const MemberTokenListAnswer = z.object({
   tokens: z.array(ApiTokenAnswer.extend({ userId: z.string().uuid(), userName: z.string(), userEmail: z.string() })),
 })
 /** A new API token: the secret is shown this once. */
-export const NewApiTokenAnswer = ApiTokenAnswer.pick({ id: true, name: true, role: true, prefix: true, scopes: true, expiresAt: true, createdAt: true }).extend({ token: z.string() })
+export const NewApiTokenAnswer = ApiTokenAnswer.pick({ id: true, name: true, role: true, prefix: true, scopes: true, expiresAt: true, createdAt: true }).extend(
+  { token: z.string() },
+)
 
 export const CaughtMailAnswer = z.object({ id: z.string(), receivedAt: Timestamp, to: z.array(z.string()), subject: z.string(), text: z.string() })
 export const OutboxAnswer = z.object({ messages: z.array(CaughtMailAnswer) })

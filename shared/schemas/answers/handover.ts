@@ -18,4 +18,11 @@ export const HandoverPackAnswer = HandoverPackSummary.extend({ content: Handover
 export const HandoverPackListAnswer = z.object({ packs: z.array(HandoverPackSummary) })
 export const HandoverLinkAnswer = z.object({ id: z.string(), url: z.string(), token: z.string(), expiresOn: z.string().nullable() })
 /** The read-only page behind a link: the pack, without the workspace's ids. */
-export const SharedHandoverAnswer = z.object({ number: z.number().int(), signedByName: z.string(), signedOn: z.string(), createdAt: Timestamp, expiresOn: z.string().nullable(), content: HandoverContentSchema })
+export const SharedHandoverAnswer = z.object({
+  number: z.number().int(),
+  signedByName: z.string(),
+  signedOn: z.string(),
+  createdAt: Timestamp,
+  expiresOn: z.string().nullable(),
+  content: HandoverContentSchema,
+})

@@ -9,10 +9,24 @@ import { engineShape, IsoDay, PersonSchema, Timestamp } from './common'
 const LinkState = z.enum(LINK_STATES)
 
 /** A link just made: the only answer that carries its token and address. */
-export const NewLogBookLinkAnswer = z.object({ id: z.string(), url: z.string(), token: z.string(), expiresOn: IsoDay.nullable(), createdAt: Timestamp, state: LinkState })
+export const NewLogBookLinkAnswer = z.object({
+  id: z.string(),
+  url: z.string(),
+  token: z.string(),
+  expiresOn: IsoDay.nullable(),
+  createdAt: Timestamp,
+  state: LinkState,
+})
 
 /** A link as listed: never its token. */
-export const LogBookLinkItem = z.object({ id: z.string(), expiresOn: IsoDay.nullable(), createdAt: Timestamp, createdBy: PersonSchema.nullable(), revokedAt: Timestamp.nullable(), state: LinkState })
+export const LogBookLinkItem = z.object({
+  id: z.string(),
+  expiresOn: IsoDay.nullable(),
+  createdAt: Timestamp,
+  createdBy: PersonSchema.nullable(),
+  revokedAt: Timestamp.nullable(),
+  state: LinkState,
+})
 export const LogBookLinkListAnswer = z.object({ links: z.array(LogBookLinkItem) })
 
 /** The summary page of a log book, from the engine (shared/engine/log-book-summary.ts). */

@@ -86,6 +86,13 @@ export const ShareLinkAnswer = z.object({
 export const ShareListAnswer = z.object({ shares: z.array(ShareLinkAnswer) })
 
 /** A new share link: the token is shown this once. */
-export const NewShareAnswer = z.object({ id: z.string(), token: z.string(), url: z.string(), expiresAt: Timestamp.nullable(), createdAt: Timestamp, state: ShareState })
+export const NewShareAnswer = z.object({
+  id: z.string(),
+  token: z.string(),
+  url: z.string(),
+  expiresAt: Timestamp.nullable(),
+  createdAt: Timestamp,
+  state: ShareState,
+})
 
 export const SentAnswer = z.object({ sent: z.boolean() })

@@ -20,7 +20,13 @@ const PlanGroupAnswer = z.object({
 export const TestPlanAnswer = z.object({
   id: z.string(),
   siteId: z.string(),
-  input: z.object({ grouping: z.enum(['alternate', 'area', 'circuit']), firstDay: z.string(), windowStart: z.string(), windowEnd: z.string(), defaultRechargeH: z.number() }),
+  input: z.object({
+    grouping: z.enum(['alternate', 'area', 'circuit']),
+    firstDay: z.string(),
+    windowStart: z.string(),
+    windowEnd: z.string(),
+    defaultRechargeH: z.number(),
+  }),
   plan: z.object({
     groups: z.array(PlanGroupAnswer),
     warnings: z.array(z.object({ code: z.enum(['single-luminaire-area', 'area-dark', 'window-too-short', 'no-luminaires']), message: z.string() })),

@@ -9,7 +9,15 @@ import { auditTool } from '../../../shared/engine/audit'
 import { likelySlip } from '../../../shared/engine/audit-plausibility'
 import { runTool } from '../../../shared/engine/tool'
 
-const BASE = { claimedPower: '3 W', supplyVoltage: '230 V', measuredPower: '3.2 W', measuredCurrent: '25 mA', mode: 'maintained', hoursPerDay: 24, tariffPerKWh: 0.3 }
+const BASE = {
+  claimedPower: '3 W',
+  supplyVoltage: '230 V',
+  measuredPower: '3.2 W',
+  measuredCurrent: '25 mA',
+  mode: 'maintained',
+  hoursPerDay: 24,
+  tariffPerKWh: 0.3,
+}
 function audit(input: Record<string, unknown>) {
   const o = runTool(auditTool, input)
   if (!o.ok) throw new Error(JSON.stringify(o.fields))

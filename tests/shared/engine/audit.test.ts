@@ -58,7 +58,12 @@ describe('real power, apparent power and power factor (IEEE Std 1459-2010; IEC 6
     expect(r.powerFactor).toBeCloseTo(0.522, 3)
     // mathjs as the reference for the unit arithmetic: V × A → VA.
     expect(unit('230 V').multiply(unit('25 mA')).toNumber('VA')).toBeCloseTo(r.apparentPowerVA, 10)
-    expect(r.working.find((s) => s.id === 'powerFactor')?.references.map((x) => x.source).join(' ')).toContain('IEEE Std 1459')
+    expect(
+      r.working
+        .find((s) => s.id === 'powerFactor')
+        ?.references.map((x) => x.source)
+        .join(' '),
+    ).toContain('IEEE Std 1459')
   })
 
   it('a 60 W incandescent lamp at 230 V draws 0.26 A: power factor 1 (resistive load, worked example)', () => {
@@ -171,7 +176,14 @@ describe('what the claim describes', () => {
   })
 
   it('uses the LED power on battery when there is no mains LED reading', () => {
-    const r = run({ mode: 'non-maintained', claimedPower: '1 W', measuredPower: '1.6 W', ledVoltageMains: undefined, ledCurrentMains: undefined, hoursPerDay: 0 })
+    const r = run({
+      mode: 'non-maintained',
+      claimedPower: '1 W',
+      measuredPower: '1.6 W',
+      ledVoltageMains: undefined,
+      ledCurrentMains: undefined,
+      hoursPerDay: 0,
+    })
     expect(r.claimLikelyMeans).toBe('LED power') // 8.6 V × 0.11 A = 0.946 W
     expect(r.claimExplanation).toContain('on battery')
   })

@@ -50,7 +50,16 @@ describe('float voltage of VRLA with temperature compensation', () => {
     [25, 2.25, 13.5],
     [35, 2.22, 13.32],
   ])('%d °C → %d V/cell, %d V per 6-cell block', (ambient, cell, block) => {
-    const r = charge({ chemistry: 'lead-acid', capacity: '7 Ah', duration: '1 h', ...direct(1), cellsInSeries: 6, load: { ledVoltage: '9 V', ledCurrent: 1 }, chargeCurrent: '0.7 A', ambient })
+    const r = charge({
+      chemistry: 'lead-acid',
+      capacity: '7 Ah',
+      duration: '1 h',
+      ...direct(1),
+      cellsInSeries: 6,
+      load: { ledVoltage: '9 V', ledCurrent: 1 },
+      chargeCurrent: '0.7 A',
+      ambient,
+    })
     expect(r.floatVoltageCheck?.expectedCellVoltageV).toBeCloseTo(cell, 9)
     expect(r.floatVoltageCheck?.expectedPackVoltageV).toBeCloseTo(block, 9)
     expect(codes(r)).toContain('float-voltage-expected')
@@ -69,7 +78,17 @@ describe('float voltage of VRLA with temperature compensation', () => {
     ['13.0 V', 'pack', 1], // 2.167 V/cell: low
     ['14.4 V', 'pack', 1], // 2.40 V/cell is a cycle-charge voltage, too high for float
   ])('float %s per %s at 25 °C: warnings %s', (floatVoltage, voltageBasis, expectWarning) => {
-    const r = charge({ chemistry: 'lead-acid', capacity: '7 Ah', duration: '1 h', driver: 'direct', cellsInSeries: 6, load: { ledVoltage: '9 V', ledCurrent: 1 }, chargeCurrent: '0.7 A', floatVoltage, voltageBasis })
+    const r = charge({
+      chemistry: 'lead-acid',
+      capacity: '7 Ah',
+      duration: '1 h',
+      driver: 'direct',
+      cellsInSeries: 6,
+      load: { ledVoltage: '9 V', ledCurrent: 1 },
+      chargeCurrent: '0.7 A',
+      floatVoltage,
+      voltageBasis,
+    })
     const floatWarnings = r.warnings.filter((w) => w.code === 'float-voltage-low' || w.code === 'float-voltage-high')
     expect(floatWarnings.length).toBe(expectWarning ?? 0)
     expect(r.floatVoltageCheck?.withinBand).toBe(expectWarning === null)
@@ -122,15 +141,18 @@ describe('charge and trickle rates', () => {
 
   // Common practice: a charger is taken to keep its current on unless the user says it stops (trickle 0);
   // an empty field must never hide a danger that the same current typed in would show.
-  test.each(['nicd', 'nimh', 'lifepo4', 'li-ion', 'lead-acid'])('%s: an empty trickle field reads as the charge current, same verdict as typing it', (chemistry) => {
-    const base = { chemistry, capacity: '1.6 Ah', duration: '3 h', ...direct(0.3), cellsInSeries: 4, chargeCurrent: '120 mA' }
-    const empty = charge(base)
-    const typed = charge({ ...base, trickleCurrent: '120 mA' })
-    expect(empty.trickleCurrentA).toBeCloseTo(0.12, 12)
-    expect(empty.trickleCRate).toBeCloseTo(0.075, 12)
-    expect(empty.trickleWithinLimit).toBe(typed.trickleWithinLimit)
-    expect(codes(empty)).toEqual(codes(typed))
-  })
+  test.each(['nicd', 'nimh', 'lifepo4', 'li-ion', 'lead-acid'])(
+    '%s: an empty trickle field reads as the charge current, same verdict as typing it',
+    (chemistry) => {
+      const base = { chemistry, capacity: '1.6 Ah', duration: '3 h', ...direct(0.3), cellsInSeries: 4, chargeCurrent: '120 mA' }
+      const empty = charge(base)
+      const typed = charge({ ...base, trickleCurrent: '120 mA' })
+      expect(empty.trickleCurrentA).toBeCloseTo(0.12, 12)
+      expect(empty.trickleCRate).toBeCloseTo(0.075, 12)
+      expect(empty.trickleWithinLimit).toBe(typed.trickleWithinLimit)
+      expect(codes(empty)).toEqual(codes(typed))
+    },
+  )
 
   test('lithium on a charger whose current stays on, trickle left empty: critical (lithium maker practice, IEC 62133-2)', () => {
     const r = charge({ chemistry: 'lifepo4', capacity: '1.6 Ah', duration: '3 h', ...direct(0.3), cellsInSeries: 1, chargeCurrent: '120 mA' })
@@ -161,7 +183,17 @@ describe('charge taken by a full test', () => {
 
 describe('lithium, cut-off and temperature', () => {
   test('lithium is flagged as held at full charge; charging at −5 °C is forbidden; overvoltage is critical', () => {
-    const r = charge({ chemistry: 'li-ion', capacity: '3 Ah', duration: '1 h', driver: 'direct', cellsInSeries: 1, load: { ledVoltage: '2.8 V', ledCurrent: 0.5 }, chargeCurrent: '0.5 A', ambient: -5, floatVoltage: '4.3 V' })
+    const r = charge({
+      chemistry: 'li-ion',
+      capacity: '3 Ah',
+      duration: '1 h',
+      driver: 'direct',
+      cellsInSeries: 1,
+      load: { ledVoltage: '2.8 V', ledCurrent: 0.5 },
+      chargeCurrent: '0.5 A',
+      ambient: -5,
+      floatVoltage: '4.3 V',
+    })
     expect(r.heldAtFullCharge).toBe(true)
     expect(codes(r)).toEqual(expect.arrayContaining(['lithium-held-full', 'charge-forbidden-cold', 'lithium-overvoltage', 'lithium-safety']))
     expect(r.warnings[0].severity).toBe('critical')

@@ -11,7 +11,8 @@ function sourcedValues(c: Chemistry): Array<[string, Reference]> {
   for (const [key, value] of Object.entries(c)) {
     if (value && typeof value === 'object' && 'ref' in value) out.push([key, (value as { ref: Reference }).ref])
   }
-  if (c.float) for (const [key, value] of Object.entries(c.float)) if (value && typeof value === 'object' && 'ref' in value) out.push([`float.${key}`, value.ref])
+  if (c.float)
+    for (const [key, value] of Object.entries(c.float)) if (value && typeof value === 'object' && 'ref' in value) out.push([`float.${key}`, value.ref])
   return out
 }
 
@@ -47,7 +48,15 @@ describe('every chemistry value carries a source', () => {
     ladder.forEach((x, i) => {
       expect(x).toBeGreaterThan(i === 0 ? 0 : ladder[i - 1])
     })
-    for (const r of [c.continuousChargeRangeC, c.chargeTemperatureC, c.dischargeTemperatureC, c.selfDischargePctPerMonth, c.peukertExponent, c.specificEnergyWhPerKg, c.energyDensityWhPerL]) {
+    for (const r of [
+      c.continuousChargeRangeC,
+      c.chargeTemperatureC,
+      c.dischargeTemperatureC,
+      c.selfDischargePctPerMonth,
+      c.peukertExponent,
+      c.specificEnergyWhPerKg,
+      c.energyDensityWhPerL,
+    ]) {
       expect(r.value.min).toBeLessThanOrEqual(r.value.max)
     }
     expect(c.chargeFactor.value).toBeGreaterThanOrEqual(1)
@@ -90,7 +99,12 @@ describe('handbook and standard values', () => {
   })
 
   test('VRLA end voltage by rate: 1.75 / 1.70 / 1.55 / 1.30 V per cell — VRLA maker manual table', () => {
-    expect(getChemistry('lead-acid').cutoffByDischargeRate?.value).toEqual([[0.2, 1.75], [0.5, 1.7], [1, 1.55], [100, 1.3]])
+    expect(getChemistry('lead-acid').cutoffByDischargeRate?.value).toEqual([
+      [0.2, 1.75],
+      [0.5, 1.7],
+      [1, 1.55],
+      [100, 1.3],
+    ])
   })
 
   test('lithium: no trickle, no charge below 0 °C; LiFePO4 3.6 V and NMC 4.2 V full — IEC 62133-2 practice, cell makers', () => {

@@ -23,7 +23,11 @@ describe('lead-acid end voltage: one rule from the makers’ rate table', () => 
   it('a pack discharged at about 0.5–1 C takes 1.55 V per cell from the table and is not called deep-discharged', () => {
     // 6 V block (3 cells), 10 W at 85 % ≈ 1.96 A from a 3.2 Ah block ≈ 0.61 C.
     const r = run<Warned & { cutoffCellVoltageV: number; dischargeCRate: number }>(sizeTool, {
-      chemistry: 'lead-acid', duration: '1 h', load: { power: '10 W' }, capacity: '3.2 Ah', cellsInSeries: 3,
+      chemistry: 'lead-acid',
+      duration: '1 h',
+      load: { power: '10 W' },
+      capacity: '3.2 Ah',
+      cellsInSeries: 3,
     })
     expect(r.dischargeCRate).toBeGreaterThan(0.5)
     expect(r.dischargeCRate).toBeLessThanOrEqual(1)
@@ -32,13 +36,26 @@ describe('lead-acid end voltage: one rule from the makers’ rate table', () => 
   })
 
   it('a given 1.6 V per cell cut-off at 0.1 C is below the table’s 1.75 V: deep discharge', () => {
-    const r = run<Warned>(sizeTool, { chemistry: 'lead-acid', duration: '3 h', load: { power: '2 W' }, capacity: '7 Ah', cellsInSeries: 3, cutoffCellVoltage: '1.6 V' })
+    const r = run<Warned>(sizeTool, {
+      chemistry: 'lead-acid',
+      duration: '3 h',
+      load: { power: '2 W' },
+      capacity: '7 Ah',
+      cellsInSeries: 3,
+      cutoffCellVoltage: '1.6 V',
+    })
     expect(codes(r)).toContain('deep-discharge')
   })
 
   it('the charge check applies the same table: a 1.55 V per cell disconnect at 0.6 C is fine', () => {
     const r = run<Warned & { deepDischarge: boolean | null }>(chargeTool, {
-      chemistry: 'lead-acid', cellsInSeries: 3, capacity: '3.2 Ah', duration: '1 h', load: { power: '10 W' }, chargeCurrent: '0.4 A', cutoffVoltage: '4.65 V',
+      chemistry: 'lead-acid',
+      cellsInSeries: 3,
+      capacity: '3.2 Ah',
+      duration: '1 h',
+      load: { power: '10 W' },
+      chargeCurrent: '0.4 A',
+      cutoffVoltage: '4.65 V',
     })
     expect(r.deepDischarge).toBe(false)
   })
@@ -67,7 +84,10 @@ describe('LiFePO4 charging', () => {
 describe('NiMH in the cold is penalised in the ranking', () => {
   it('for a −10 °C warehouse NiMH is halved and ranks below chemistries that can be charged there', () => {
     const r = run<{ rows: Array<{ chemistry: string; rank: number; score: number; verdict: string }> }>(compareTool, {
-      duration: '3 h', load: { power: '3 W' }, ambientMin: '-10 °C', ambientMax: '20 °C',
+      duration: '3 h',
+      load: { power: '3 W' },
+      ambientMin: '-10 °C',
+      ambientMax: '20 °C',
     })
     const nimh = r.rows.find((x) => x.chemistry === 'nimh')!
     const lead = r.rows.find((x) => x.chemistry === 'lead-acid')!
@@ -76,18 +96,34 @@ describe('NiMH in the cold is penalised in the ranking', () => {
     expect(nimh.verdict).toContain('cannot be charged at -10 °C')
   })
   it('at 5 °C NiMH is not penalised', () => {
-    const warm = run<{ rows: Array<{ chemistry: string; verdict: string }> }>(compareTool, { duration: '3 h', load: { power: '3 W' }, ambientMin: '5 °C', ambientMax: '20 °C' })
+    const warm = run<{ rows: Array<{ chemistry: string; verdict: string }> }>(compareTool, {
+      duration: '3 h',
+      load: { power: '3 W' },
+      ambientMin: '5 °C',
+      ambientMax: '20 °C',
+    })
     expect(warm.rows.find((x) => x.chemistry === 'nimh')!.verdict).not.toContain('cannot be charged')
   })
 })
 
 describe('direct drive needs headroom for the current limiter', () => {
   it('a 2.95 V LED on three NiCd cells (3.0 V at cut-off) leaves 0.05 V: warned', () => {
-    const r = run<Warned>(sizeTool, { chemistry: 'nicd', duration: '3 h', driver: 'direct', load: { ledVoltage: '2.95 V', ledCurrent: '0.3 A' }, cellsInSeries: 3 })
+    const r = run<Warned>(sizeTool, {
+      chemistry: 'nicd',
+      duration: '3 h',
+      driver: 'direct',
+      load: { ledVoltage: '2.95 V', ledCurrent: '0.3 A' },
+      cellsInSeries: 3,
+    })
     expect(codes(r)).toContain('direct-drive-headroom')
   })
   it('left to choose, the sizing adds a cell so the limiter has its headroom', () => {
-    const r = run<Warned & { cellsInSeries: number }>(sizeTool, { chemistry: 'nicd', duration: '3 h', driver: 'direct', load: { ledVoltage: '2.95 V', ledCurrent: '0.3 A' } })
+    const r = run<Warned & { cellsInSeries: number }>(sizeTool, {
+      chemistry: 'nicd',
+      duration: '3 h',
+      driver: 'direct',
+      load: { ledVoltage: '2.95 V', ledCurrent: '0.3 A' },
+    })
     expect(r.cellsInSeries).toBe(4)
     expect(codes(r)).not.toContain('direct-drive-headroom')
   })

@@ -55,7 +55,8 @@ describe('compare', () => {
       expect(c?.scores.trickle).toBe(warm.rows.find((x) => x.chemistry === id)?.scores.trickle)
       const w = cold.weights
       const s = c!.scores
-      const weighted = (w.life * s.life + w.trickle * s.trickle + w.size * s.size + w.restrictions * s.restrictions) / (w.life + w.trickle + w.size + w.restrictions)
+      const weighted =
+        (w.life * s.life + w.trickle * s.trickle + w.size * s.size + w.restrictions * s.restrictions) / (w.life + w.trickle + w.size + w.restrictions)
       expect(c?.score).toBeCloseTo(weighted * 0.5, 12)
     }
   })

@@ -38,7 +38,10 @@ const plateau = (t: number) => 6.25 - (0.1 * t) / H
 describe('drop-out recognised from the voltage alone (common practice: recovery without load)', () => {
   it('a flat NiCd curve that steps up 50 mV per cell at 1.5 h and stays flat fails at 1.5 h', () => {
     const atDrop = plateau(1.5 * H)
-    const r = ok(log(3.5 * H, 30, (t) => (t <= 1.5 * H ? plateau(t) : atDrop + 0.25)), nicd5)
+    const r = ok(
+      log(3.5 * H, 30, (t) => (t <= 1.5 * H ? plateau(t) : atDrop + 0.25)),
+      nicd5,
+    )
     expect(r.pass).toBe(false)
     expect(r.runtimeEnd).toBe('dropout')
     expect(r.endRule).toBe('voltage-recovery')
@@ -50,14 +53,20 @@ describe('drop-out recognised from the voltage alone (common practice: recovery 
 
   it('the same step after the rated duration (mains restored at the end of the test) is a pass', () => {
     const atEnd = plateau(3 * H)
-    const r = ok(log(3.5 * H, 30, (t) => (t <= 3 * H ? plateau(t) : atEnd + 0.4)), nicd5)
+    const r = ok(
+      log(3.5 * H, 30, (t) => (t <= 3 * H ? plateau(t) : atEnd + 0.4)),
+      nicd5,
+    )
     expect(r.pass).toBe(true)
     expect(r.dropoutTimeH).toBeCloseTo(3, 9)
     expect(r.loadEvidence).toBe('voltage-fall')
   })
 
   it('a voltage that never falls cannot show the load was on: not passed, and said so', () => {
-    const r = ok(log(3.5 * H, 30, () => 6.3), nicd5)
+    const r = ok(
+      log(3.5 * H, 30, () => 6.3),
+      nicd5,
+    )
     expect(r.pass).toBeNull()
     expect(r.loadEvidence).toBe('none')
     expect(codes(r)).toContain('load-not-evident')
@@ -66,7 +75,10 @@ describe('drop-out recognised from the voltage alone (common practice: recovery 
 
   it('a rise that falls back after the settling time is an interruption: not passed', () => {
     // Off for 20 min at 1 h (recovers 60 mV per cell), then the load comes back and the plateau resumes.
-    const r = ok(log(3.5 * H, 30, (t) => (t > H && t < 1.33 * H ? plateau(t) + 0.3 : plateau(t))), nicd5)
+    const r = ok(
+      log(3.5 * H, 30, (t) => (t > H && t < 1.33 * H ? plateau(t) + 0.3 : plateau(t))),
+      nicd5,
+    )
     expect(r.pass).toBeNull()
     expect(r.interruptionTimeH).toBeCloseTo(1, 1)
     expect(codes(r)).toContain('load-interrupted')
@@ -83,7 +95,10 @@ describe('drop-out recognised from the voltage alone (common practice: recovery 
   it('a noisy voltage-only log cannot show a drop-out and is not passed', () => {
     let seed = 7
     const noise = () => ((seed = (seed * 16807) % 2147483647) / 2147483647 - 0.5) * 0.6
-    const r = ok(log(3.5 * H, 30, (t) => plateau(t) + noise()), nicd5)
+    const r = ok(
+      log(3.5 * H, 30, (t) => plateau(t) + noise()),
+      nicd5,
+    )
     expect(r.pass).toBeNull()
     expect(codes(r)).toContain('voltage-too-noisy')
   })
@@ -94,7 +109,10 @@ describe('glitch rule: the voltage must stay below the cut-off for 30 s (common 
   const volts = (t: number) => (t === glitchAt ? 4.6 : plateau(t))
 
   it('a single sample below the cut-off with the current still flowing is noise', () => {
-    const r = ok(log(3.5 * H, 10, volts, () => 0.5), nicd5)
+    const r = ok(
+      log(3.5 * H, 10, volts, () => 0.5),
+      nicd5,
+    )
     expect(r.pass).toBe(true)
     expect(r.cutoffTimeH).toBeNull()
     expect(r.cutoffGlitches.count).toBe(1)
@@ -111,14 +129,30 @@ describe('glitch rule: the voltage must stay below the cut-off for 30 s (common 
   })
 
   it('a dip that lasts the hold time is the cut-off', () => {
-    const r = ok(log(3.5 * H, 10, (t) => (t >= glitchAt && t <= glitchAt + 40 ? 4.6 : plateau(t)), () => 0.5), nicd5)
+    const r = ok(
+      log(
+        3.5 * H,
+        10,
+        (t) => (t >= glitchAt && t <= glitchAt + 40 ? 4.6 : plateau(t)),
+        () => 0.5,
+      ),
+      nicd5,
+    )
     expect(r.pass).toBe(false)
     expect(r.endRule).toBe('cutoff-held')
-    expect(r.cutoffTimeH).toBeCloseTo((glitchAt - 10 + 10 * (6.2 - 5) / (6.2 - 4.6)) / H, 3)
+    expect(r.cutoffTimeH).toBeCloseTo((glitchAt - 10 + (10 * (6.2 - 5)) / (6.2 - 4.6)) / H, 3)
   })
 
   it('a short dip that ends with the current stopping is the cut-off (the luminaire’s own protection acted)', () => {
-    const r = ok(log(3.5 * H, 10, (t) => (t === glitchAt ? 4.6 : t > glitchAt ? 6.3 : plateau(t)), (t) => (t <= glitchAt ? 0.5 : 0)), nicd5)
+    const r = ok(
+      log(
+        3.5 * H,
+        10,
+        (t) => (t === glitchAt ? 4.6 : t > glitchAt ? 6.3 : plateau(t)),
+        (t) => (t <= glitchAt ? 0.5 : 0),
+      ),
+      nicd5,
+    )
     expect(r.pass).toBe(false)
     expect(r.runtimeEnd).toBe('cutoff')
     expect(r.endRule).toBe('cutoff-then-dropout')
@@ -128,27 +162,39 @@ describe('glitch rule: the voltage must stay below the cut-off for 30 s (common 
 
 describe('current logs', () => {
   it('the load off for good after 1 h of a 3.5 h log fails at 1 h (the typical current is not dragged to zero)', () => {
-    const r = ok(log(3.5 * H, 10, plateau, (t) => (t <= H ? 0.5 : 0)), nicd5)
+    const r = ok(
+      log(3.5 * H, 10, plateau, (t) => (t <= H ? 0.5 : 0)),
+      nicd5,
+    )
     expect(r.pass).toBe(false)
     expect(r.endRule).toBe('current-dropout')
     expect(r.dropoutTimeH).toBeCloseTo(1, 2)
   })
 
   it('the current off for 2 min and back is an interruption: not passed', () => {
-    const r = ok(log(3.5 * H, 10, plateau, (t) => (t > H && t < H + 120 ? 0 : 0.5)), nicd5)
+    const r = ok(
+      log(3.5 * H, 10, plateau, (t) => (t > H && t < H + 120 ? 0 : 0.5)),
+      nicd5,
+    )
     expect(r.pass).toBeNull()
     expect(codes(r)).toContain('load-interrupted')
   })
 
   it('a log written with discharge negative is turned round and still passes', () => {
-    const r = ok(log(3.5 * H, 10, plateau, () => -0.5), nicd5)
+    const r = ok(
+      log(3.5 * H, 10, plateau, () => -0.5),
+      nicd5,
+    )
     expect(r.pass).toBe(true)
     expect(r.deliveredAh).toBeCloseTo(1.75, 9)
     expect(codes(r)).toContain('current-sign-flipped')
   })
 
   it('a current column of zeros does not show the load: not passed', () => {
-    const r = ok(log(3.5 * H, 10, plateau, () => 0), nicd5)
+    const r = ok(
+      log(3.5 * H, 10, plateau, () => 0),
+      nicd5,
+    )
     expect(r.pass).toBeNull()
     expect(codes(r)).toContain('current-never-on')
   })
@@ -156,7 +202,10 @@ describe('current logs', () => {
 
 describe('a log that never reaches the cut-off', () => {
   it('runs to the end of the log and passes when that is past the rated duration with the current on', () => {
-    const r = ok(log(3.25 * H, 10, plateau, () => 0.5), nicd5)
+    const r = ok(
+      log(3.25 * H, 10, plateau, () => 0.5),
+      nicd5,
+    )
     expect(r.runtimeEnd).toBe('end-of-log')
     expect(r.endRule).toBe('end-of-log')
     expect(r.runtimeH).toBeCloseTo(3.25, 9)
@@ -165,13 +214,24 @@ describe('a log that never reaches the cut-off', () => {
   })
 
   it('neither passes nor fails when the log stops before the rated duration', () => {
-    const r = ok(log(2 * H, 10, plateau, () => 0.5), nicd5)
+    const r = ok(
+      log(2 * H, 10, plateau, () => 0.5),
+      nicd5,
+    )
     expect(r.pass).toBeNull()
     expect(codes(r)).toContain('log-ended-early')
   })
 
   it('passes when the test ends at the rated duration with the charger taking over (current turns negative)', () => {
-    const r = ok(log(3.5 * H, 10, (t) => (t <= 3 * H ? plateau(t) : 6.9), (t) => (t <= 3 * H ? 0.5 : -0.16)), nicd5)
+    const r = ok(
+      log(
+        3.5 * H,
+        10,
+        (t) => (t <= 3 * H ? plateau(t) : 6.9),
+        (t) => (t <= 3 * H ? 0.5 : -0.16),
+      ),
+      nicd5,
+    )
     expect(r.pass).toBe(true)
     expect(r.dropoutTimeH).toBeCloseTo(3, 2)
   })
@@ -179,18 +239,37 @@ describe('a log that never reaches the cut-off', () => {
 
 describe('lead-acid end voltage: the makers’ rate table, one rule (VRLA maker’s application manual, published)', () => {
   it('at 0.6 C with current and capacity known the cut-off is 1.55 V per cell, with no deep-discharge warning', () => {
-    const r = ok(log(2 * H, 10, (t) => 12.4 - (1.5 * t) / H, () => 0.6 * 7), { chemistry: 'lead-acid', cellsInSeries: 6, ratedDuration: H, ratedCapacity: 7 * H })
+    const r = ok(
+      log(
+        2 * H,
+        10,
+        (t) => 12.4 - (1.5 * t) / H,
+        () => 0.6 * 7,
+      ),
+      { chemistry: 'lead-acid', cellsInSeries: 6, ratedDuration: H, ratedCapacity: 7 * H },
+    )
     expect(r.cutoffVoltageV).toBeCloseTo(6 * 1.55, 12)
     expect(codes(r)).not.toContain('cutoff-below-safe')
   })
 
   it('without a known rate it keeps the demanding 1.75 V per cell', () => {
-    const r = ok(log(2 * H, 10, (t) => 12.4 - (1.5 * t) / H), { chemistry: 'lead-acid', cellsInSeries: 6, ratedDuration: H })
+    const r = ok(
+      log(2 * H, 10, (t) => 12.4 - (1.5 * t) / H),
+      { chemistry: 'lead-acid', cellsInSeries: 6, ratedDuration: H },
+    )
     expect(r.cutoffVoltageV).toBeCloseTo(6 * 1.75, 12)
   })
 
   it('a given 1.6 V per cell at 0.1 C is below the table’s 1.75 V and warned about', () => {
-    const r = ok(log(2 * H, 10, (t) => 12.4 - (0.5 * t) / H, () => 0.7), { chemistry: 'lead-acid', cellsInSeries: 6, ratedDuration: H, ratedCapacity: 7 * H, cutoffPerCell: 1.6 })
+    const r = ok(
+      log(
+        2 * H,
+        10,
+        (t) => 12.4 - (0.5 * t) / H,
+        () => 0.7,
+      ),
+      { chemistry: 'lead-acid', cellsInSeries: 6, ratedDuration: H, ratedCapacity: 7 * H, cutoffPerCell: 1.6 },
+    )
     expect(codes(r)).toContain('cutoff-below-safe')
   })
 })

@@ -27,7 +27,15 @@ const nicd5 = { chemistry: 'nicd', cellsInSeries: 5, ratedDuration: 3 * H } as c
 
 describe('discharge: synthetic logs with known answers', () => {
   it('constant 0.5 A for exactly 3 h delivers exactly 1.5 Ah and, at a steady 6 V, 9 Wh', () => {
-    const r = ok(log(3 * H, 10, () => 6, () => 0.5), nicd5)
+    const r = ok(
+      log(
+        3 * H,
+        10,
+        () => 6,
+        () => 0.5,
+      ),
+      nicd5,
+    )
     expect(r.deliveredAh).toBeCloseTo(1.5, 12)
     expect(r.deliveredWh).toBeCloseTo(9, 12)
     expect(r.estimated).toBe(false)
@@ -41,7 +49,15 @@ describe('discharge: synthetic logs with known answers', () => {
 
   it('a linear ramp 7.0 → 4.5 V over 4 h crosses the 5 × 1.0 V cut-off at exactly 3.2 h (algebra: (7 − 5)/(2.5/4))', () => {
     // Samples every 7 s, so the crossing falls between samples and is interpolated.
-    const r = ok(log(4 * H, 7, (t) => 7 - (2.5 * t) / (4 * H), () => 1), { ...nicd5, ratedCapacity: 4 * H, thresholdsPerCell: [1.1, 0.8] })
+    const r = ok(
+      log(
+        4 * H,
+        7,
+        (t) => 7 - (2.5 * t) / (4 * H),
+        () => 1,
+      ),
+      { ...nicd5, ratedCapacity: 4 * H, thresholdsPerCell: [1.1, 0.8] },
+    )
     expect(r.cutoffVoltageV).toBe(5)
     expect(r.cutoffTimeH).toBeCloseTo(3.2, 9)
     expect(r.runtimeH).toBeCloseTo(3.2, 9)
@@ -84,20 +100,34 @@ describe('discharge: synthetic logs with known answers', () => {
   })
 
   it('a current log times the dropout at the last sample that still shows the load on (the log cannot show more)', () => {
-    const r = ok(log(2 * H, 10, (t) => (t <= H ? 6.5 - t / H : 6.2), (t) => (t <= H ? 1 : 0)), { ...nicd5, ratedDuration: H })
+    const r = ok(
+      log(
+        2 * H,
+        10,
+        (t) => (t <= H ? 6.5 - t / H : 6.2),
+        (t) => (t <= H ? 1 : 0),
+      ),
+      { ...nicd5, ratedDuration: H },
+    )
     expect(r.dropoutTimeH! * H).toBeCloseTo(3600, 9)
     expect(r.deliveredAh).toBeCloseTo(1, 12)
     expect(r.pass).toBe(true)
   })
 
   it('assumed resistance: i = v/R', () => {
-    const r = ok(log(H, 1, () => 6), { ...nicd5, ratedDuration: H, assumedResistance: 12 })
+    const r = ok(
+      log(H, 1, () => 6),
+      { ...nicd5, ratedDuration: H, assumedResistance: 12 },
+    )
     expect(r.deliveredAh).toBeCloseTo(0.5, 12)
     expect(r.deliveredWh).toBeCloseTo(3, 12)
   })
 
   it('without current or an assumption there are no Ah/Wh figures, and a short log is inconclusive', () => {
-    const r = ok(log(H, 10, () => 6.2), { ...nicd5, ratedCapacity: 7200 })
+    const r = ok(
+      log(H, 10, () => 6.2),
+      { ...nicd5, ratedCapacity: 7200 },
+    )
     expect(r.deliveredAh).toBeNull()
     expect(r.deliveredWh).toBeNull()
     expect(r.stateOfHealth).toBeNull()
@@ -106,22 +136,36 @@ describe('discharge: synthetic logs with known answers', () => {
   })
 
   it('a log that starts below the cut-off is flagged', () => {
-    const r = ok(log(H, 10, () => 4.8), nicd5)
+    const r = ok(
+      log(H, 10, () => 4.8),
+      nicd5,
+    )
     expect(r.cutoffTimeH).toBe(0)
     expect(r.pass).toBe(false)
     expect(r.warnings.filter((w) => w.severity === 'critical').map((w) => w.code)).toEqual(['duration-not-met', 'starts-below-cutoff'])
   })
 
   it('uses the chemistry’s own cut-off, or the one given, and warns below the safe voltage', () => {
-    const lead = ok(log(H, 10, () => 12.5), { chemistry: 'lead-acid', cellsInSeries: 6, ratedDuration: H })
+    const lead = ok(
+      log(H, 10, () => 12.5),
+      { chemistry: 'lead-acid', cellsInSeries: 6, ratedDuration: H },
+    )
     expect(lead.cutoffVoltageV).toBeCloseTo(6 * 1.75, 12)
-    const deep = ok(log(H, 10, () => 6), { ...nicd5, cutoffPerCell: 0.8 })
+    const deep = ok(
+      log(H, 10, () => 6),
+      { ...nicd5, cutoffPerCell: 0.8 },
+    )
     expect(deep.cutoffVoltageV).toBe(4)
     expect(deep.warnings.map((w) => w.code)).toContain('cutoff-below-safe')
   })
 
   it('handles a million samples in one go', () => {
-    const big = log(999_999, 1, (t) => 6.5 - t / 1e6, () => 0.36)
+    const big = log(
+      999_999,
+      1,
+      (t) => 6.5 - t / 1e6,
+      () => 0.36,
+    )
     expect(big.t.length).toBe(1_000_000)
     const r = ok(big, { ...nicd5, ratedDuration: 999_999 })
     expect(r.deliveredAh).toBeCloseTo((0.36 * 999_999) / 3600, 9)
@@ -172,7 +216,15 @@ describe('discharge tool (JSON input)', () => {
     expect(outcome.result.deliveredAh).toBeCloseTo(0.9, 12)
     expect(outcome.result.stateOfHealth).toBeCloseTo(0.75, 12)
     expect(outcome.result.pass).toBe(true)
-    expect(outcome.result.working.map((w) => w.id)).toEqual(['cutoffVoltage', 'runtime', 'loadEvidence', 'margin', 'deliveredAh', 'deliveredWh', 'stateOfHealth'])
+    expect(outcome.result.working.map((w) => w.id)).toEqual([
+      'cutoffVoltage',
+      'runtime',
+      'loadEvidence',
+      'margin',
+      'deliveredAh',
+      'deliveredWh',
+      'stateOfHealth',
+    ])
   })
 
   it('time running backwards is a reported issue, not a field error', () => {
@@ -188,8 +240,24 @@ describe('discharge tool (JSON input)', () => {
       return o.fields
     }
     expect(fields({ ...base, samples: [] })[0]).toEqual({ path: 'samples', message: 'needs at least two samples' })
-    expect(fields({ ...base, samples: [{ t: 0, v: 6 }, { t: 1, v: Number.NaN }] })[0].path).toBe('samples.1.v')
-    expect(fields({ ...base, samples: [{ t: 0, v: 6, i: 1 }, { t: 1, v: 6 }] })[0]).toEqual({ path: 'samples.1.i', message: 'give the current on every sample or on none' })
+    expect(
+      fields({
+        ...base,
+        samples: [
+          { t: 0, v: 6 },
+          { t: 1, v: Number.NaN },
+        ],
+      })[0].path,
+    ).toBe('samples.1.v')
+    expect(
+      fields({
+        ...base,
+        samples: [
+          { t: 0, v: 6, i: 1 },
+          { t: 1, v: 6 },
+        ],
+      })[0],
+    ).toEqual({ path: 'samples.1.i', message: 'give the current on every sample or on none' })
     expect(fields({ ...base, assumedPower: '4 W', assumedResistance: 10 })[0].path).toBe('assumedResistance')
     expect(fields({ ...base, chemistry: 'unobtainium' })[0].path).toBe('chemistry')
     expect(fields({ ...base, ratedDuration: '3 V' })[0].path).toBe('ratedDuration')

@@ -114,19 +114,31 @@ describe('EN 50172 / BS 5266-1: monthly functional test, annual full-duration te
     // After the repair window it is overdue.
     expect(luminaireDue({ regime: 'en50172', since: '2025-01-31', tests: [] }, '2025-02-15').duration.state).toBe('overdue')
     // A luminaire entered in the register long after its pack went in gets the window from the day it was entered.
-    expect(luminaireDue({ regime: 'en50172', since: '2020-01-01', registeredOn: '2025-02-01', tests: [] }, '2025-02-10').duration).toMatchObject({ state: 'due-now', overdueAfter: '2025-02-15' })
+    expect(luminaireDue({ regime: 'en50172', since: '2020-01-01', registeredOn: '2025-02-01', tests: [] }, '2025-02-10').duration).toMatchObject({
+      state: 'due-now',
+      overdueAfter: '2025-02-15',
+    })
   })
 
   test('a failed functional test stays failed until a later functional or full-duration pass', () => {
-    const failed = luminaireDue({ regime: 'en50172', since: '2024-01-01', tests: [duration('2025-01-05'), { ...functional('2025-02-05', false), faults: 'lamp out' }] }, '2025-02-06')
+    const failed = luminaireDue(
+      { regime: 'en50172', since: '2024-01-01', tests: [duration('2025-01-05'), { ...functional('2025-02-05', false), faults: 'lamp out' }] },
+      '2025-02-06',
+    )
     expect(failed.failed).toBe(true)
     expect(failed.state).toBe('failed')
     expect(failed.lastFailure).toMatchObject({ kind: 'functional', testedOn: '2025-02-05', faults: 'lamp out', retestBy: '2025-02-19', retestOverdue: false })
     expect(failed.functional).toMatchObject({ reason: 'retest', nextDueOn: '2025-02-05', state: 'due-now' })
-    const repaired = luminaireDue({ regime: 'en50172', since: '2024-01-01', tests: [duration('2025-01-05'), functional('2025-02-05', false), functional('2025-02-07')] }, '2025-02-08')
+    const repaired = luminaireDue(
+      { regime: 'en50172', since: '2024-01-01', tests: [duration('2025-01-05'), functional('2025-02-05', false), functional('2025-02-07')] },
+      '2025-02-08',
+    )
     expect(repaired.failed).toBe(false)
     expect(repaired.state).toBe('ok')
-    const byDuration = luminaireDue({ regime: 'en50172', since: '2024-01-01', tests: [duration('2025-01-05'), functional('2025-02-05', false), duration('2025-02-07')] }, '2025-02-08')
+    const byDuration = luminaireDue(
+      { regime: 'en50172', since: '2024-01-01', tests: [duration('2025-01-05'), functional('2025-02-05', false), duration('2025-02-07')] },
+      '2025-02-08',
+    )
     expect(byDuration.failed).toBe(false)
   })
 
@@ -140,13 +152,19 @@ describe('EN 50172 / BS 5266-1: monthly functional test, annual full-duration te
     expect(due.lastFailure?.retestOverdue).toBe(true)
     // A workspace allowing 60 days.
     expect(luminaireDue({ regime: 'en50172', since: '2024-01-01', tests }, '2025-02-20', { repairWindowDays: 60 }).duration.state).toBe('due-now')
-    const cleared = luminaireDue({ regime: 'en50172', since: '2024-01-01', packFittedOn: '2025-02-01', tests: [...tests, duration('2025-02-19')] }, '2025-02-20')
+    const cleared = luminaireDue(
+      { regime: 'en50172', since: '2024-01-01', packFittedOn: '2025-02-01', tests: [...tests, duration('2025-02-19')] },
+      '2025-02-20',
+    )
     expect(cleared.state).toBe('ok')
     expect(cleared.duration.nextDueOn).toBe('2026-02-19')
   })
 
   test('a new pack asks for a commissioning test even after earlier passes', () => {
-    const due = luminaireDue({ regime: 'en50172', since: '2023-01-01', packFittedOn: '2025-03-01', tests: [duration('2024-06-01'), functional('2025-02-20')] }, '2025-03-05')
+    const due = luminaireDue(
+      { regime: 'en50172', since: '2023-01-01', packFittedOn: '2025-03-01', tests: [duration('2024-06-01'), functional('2025-02-20')] },
+      '2025-03-05',
+    )
     expect(due.commissioning).toBe(true)
     expect(due.duration).toMatchObject({ reason: 'commissioning', nextDueOn: '2025-03-01', overdueAfter: '2025-03-15' })
   })
@@ -224,15 +242,37 @@ describe('battery replacement forecast', () => {
   })
 
   test('least squares matches a hand-worked line (y = 3 − 0.5x through exact points)', () => {
-    expect(linearFit([[0, 3], [1, 2.5], [2, 2], [4, 1]])).toEqual({ intercept: 3, slope: -0.5 })
-    expect(linearFit([[1, 1], [1, 2]])).toBeNull()
+    expect(
+      linearFit([
+        [0, 3],
+        [1, 2.5],
+        [2, 2],
+        [4, 1],
+      ]),
+    ).toEqual({ intercept: 3, slope: -0.5 })
+    expect(
+      linearFit([
+        [1, 1],
+        [1, 2],
+      ]),
+    ).toBeNull()
     expect(linearFit([[1, 1]])).toBeNull()
   })
 
   test('a fading duration trend brings the replacement forward of the service life', () => {
     // 3.4 h, 3.2 h, 3.0 h… a year apart: falls 0.2 h/year and crosses 3 h at the third test.
     const f = forecastPack(
-      { chemistry: 'lifepo4', fittedOn: '2022-01-01', ambientC: 25, ratedDurationH: 3, durations: [{ testedOn: '2022-01-01', achievedH: 3.4 }, { testedOn: '2023-01-01', achievedH: 3.2 }, { testedOn: '2024-01-01', achievedH: 3.0 }] },
+      {
+        chemistry: 'lifepo4',
+        fittedOn: '2022-01-01',
+        ambientC: 25,
+        ratedDurationH: 3,
+        durations: [
+          { testedOn: '2022-01-01', achievedH: 3.4 },
+          { testedOn: '2023-01-01', achievedH: 3.2 },
+          { testedOn: '2024-01-01', achievedH: 3.0 },
+        ],
+      },
       '2024-06-01',
     )
     expect(f.trend?.points).toBe(3)
@@ -246,21 +286,53 @@ describe('battery replacement forecast', () => {
   test('fewer than three tests, or three within six months, give no trend: the life model alone (common practice)', () => {
     const base = { chemistry: 'nicd' as const, fittedOn: '2024-01-01', ambientC: 25, ratedDurationH: 3 }
     // Two tests eight weeks apart falling steeply would otherwise put the replacement before the tests.
-    const two = forecastPack({ ...base, durations: [{ testedOn: '2025-01-01', achievedH: 3.4 }, { testedOn: '2025-02-26', achievedH: 3.05 }] }, '2025-03-01')
+    const two = forecastPack(
+      {
+        ...base,
+        durations: [
+          { testedOn: '2025-01-01', achievedH: 3.4 },
+          { testedOn: '2025-02-26', achievedH: 3.05 },
+        ],
+      },
+      '2025-03-01',
+    )
     expect(two.trend).toBeNull()
     expect(two.trendStatus).toBe('not-enough-tests')
     expect(two.durationTests).toBe(2)
     expect(two.reason).toBe('service-life')
-    const close = forecastPack({ ...base, durations: [{ testedOn: '2025-01-01', achievedH: 3.4 }, { testedOn: '2025-03-01', achievedH: 3.3 }, { testedOn: '2025-06-30', achievedH: 3.1 }] }, '2025-07-01')
+    const close = forecastPack(
+      {
+        ...base,
+        durations: [
+          { testedOn: '2025-01-01', achievedH: 3.4 },
+          { testedOn: '2025-03-01', achievedH: 3.3 },
+          { testedOn: '2025-06-30', achievedH: 3.1 },
+        ],
+      },
+      '2025-07-01',
+    )
     expect(close.trend).toBeNull()
-    const spread = forecastPack({ ...base, durations: [{ testedOn: '2025-01-01', achievedH: 3.4 }, { testedOn: '2025-03-01', achievedH: 3.3 }, { testedOn: '2025-07-01', achievedH: 3.1 }] }, '2025-07-02')
+    const spread = forecastPack(
+      {
+        ...base,
+        durations: [
+          { testedOn: '2025-01-01', achievedH: 3.4 },
+          { testedOn: '2025-03-01', achievedH: 3.3 },
+          { testedOn: '2025-07-01', achievedH: 3.1 },
+        ],
+      },
+      '2025-07-02',
+    )
     expect(spread.trend?.points).toBe(3)
     expect(spread.trendStatus).toBe('used')
   })
 
   test('the replace-by date is never before the latest test', () => {
     // Past its modelled life (NiCd at 35 °C: 2.5 years) yet it passed a test in 2025: replace from that test on, not before.
-    const f = forecastPack({ chemistry: 'nicd', fittedOn: '2020-01-01', ambientC: 35, ratedDurationH: 3, durations: [{ testedOn: '2025-05-01', achievedH: 3.1 }] }, '2025-06-01')
+    const f = forecastPack(
+      { chemistry: 'nicd', fittedOn: '2020-01-01', ambientC: 35, ratedDurationH: 3, durations: [{ testedOn: '2025-05-01', achievedH: 3.1 }] },
+      '2025-06-01',
+    )
     expect(f.endOfLifeOn < '2025-05-01').toBe(true)
     expect(f.replaceBy).toBe('2025-05-01')
     expect(f.reason).toBe('latest-test')
@@ -276,7 +348,17 @@ describe('battery replacement forecast', () => {
 
   test('tests of an earlier pack do not count towards the new pack', () => {
     const f = forecastPack(
-      { chemistry: 'nicd', fittedOn: '2024-01-01', ambientC: 20, ratedDurationH: 3, durations: [{ testedOn: '2022-06-01', achievedH: 3.5 }, { testedOn: '2023-06-01', achievedH: 2.1 }, { testedOn: '2024-06-01', achievedH: 3.2 }] },
+      {
+        chemistry: 'nicd',
+        fittedOn: '2024-01-01',
+        ambientC: 20,
+        ratedDurationH: 3,
+        durations: [
+          { testedOn: '2022-06-01', achievedH: 3.5 },
+          { testedOn: '2023-06-01', achievedH: 2.1 },
+          { testedOn: '2024-06-01', achievedH: 3.2 },
+        ],
+      },
       '2024-07-01',
     )
     expect(f.trend).toBeNull()
@@ -285,7 +367,17 @@ describe('battery replacement forecast', () => {
 
   test('a rising or flat trend never predicts a crossing, and no output is NaN or infinite', () => {
     const f = forecastPack(
-      { chemistry: 'nimh', fittedOn: '2023-01-01', ambientC: -10, ratedDurationH: 1, durations: [{ testedOn: '2023-06-01', achievedH: 1.2 }, { testedOn: '2023-12-01', achievedH: 1.2 }, { testedOn: '2024-06-01', achievedH: 1.2 }] },
+      {
+        chemistry: 'nimh',
+        fittedOn: '2023-01-01',
+        ambientC: -10,
+        ratedDurationH: 1,
+        durations: [
+          { testedOn: '2023-06-01', achievedH: 1.2 },
+          { testedOn: '2023-12-01', achievedH: 1.2 },
+          { testedOn: '2024-06-01', achievedH: 1.2 },
+        ],
+      },
       '2024-07-01',
     )
     expect(f.trend?.belowRatedOn).toBeNull()

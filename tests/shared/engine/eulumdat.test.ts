@@ -131,9 +131,12 @@ describe('parseEulumdat refuses what does not fit, naming the line', () => {
   })
   it('a negative intensity', () => expect(failure(withLine(absolute, 55, '-4'))).toMatchObject({ line: 55, message: expect.stringMatching(/negative/) }))
   it('values left over after the table', () => expect(failure(`${absolute}12`)).toMatchObject({ line: 58, message: expect.stringMatching(/left after/) }))
-  it('a lamp set with no flux', () => expect(failure(withLine(absolute, 29, '0'))).toMatchObject({ line: 29, message: expect.stringMatching(/flux of lamp set 1/) }))
-  it('text where a number belongs', () => expect(failure(withLine(bothPlanes, 6, 'nineteen'))).toMatchObject({ line: 6, message: expect.stringMatching(/expected a number/) }))
-  it('γ angles outside the type C ranges', () => expect(failure(withLine(absolute, 50, '85'))).toMatchObject({ line: 44, message: expect.stringMatching(/0–85/) }))
+  it('a lamp set with no flux', () =>
+    expect(failure(withLine(absolute, 29, '0'))).toMatchObject({ line: 29, message: expect.stringMatching(/flux of lamp set 1/) }))
+  it('text where a number belongs', () =>
+    expect(failure(withLine(bothPlanes, 6, 'nineteen'))).toMatchObject({ line: 6, message: expect.stringMatching(/expected a number/) }))
+  it('γ angles outside the type C ranges', () =>
+    expect(failure(withLine(absolute, 50, '85'))).toMatchObject({ line: 44, message: expect.stringMatching(/0–85/) }))
   it('notes (without refusing) a γ = 0° value that differs between planes', () => {
     // Line 92 + 19 = 111 is C15 γ0.
     const p = parsed(withLine(bothPlanes, 111, '300.0'))

@@ -108,9 +108,7 @@ describe('parseLm63: hand-written 2019 file, absolute photometry, bilateral symm
 
 describe('parseLm63: other editions and layouts', () => {
   it('reads a 1995 file with values separated by commas and spread over lines', () => {
-    const p = parsed(
-      ['IESNA:LM-63-1995', '[TEST] T1', 'TILT=NONE', '1,-1,2,3,1,1,2', '0,0,0', '1 1 1.5', '0 45', '90', '0', '10,', '8,0'].join('\r\n'),
-    )
+    const p = parsed(['IESNA:LM-63-1995', '[TEST] T1', 'TILT=NONE', '1,-1,2,3,1,1,2', '0,0,0', '1 1 1.5', '0 45', '90', '0', '10,', '8,0'].join('\r\n'))
     expect(p.edition).toBe('1995')
     expect(p.candela).toEqual([[20, 16, 0]])
   })

@@ -26,10 +26,36 @@ describe('what became of each failure', () => {
     ['past the 14-day window its retest is overdue', [d('2025-02-01'), d('2026-02-01', false)], '2025-01-01', [['retest-overdue', null]]],
     ['a functional pass does not clear a failed duration test', [d('2025-02-01'), d('2026-02-20', false), f('2026-02-25')], '2025-01-01', [['open', null]]],
     ['a later duration pass clears it', [d('2025-02-01'), d('2026-01-10', false), d('2026-01-20')], '2025-01-01', [['cleared', '2026-01-20']]],
-    ['a failed functional test is cleared by a later functional pass', [d('2025-02-01'), f('2026-01-10', false), f('2026-01-12')], '2025-01-01', [['cleared', '2026-01-12']]],
-    ['a failed functional test is cleared by a later duration pass too', [d('2025-02-01'), f('2026-01-10', false), d('2026-01-12')], '2025-01-01', [['cleared', '2026-01-12']]],
-    ['a second failure of the same kind takes over; the first reads failed again', [d('2025-02-01'), d('2026-02-01', false), d('2026-02-20', false)], '2025-01-01', [['failed-again', '2026-02-20'], ['open', null]]],
-    ['a functional failure is not replaced by a duration failure', [d('2025-02-01'), f('2026-02-18', false), d('2026-02-20', false)], '2025-01-01', [['open', null], ['open', null]]],
+    [
+      'a failed functional test is cleared by a later functional pass',
+      [d('2025-02-01'), f('2026-01-10', false), f('2026-01-12')],
+      '2025-01-01',
+      [['cleared', '2026-01-12']],
+    ],
+    [
+      'a failed functional test is cleared by a later duration pass too',
+      [d('2025-02-01'), f('2026-01-10', false), d('2026-01-12')],
+      '2025-01-01',
+      [['cleared', '2026-01-12']],
+    ],
+    [
+      'a second failure of the same kind takes over; the first reads failed again',
+      [d('2025-02-01'), d('2026-02-01', false), d('2026-02-20', false)],
+      '2025-01-01',
+      [
+        ['failed-again', '2026-02-20'],
+        ['open', null],
+      ],
+    ],
+    [
+      'a functional failure is not replaced by a duration failure',
+      [d('2025-02-01'), f('2026-02-18', false), d('2026-02-20', false)],
+      '2025-01-01',
+      [
+        ['open', null],
+        ['open', null],
+      ],
+    ],
   ])('%s', (_case, tests, fitted, expected) => {
     const states = history(lum('EL-1', tests as TestEvent[], fitted as string)).map((x) => [x.state, x.closedBy?.testedOn ?? null])
     expect(states).toEqual(expected)

@@ -37,22 +37,26 @@ describe('Largest-Triangle-Three-Buckets (Steinarsson 2013)', () => {
 
   it('property: exactly `threshold` ascending indexes, first and last kept, one per bucket', () => {
     fc.assert(
-      fc.property(fc.array(fc.double({ min: -1e6, max: 1e6, noNaN: true }), { minLength: 3, maxLength: 400 }), fc.integer({ min: 3, max: 50 }), (ys, threshold) => {
-        const x = ys.map((_, k) => k)
-        const kept = Array.from(lttbIndices(x, ys, threshold))
-        const expected = Math.min(threshold, ys.length)
-        expect(kept).toHaveLength(expected)
-        expect(kept[0]).toBe(0)
-        expect(kept[expected - 1]).toBe(ys.length - 1)
-        for (let k = 1; k < kept.length; k++) expect(kept[k]).toBeGreaterThan(kept[k - 1])
-        if (threshold < ys.length) {
-          const every = (ys.length - 2) / (threshold - 2)
-          for (let b = 0; b < threshold - 2; b++) {
-            expect(kept[b + 1]).toBeGreaterThanOrEqual(Math.floor(b * every) + 1)
-            expect(kept[b + 1]).toBeLessThan(Math.floor((b + 1) * every) + 1)
+      fc.property(
+        fc.array(fc.double({ min: -1e6, max: 1e6, noNaN: true }), { minLength: 3, maxLength: 400 }),
+        fc.integer({ min: 3, max: 50 }),
+        (ys, threshold) => {
+          const x = ys.map((_, k) => k)
+          const kept = Array.from(lttbIndices(x, ys, threshold))
+          const expected = Math.min(threshold, ys.length)
+          expect(kept).toHaveLength(expected)
+          expect(kept[0]).toBe(0)
+          expect(kept[expected - 1]).toBe(ys.length - 1)
+          for (let k = 1; k < kept.length; k++) expect(kept[k]).toBeGreaterThan(kept[k - 1])
+          if (threshold < ys.length) {
+            const every = (ys.length - 2) / (threshold - 2)
+            for (let b = 0; b < threshold - 2; b++) {
+              expect(kept[b + 1]).toBeGreaterThanOrEqual(Math.floor(b * every) + 1)
+              expect(kept[b + 1]).toBeLessThan(Math.floor((b + 1) * every) + 1)
+            }
           }
-        }
-      }),
+        },
+      ),
       { seed: 2013, numRuns: 200 },
     )
   })

@@ -19,7 +19,14 @@ describe('peakIntensity', () => {
   })
 
   it('reads the peak across several C-planes, not only the first', () => {
-    const table = { verticalAngles: [0, 45, 90], horizontalAngles: [0, 90], candela: [[100, 120, 0], [100, 240, 0]] }
+    const table = {
+      verticalAngles: [0, 45, 90],
+      horizontalAngles: [0, 90],
+      candela: [
+        [100, 120, 0],
+        [100, 240, 0],
+      ],
+    }
     expect(peakIntensity(table)).toEqual({ cd: 240, cDeg: 90, gammaDeg: 45 })
   })
 })

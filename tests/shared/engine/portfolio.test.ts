@@ -39,11 +39,18 @@ describe('packBudget', () => {
     expect(b.total).toEqual({ count: 5, overdue: 1, costs: [{ currency: 'EUR', amount: 113.25 }], unpriced: 1 })
   })
   it('keeps currencies apart rather than adding them', () => {
-    const mixed = packBudget([lum('a', 'A1', 'X', '2027-01-01'), lum('a', 'A2', 'Y', '2027-01-01')], [
-      { typeLabel: 'X', price: 10, currency: 'EUR' },
-      { typeLabel: 'Y', price: 10, currency: 'USD' },
-    ], today)
-    expect(mixed.total.costs).toEqual([{ currency: 'EUR', amount: 10 }, { currency: 'USD', amount: 10 }])
+    const mixed = packBudget(
+      [lum('a', 'A1', 'X', '2027-01-01'), lum('a', 'A2', 'Y', '2027-01-01')],
+      [
+        { typeLabel: 'X', price: 10, currency: 'EUR' },
+        { typeLabel: 'Y', price: 10, currency: 'USD' },
+      ],
+      today,
+    )
+    expect(mixed.total.costs).toEqual([
+      { currency: 'EUR', amount: 10 },
+      { currency: 'USD', amount: 10 },
+    ])
   })
   it('a window from 31 January ends on the last day of a shorter month, not in March', () => {
     expect(packBudget([], [], '2027-01-31', 1).to).toBe('2027-02-28')

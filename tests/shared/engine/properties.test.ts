@@ -110,21 +110,28 @@ describe('size properties', () => {
 describe('units do not change the answer', () => {
   test('mA vs A and min vs h give the same sizing (mathjs conversions)', () => {
     fc.assert(
-      fc.property(
-        chemistry,
-        fc.integer({ min: 10, max: 5000 }),
-        fc.integer({ min: 30, max: 600 }),
-        (id, milliamps, minutes) => {
-          const a = runTool(sizeTool, { chemistry: id, driver: 'direct', cellsInSeries: 4, load: { ledVoltage: '2.5 V', ledCurrent: `${milliamps} mA` }, duration: `${minutes} min` })
-          const b = runTool(sizeTool, { chemistry: id, driver: 'direct', cellsInSeries: 4, load: { ledVoltage: '2.5 V', ledCurrent: `${milliamps / 1000} A` }, duration: `${minutes / 60} h` })
-          expect(a.ok && b.ok).toBe(true)
-          if (a.ok && b.ok) {
-            expect(a.result.requiredCapacityAh).toBeCloseTo(b.result.requiredCapacityAh, 9)
-            expect(a.result.selectedCapacityAh).toBe(b.result.selectedCapacityAh)
-            expect(a.result.runtimeH).toBeCloseTo(b.result.runtimeH, 9)
-          }
-        },
-      ),
+      fc.property(chemistry, fc.integer({ min: 10, max: 5000 }), fc.integer({ min: 30, max: 600 }), (id, milliamps, minutes) => {
+        const a = runTool(sizeTool, {
+          chemistry: id,
+          driver: 'direct',
+          cellsInSeries: 4,
+          load: { ledVoltage: '2.5 V', ledCurrent: `${milliamps} mA` },
+          duration: `${minutes} min`,
+        })
+        const b = runTool(sizeTool, {
+          chemistry: id,
+          driver: 'direct',
+          cellsInSeries: 4,
+          load: { ledVoltage: '2.5 V', ledCurrent: `${milliamps / 1000} A` },
+          duration: `${minutes / 60} h`,
+        })
+        expect(a.ok && b.ok).toBe(true)
+        if (a.ok && b.ok) {
+          expect(a.result.requiredCapacityAh).toBeCloseTo(b.result.requiredCapacityAh, 9)
+          expect(a.result.selectedCapacityAh).toBe(b.result.selectedCapacityAh)
+          expect(a.result.runtimeH).toBeCloseTo(b.result.runtimeH, 9)
+        }
+      }),
       { numRuns: 60 },
     )
   })
@@ -143,8 +150,15 @@ describe('charge and compare stay finite', () => {
         temperature,
         (id, capacityAh, chargeA, trickleA, volts, basis, ambient) => {
           const outcome = runTool(chargeTool, {
-            chemistry: id, capacity: `${capacityAh} Ah`, duration: '3 h', load: { power: 3 }, chargeCurrent: chargeA,
-            trickleCurrent: trickleA, floatVoltage: volts, voltageBasis: basis, ambient,
+            chemistry: id,
+            capacity: `${capacityAh} Ah`,
+            duration: '3 h',
+            load: { power: 3 },
+            chargeCurrent: chargeA,
+            trickleCurrent: trickleA,
+            floatVoltage: volts,
+            voltageBasis: basis,
+            ambient,
           })
           // runTool throws on a non-finite number; a field error is acceptable only for the cut-off rule
           if (outcome.ok) expect(allFinite(outcome.result)).toBe(true)
@@ -161,7 +175,12 @@ describe('charge and compare stay finite', () => {
         fc.double({ min: 0.1, max: 24, noNaN: true }),
         temperature,
         temperature,
-        fc.record({ life: fc.double({ min: 0, max: 1, noNaN: true }), trickle: fc.double({ min: 0.01, max: 1, noNaN: true }), size: fc.double({ min: 0, max: 1, noNaN: true }), restrictions: fc.double({ min: 0, max: 1, noNaN: true }) }),
+        fc.record({
+          life: fc.double({ min: 0, max: 1, noNaN: true }),
+          trickle: fc.double({ min: 0.01, max: 1, noNaN: true }),
+          size: fc.double({ min: 0, max: 1, noNaN: true }),
+          restrictions: fc.double({ min: 0, max: 1, noNaN: true }),
+        }),
         (power, h, t1, t2, weights) => {
           const outcome = runTool(compareTool, { load: { power }, duration: `${h} h`, ambientMin: Math.min(t1, t2), ambientMax: Math.max(t1, t2), weights })
           expect(outcome.ok).toBe(true)

@@ -25,7 +25,14 @@ describe('the worked example from the label', () => {
     expect(r.oldPackNominalVoltageV).toBeCloseTo(4.8, 12) // 4 × 1.2 V (IEC 61951-1)
     expect(r.recommended).not.toBeNull()
     const best = r.candidates[r.recommended as number]
-    expect(best).toMatchObject({ chemistry: 'nicd-ht', cellsInSeries: 4, cellFormat: 'sub-C', chargerCompatible: 'yes', sameVoltage: true, meetsDuration: true })
+    expect(best).toMatchObject({
+      chemistry: 'nicd-ht',
+      cellsInSeries: 4,
+      cellFormat: 'sub-C',
+      chargerCompatible: 'yes',
+      sameVoltage: true,
+      meetsDuration: true,
+    })
     expect(best.capacityAh).toBeCloseTo(1.6, 12)
     expect(best.trickleCRate).toBeCloseTo(0.075, 12) // 0.12 A / 1.6 Ah
     const standard = r.candidates.find((c) => c.chemistry === 'nicd')
@@ -47,7 +54,11 @@ describe('the worked example from the label', () => {
 
 describe('same nominal voltage as the old pack (common practice; IEC 60598-2-22 marks the battery voltage, from memory)', () => {
   test('four LiFePO4 cells (12.8 V) offered for a 4.8 V pack are flagged critical and never recommended', () => {
-    const r = replace({ ...LABEL, charger: { type: 'unknown', chargeCurrent: '120 mA' }, candidates: [{ chemistry: 'lifepo4', cellsInSeries: 4, capacity: '1.5 Ah' }] })
+    const r = replace({
+      ...LABEL,
+      charger: { type: 'unknown', chargeCurrent: '120 mA' },
+      candidates: [{ chemistry: 'lifepo4', cellsInSeries: 4, capacity: '1.5 Ah' }],
+    })
     expect(r.candidates[0].nominalVoltageV).toBeCloseTo(12.8, 12) // 4 × 3.2 V
     expect(r.candidates[0].sameVoltage).toBe(false)
     expect(r.warnings.find((w) => w.code === 'candidate-voltage-differs')?.severity).toBe('critical')
@@ -68,12 +79,19 @@ describe('same nominal voltage as the old pack (common practice; IEC 60598-2-22 
 })
 
 describe('charger fit', () => {
-  test.each(['lifepo4', 'li-ion'])('%s never on a nickel constant-current charger (lithium maker practice: stop at the charge voltage; IEC 62133-2)', (chemistry) => {
-    const cells = chemistry === 'lifepo4' ? 2 : 1
-    const r = replace({ ...LABEL, oldPack: { chemistry: 'nicd', cellsInSeries: 3, capacity: '1.6 Ah' }, candidates: [{ chemistry, cellsInSeries: cells, capacity: '2 Ah' }] })
-    expect(r.candidates[0].chargerCompatible).toBe('no')
-    expect(r.warnings.find((w) => w.code === 'candidate-charger-unsuitable')?.severity).toBe('critical')
-  })
+  test.each(['lifepo4', 'li-ion'])(
+    '%s never on a nickel constant-current charger (lithium maker practice: stop at the charge voltage; IEC 62133-2)',
+    (chemistry) => {
+      const cells = chemistry === 'lifepo4' ? 2 : 1
+      const r = replace({
+        ...LABEL,
+        oldPack: { chemistry: 'nicd', cellsInSeries: 3, capacity: '1.6 Ah' },
+        candidates: [{ chemistry, cellsInSeries: cells, capacity: '2 Ah' }],
+      })
+      expect(r.candidates[0].chargerCompatible).toBe('no')
+      expect(r.warnings.find((w) => w.code === 'candidate-charger-unsuitable')?.severity).toBe('critical')
+    },
+  )
 
   test('an empty trickle reads as the charge current; lithium on a nickel charger of unknown trickle is still refused', () => {
     const r = replace({ ...LABEL, candidates: [{ chemistry: 'lifepo4', cellsInSeries: 2, capacity: '1.5 Ah' }] })
@@ -87,22 +105,39 @@ describe('charger fit', () => {
     ['120 mA', '1.6 Ah', 'no'], // C/13
   ])('NiMH, permanent %s on %s → %s', (current, capacity, verdict) => {
     // a light load, so the recharge stays within 24 h at either current
-    const r = replace({ ...LABEL, dischargeCurrent: '0.1 A', charger: { type: 'nickel-constant-current', chargeCurrent: current }, candidates: [{ chemistry: 'nimh', cellsInSeries: 4, capacity }] })
+    const r = replace({
+      ...LABEL,
+      dischargeCurrent: '0.1 A',
+      charger: { type: 'nickel-constant-current', chargeCurrent: current },
+      candidates: [{ chemistry: 'nimh', cellsInSeries: 4, capacity }],
+    })
     expect(r.candidates[0].chargerCompatible).toBe(verdict)
   })
 
-  test('lithium charger made for 2 × LiFePO4: the same pack yes, Li-ion no (3.65 vs 4.2 V per cell, makers\' data), nickel no (common practice)', () => {
+  test("lithium charger made for 2 × LiFePO4: the same pack yes, Li-ion no (3.65 vs 4.2 V per cell, makers' data), nickel no (common practice)", () => {
     const r = replace({
-      oldPack: { chemistry: 'lifepo4', nominalVoltage: '6.4 V', capacity: '1.5 Ah' }, duration: '3 h', mode: 'non-maintained', dischargeCurrent: '0.3 A',
+      oldPack: { chemistry: 'lifepo4', nominalVoltage: '6.4 V', capacity: '1.5 Ah' },
+      duration: '3 h',
+      mode: 'non-maintained',
+      dischargeCurrent: '0.3 A',
       charger: { type: 'lithium-cc-cv', chargeCurrent: '300 mA', trickleCurrent: 0 },
-      candidates: [{ chemistry: 'lifepo4', cellsInSeries: 2, capacity: '1.5 Ah' }, { chemistry: 'li-ion', cellsInSeries: 2, capacity: '1.5 Ah' }, { chemistry: 'nimh', cellsInSeries: 5, capacity: '2 Ah' }],
+      candidates: [
+        { chemistry: 'lifepo4', cellsInSeries: 2, capacity: '1.5 Ah' },
+        { chemistry: 'li-ion', cellsInSeries: 2, capacity: '1.5 Ah' },
+        { chemistry: 'nimh', cellsInSeries: 5, capacity: '2 Ah' },
+      ],
     })
     expect(r.candidates.map((c) => c.chargerCompatible)).toEqual(['yes', 'no', 'no'])
     expect(r.recommended).toBe(0)
   })
 
   test('nickel cells never on a lead-acid float charger (thermal runaway at constant voltage, common practice)', () => {
-    const r = replace({ ...LABEL, oldPack: { chemistry: 'lead-acid', nominalVoltage: '6 V', capacity: '4 Ah' }, charger: { type: 'lead-acid-float', chargeCurrent: '400 mA' }, candidates: [{ chemistry: 'nicd', cellsInSeries: 5, capacity: '4 Ah' }] })
+    const r = replace({
+      ...LABEL,
+      oldPack: { chemistry: 'lead-acid', nominalVoltage: '6 V', capacity: '4 Ah' },
+      charger: { type: 'lead-acid-float', chargeCurrent: '400 mA' },
+      candidates: [{ chemistry: 'nicd', cellsInSeries: 5, capacity: '4 Ah' }],
+    })
     expect(r.candidates[0].chargerCompatible).toBe('no')
   })
 })
@@ -117,7 +152,14 @@ describe('capacity for the rated duration at end of life', () => {
   })
 
   test('a candidate short of the duration at end of life is flagged and not recommended', () => {
-    const r = replace({ ...LABEL, dischargeCurrent: '0.4 A', candidates: [{ chemistry: 'nicd-ht', cellsInSeries: 4, capacity: '1.1 Ah' }, { chemistry: 'nicd-ht', cellsInSeries: 4, capacity: '2.2 Ah' }] })
+    const r = replace({
+      ...LABEL,
+      dischargeCurrent: '0.4 A',
+      candidates: [
+        { chemistry: 'nicd-ht', cellsInSeries: 4, capacity: '1.1 Ah' },
+        { chemistry: 'nicd-ht', cellsInSeries: 4, capacity: '2.2 Ah' },
+      ],
+    })
     expect(r.candidates[0].meetsDuration).toBe(false)
     expect(r.candidates[0].runtimeEndOfLifeH).toBeLessThan(3)
     expect(r.warnings.find((w) => w.code === 'candidate-short-of-duration')?.severity).toBe('critical')
@@ -136,7 +178,17 @@ describe('high-temperature cells for maintained luminaires or warm places (emerg
     ['maintained', 25],
     ['non-maintained', 35], // standard NiCd life 5 y · 2^(−10/10) = 2.5 y < 4 y (Arrhenius 10 °C rule, common practice)
   ])('%s at %d °C: standard cells do not suit, high-temperature cells are recommended', (mode, ambientMax) => {
-    const r = replace({ ...LABEL, mode, ambientMax, dischargeCurrent: '0.3 A', charger: { type: 'nickel-constant-current', chargeCurrent: '60 mA' }, candidates: [{ chemistry: 'nicd', cellsInSeries: 4, capacity: '1.6 Ah', cellFormat: 'sub-C' }, { chemistry: 'nicd-ht', cellsInSeries: 4, capacity: '1.6 Ah', cellFormat: 'sub-C' }] })
+    const r = replace({
+      ...LABEL,
+      mode,
+      ambientMax,
+      dischargeCurrent: '0.3 A',
+      charger: { type: 'nickel-constant-current', chargeCurrent: '60 mA' },
+      candidates: [
+        { chemistry: 'nicd', cellsInSeries: 4, capacity: '1.6 Ah', cellFormat: 'sub-C' },
+        { chemistry: 'nicd-ht', cellsInSeries: 4, capacity: '1.6 Ah', cellFormat: 'sub-C' },
+      ],
+    })
     expect(r.needsHighTemperature).toBe(true)
     expect(r.candidates[0].suitsTemperature).toBe(false)
     expect(r.recommended).toBe(1)
@@ -168,8 +220,16 @@ describe('the recommendation', () => {
     { ...LABEL, ambientMax: 40 },
     { ...LABEL, dischargeCurrent: '0.9 A' },
     { ...LABEL, charger: { type: 'unknown', chargeCurrent: '50 mA' } },
-    { ...LABEL, oldPack: { chemistry: 'lead-acid', nominalVoltage: '6 V', capacity: '4 Ah' }, charger: { type: 'lead-acid-float', chargeCurrent: '400 mA', trickleCurrent: '20 mA' } },
-    { ...LABEL, oldPack: { chemistry: 'lifepo4', nominalVoltage: '3.2 V', capacity: '1.5 Ah' }, charger: { type: 'lithium-cc-cv', chargeCurrent: '300 mA', trickleCurrent: 0 } },
+    {
+      ...LABEL,
+      oldPack: { chemistry: 'lead-acid', nominalVoltage: '6 V', capacity: '4 Ah' },
+      charger: { type: 'lead-acid-float', chargeCurrent: '400 mA', trickleCurrent: '20 mA' },
+    },
+    {
+      ...LABEL,
+      oldPack: { chemistry: 'lifepo4', nominalVoltage: '3.2 V', capacity: '1.5 Ah' },
+      charger: { type: 'lithium-cc-cv', chargeCurrent: '300 mA', trickleCurrent: 0 },
+    },
   ]
   test.each(variants)('always meets the duration, keeps the voltage and is not refused by the charger: %o', (input) => {
     const r = replace(input)

@@ -12,14 +12,7 @@ import {
   runtimeChangePctFor,
   type RetrofitResult,
 } from '../../../shared/engine/retrofit'
-import {
-  E12,
-  E24,
-  STANDARD_RESISTOR_RATINGS_W,
-  nearestPreferred,
-  preferredValuesBetween,
-  resistorRatingFor,
-} from '../../../shared/engine/resistor-series'
+import { E12, E24, STANDARD_RESISTOR_RATINGS_W, nearestPreferred, preferredValuesBetween, resistorRatingFor } from '../../../shared/engine/resistor-series'
 import { runTool } from '../../../shared/engine/tool'
 import { tools } from '../../../shared/engine/registry'
 import { getChemistry } from '../../../shared/engine/chemistries'
@@ -88,7 +81,7 @@ describe('charger as a Thévenin source (worked case: readings generated from a 
 describe("Ohm's and Joule's laws (checked with mathjs units as the reference library)", () => {
   it('series resistance, new current and dissipation', () => {
     const r = run()
-    const target = (4 / 30) // A: C/30 of 4 Ah
+    const target = 4 / 30 // A: C/30 of 4 Ah
     expect(r.targetCurrentA).toBeCloseTo(target, 12)
     // R_s = (V_oc − V_b)/I − R_int, with mathjs doing the unit arithmetic
     const exact = (unit(VOC - VB, 'V').divide(unit(target, 'A')) as Unit).toNumber('ohm') - RINT
@@ -188,7 +181,15 @@ describe('recharge after a full rated-duration discharge (24 h requirement, IEC 
   })
 
   it('uses the chemistry charge factor and is longer than charge ÷ starting current', () => {
-    const h = rechargeTimeHours({ openCircuitV: VOC, totalResistanceOhm: RINT, packFullV: VB, packEmptyV: 3, capacityAh: 4, dischargedAh: 3, chargeFactor: 1.4 })
+    const h = rechargeTimeHours({
+      openCircuitV: VOC,
+      totalResistanceOhm: RINT,
+      packFullV: VB,
+      packEmptyV: 3,
+      capacityAh: 4,
+      dischargedAh: 3,
+      chargeFactor: 1.4,
+    })
     const startCurrent = (VOC - (3 + 1.35 * 0.25)) / RINT
     expect(h).toBeGreaterThan((1.4 * 3) / startCurrent)
     expect(getChemistry('nicd').chargeFactor.value).toBe(1.4)
@@ -305,12 +306,28 @@ describe('trickle rate, indicator and chemistry', () => {
   })
 
   it('lithium cells tolerate no trickle: critical', () => {
-    const r = run({ chemistry: 'li-ion', cellsInSeries: 1, batteryVoltage: 4.2, secondReading: { kind: 'open-circuit', voltage: 5 }, trickleCurrent: 0.05, targetTrickleCurrent: 0.02, targetTrickleRateC: undefined })
+    const r = run({
+      chemistry: 'li-ion',
+      cellsInSeries: 1,
+      batteryVoltage: 4.2,
+      secondReading: { kind: 'open-circuit', voltage: 5 },
+      trickleCurrent: 0.05,
+      targetTrickleCurrent: 0.02,
+      targetTrickleRateC: undefined,
+    })
     expect(r.warnings.find((w) => w.code === 'no-trickle-chemistry')?.severity).toBe('critical')
   })
 
   it('lead-acid is voltage-limited: warned', () => {
-    const r = run({ chemistry: 'lead-acid', cellsInSeries: 3, batteryVoltage: 6.9, secondReading: { kind: 'open-circuit', voltage: 8 }, trickleCurrent: 0.02, targetTrickleCurrent: 0.01, targetTrickleRateC: undefined })
+    const r = run({
+      chemistry: 'lead-acid',
+      cellsInSeries: 3,
+      batteryVoltage: 6.9,
+      secondReading: { kind: 'open-circuit', voltage: 8 },
+      trickleCurrent: 0.02,
+      targetTrickleCurrent: 0.01,
+      targetTrickleRateC: undefined,
+    })
     expect(codes(r)).toContain('voltage-limited-chemistry')
   })
 
@@ -359,10 +376,30 @@ describe('cautions', () => {
 
 describe('field errors for impossible readings', () => {
   test.each([
-    ['current with the test resistor above the present current (negative R_int)', { secondReading: { kind: 'test-resistor', resistance: 10, current: 0.25 } }, 'secondReading.current', /negative internal resistance/],
-    ['current unchanged with the test resistor (constant-current charger)', { secondReading: { kind: 'test-resistor', resistance: 10, current: I1 } }, 'secondReading.current', /constant-current/],
-    ['open-circuit voltage below the battery voltage', { secondReading: { kind: 'open-circuit', voltage: 4 } }, 'secondReading.voltage', /negative internal resistance/],
-    ['open-circuit voltage equal to the battery voltage', { secondReading: { kind: 'open-circuit', voltage: VB } }, 'secondReading.voltage', /zero driving voltage/],
+    [
+      'current with the test resistor above the present current (negative R_int)',
+      { secondReading: { kind: 'test-resistor', resistance: 10, current: 0.25 } },
+      'secondReading.current',
+      /negative internal resistance/,
+    ],
+    [
+      'current unchanged with the test resistor (constant-current charger)',
+      { secondReading: { kind: 'test-resistor', resistance: 10, current: I1 } },
+      'secondReading.current',
+      /constant-current/,
+    ],
+    [
+      'open-circuit voltage below the battery voltage',
+      { secondReading: { kind: 'open-circuit', voltage: 4 } },
+      'secondReading.voltage',
+      /negative internal resistance/,
+    ],
+    [
+      'open-circuit voltage equal to the battery voltage',
+      { secondReading: { kind: 'open-circuit', voltage: VB } },
+      'secondReading.voltage',
+      /zero driving voltage/,
+    ],
     ['zero test resistance', { secondReading: { kind: 'test-resistor', resistance: 0, current: 0.1 } }, 'secondReading.resistance', /greater than zero/],
     ['an unknown reading kind', { secondReading: { kind: 'guess', voltage: 9 } }, 'secondReading.kind', /test-resistor/],
     ['target current above the present one', { targetTrickleCurrent: '250 mA', targetTrickleRateC: undefined }, 'targetTrickleCurrent', /only lower/],

@@ -7,7 +7,14 @@ const lum = (tag: string, state: State, walkOrder: number | null = null, areaNam
 
 describe('round order (common practice: urgent work first, then one walk through the building)', () => {
   it('puts open failures first, then overdue tests, then the walking order', () => {
-    const order = roundOrder([lum('A', 'ok', 1), lum('B', 'overdue', 5), lum('C', 'failed', 9), lum('D', 'due-now', 2), lum('E', 'overdue', 3), lum('F', 'ok', null)])
+    const order = roundOrder([
+      lum('A', 'ok', 1),
+      lum('B', 'overdue', 5),
+      lum('C', 'failed', 9),
+      lum('D', 'due-now', 2),
+      lum('E', 'overdue', 3),
+      lum('F', 'ok', null),
+    ])
     expect(order.map((l) => l.tag)).toEqual(['C', 'E', 'B', 'A', 'D', 'F'])
   })
   it('places luminaires without a walking place after those with one, by area then tag (10 after 9)', () => {

@@ -11,7 +11,7 @@ const reference = (x: number, digits: number) => Number(x.toPrecision(digits))
 describe('roundToSignificant', () => {
   it('equals Number(x.toPrecision(d)) for a million values over 24 decades', () => {
     let state = 12345
-    const next = () => ((state = (Math.imul(state, 1103515245) + 12345) >>> 0) / 4294967296)
+    const next = () => (state = (Math.imul(state, 1103515245) + 12345) >>> 0) / 4294967296
     const misses: Array<[number, number]> = []
     for (let i = 0; i < 1_000_000; i++) {
       const x = (next() < 0.5 ? -1 : 1) * next() * 10 ** Math.floor(next() * 24 - 12)

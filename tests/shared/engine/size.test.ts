@@ -81,12 +81,27 @@ describe('IEC 60598-2-22 Annex A discharge limit', () => {
     ['1.2 A', true],
     ['1.1 A', false],
   ])('a 4.5 Ah NiCd pack for 3 h at %s: limit exceeded = %s (Annex A: 1.125 A)', (current, exceeded) => {
-    const r = size({ chemistry: 'nicd', capacity: '4.5 Ah', duration: '3 h', driver: 'direct', cellsInSeries: 3, load: { ledVoltage: '3 V', ledCurrent: current } })
+    const r = size({
+      chemistry: 'nicd',
+      capacity: '4.5 Ah',
+      duration: '3 h',
+      driver: 'direct',
+      cellsInSeries: 3,
+      load: { ledVoltage: '3 V', ledCurrent: current },
+    })
     expect(codes(r).includes('annex-a-discharge-exceeded')).toBe(exceeded)
     expect(r.annexAMaxCurrentA).toBeCloseTo(1.125, 9)
   })
   test('a chosen pack always meets the Annex A limit (Annex A)', () => {
-    const r = size({ chemistry: 'lifepo4', duration: '1 h', load: { power: '10 W' }, ambientMin: 25, endOfLifeCapacity: 1, designMargin: 0, depthOfDischarge: 1 })
+    const r = size({
+      chemistry: 'lifepo4',
+      duration: '1 h',
+      load: { power: '10 W' },
+      ambientMin: 25,
+      endOfLifeCapacity: 1,
+      designMargin: 0,
+      depthOfDischarge: 1,
+    })
     expect(r.averageCurrentA).toBeLessThanOrEqual(r.annexAMaxCurrentA + 1e-12)
     expect(codes(r)).toContain('annex-a-set-capacity')
   })
@@ -117,8 +132,17 @@ describe('capacity sizing worked examples', () => {
     ['72 h standby + 0.5 h alarm', 0.9 * 72 + 3.5 * 0.5, 72.5, 0, 1, 66.55],
   ])('%s → %d Ah × factors = %d Ah (DIN VDE 0833-2 panel-manual example)', (_case, ah, t, margin, eol, expected) => {
     const r = size({
-      chemistry: 'lead-acid', driver: 'direct', cellsInSeries: 12, load: { ledVoltage: '12 V', ledCurrent: ah / t },
-      duration: `${t} h`, ratedHours: 1, designMargin: margin, endOfLifeCapacity: eol, depthOfDischarge: 1, ambientMin: 25, ambientMax: 25,
+      chemistry: 'lead-acid',
+      driver: 'direct',
+      cellsInSeries: 12,
+      load: { ledVoltage: '12 V', ledCurrent: ah / t },
+      duration: `${t} h`,
+      ratedHours: 1,
+      designMargin: margin,
+      endOfLifeCapacity: eol,
+      depthOfDischarge: 1,
+      ambientMin: 25,
+      ambientMax: 25,
     })
     expect(r.requiredCapacityAh).toBeCloseTo(expected, 3)
   })
@@ -138,14 +162,41 @@ describe('capacity sizing worked examples', () => {
     expect(r.energyWh).toBeCloseTo(18, 12)
     expect(r.massKg).toEqual({ min: 18 / 60, max: 18 / 40 })
     expect(r.cutoffVoltageV).toBeCloseTo(3, 12)
-    expect(r.working.map((s) => s.id)).toEqual(expect.arrayContaining(['requiredCapacityAh', 'selectedCapacityAh', 'runtimeH', 'runtimeEndOfLifeH', 'serviceLifeYears', 'massKg', 'volumeL', 'cutoffVoltageV']))
+    expect(r.working.map((s) => s.id)).toEqual(
+      expect.arrayContaining([
+        'requiredCapacityAh',
+        'selectedCapacityAh',
+        'runtimeH',
+        'runtimeEndOfLifeH',
+        'serviceLifeYears',
+        'massKg',
+        'volumeL',
+        'cutoffVoltageV',
+      ]),
+    )
   })
 
   test('lead-acid cold factors follow the IEEE 485 correction table (from memory): 0.77 at 4.4 °C, 0.84 at 10 °C', () => {
     expect(coldCapacityFactor(getChemistry('lead-acid'), 4.4)).toBeCloseTo(0.77, 9)
     expect(coldCapacityFactor(getChemistry('lead-acid'), 10)).toBeCloseTo(0.84, 9)
-    expect(interpolate([[0, 0], [10, 1]], -5)).toBe(0)
-    expect(interpolate([[0, 0], [10, 1]], 15)).toBe(1)
+    expect(
+      interpolate(
+        [
+          [0, 0],
+          [10, 1],
+        ],
+        -5,
+      ),
+    ).toBe(0)
+    expect(
+      interpolate(
+        [
+          [0, 0],
+          [10, 1],
+        ],
+        15,
+      ),
+    ).toBe(1)
   })
 
   test.each<[number, number]>([
@@ -220,12 +271,28 @@ describe('checking an existing pack', () => {
     ['1.5 Ah', 'pack-too-small-end-of-life'],
     ['1.7 Ah', 'margin-not-met'],
   ])('NiCd %s for 1 h at 1.1 A → %s', (capacity, code) => {
-    const r = size({ chemistry: 'nicd', capacity, duration: '1 h', driver: 'direct', cellsInSeries: 3, load: { ledVoltage: '3 V', ledCurrent: '1.1 A' }, ambientMin: 20 })
+    const r = size({
+      chemistry: 'nicd',
+      capacity,
+      duration: '1 h',
+      driver: 'direct',
+      cellsInSeries: 3,
+      load: { ledVoltage: '3 V', ledCurrent: '1.1 A' },
+      ambientMin: 20,
+    })
     expect(codes(r)).toContain(code)
     expect(r.capacityGiven).toBe(true)
   })
   test('a big enough pack passes quietly and runs past the duration at end of life', () => {
-    const r = size({ chemistry: 'nicd', capacity: '4.5 Ah', duration: '1 h', driver: 'direct', cellsInSeries: 3, load: { ledVoltage: '2.7 V', ledCurrent: '1.1 A' }, ambientMin: 20 })
+    const r = size({
+      chemistry: 'nicd',
+      capacity: '4.5 Ah',
+      duration: '1 h',
+      driver: 'direct',
+      cellsInSeries: 3,
+      load: { ledVoltage: '2.7 V', ledCurrent: '1.1 A' },
+      ambientMin: 20,
+    })
     expect(r.warnings.filter((w) => w.severity !== 'info' && w.code !== 'cadmium-restricted')).toEqual([])
     expect(r.runtimeEndOfLifeH).toBeGreaterThan(1)
   })
@@ -252,11 +319,32 @@ describe('temperature and safety warnings', () => {
     if (forbidden) expect(r.warnings[0].severity).toBe('critical')
   })
   test('warnings are sorted critical → warning → info', () => {
-    const r = size({ chemistry: 'li-ion', duration: '30 min', load: { power: '2 W', mainsPower: '4 W' }, ambientMin: -30, ambientMax: 70, designLifeYears: 2, cutoffCellVoltage: '2.2 V', peukertExponent: 1.5 })
+    const r = size({
+      chemistry: 'li-ion',
+      duration: '30 min',
+      load: { power: '2 W', mainsPower: '4 W' },
+      ambientMin: -30,
+      ambientMax: 70,
+      designLifeYears: 2,
+      cutoffCellVoltage: '2.2 V',
+      peukertExponent: 1.5,
+    })
     const order = { critical: 0, warning: 1, info: 2 }
     const seen = r.warnings.map((w) => order[w.severity])
     expect([...seen].sort((a, b) => a - b)).toEqual(seen)
-    expect(codes(r)).toEqual(expect.arrayContaining(['charge-forbidden-cold', 'charge-temperature-high', 'discharge-temperature-range', 'deep-discharge', 'peukert-untypical', 'maintained-heat', 'design-life-below-4-years', 'lithium-safety', 'competent-person']))
+    expect(codes(r)).toEqual(
+      expect.arrayContaining([
+        'charge-forbidden-cold',
+        'charge-temperature-high',
+        'discharge-temperature-range',
+        'deep-discharge',
+        'peukert-untypical',
+        'maintained-heat',
+        'design-life-below-4-years',
+        'lithium-safety',
+        'competent-person',
+      ]),
+    )
   })
   test.each<[string, string]>([
     ['nicd', 'cadmium-restricted'],
@@ -370,7 +458,14 @@ describe('pack voltage, format and charger on the size tool', () => {
   })
 
   test('a charger on the size input is checked against the selected pack (charge rules) and carried in the result', () => {
-    const r = size({ chemistry: 'nicd-ht', cellsInSeries: 4, capacity: '1.6 Ah', duration: '3 h', dischargeCurrent: '0.4 A', charger: { type: 'nickel-constant-current', chargeCurrent: '120 mA' } })
+    const r = size({
+      chemistry: 'nicd-ht',
+      cellsInSeries: 4,
+      capacity: '1.6 Ah',
+      duration: '3 h',
+      dischargeCurrent: '0.4 A',
+      charger: { type: 'nickel-constant-current', chargeCurrent: '120 mA' },
+    })
     expect(r.chargerCheck?.chargeCRate).toBeCloseTo(0.075, 12)
     expect(r.chargerCheck?.trickleCRate).toBeCloseTo(0.075, 12)
     expect(r.chargerCheck?.dischargeAh).toBeCloseTo(1.2, 12)
@@ -379,7 +474,14 @@ describe('pack voltage, format and charger on the size tool', () => {
   })
 
   test('lithium on a nickel constant-current charger: critical on the size result (lithium maker practice)', () => {
-    const r = size({ chemistry: 'lifepo4', cellsInSeries: 1, capacity: '1.5 Ah', duration: '3 h', dischargeCurrent: '0.3 A', charger: { type: 'nickel-constant-current', chargeCurrent: '120 mA' } })
+    const r = size({
+      chemistry: 'lifepo4',
+      cellsInSeries: 1,
+      capacity: '1.5 Ah',
+      duration: '3 h',
+      dischargeCurrent: '0.3 A',
+      charger: { type: 'nickel-constant-current', chargeCurrent: '120 mA' },
+    })
     expect(r.chargerCheck?.compatible).toBe('no')
     expect(r.warnings.find((w) => w.code === 'charger-type-unsuitable')?.severity).toBe('critical')
   })

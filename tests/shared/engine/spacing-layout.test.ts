@@ -134,7 +134,15 @@ const TOLERANCE = 1e-3
 describe('even layout, EN 1838 escape route (isotropic 10 cd at 2.5 m, MF 0.8, 2 m wide)', () => {
   const c: Case = { cd: 10, h: 2.5, factor: 0.8, width: 2 }
   it.each([6, 12, 23.5, 40])('route of %s m: evenly spaced, every point passes, one fewer fails wherever placed', { timeout: 120_000 }, (L) => {
-    const r = run({ photometry: isotropic(10), mountingHeight: 2.5, emergencyOutputFactor: 1, maintenanceFactor: 0.8, criteria: 'en1838-route', routeWidth: 2, routeLength: L })
+    const r = run({
+      photometry: isotropic(10),
+      mountingHeight: 2.5,
+      emergencyOutputFactor: 1,
+      maintenanceFactor: 0.8,
+      criteria: 'en1838-route',
+      routeWidth: 2,
+      routeLength: L,
+    })
     const layout = r.layout!
     expect(layout).not.toBeNull()
     expect(r.luminairesNeeded).toBe(layout.count)
@@ -157,26 +165,47 @@ describe('even layout, NFPA 101 (isotropic 100 cd at 3 m, MF 0.8, 2 m wide)', ()
     [30, 1],
     [30, 0.55],
     [45, 0.8],
-  ])('route of %s m, %s of the output left at the end: average and minimum pass at the start and the end; one fewer fails', { timeout: 120_000 }, (L, endFactor) => {
-    const r = run({ photometry: isotropic(100), mountingHeight: 3, emergencyOutputFactor: 1, maintenanceFactor: 0.8, criteria: 'nfpa101', routeWidth: 2, routeLength: L, endOfDurationFactor: endFactor })
-    const layout = r.layout!
-    expect(layout).not.toBeNull()
-    expectEven(layout, L)
-    const margin = (positions: number[], step = 0.01) => nfpaMargin(c, L, positions, endFactor, step)
-    expect(margin(layout.positionsM)).toBeGreaterThanOrEqual(-TOLERANCE)
-    expect(bestMargin(L, layout.count - 1, margin)).toBeLessThan(-TOLERANCE)
-    expectEndNearestEven(L, layout, margin)
-    const independent = nfpaFigures(c, L, layout.positionsM)
-    expect(Math.abs(layout.averageLx / independent.average - 1)).toBeLessThan(TOLERANCE)
-    expect(Math.abs(layout.minLx / independent.min - 1)).toBeLessThan(TOLERANCE)
-    // Average beside minimum at the end of the rated duration.
-    expect(layout.endOfDuration).toEqual({ factor: endFactor, averageLx: expect.any(Number), minLx: expect.any(Number) })
-    expect(layout.endOfDuration!.averageLx).toBeCloseTo(layout.averageLx * endFactor, 4)
-    expect(layout.endOfDuration!.minLx).toBeCloseTo(layout.minLx * endFactor, 4)
-  })
+  ])(
+    'route of %s m, %s of the output left at the end: average and minimum pass at the start and the end; one fewer fails',
+    { timeout: 120_000 },
+    (L, endFactor) => {
+      const r = run({
+        photometry: isotropic(100),
+        mountingHeight: 3,
+        emergencyOutputFactor: 1,
+        maintenanceFactor: 0.8,
+        criteria: 'nfpa101',
+        routeWidth: 2,
+        routeLength: L,
+        endOfDurationFactor: endFactor,
+      })
+      const layout = r.layout!
+      expect(layout).not.toBeNull()
+      expectEven(layout, L)
+      const margin = (positions: number[], step = 0.01) => nfpaMargin(c, L, positions, endFactor, step)
+      expect(margin(layout.positionsM)).toBeGreaterThanOrEqual(-TOLERANCE)
+      expect(bestMargin(L, layout.count - 1, margin)).toBeLessThan(-TOLERANCE)
+      expectEndNearestEven(L, layout, margin)
+      const independent = nfpaFigures(c, L, layout.positionsM)
+      expect(Math.abs(layout.averageLx / independent.average - 1)).toBeLessThan(TOLERANCE)
+      expect(Math.abs(layout.minLx / independent.min - 1)).toBeLessThan(TOLERANCE)
+      // Average beside minimum at the end of the rated duration.
+      expect(layout.endOfDuration).toEqual({ factor: endFactor, averageLx: expect.any(Number), minLx: expect.any(Number) })
+      expect(layout.endOfDuration!.averageLx).toBeCloseTo(layout.averageLx * endFactor, 4)
+      expect(layout.endOfDuration!.minLx).toBeCloseTo(layout.minLx * endFactor, 4)
+    },
+  )
 
   it('with the output falling to 0.55 the end of the duration governs: more luminaires than with the output held', () => {
-    const base = { photometry: isotropic(100), mountingHeight: 3, emergencyOutputFactor: 1, maintenanceFactor: 0.8, criteria: 'nfpa101', routeWidth: 2, routeLength: 30 }
+    const base = {
+      photometry: isotropic(100),
+      mountingHeight: 3,
+      emergencyOutputFactor: 1,
+      maintenanceFactor: 0.8,
+      criteria: 'nfpa101',
+      routeWidth: 2,
+      routeLength: 30,
+    }
     const held = run(base).layout!
     const falling = run({ ...base, endOfDurationFactor: 0.55 }).layout!
     expect(falling.count).toBeGreaterThan(held.count)
@@ -193,7 +222,15 @@ describe('layout with nothing to lay out', () => {
     expect(dark.luminairesNeeded).toBeNull()
   })
   it('a short route lit by one luminaire in its middle', () => {
-    const r = run({ photometry: isotropic(10), mountingHeight: 2.5, emergencyOutputFactor: 1, maintenanceFactor: 0.8, criteria: 'en1838-route', routeWidth: 2, routeLength: 1.5 })
+    const r = run({
+      photometry: isotropic(10),
+      mountingHeight: 2.5,
+      emergencyOutputFactor: 1,
+      maintenanceFactor: 0.8,
+      criteria: 'en1838-route',
+      routeWidth: 2,
+      routeLength: 1.5,
+    })
     expect(r.layout).toMatchObject({ count: 1, positionsM: [0.75], spacingM: null, endDistanceM: 0.75 })
   })
 })

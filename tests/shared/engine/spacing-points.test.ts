@@ -63,7 +63,15 @@ const TOLERANCE = 1e-3
 const within2m = (layout: RouteLayout, at: number) => layout.positionsM.some((p) => Math.abs(p - at) <= 2 + 1e-9)
 
 describe('points that need a luminaire, EN 1838 escape route (isotropic 20 cd at 2.5 m, MF 0.8, 2 m wide, 30 m)', () => {
-  const base = { photometry: isotropic(20), mountingHeight: 2.5, emergencyOutputFactor: 1, maintenanceFactor: 0.8, criteria: 'en1838-route', routeWidth: 2, routeLength: 30 }
+  const base = {
+    photometry: isotropic(20),
+    mountingHeight: 2.5,
+    emergencyOutputFactor: 1,
+    maintenanceFactor: 0.8,
+    criteria: 'en1838-route',
+    routeWidth: 2,
+    routeLength: 30,
+  }
   const plain = run(base).layout!
   const points = [
     { kind: 'exit-door', at: 30, name: 'door to the yard' },
@@ -106,7 +114,15 @@ describe('points that need a luminaire, EN 1838 escape route (isotropic 20 cd at
 
 describe('points an even row already serves leave it as it is', () => {
   it('NFPA 101, isotropic 100 cd at 3 m, 30 m: a point at a luminaire keeps the even row', () => {
-    const base = { photometry: isotropic(100), mountingHeight: 3, emergencyOutputFactor: 1, maintenanceFactor: 0.8, criteria: 'nfpa101', routeWidth: 2, routeLength: 30 }
+    const base = {
+      photometry: isotropic(100),
+      mountingHeight: 3,
+      emergencyOutputFactor: 1,
+      maintenanceFactor: 0.8,
+      criteria: 'nfpa101',
+      routeWidth: 2,
+      routeLength: 30,
+    }
     const plain = run(base).layout!
     const at = plain.positionsM[1] + 1.5
     const withPoint = run({ ...base, points: [{ kind: 'stairs', at }] }).layout!
@@ -115,7 +131,15 @@ describe('points an even row already serves leave it as it is', () => {
     expect(withPoint.pointsServed).toEqual([{ point: 0, kind: 'stairs', atM: Number(at.toFixed(4)), luminaire: 1, distanceM: 1.5, placedForIt: false }])
   })
   it('NFPA 101: a point the even row misses moves the layout, which still passes the minimum and max:min', () => {
-    const base = { photometry: isotropic(100), mountingHeight: 3, emergencyOutputFactor: 1, maintenanceFactor: 0.8, criteria: 'nfpa101', routeWidth: 2, routeLength: 30 }
+    const base = {
+      photometry: isotropic(100),
+      mountingHeight: 3,
+      emergencyOutputFactor: 1,
+      maintenanceFactor: 0.8,
+      criteria: 'nfpa101',
+      routeWidth: 2,
+      routeLength: 30,
+    }
     const plain = run(base).layout!
     const gapMiddle = (plain.positionsM[0] + plain.positionsM[1]) / 2
     expect(within2m(plain, gapMiddle)).toBe(false)

@@ -47,7 +47,14 @@ describe('point-by-point illuminance (IES Lighting Handbook point method, invers
     expect(illuminanceAtPoint(uniform(250), corners, 2, 2)).toBeCloseTo(20.558, 3)
   })
   it('looks the intensity up towards the point, in the luminaire’s own C plane', () => {
-    const table: IntensityTable = { verticalAngles: [0, 90], horizontalAngles: [0, 90], candela: [[100, 100], [50, 50]] }
+    const table: IntensityTable = {
+      verticalAngles: [0, 90],
+      horizontalAngles: [0, 90],
+      candela: [
+        [100, 100],
+        [50, 50],
+      ],
+    }
     // Point along +y is C90 for an unrotated luminaire, C0 once the luminaire is turned by 90°.
     expect(illuminanceAtPoint(table, [{ x: 0, y: 0, height: 2 }], 0, 2)).toBeCloseTo(horizontalIlluminance(50, 2, 2), 12)
     expect(illuminanceAtPoint(table, [{ x: 0, y: 0, height: 2, rotation: 90 }], 0, 2)).toBeCloseTo(horizontalIlluminance(100, 2, 2), 12)
@@ -129,7 +136,11 @@ describe('criteria values, with the clause they come from', () => {
   })
   it('check lines: route band edges at ±W/4 need half the level; open areas skip a 0.5 m border', () => {
     const route = rowCriteria('en1838-route', requirementFor('en1838-route'), 2)
-    expect(route.lines.map((l) => [l.y, l.minFraction])).toEqual([[0, 1], [0.5, 0.5], [-0.5, 0.5]])
+    expect(route.lines.map((l) => [l.y, l.minFraction])).toEqual([
+      [0, 1],
+      [0.5, 0.5],
+      [-0.5, 0.5],
+    ])
     const open = rowCriteria('en1838-open-area', requirementFor('en1838-open-area'), 4)
     expect(open.lines.map((l) => l.y)).toEqual([0, 1.5, -1.5])
     expect(open.endBorder).toBe(0.5)
@@ -153,7 +164,15 @@ describe('spacing tool', () => {
     expect(r.profile[40].x).toBeCloseTo(r.maxSpacingM!, 3)
     expect(Math.min(...r.profile.map((p) => p.lux))).toBeGreaterThanOrEqual(r.minIlluminanceLx! - 1e-6)
     // Independent check of the profile with the point method over ±30 luminaires.
-    const parsed = { verticalAngles: [0, 15, 30, 45, 60, 75, 90], horizontalAngles: [0, 45, 90], candela: [[110, 105, 95, 75, 50, 20, 0], [110, 102.5, 90, 70, 45, 17.5, 0], [110, 100, 85, 60, 35, 12.5, 0]] }
+    const parsed = {
+      verticalAngles: [0, 15, 30, 45, 60, 75, 90],
+      horizontalAngles: [0, 45, 90],
+      candela: [
+        [110, 105, 95, 75, 50, 20, 0],
+        [110, 102.5, 90, 70, 45, 17.5, 0],
+        [110, 100, 85, 60, 35, 12.5, 0],
+      ],
+    }
     const row = Array.from({ length: 61 }, (_, k) => ({ x: (k - 30) * r.maxSpacingM!, y: 0, height: 2.5 }))
     for (const p of [r.profile[0], r.profile[20]]) expect(illuminanceAtPoint(parsed, row, p.x, 0, 0.8)).toBeCloseTo(p.lux, 3)
   })
@@ -164,7 +183,15 @@ describe('spacing tool', () => {
     expect(r.luminairesNeeded).toBeGreaterThanOrEqual(2)
     const n = r.luminairesNeeded!
     const end = Math.min(r.maxEndSpacingM!, 12)
-    const table = { verticalAngles: [0, 15, 30, 45, 60, 75, 90], horizontalAngles: [0, 45, 90], candela: [[110, 105, 95, 75, 50, 20, 0], [110, 102.5, 90, 70, 45, 17.5, 0], [110, 100, 85, 60, 35, 12.5, 0]] }
+    const table = {
+      verticalAngles: [0, 15, 30, 45, 60, 75, 90],
+      horizontalAngles: [0, 45, 90],
+      candela: [
+        [110, 105, 95, 75, 50, 20, 0],
+        [110, 102.5, 90, 70, 45, 17.5, 0],
+        [110, 100, 85, 60, 35, 12.5, 0],
+      ],
+    }
     const layout = (count: number, e: number) => Array.from({ length: count }, (_, k) => ({ x: e + (k * (24 - 2 * e)) / (count - 1), y: 0, height: 2.5 }))
     const darkest = (count: number) => Math.min(...Array.from({ length: 481 }, (_, k) => illuminanceAtPoint(table, layout(count, end), k * 0.05, 0, 0.8)))
     expect(darkest(n)).toBeGreaterThanOrEqual(1 - 1e-6)
@@ -197,7 +224,12 @@ describe('spacing tool', () => {
     expect(risky.warnings.map((w) => w.code)).toContain('mounting-below-2m')
   })
   it('says so when no spacing can meet the level, with null figures (never NaN)', () => {
-    const r = run({ ...base, photometry: { verticalAngles: [0, 90], horizontalAngles: [0], candela: [[0.001, 0]] }, criteria: 'en1838-high-risk', normalIlluminance: 500 })
+    const r = run({
+      ...base,
+      photometry: { verticalAngles: [0, 90], horizontalAngles: [0], candela: [[0.001, 0]] },
+      criteria: 'en1838-high-risk',
+      normalIlluminance: 500,
+    })
     expect(r.maxSpacingM).toBeNull()
     expect(r.profile).toEqual([])
     expect(r.warnings[0].code).toBe('requirement-not-met')
@@ -207,7 +239,9 @@ describe('spacing tool', () => {
     expect(codes({ ...base, criteria: 'en1838-open-area', routeWidth: 1 })).toContain('no-core-area')
     expect(codes({ ...base, photometry: { verticalAngles: [0, 90], horizontalAngles: [0], candela: [[2000, 2000]] } })).toContain('glare-limit')
     expect(codes(base)).not.toContain('glare-limit')
-    expect(codes({ ...base, endOfDurationFactor: 0.7, normalIlluminance: 200 })).toEqual(expect.arrayContaining(['end-factor-unused', 'normal-illuminance-unused']))
+    expect(codes({ ...base, endOfDurationFactor: 0.7, normalIlluminance: 200 })).toEqual(
+      expect.arrayContaining(['end-factor-unused', 'normal-illuminance-unused']),
+    )
     expect(codes(base)).toContain('relative-photometry')
   })
   it('a tall mounting with a slow fall-off: the end of a long row is too dark, but a closer even row with its own end distance passes', () => {
@@ -229,7 +263,15 @@ describe('spacing tool', () => {
     expect(r.luminairesNeeded!).toBeGreaterThan(estimate)
   })
   it('uses the light’s symmetry about the row: a C90–C270 bilateral table along C90 equals its mirror', () => {
-    const table = { verticalAngles: [0, 45, 90], horizontalAngles: [90, 180, 270], candela: [[100, 60, 0], [100, 80, 0], [100, 60, 0]] }
+    const table = {
+      verticalAngles: [0, 45, 90],
+      horizontalAngles: [90, 180, 270],
+      candela: [
+        [100, 60, 0],
+        [100, 80, 0],
+        [100, 60, 0],
+      ],
+    }
     const along90 = run({ ...base, photometry: table, cPlane: 90 })
     const along270 = run({ ...base, photometry: table, cPlane: 270 })
     expect(along90.maxSpacingM).toBe(along270.maxSpacingM)
@@ -240,7 +282,9 @@ describe('spacing tool', () => {
       if (o.ok) throw new Error('expected field errors')
       return o.fields
     }
-    expect(bad({ ...base, criteria: 'en1838-high-risk' })).toEqual([{ path: 'normalIlluminance', message: expect.stringContaining('required for a high-risk') }])
+    expect(bad({ ...base, criteria: 'en1838-high-risk' })).toEqual([
+      { path: 'normalIlluminance', message: expect.stringContaining('required for a high-risk') },
+    ])
     expect(bad({ ...base, photometry: 'IESNA91\nTILT=NONE\n1 -1 1 2 1 2 2 0 0 0\n1 1 0\n0 90\n0\n1 0' })[0]).toEqual({
       path: 'photometry',
       message: expect.stringMatching(/line 3: photometric type B is not supported yet/),
@@ -253,7 +297,15 @@ describe('spacing tool', () => {
     const table = (t: Record<string, unknown>) => bad({ ...base, photometry: { verticalAngles: [0, 90], horizontalAngles: [0], candela: [[1, 0]], ...t } })[0]
     expect(table({ verticalAngles: [0, 90, 45] }).path).toBe('photometry.verticalAngles.2')
     expect(table({ verticalAngles: [0, 80] }).path).toBe('photometry.verticalAngles')
-    expect(table({ horizontalAngles: [0, 120], candela: [[1, 0], [1, 0]] }).path).toBe('photometry.horizontalAngles')
+    expect(
+      table({
+        horizontalAngles: [0, 120],
+        candela: [
+          [1, 0],
+          [1, 0],
+        ],
+      }).path,
+    ).toBe('photometry.horizontalAngles')
     expect(table({ candela: [[1, 0, 2]] }).path).toBe('photometry.candela.0')
   })
 })

@@ -8,7 +8,14 @@ const lum = (area: string | null, over: Partial<PlanLuminaire> = {}): PlanLumina
   return { id: `id-${n}`, tag: `T-${n}`, areaId: area, areaName: area, circuit: '', walkOrder: null, ratedDurationH: 3, rechargeH: null, ...over }
 }
 const base = (luminaires: PlanLuminaire[], over: Partial<PlanInput> = {}): PlanInput => ({
-  regime: 'en50172', grouping: 'alternate', firstDay: '2027-03-01', windowStart: '18:00', windowEnd: '23:00', defaultRechargeH: DEFAULT_RECHARGE_H, luminaires, ...over,
+  regime: 'en50172',
+  grouping: 'alternate',
+  firstDay: '2027-03-01',
+  windowStart: '18:00',
+  windowEnd: '23:00',
+  defaultRechargeH: DEFAULT_RECHARGE_H,
+  luminaires,
+  ...over,
 })
 
 describe('alternate luminaires (common practice: never every luminaire of an area at once)', () => {
@@ -19,8 +26,17 @@ describe('alternate luminaires (common practice: never every luminaire of an are
     expect(plan.groups).toHaveLength(2)
     for (const area of ['Hall', 'Stairs', 'Office']) {
       const inArea = site.filter((l) => l.areaName === area).map((l) => l.id)
-      for (const g of plan.groups) expect(inArea.every((id) => g.luminaireIds.includes(id)), `${area} all in ${g.name}`).toBe(false)
-      expect(plan.groups.flatMap((g) => g.luminaireIds).filter((id) => inArea.includes(id)).sort()).toEqual([...inArea].sort())
+      for (const g of plan.groups)
+        expect(
+          inArea.every((id) => g.luminaireIds.includes(id)),
+          `${area} all in ${g.name}`,
+        ).toBe(false)
+      expect(
+        plan.groups
+          .flatMap((g) => g.luminaireIds)
+          .filter((id) => inArea.includes(id))
+          .sort(),
+      ).toEqual([...inArea].sort())
     }
     expect(plan.groups.every((g) => g.darkAreas.length === 0)).toBe(true)
   })
@@ -53,7 +69,9 @@ describe('by area or by circuit', () => {
     expect(p.warnings.filter((w) => w.code === 'area-dark')).toHaveLength(2)
   })
   it('one group per circuit; an area split over circuits keeps cover', () => {
-    const p = planDurationTests(base([lum('Hall', { circuit: 'DB1/3' }), lum('Hall', { circuit: 'DB1/4' }), lum('Yard', { circuit: 'DB1/4' })], { grouping: 'circuit' }))
+    const p = planDurationTests(
+      base([lum('Hall', { circuit: 'DB1/3' }), lum('Hall', { circuit: 'DB1/4' }), lum('Yard', { circuit: 'DB1/4' })], { grouping: 'circuit' }),
+    )
     expect(p.groups.map((g) => g.name)).toEqual(['Circuit DB1/3', 'Circuit DB1/4'])
     expect(p.groups[1].darkAreas).toEqual(['Yard'])
     expect(p.groups[0].darkAreas).toEqual([])

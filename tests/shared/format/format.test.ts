@@ -5,7 +5,16 @@
  */
 import { describe, expect, it } from 'vitest'
 import { convert } from '../../../shared/engine/quantity'
-import { formatCount, formatDate, formatDateTime, formatDuration, formatHours, formatNumber, localeFromAcceptLanguage, resolvePrefs } from '../../../shared/format'
+import {
+  formatCount,
+  formatDate,
+  formatDateTime,
+  formatDuration,
+  formatHours,
+  formatNumber,
+  localeFromAcceptLanguage,
+  resolvePrefs,
+} from '../../../shared/format'
 import { readNumber, readQuantity } from '../../../shared/format/input'
 import { CHEMISTRY_LABELS, ENUMERATIONS, labelOf, tellTaleCodes, unitLabel } from '../../../shared/labels'
 import { CHEMISTRIES, CHEMISTRY_IDS } from '../../../shared/engine/chemistries'

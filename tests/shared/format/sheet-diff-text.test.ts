@@ -8,14 +8,37 @@ const base = { title: 'Corridor pack', reference: 'R-1', client: 'Invented clien
 
 describe('changeRows', () => {
   const changes = diffSheets(
-    { ...base, inputs: { chemistry: 'nicd', driver: 'direct', ambientMax: '35 degC', driverEfficiency: 0.82, load: { power: '3 W' } }, results: { requiredCapacityAh: 1.23456, runtimeH: 3.4567 }, engineVersion: '1.3.0' },
-    { ...base, title: 'Corridor pack B', inputs: { chemistry: 'nicd-ht', driver: 'converter', ambientMax: '-10 degC', driverEfficiency: 0.8, load: { power: '3.5 W' } }, results: { requiredCapacityAh: 1.6789, runtimeH: 3.1 }, engineVersion: '1.4.0' },
+    {
+      ...base,
+      inputs: { chemistry: 'nicd', driver: 'direct', ambientMax: '35 degC', driverEfficiency: 0.82, load: { power: '3 W' } },
+      results: { requiredCapacityAh: 1.23456, runtimeH: 3.4567 },
+      engineVersion: '1.3.0',
+    },
+    {
+      ...base,
+      title: 'Corridor pack B',
+      inputs: { chemistry: 'nicd-ht', driver: 'converter', ambientMax: '-10 degC', driverEfficiency: 0.8, load: { power: '3.5 W' } },
+      results: { requiredCapacityAh: 1.6789, runtimeH: 3.1 },
+      engineVersion: '1.4.0',
+    },
   )
   const rows = changeRows(changes, { locale: 'en-GB', timeZone: 'UTC' })
   const byLabel = Object.fromEntries(rows.map((r) => [r.label, r]))
 
   it('names each field in words, never by its path', () => {
-    expect(rows.map((r) => r.label)).toEqual(expect.arrayContaining(['Title', 'Chemistry', 'Driver', 'Highest ambient', 'Converter efficiency', 'LED power in emergency mode', 'Required rated capacity (result)', 'Runtime, new pack (result)', 'Calculation engine version']))
+    expect(rows.map((r) => r.label)).toEqual(
+      expect.arrayContaining([
+        'Title',
+        'Chemistry',
+        'Driver',
+        'Highest ambient',
+        'Converter efficiency',
+        'LED power in emergency mode',
+        'Required rated capacity (result)',
+        'Runtime, new pack (result)',
+        'Calculation engine version',
+      ]),
+    )
     expect(rows.some((r) => /\./.test(r.label) && !/\s/.test(r.label))).toBe(false)
   })
 
