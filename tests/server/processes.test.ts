@@ -56,11 +56,11 @@ interface Session {
 }
 
 async function signInAt(port: number, email: string): Promise<Session> {
-  // A client address of its own (TEST-NET-3 behind the trusted proxy hop): failed sign-ins of other
+  // A client address of its own (TEST-NET-2 behind the trusted proxy hop): failed sign-ins of other
   // test files from 127.0.0.1 are counted in the same database and must not lock this client out.
   const res = await fetch(`http://127.0.0.1:${port}/api/auth/sign-in`, {
     method: 'POST',
-    headers: { 'Content-Type': 'application/json', 'X-Forwarded-For': '203.0.113.42' },
+    headers: { 'Content-Type': 'application/json', 'X-Forwarded-For': '198.51.100.42' },
     body: JSON.stringify({ email, password: TEST_PASSWORD }),
   })
   expect(res.status).toBe(200)

@@ -49,9 +49,9 @@ describe('sessions in PostgreSQL', () => {
     let server = await startServer(port)
     const signIn = await fetch(`http://127.0.0.1:${port}/api/auth/sign-in`, {
       method: 'POST',
-      // A client address of its own (TEST-NET-3 behind the trusted proxy hop): other files' failed
+      // A client address of its own (TEST-NET-2 behind the trusted proxy hop): other files' failed
       // sign-ins from 127.0.0.1 count against loopback in the shared database, not against this client.
-      headers: { 'Content-Type': 'application/json', 'X-Forwarded-For': '203.0.113.41' },
+      headers: { 'Content-Type': 'application/json', 'X-Forwarded-For': '198.51.100.41' },
       body: JSON.stringify({ email: team.users.viewer.email, password: TEST_PASSWORD }),
     })
     expect(signIn.status).toBe(200)
