@@ -27,7 +27,7 @@ import {
 } from './auth.service'
 import { afterAnswer } from '../../lib/after-answer'
 import { perAddress, perEmail, type Limits } from '../../lib/limits'
-import { signInGate, stillLocked } from './sign-in-gate'
+import { signInGate, signInSucceeded, stillLocked } from './sign-in-gate'
 import { ensureCsrfToken, meResponse } from './me.service'
 import { CsrfAnswer, MeAnswer, SessionAnswer } from '../../../shared/schemas/answers/accounts'
 import { MessageSchema } from '../../../shared/schemas/answers/common'
@@ -106,6 +106,7 @@ export function authRoutes(opts: { signInWindowMs: number; limits: Limits }): Ro
           }
           login(req, user)
             .then(async () => {
+              await signInSucceeded(res)
               req.session.workspaceId = undefined
               res.json(await meResponse(req))
             })

@@ -66,11 +66,9 @@ export function signInGate(accountWindowMs: number, limits: Limits): RequestHand
       // This attempt's turn: on to the password check; a wrong password is still answered as locked.
       res.locals.signInLockedBy = { by, seconds: Math.ceil(lane.windowMs / 1000) }
     }
-    res.once('finish', () => {
-      if (res.statusCode >= 400) return
-      // Signed in: this attempt was no failure, and the account's run of failures is over.
-      void Promise.all([forget('sign-in-address', address, perAddress), reset('sign-in', accountKey, perAccount)]).catch(() => undefined)
-    })
+    // Signed in: this attempt was no failure, and the account's run of failures is over. Done before
+    // the answer leaves (signInSucceeded), so the client's next request already sees the counters cleared.
+    res.locals.signInSucceeded = () => Promise.all([forget('sign-in-address', address, perAddress), reset('sign-in', accountKey, perAccount)])
   }
 
   return (req, res, next) => {
@@ -88,4 +86,9 @@ export function signInGate(accountWindowMs: number, limits: Limits): RequestHand
 export function stillLocked(res: Response): AppError | null {
   const locked = res.locals.signInLockedBy as { by: LockedBy; seconds: number } | undefined
   return locked ? lockedError(locked.by, locked.seconds) : null
+}
+
+/** Clears the failures the gate counted for this attempt; the sign-in route awaits it before it answers. */
+export async function signInSucceeded(res: Response): Promise<void> {
+  await (res.locals.signInSucceeded as (() => Promise<unknown>) | undefined)?.()
 }
