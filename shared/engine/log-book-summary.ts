@@ -60,6 +60,12 @@ export interface LogBookSummary {
   passedLastTest: number
   failedLastTest: number
   notTested: number
+  /**
+   * Luminaires with a failure not yet put right by the open-failure rules (a functional pass after a
+   * failed full-duration test leaves it open), and those tested with none open: what a reader counts on.
+   */
+  failureNotPutRight: number
+  inOrder: number
   /** Luminaires with at least one test past its day (routine, retest or first full-duration test). */
   overdue: number
   /** Luminaires with nothing overdue and a test due now or within `soonDays`. */
@@ -114,6 +120,7 @@ export function failureHistory(tag: string, tests: readonly TestEvent[], due: Lu
 export function logBookSummary(luminaires: readonly SummaryLuminaire[], today: IsoDate): LogBookSummary {
   let passedLastTest = 0
   let failedLastTest = 0
+  let failureNotPutRight = 0
   let overdue = 0
   let dueSoon = 0
   const failures: FailureEntry[] = []
@@ -123,6 +130,7 @@ export function logBookSummary(luminaires: readonly SummaryLuminaire[], today: I
     const last = known[known.length - 1]
     if (last?.passed) passedLastTest++
     else if (last) failedLastTest++
+    if (l.due.openFailures.length) failureNotPutRight++
     const items = [l.due.functional, l.due.duration]
     if (items.some((d) => d.state === 'overdue')) overdue++
     else if (items.some((d) => d.state === 'due-now' || d.state === 'due-soon')) dueSoon++
@@ -147,6 +155,8 @@ export function logBookSummary(luminaires: readonly SummaryLuminaire[], today: I
     passedLastTest,
     failedLastTest,
     notTested: luminaires.length - passedLastTest - failedLastTest,
+    failureNotPutRight,
+    inOrder: passedLastTest + failedLastTest - failureNotPutRight,
     overdue,
     dueSoon,
     failures,

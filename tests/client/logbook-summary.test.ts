@@ -36,7 +36,9 @@ describe('LogBookSummary', () => {
   it('writes the counts, the failures and the next tests in words', () => {
     const w = mount(LogBookSummary, { props: { summary } })
     expect(w.get('[data-test="figure-luminaires"]').text()).toBe('2 Luminaires')
-    expect(w.get('[data-test="figure-failed"]').text()).toBe('1 Latest test failed')
+    // EL-1's full-duration failure is open; EL-2's functional failure was put right two days later.
+    expect(w.get('[data-test="figure-not-put-right"]').text()).toBe('1 Failure not yet put right')
+    expect(w.get('[data-test="figure-in-order"]').text()).toBe('1 Tested, no failure open')
     const rows = w.findAll('[data-test="summary-failures"] tbody tr')
     expect(rows).toHaveLength(2)
     expect(rows[0].text()).toContain('EL-1')

@@ -146,6 +146,9 @@ describe('a log book link', () => {
       passedLastTest: passed,
       failedLastTest: failed,
       notTested: 6 - latest.size,
+      // Open by the rules: B's functional failure only (E's full-duration failure was cleared after a new pack).
+      failureNotPutRight: 1,
+      inOrder: latest.size - 1,
       // Overdue: C only (functional due about 30 days ago, full-duration about 35 days ago).
       overdue: 1,
       // Due now or within 14 days: B (retest), D (first full-duration test), F (functional in 8 to 11 days).

@@ -36,8 +36,9 @@ function subheading(doc: Doc, text: string, room = 60) {
 export function summaryFigures(s: LogBookSummary): Array<[string, number]> {
   return [
     ['Luminaires', s.luminaires],
-    ['Latest test passed', s.passedLastTest],
-    ['Latest test failed', s.failedLastTest],
+    // By the open-failure rules, not by the latest test: a functional pass leaves a failed full-duration test open.
+    ['Tested, no failure open', s.inOrder],
+    ['Failure not yet put right', s.failureNotPutRight],
     ['Never tested', s.notTested],
     ['With a test overdue', s.overdue],
     [`Due now or within ${s.soonDays} days`, s.dueSoon],

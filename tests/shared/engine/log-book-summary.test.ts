@@ -99,6 +99,14 @@ describe('the counts of the summary', () => {
     expect(s).toMatchObject({ luminaires: 4, passedLastTest: 2, failedLastTest: 1, notTested: 1, overdue: 1, dueSoon: 3 })
   })
 
+  test('counts a failure not yet put right by the state rules, not by the latest test', () => {
+    // E: failed its full-duration test, then passed a functional test with no new pack: the latest test
+    // passed, but the failure stays open (a functional pass never clears a full-duration failure).
+    const e = lum('E', [d('2025-03-20'), d('2026-02-12', false, 'Dark after 2 h'), f('2026-02-20')])
+    const withE = logBookSummary([...luminaires, e], TODAY)
+    expect(withE).toMatchObject({ luminaires: 5, passedLastTest: 3, failedLastTest: 1, failureNotPutRight: 2, inOrder: 2, notTested: 1 })
+  })
+
   test('lists every failure newest first', () => {
     expect(s.failures.map((x) => [x.tag, x.state])).toEqual([['B', 'open']])
   })
